@@ -1,0 +1,74 @@
+import { randomBytes } from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import { z } from 'zod';
+import { dataDir } from './paths';
+
+const port = z.coerce.number().int().min(0).max(65535);
+
+const databaseUrl = z
+  .string()
+  .refine((u) => u === 'sqlite::memory:' || u.startsWith('sqlite:') || /^postgres(ql)?:\/\//.test(u), {
+    message: 'must be sqlite::memory:, sqlite:<file> or postgres://…',
+  });
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  PORT: port.default(3000),
+  HOST: z.string().default('127.0.0.1'),
+  DATABASE_URL: databaseUrl.default(`sqlite:${path.join(dataDir, 'anglebench.sqlite')}`),
+  SMTP_URL: z.url({ protocol: /^smtps?$/ }).optional(),
+  MOCK_WS_PORT: port.default(5175),
+  SESSION_SECRET: z.string().min(16, 'must be at least 16 characters').optional(),
+});
+
+export interface Config {
+  nodeEnv: 'development' | 'production' | 'test';
+  port: number;
+  host: string;
+  databaseUrl: string;
+  smtpUrl?: string;
+  mockWsPort: number;
+  sessionSecret: string;
+}
+
+export class ConfigError extends Error {
+  constructor(readonly issues: string[]) {
+    super(`Invalid configuration:\n${issues.map((i) => `  - ${i}`).join('\n')}`);
+    this.name = 'ConfigError';
+  }
+}
+
+/**
+ * Read and validate the configuration from the environment. A missing SESSION_SECRET is generated
+ * once and kept in data/session-secret, so sign-ins survive a restart.
+ */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env, secretFile = path.join(dataDir, 'session-secret')): Config {
+  const parsed = envSchema.safeParse(Object.fromEntries(Object.entries(env).filter(([, v]) => v !== '')));
+  if (!parsed.success) {
+    throw new ConfigError(parsed.error.issues.map((i) => `${i.path.join('.') || 'environment'}: ${i.message}`));
+  }
+  const e = parsed.data;
+  return {
+    nodeEnv: e.NODE_ENV,
+    port: e.PORT,
+    host: e.HOST,
+    databaseUrl: e.DATABASE_URL,
+    smtpUrl: e.SMTP_URL,
+    mockWsPort: e.MOCK_WS_PORT,
+    sessionSecret: e.SESSION_SECRET ?? readOrCreateSecret(secretFile),
+  };
+}
+
+function readOrCreateSecret(file: string): string {
+  try {
+    const existing = fs.readFileSync(file, 'utf8').trim();
+    if (existing.length >= 16) return existing;
+  } catch {
+    // Not there yet: made below.
+  }
+  const secret = randomBytes(32).toString('hex');
+  fs.mkdirSync(path.dirname(file), { recursive: true });
+  fs.writeFileSync(file, `${secret}\n`, { mode: 0o600 });
+  return secret;
+}

@@ -1,0 +1,36 @@
+import { NavLink, Outlet } from 'react-router-dom';
+import { BrandMark } from '../../components/brand-mark';
+
+const nav = [{ to: '/', label: 'Overview', end: true }];
+
+export function RootLayout() {
+  return (
+    <div className="min-h-screen flex flex-col">
+      <header className="bg-ink text-paper">
+        <div className="mx-auto max-w-screen-2xl flex items-center gap-8 px-6 h-14">
+          <NavLink to="/" className="flex items-center gap-2 font-bold tracking-wide text-lg">
+            <BrandMark className="h-7 w-7" />
+            Anglebench
+          </NavLink>
+          <nav aria-label="Main" className="flex gap-1">
+            {nav.map((item) => (
+              <NavLink
+                key={item.to}
+                to={item.to}
+                end={item.end}
+                className={({ isActive }) =>
+                  `px-3 py-1.5 rounded text-sm ${isActive ? 'bg-signal text-ink font-bold' : 'text-paper/80 hover:text-paper hover:bg-white/10'}`
+                }
+              >
+                {item.label}
+              </NavLink>
+            ))}
+          </nav>
+        </div>
+      </header>
+      <main className="flex-1 mx-auto w-full max-w-screen-2xl px-6 py-6">
+        <Outlet />
+      </main>
+    </div>
+  );
+}

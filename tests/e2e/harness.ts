@@ -1,0 +1,87 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import { createServer } from 'node:net';
+import path from 'node:path';
+import { chromium, type Browser } from 'playwright-core';
+import { projectRoot } from '../../server/paths';
+import { tempDatabase } from '../support/temp-db';
+
+/** A port the kernel says is free right now. */
+export function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = createServer();
+    srv.once('error', reject);
+    srv.listen(0, '127.0.0.1', () => {
+      const { port } = srv.address() as { port: number };
+      srv.close(() => resolve(port));
+    });
+  });
+}
+
+export interface RunningApp {
+  url: string;
+  output: () => string;
+  stop(): Promise<void>;
+}
+
+/**
+ * Start the production server on a free port and a temporary database, the way `npm start`
+ * runs it, and wait until it answers. `stop` ends it (and everything it started) for sure.
+ */
+export async function startApp(env: Record<string, string> = {}): Promise<RunningApp> {
+  const port = await freePort();
+  const db = tempDatabase();
+  const child: ChildProcess = spawn(process.execPath, [path.join(projectRoot, 'node_modules/tsx/dist/cli.mjs'), 'server/index.ts'], {
+    cwd: projectRoot,
+    env: { ...process.env, NODE_ENV: 'production', PORT: String(port), DATABASE_URL: db.url, SESSION_SECRET: 'e2e-secret-0123456789abcdef', ...env },
+    stdio: ['ignore', 'pipe', 'pipe'],
+    detached: true, // its own process group, so stop() reaches grandchildren too
+  });
+  let log = '';
+  child.stdout!.on('data', (d) => (log += d));
+  child.stderr!.on('data', (d) => (log += d));
+  const url = `http://127.0.0.1:${port}`;
+  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
+
+  const stop = async () => {
+    if (child.exitCode === null && child.signalCode === null) {
+      process.kill(-child.pid!, 'SIGTERM');
+      const timer = setTimeout(() => child.exitCode === null && process.kill(-child.pid!, 'SIGKILL'), 5000);
+      await exited;
+      clearTimeout(timer);
+    }
+    db.cleanup();
+  };
+
+  const deadline = Date.now() + 30_000;
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`server exited early:\n${log}`);
+    try {
+      if ((await fetch(`${url}/api/health`)).ok) break;
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() > deadline) {
+      await stop();
+      throw new Error(`server did not come up in 30 s:\n${log}`);
+    }
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  return { url, output: () => log, stop };
+}
+
+/** Debian's Chromium, headless, with a fresh profile and no background traffic. */
+export function launchBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    headless: true,
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--no-first-run',
+    ],
+  });
+}

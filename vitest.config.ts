@@ -1,0 +1,30 @@
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+  test: {
+    projects: [
+      { test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
+      {
+        test: {
+          name: 'server',
+          include: ['tests/server/**/*.test.ts'],
+          environment: 'node',
+          // Each file gets its own temporary database; files run in parallel processes.
+          testTimeout: 20_000,
+        },
+      },
+      {
+        test: {
+          name: 'e2e',
+          include: ['tests/e2e/**/*.test.ts'],
+          environment: 'node',
+          globalSetup: ['tests/e2e/global-setup.ts'],
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+          // One browser and one server at a time: the machine has two cores.
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+});
