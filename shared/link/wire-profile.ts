@@ -1,0 +1,115 @@
+// The few facts about a core that the codec needs to size and read payload fields, and the LEN
+// values each KIND can have under them.
+import { Kind } from './kinds';
+
+/** How a core's numbers travel on the wire; it follows the device's INFO. */
+export interface WireProfile {
+  /** `turn`: unsigned binary angle; `rad`: signed two's-complement radians. */
+  angleFormat: 'turn' | 'rad';
+  /** Total bits of an angle code, 1..32. */
+  angleBits: number;
+  /** Total bits of an output code (signed), 2..32. */
+  outBits: number;
+}
+
+/** 16-bit binary angles in, 16-bit outputs back: the protocol's default core. */
+export const DEFAULT_PROFILE: Readonly<WireProfile> = { angleFormat: 'turn', angleBits: 16, outBits: 16 };
+
+/** Largest payload a frame can carry. */
+export const MAX_PAYLOAD = 255;
+/** Fixed bytes of an INFO payload before the ASCII name. */
+export const INFO_FIXED_BYTES = 17;
+/** Bytes of the firstIndex field that opens a RESULTS payload. */
+export const RESULTS_HEADER_BYTES = 4;
+
+/** Raised when a wire profile has an unusable field; the message names the field. */
+export class WireProfileError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'WireProfileError';
+  }
+}
+
+/** Checks a profile and returns it; throws WireProfileError naming the bad field. */
+export function validateProfile(p: WireProfile): WireProfile {
+  if (p.angleFormat !== 'turn' && p.angleFormat !== 'rad') {
+    throw new WireProfileError(`angleFormat must be "turn" or "rad", got ${JSON.stringify(p.angleFormat)}`);
+  }
+  if (!Number.isInteger(p.angleBits) || p.angleBits < 1 || p.angleBits > 32) {
+    throw new WireProfileError(`angleBits must be an integer 1..32, got ${p.angleBits}`);
+  }
+  if (!Number.isInteger(p.outBits) || p.outBits < 2 || p.outBits > 32) {
+    throw new WireProfileError(`outBits must be an integer 2..32, got ${p.outBits}`);
+  }
+  return p;
+}
+
+/** Bytes of one angle field: ceil(angleBits / 8). */
+export function angleBytes(p: WireProfile): number {
+  return Math.ceil(p.angleBits / 8);
+}
+
+/** Bytes of one output field: ceil(outBits / 8). */
+export function outBytes(p: WireProfile): number {
+  return Math.ceil(p.outBits / 8);
+}
+
+/** How many angle codes one LIST frame can carry. */
+export function maxListCodes(p: WireProfile): number {
+  return Math.floor(MAX_PAYLOAD / angleBytes(p));
+}
+
+/** How many (cos, sin) pairs one RESULTS frame can carry. */
+export function maxResultPairs(p: WireProfile): number {
+  return Math.floor((MAX_PAYLOAD - RESULTS_HEADER_BYTES) / (2 * outBytes(p)));
+}
+
+/** Smallest and largest valid angle code of the profile (unsigned for turn, signed for rad). */
+export function angleCodeRange(p: WireProfile): { min: number; max: number } {
+  return p.angleFormat === 'turn'
+    ? { min: 0, max: 2 ** p.angleBits - 1 }
+    : { min: -(2 ** (p.angleBits - 1)), max: 2 ** (p.angleBits - 1) - 1 };
+}
+
+/** True when `code` is a valid angle for the profile (the device answers NAK 6 otherwise). */
+export function isAngleCodeInRange(code: number, p: WireProfile): boolean {
+  const { min, max } = angleCodeRange(p);
+  return Number.isInteger(code) && code >= min && code <= max;
+}
+
+/**
+ * True when a frame of `kind` may have payload length `len` under profile `p`. LIST needs at
+ * least one whole angle code, RESULTS at least one whole pair, INFO at least its fixed fields.
+ * Unknown KINDs have no possible length.
+ */
+export function isPossibleLength(kind: number, len: number, p: WireProfile): boolean {
+  switch (kind) {
+    case Kind.Hello:
+    case Kind.Pause:
+    case Kind.Resume:
+    case Kind.Abort:
+      return len === 0;
+    case Kind.One:
+      return len === angleBytes(p);
+    case Kind.List: {
+      const a = angleBytes(p);
+      return len >= a && len % a === 0;
+    }
+    case Kind.Sweep:
+      return len === 12;
+    case Kind.Info:
+      return len >= INFO_FIXED_BYTES;
+    case Kind.Results: {
+      const pair = 2 * outBytes(p);
+      return len >= RESULTS_HEADER_BYTES + pair && (len - RESULTS_HEADER_BYTES) % pair === 0;
+    }
+    case Kind.SweepEnd:
+      return len === 5;
+    case Kind.Ack:
+      return len === 1;
+    case Kind.Nak:
+      return len === 2;
+    default:
+      return false;
+  }
+}
