@@ -1,0 +1,255 @@
+// Payload codecs for every KIND (PROTOCOL.md "Host → device", "Device → host"). All fields are
+// little-endian. Angle fields are ceil(angleBits/8) bytes (unsigned for `turn`, two's complement
+// for `rad`); output fields are ceil(outBits/8) bytes, two's complement.
+import { DEFAULT_CRC8, type Crc8Name } from './crc8';
+import { encodeFrame } from './frame';
+import { isKnownKind, Kind, kindName } from './kinds';
+import {
+  angleBytes,
+  angleCodeRange,
+  INFO_FIXED_BYTES,
+  isPossibleLength,
+  MAX_PAYLOAD,
+  maxListCodes,
+  maxResultPairs,
+  outBytes,
+  RESULTS_HEADER_BYTES,
+  type WireProfile,
+} from './wire-profile';
+
+/** What a device tells about itself in INFO. */
+export interface DeviceInfo {
+  version: number;
+  angleFormat: 'turn' | 'rad';
+  angleBits: number;
+  angleFrac: number;
+  outBits: number;
+  outFrac: number;
+  iterations: number;
+  queueDepth: number;
+  buildId: number;
+  clockKHz: number;
+  /** ASCII, at most 238 characters (the rest of a 255-byte payload). */
+  name: string;
+}
+
+/** One decoded message; `kind` tells which. */
+export type Message =
+  | { kind: typeof Kind.Hello | typeof Kind.Pause | typeof Kind.Resume | typeof Kind.Abort }
+  | { kind: typeof Kind.One; angleCode: number }
+  | { kind: typeof Kind.List; angleCodes: number[] }
+  | { kind: typeof Kind.Sweep; start: number; step: number; count: number }
+  | { kind: typeof Kind.Info; info: DeviceInfo }
+  | { kind: typeof Kind.Results; firstIndex: number; cos: Int32Array; sin: Int32Array }
+  | { kind: typeof Kind.SweepEnd; done: number; status: number }
+  | { kind: typeof Kind.Ack; acked: number }
+  | { kind: typeof Kind.Nak; refused: number; reason: number };
+
+/** The message type for one KIND, e.g. `MessageOf<typeof Kind.Results>`. */
+export type MessageOf<K extends Message['kind']> = Extract<Message, { kind: K }>;
+
+/** Raised when a payload cannot be encoded or decoded; the message names the field. */
+export class PayloadError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'PayloadError';
+  }
+}
+
+const INFO_FORMATS = ['turn', 'rad'] as const;
+
+function put(out: Uint8Array, at: number, width: number, value: number, signed: boolean, field: string): void {
+  const bits = 8 * width;
+  const min = signed ? -(2 ** (bits - 1)) : 0;
+  const max = signed ? 2 ** (bits - 1) - 1 : 2 ** bits - 1;
+  if (!Number.isInteger(value) || value < min || value > max) {
+    throw new PayloadError(`${field} must be an integer ${min}..${max} for a ${width}-byte field, got ${value}`);
+  }
+  let v = value < 0 ? value + 2 ** bits : value;
+  for (let i = 0; i < width; i++) {
+    out[at + i] = v & 0xff;
+    v = Math.floor(v / 256);
+  }
+}
+
+function get(src: Uint8Array, at: number, width: number, signed: boolean): number {
+  let v = 0;
+  for (let i = width - 1; i >= 0; i--) v = v * 256 + src[at + i];
+  const bits = 8 * width;
+  return signed && v >= 2 ** (bits - 1) ? v - 2 ** bits : v;
+}
+
+/** Builds the payload of `m` under profile `p`. */
+export function encodePayload(m: Message, p: WireProfile): Uint8Array {
+  const aw = angleBytes(p);
+  const signedAngle = p.angleFormat === 'rad';
+  switch (m.kind) {
+    case Kind.Hello:
+    case Kind.Pause:
+    case Kind.Resume:
+    case Kind.Abort:
+      return new Uint8Array(0);
+    case Kind.One: {
+      const out = new Uint8Array(aw);
+      put(out, 0, aw, m.angleCode, signedAngle, 'angleCode');
+      return out;
+    }
+    case Kind.List: {
+      const k = m.angleCodes.length;
+      if (k < 1 || k > maxListCodes(p)) throw new PayloadError(`angleCodes must hold 1..${maxListCodes(p)} codes, got ${k}`);
+      const out = new Uint8Array(k * aw);
+      for (let i = 0; i < k; i++) put(out, i * aw, aw, m.angleCodes[i], signedAngle, `angleCodes[${i}]`);
+      return out;
+    }
+    case Kind.Sweep: {
+      const out = new Uint8Array(12);
+      put(out, 0, 4, m.start, signedAngle, 'start');
+      put(out, 4, 4, m.step, true, 'step');
+      put(out, 8, 4, m.count, false, 'count');
+      return out;
+    }
+    case Kind.Info: {
+      const i = m.info;
+      const name = i.name;
+      if (!/^[\x20-\x7e]*$/.test(name)) throw new PayloadError('name must be printable ASCII');
+      if (INFO_FIXED_BYTES + name.length > MAX_PAYLOAD) throw new PayloadError(`name must be at most ${MAX_PAYLOAD - INFO_FIXED_BYTES} characters`);
+      const out = new Uint8Array(INFO_FIXED_BYTES + name.length);
+      const format = INFO_FORMATS.indexOf(i.angleFormat);
+      if (format < 0) throw new PayloadError(`angleFormat must be "turn" or "rad", got ${JSON.stringify(i.angleFormat)}`);
+      put(out, 0, 1, i.version, false, 'version');
+      put(out, 1, 1, format, false, 'angleFormat');
+      put(out, 2, 1, i.angleBits, false, 'angleBits');
+      put(out, 3, 1, i.angleFrac, false, 'angleFrac');
+      put(out, 4, 1, i.outBits, false, 'outBits');
+      put(out, 5, 1, i.outFrac, false, 'outFrac');
+      put(out, 6, 1, i.iterations, false, 'iterations');
+      put(out, 7, 2, i.queueDepth, false, 'queueDepth');
+      put(out, 9, 4, i.buildId, false, 'buildId');
+      put(out, 13, 4, i.clockKHz, false, 'clockKHz');
+      for (let c = 0; c < name.length; c++) out[INFO_FIXED_BYTES + c] = name.charCodeAt(c);
+      return out;
+    }
+    case Kind.Results: {
+      const n = m.cos.length;
+      const ow = outBytes(p);
+      if (m.sin.length !== n) throw new PayloadError(`cos and sin must be the same length, got ${n} and ${m.sin.length}`);
+      if (n < 1 || n > maxResultPairs(p)) throw new PayloadError(`a RESULTS frame carries 1..${maxResultPairs(p)} pairs, got ${n}`);
+      const out = new Uint8Array(RESULTS_HEADER_BYTES + 2 * ow * n);
+      put(out, 0, 4, m.firstIndex, false, 'firstIndex');
+      for (let i = 0, at = RESULTS_HEADER_BYTES; i < n; i++, at += 2 * ow) {
+        put(out, at, ow, m.cos[i], true, `cos[${i}]`);
+        put(out, at + ow, ow, m.sin[i], true, `sin[${i}]`);
+      }
+      return out;
+    }
+    case Kind.SweepEnd: {
+      const out = new Uint8Array(5);
+      put(out, 0, 4, m.done, false, 'done');
+      put(out, 4, 1, m.status, false, 'status');
+      return out;
+    }
+    case Kind.Ack:
+      return Uint8Array.of(byteField('acked', m.acked));
+    case Kind.Nak:
+      return Uint8Array.of(byteField('refused', m.refused), byteField('reason', m.reason));
+    default:
+      throw new PayloadError(`kind ${kindName((m as { kind: number }).kind)} has no payload codec`);
+  }
+}
+
+function byteField(field: string, v: number): number {
+  const out = new Uint8Array(1);
+  put(out, 0, 1, v, false, field);
+  return out[0];
+}
+
+/** Reads the payload of a frame of `kind` under profile `p`; throws PayloadError if impossible. */
+export function decodePayload(kind: number, payload: Uint8Array, p: WireProfile): Message {
+  if (!isKnownKind(kind)) throw new PayloadError(`unknown KIND ${kindName(kind)}`);
+  if (!isPossibleLength(kind, payload.length, p)) throw new PayloadError(`LEN ${payload.length} is impossible for ${kindName(kind)}`);
+  const aw = angleBytes(p);
+  const signedAngle = p.angleFormat === 'rad';
+  const b = payload;
+  switch (kind) {
+    case Kind.Hello:
+    case Kind.Pause:
+    case Kind.Resume:
+    case Kind.Abort:
+      return { kind };
+    case Kind.One:
+      return { kind, angleCode: get(b, 0, aw, signedAngle) };
+    case Kind.List: {
+      const codes: number[] = new Array(b.length / aw);
+      for (let i = 0; i < codes.length; i++) codes[i] = get(b, i * aw, aw, signedAngle);
+      return { kind, angleCodes: codes };
+    }
+    case Kind.Sweep:
+      return { kind, start: get(b, 0, 4, signedAngle), step: get(b, 4, 4, true), count: get(b, 8, 4, false) };
+    case Kind.Info: {
+      const angleFormat = INFO_FORMATS[b[1]];
+      if (!angleFormat) throw new PayloadError(`INFO angleFormat code ${b[1]} is neither 0 (turn) nor 1 (rad)`);
+      return {
+        kind,
+        info: {
+          version: b[0],
+          angleFormat,
+          angleBits: b[2],
+          angleFrac: b[3],
+          outBits: b[4],
+          outFrac: b[5],
+          iterations: b[6],
+          queueDepth: get(b, 7, 2, false),
+          buildId: get(b, 9, 4, false),
+          clockKHz: get(b, 13, 4, false),
+          name: String.fromCharCode(...b.subarray(INFO_FIXED_BYTES)),
+        },
+      };
+    }
+    case Kind.Results: {
+      const ow = outBytes(p);
+      const n = (b.length - RESULTS_HEADER_BYTES) / (2 * ow);
+      const cos = new Int32Array(n);
+      const sin = new Int32Array(n);
+      for (let i = 0, at = RESULTS_HEADER_BYTES; i < n; i++, at += 2 * ow) {
+        cos[i] = get(b, at, ow, true);
+        sin[i] = get(b, at + ow, ow, true);
+      }
+      return { kind, firstIndex: get(b, 0, 4, false), cos, sin };
+    }
+    case Kind.SweepEnd:
+      return { kind, done: get(b, 0, 4, false), status: b[4] };
+    case Kind.Ack:
+      return { kind, acked: b[0] };
+    case Kind.Nak:
+      return { kind, refused: b[0], reason: b[1] };
+  }
+}
+
+/** Builds the whole frame for message `m` with `tag`. */
+export function encodeMessage(m: Message, tag: number, p: WireProfile, crcName: Crc8Name = DEFAULT_CRC8): Uint8Array {
+  return encodeFrame(m.kind, tag, encodePayload(m, p), crcName);
+}
+
+/** The wire profile a device announces in its INFO. */
+export function profileFromInfo(info: DeviceInfo): WireProfile {
+  return { angleFormat: info.angleFormat, angleBits: info.angleBits, outBits: info.outBits };
+}
+
+/**
+ * Angle code i of a sweep: start + i·step, wrapped to angleBits for `turn`, saturated to the
+ * format's range for `rad`.
+ */
+export function sweepAngleCode(start: number, step: number, i: number, p: WireProfile): number {
+  const raw = start + i * step;
+  if (p.angleFormat === 'turn') {
+    const m = 2 ** p.angleBits;
+    if (!Number.isSafeInteger(raw)) {
+      // i·step can pass 2^53 (u32 count times i32 step): wrap exactly in BigInt.
+      const bm = BigInt(m);
+      return Number((((BigInt(start) + BigInt(i) * BigInt(step)) % bm) + bm) % bm);
+    }
+    return ((raw % m) + m) % m;
+  }
+  const { min, max } = angleCodeRange(p);
+  return Math.min(max, Math.max(min, raw));
+}
