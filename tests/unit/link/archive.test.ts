@@ -152,4 +152,11 @@ describe('capture archive', () => {
     expect(first.records).toHaveLength(1);
     expect(second.streams['to-device']).toEqual(concat([hello, one]));
   });
+
+  it('writes the byte-for-byte example of docs/archive.md', () => {
+    const recorder = new Recorder();
+    recorder.chunk('to-device', 2.5, encodeMessage({ kind: Kind.Hello }, 1, p16));
+    const doc = '41 42 52 43 01 13 00 00 10 10 0B 43 52 43 2D 38 2F 53 4D 42 55 53 00 00 00 00 01 00 00 00 00 00 00 04 40 05 A5 01 01 00 7E 00 01 05 00';
+    expect(recorder.toArchive()).toEqual(Uint8Array.from(doc.split(' '), (h) => parseInt(h, 16)));
+  });
 });

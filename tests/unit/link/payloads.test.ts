@@ -1,5 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
+import { crc8 as crcSmbus } from 'crc';
 import { FrameDecoder, type DecodedFrame } from '../../../shared/link/decoder';
 import { Kind, NakReason, SweepStatus, kindName } from '../../../shared/link/kinds';
 import {
@@ -183,5 +184,25 @@ describe('payload codecs', () => {
     expect(NakReason).toEqual({ BadCheck: 1, BadLength: 2, UnknownKind: 3, Paused: 4, QueueFull: 5, AngleOutOfRange: 6 });
     expect(SweepStatus).toEqual({ Complete: 0, Aborted: 1, Overflow: 2 });
     expect(Kind).toMatchObject({ Hello: 0x01, One: 0x10, List: 0x11, Sweep: 0x12, Info: 0x81, Results: 0x90, SweepEnd: 0x92, Ack: 0xa0, Nak: 0xaf });
+  });
+});
+
+describe('the worked example of docs/protocol.md', () => {
+  const p: WireProfile = { angleFormat: 'turn', angleBits: 16, outBits: 16 };
+  const bytes = (s: string) => Uint8Array.from(s.split(' '), (h) => parseInt(h, 16));
+
+  it('encodes ONE 30° with TAG 0x2A as A5 10 2A 02 55 15 90', () => {
+    expect(encodeMessage({ kind: Kind.One, angleCode: 5461 }, 0x2a, p)).toEqual(bytes('A5 10 2A 02 55 15 90'));
+  });
+
+  it('encodes its RESULTS reply (cos 14189, sin 8192) as documented, CHECK confirmed by the crc package', () => {
+    const reply = encodeMessage({ kind: Kind.Results, firstIndex: 0, cos: Int32Array.of(14189), sin: Int32Array.of(8192) }, 0x2a, p);
+    expect(reply).toEqual(bytes('A5 90 2A 08 00 00 00 00 6D 37 00 20 9D'));
+    // Outside reference: the crc package's crc8 (CRC-8/SMBUS).
+    expect(crcSmbus(Buffer.from(reply.subarray(1, 12)))).toBe(0x9d);
+    expect(crcSmbus(Buffer.from(bytes('10 2A 02 55 15')))).toBe(0x90);
+    // The codes are code 5461's exact cos and sin in Q2.14, rounded: 29.99817°.
+    const a = (5461 * 2 * Math.PI) / 65536;
+    expect([Math.round(Math.cos(a) * 16384), Math.round(Math.sin(a) * 16384)]).toEqual([14189, 8192]);
   });
 });
