@@ -1,0 +1,143 @@
+// The bit-accurate reference model of a rotation-mode CORDIC sine/cosine core. Every product part
+// (scorer, simulated board, runner) evaluates through here, so its arithmetic is the definition.
+// Values reach 2^40, beyond JavaScript's 32-bit shifts: shifts are floor divisions by powers of
+// two, which are exact on integers below 2^53.
+import { buildCordicTables, type CordicTables } from './cordic-tables';
+import { AngleCodeError } from './errors';
+import { angleCodeRange, outputCodeRange } from './formats';
+import { parseModelConfig, type ModelConfig, type ModelConfigInput } from './model-config';
+
+/** The model's answer for one angle code. */
+export interface CosSin {
+  cos: number;
+  sin: number;
+}
+
+/** A configured model, ready to evaluate codes. */
+export interface CordicModel {
+  readonly config: Readonly<ModelConfig>;
+  readonly tables: Readonly<CordicTables>;
+  /** Cos and sin output codes for one angle code. @throws AngleCodeError */
+  evaluate(code: number): CosSin;
+  /**
+   * Evaluates many codes into caller-owned arrays without allocating.
+   * @throws AngleCodeError naming the index of the first code out of range.
+   */
+  evaluateInto(codes: ArrayLike<number>, cosOut: Int32Array, sinOut: Int32Array): void;
+}
+
+/**
+ * Reads an angle code into z units: `turn` as a signed zBits-bit number (the circle becomes
+ * [−1/2, 1/2) turn), `rad` reduced by the fewest whole turns into [−half, +half] turn.
+ * Folding comes after, in the iteration's caller.
+ */
+export function readAngle(c: ModelConfig, t: CordicTables, code: number): number {
+  const g = 2 ** c.zGuardBits;
+  if (c.angleFormat === 'turn') return (code >= 2 ** (c.angleBits - 1) ? code - 2 ** c.angleBits : code) * g;
+  let z = code * g;
+  // The loops only fix a rare off-by-one of the division.
+  if (z > t.zHalf) {
+    z -= Math.ceil((z - t.zHalf) / t.zTurn) * t.zTurn;
+    while (z > t.zHalf) z -= t.zTurn;
+  } else if (z < -t.zHalf) {
+    z += Math.ceil((-t.zHalf - z) / t.zTurn) * t.zTurn;
+    while (z < -t.zHalf) z += t.zTurn;
+  }
+  return z;
+}
+
+/** Creates a model from a (partial) configuration. @throws ModelConfigError */
+export function createCordicModel(input: ModelConfigInput | ModelConfig = {}): CordicModel {
+  const config = Object.freeze(parseModelConfig(input));
+  const tables = buildCordicTables(config);
+  const { atan, pow2, x0, zHalf, zQuarter } = tables;
+  const fold = config.fold;
+  const n = config.iterations;
+  const nearestShift = config.shiftRounding === 'nearest';
+  const g = config.guardBits;
+  const outDiv = 2 ** g;
+  const outBias = config.outputRounding === 'nearest' && g > 0 ? 2 ** (g - 1) : 0;
+  const { min: outMin, max: outMax } = outputCodeRange(config);
+  const { min: codeMin, max: codeMax } = angleCodeRange(config);
+  let lastCos = 0;
+  let lastSin = 0;
+
+  const out = (v: number): number => {
+    const r = g === 0 ? v : Math.floor((v + outBias) / outDiv);
+    return r < outMin ? outMin : r > outMax ? outMax : r;
+  };
+
+  // Leaves the result in lastCos/lastSin so the batch path allocates nothing per sample.
+  const run = (code: number): void => {
+    let z = readAngle(config, tables, code);
+    let negate = false;
+    if (fold) {
+      if (z > zQuarter) {
+        z -= zHalf;
+        negate = true;
+      } else if (z < -zQuarter) {
+        z += zHalf;
+        negate = true;
+      }
+    }
+    let x = x0;
+    let y = 0;
+    for (let i = 0; i < n; i++) {
+      const p = pow2[i];
+      let sx: number;
+      let sy: number;
+      if (nearestShift && i > 0) {
+        const half = pow2[i - 1];
+        sx = Math.floor((x + half) / p);
+        sy = Math.floor((y + half) / p);
+      } else {
+        sx = Math.floor(x / p);
+        sy = Math.floor(y / p);
+      }
+      if (z >= 0) {
+        x -= sy;
+        y += sx;
+        z -= atan[i];
+      } else {
+        x += sy;
+        y -= sx;
+        z += atan[i];
+      }
+    }
+    if (negate) {
+      // 0 − v, not −v: a negated zero must stay +0 for callers that compare results deeply.
+      x = 0 - x;
+      y = 0 - y;
+    }
+    lastCos = out(x);
+    lastSin = out(y);
+  };
+
+  const check = (code: number, where: string): void => {
+    if (!(Number.isInteger(code) && code >= codeMin && code <= codeMax)) {
+      throw new AngleCodeError(`${where}angle code ${code} is not an integer ${codeMin}..${codeMax} (${config.angleFormat}, ${config.angleBits} bits)`);
+    }
+  };
+
+  return {
+    config,
+    tables,
+    evaluate(code) {
+      check(code, '');
+      run(code);
+      return { cos: lastCos, sin: lastSin };
+    },
+    evaluateInto(codes, cosOut, sinOut) {
+      if (cosOut.length < codes.length || sinOut.length < codes.length) {
+        throw new RangeError(`output arrays hold ${Math.min(cosOut.length, sinOut.length)} results, ${codes.length} codes given`);
+      }
+      for (let k = 0; k < codes.length; k++) {
+        const code = codes[k];
+        check(code, `codes[${k}]: `);
+        run(code);
+        cosOut[k] = lastCos;
+        sinOut[k] = lastSin;
+      }
+    },
+  };
+}
