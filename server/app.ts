@@ -2,28 +2,74 @@ import fs from 'node:fs';
 import path from 'node:path';
 import express from 'express';
 import type { Sequelize } from 'sequelize';
+import { installAuth } from './auth';
+import { DEFAULT_BCRYPT_COST } from './auth/passwords';
 import type { Config } from './config';
+import { initModels } from './db/models';
+import { createSmtpMailer, discardingMailer, type Mailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
-import { clientDistDir, projectRoot } from './paths';
+import { clientDistDir, dataDir, projectRoot } from './paths';
+import { auditRouter, outboxRouter } from './routes/admin';
+import { authRouter, type LoginLimit } from './routes/auth';
+import { boardsRouter } from './routes/boards';
+import { buildsRouter } from './routes/builds';
+import { commentsRouter, sessionCommentsRouter } from './routes/comments';
+import { coresRouter } from './routes/cores';
+import type { RouteDeps } from './routes/deps';
 import { healthRouter } from './routes/health';
+import { invitationsRouter } from './routes/invitations';
+import { tokensRouter } from './routes/tokens';
+import { usersRouter } from './routes/users';
+import { securityHeaders } from './security-headers';
 
 export interface AppDeps {
   config: Config;
   db: Sequelize;
   /** Where the built client lives; served in production. */
   clientDir?: string;
+  /** Where e-mail goes; by default SMTP_URL, or nowhere when it is unset. */
+  mailer?: Mailer;
+  /** Where bitstreams are stored (default data/uploads). */
+  uploadDir?: string;
+  /** bcrypt work factor for new passwords (tests lower it). */
+  bcryptCost?: number;
+  /** Failed sign-ins allowed per address (default 10 in 15 minutes). */
+  loginLimit?: LoginLimit;
 }
 
 const version = (JSON.parse(fs.readFileSync(path.join(projectRoot, 'package.json'), 'utf8')) as { version: string }).version;
 
 /** Build the Express app. It does not listen: tests drive it with supertest. */
-export function createApp({ config, db, clientDir = clientDistDir }: AppDeps) {
+export function createApp({
+  config,
+  db,
+  clientDir = clientDistDir,
+  mailer = config.smtpUrl ? createSmtpMailer(config.smtpUrl) : discardingMailer,
+  uploadDir = path.join(dataDir, 'uploads'),
+  bcryptCost = DEFAULT_BCRYPT_COST,
+  loginLimit = { windowMs: 15 * 60 * 1000, max: 10 },
+}: AppDeps) {
+  initModels(db);
+  const deps: RouteDeps = { config, db, mailer, uploadDir, bcryptCost };
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  app.use(securityHeaders());
   app.use(express.json({ limit: '1mb' }));
 
   app.use('/api/health', healthRouter(db, version));
+  const passport = installAuth(app, config);
+  app.use('/api/auth', authRouter(passport, loginLimit));
+  app.use('/api/tokens', tokensRouter(deps));
+  app.use('/api/users', usersRouter(deps));
+  app.use('/api/invitations', invitationsRouter(deps));
+  app.use('/api/cores', coresRouter(deps));
+  app.use('/api/builds', buildsRouter(deps));
+  app.use('/api/boards', boardsRouter(deps));
+  app.use('/api/sessions/:sessionId/comments', sessionCommentsRouter(deps));
+  app.use('/api/comments', commentsRouter(deps));
+  app.use('/api/audit', auditRouter());
+  app.use('/api/outbox', outboxRouter());
   app.use('/api', apiNotFound);
 
   if (config.nodeEnv === 'production') {

@@ -20,6 +20,8 @@ const envSchema = z.object({
   SMTP_URL: z.url({ protocol: /^smtps?$/ }).optional(),
   MOCK_WS_PORT: port.default(5175),
   SESSION_SECRET: z.string().min(16, 'must be at least 16 characters').optional(),
+  UPLOAD_LIMIT_BYTES: z.coerce.number().int().min(1).default(64 * 1024 * 1024),
+  DEMO_PASSWORD: z.string().min(8, 'must be at least 8 characters').optional(),
 });
 
 export interface Config {
@@ -30,6 +32,10 @@ export interface Config {
   smtpUrl?: string;
   mockWsPort: number;
   sessionSecret: string;
+  /** Largest bitstream upload accepted, in bytes (413 beyond). */
+  uploadLimitBytes: number;
+  /** The demo accounts' password (`anglebench` when unset). */
+  demoPassword: string;
 }
 
 export class ConfigError extends Error {
@@ -57,6 +63,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, secretFile = pa
     smtpUrl: e.SMTP_URL,
     mockWsPort: e.MOCK_WS_PORT,
     sessionSecret: e.SESSION_SECRET ?? readOrCreateSecret(secretFile),
+    uploadLimitBytes: e.UPLOAD_LIMIT_BYTES,
+    demoPassword: e.DEMO_PASSWORD ?? 'anglebench',
   };
 }
 

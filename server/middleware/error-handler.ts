@@ -1,4 +1,5 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { ForeignKeyConstraintError, UniqueConstraintError, ValidationError } from 'sequelize';
 import { HttpError } from '../http-error';
 
 /** Unknown /api routes answer in the same JSON shape as every other error. */
@@ -24,6 +25,19 @@ export function errorHandler(log: (msg: string, err: unknown) => void = console.
     let details: unknown;
     if (err instanceof HttpError) {
       ({ status, code, message, details } = err);
+    } else if (err instanceof UniqueConstraintError) {
+      // Checked before ValidationError, its base class.
+      status = 409;
+      code = 'conflict';
+      message = `${Object.keys(err.fields).join(', ') || 'value'}: already taken`;
+    } else if (err instanceof ValidationError) {
+      status = 400;
+      code = 'invalid';
+      message = err.errors.map((e) => `${e.path}: ${e.message}`).join('; ') || err.message;
+    } else if (err instanceof ForeignKeyConstraintError) {
+      status = 409;
+      code = 'in_use';
+      message = 'Other records refer to this one';
     } else if (isBodyParserError(err)) {
       // Raised by express.json() and friends: malformed JSON, too large, bad charset.
       status = err.status!;

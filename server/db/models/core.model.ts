@@ -1,0 +1,36 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+
+type Json = Record<string, unknown>;
+
+/**
+ * A sine/cosine core under test: how to talk to it (link profile), the reference-model
+ * configuration its results are compared with, and the acceptance limits a session must meet.
+ */
+export class Core extends Model<InferAttributes<Core>, InferCreationAttributes<Core>> {
+  declare id: CreationOptional<number>;
+  declare name: string;
+  declare slug: string;
+  declare linkProfile: Json;
+  declare modelConfig: Json;
+  declare limits: Json;
+  declare baselineSessionId: number | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export function initCore(sequelize: Sequelize) {
+  Core.init(
+    {
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      name: { type: DataTypes.STRING(120), allowNull: false, validate: { len: [1, 120] } },
+      slug: { type: DataTypes.STRING(64), allowNull: false, unique: true, validate: { is: /^[a-z0-9]+(?:-[a-z0-9]+)*$/ } },
+      linkProfile: { type: DataTypes.JSON, allowNull: false },
+      modelConfig: { type: DataTypes.JSON, allowNull: false },
+      limits: { type: DataTypes.JSON, allowNull: false },
+      baselineSessionId: { type: DataTypes.INTEGER, allowNull: true },
+      createdAt: DataTypes.DATE,
+      updatedAt: DataTypes.DATE,
+    },
+    { sequelize, tableName: 'cores', modelName: 'Core' },
+  );
+}

@@ -1,0 +1,60 @@
+import { Router } from 'express';
+import { rateLimit } from 'express-rate-limit';
+import type { createPassport } from '../auth/passport';
+import { z } from 'zod';
+import { csrfTokenOf, requireRole } from '../auth';
+import type { User } from '../db/models';
+import { HttpError } from '../http-error';
+import { validate } from '../middleware/validate';
+
+export interface LoginLimit {
+  windowMs: number;
+  /** Failed sign-ins allowed per address and window; successful ones do not count. */
+  max: number;
+}
+
+const loginBody = z.strictObject({ email: z.email().max(254), password: z.string().min(1).max(200) });
+
+/** /api/auth: the CSRF token, sign-in, sign-out and who am I. */
+export function authRouter(passport: ReturnType<typeof createPassport>, limit: LoginLimit) {
+  const router = Router();
+  const loginLimiter = rateLimit({
+    windowMs: limit.windowMs,
+    limit: limit.max,
+    skipSuccessfulRequests: true,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: (_req, _res, next) => next(new HttpError(429, 'too_many_attempts', 'Too many failed sign-ins; wait a while and try again')),
+  });
+
+  router.route('/csrf').get((req, res) => {
+    res.json({ token: csrfTokenOf(req) });
+  });
+
+  router.route('/login').post(loginLimiter, validate({ body: loginBody }), (req, res, next) => {
+    passport.authenticate('local', (err: unknown, user: User | false, info?: { message?: string }) => {
+      if (err) return next(err);
+      if (!user && info?.message === 'disabled') return next(new HttpError(403, 'disabled', 'This account is disabled'));
+      if (!user) return next(new HttpError(401, 'bad_credentials', 'Wrong e-mail or password'));
+      // Passport regenerates the session here (a new id: no session fixation); the old CSRF
+      // token goes with it, so the reply carries the new one.
+      req.logIn(user, (loginErr) => {
+        if (loginErr) return next(loginErr);
+        res.json({ user: user.toPublic(), csrfToken: csrfTokenOf(req) });
+      });
+    })(req, res, next);
+  });
+
+  router.route('/logout').post((req, res, next) => {
+    req.logOut((err) => {
+      if (err) return next(err);
+      req.session.destroy((destroyErr) => (destroyErr ? next(destroyErr) : res.status(204).end()));
+    });
+  });
+
+  router.route('/me').get(requireRole('reviewer'), (req, res) => {
+    res.json({ user: req.user!.toPublic(), via: req.authVia });
+  });
+
+  return router;
+}

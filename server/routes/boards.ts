@@ -1,0 +1,70 @@
+import { Router } from 'express';
+import { z } from 'zod';
+import { currentUser, requireRole } from '../auth';
+import { Board } from '../db/models';
+import { notFound } from '../http-error';
+import { validate } from '../middleware/validate';
+import { recordAudit } from '../services/audit';
+import type { RouteDeps } from './deps';
+import { idParams, paramsOf } from './params';
+
+const text = (max: number) => z.string().trim().max(max);
+const boardBody = z.strictObject({
+  name: text(120).min(1),
+  serial: text(80),
+  fpgaPart: text(80),
+  adapter: text(120),
+  location: text(120),
+});
+const patchBody = boardBody.partial();
+
+/** /api/boards: read by everyone signed in, written by engineers, deleted by admins. */
+export function boardsRouter({ db }: RouteDeps) {
+  const router = Router();
+
+  router
+    .route('/')
+    .get(requireRole('reviewer'), async (_req, res) => {
+      res.json({ boards: await Board.findAll({ order: [['name', 'ASC']] }) });
+    })
+    .post(requireRole('engineer'), validate({ body: boardBody }), async (req, res) => {
+      const me = currentUser(req);
+      const board = await db.transaction(async (transaction) => {
+        const row = await Board.create(req.body, { transaction });
+        await recordAudit(transaction, me.id, 'create', 'board', row.id, req.body);
+        return row;
+      });
+      res.status(201).json({ board });
+    });
+
+  router
+    .route('/:id')
+    .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
+      const board = await Board.findByPk(paramsOf<{ id: number }>(req).id);
+      if (!board) throw notFound('Board');
+      res.json({ board });
+    })
+    .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
+      const me = currentUser(req);
+      const board = await db.transaction(async (transaction) => {
+        const row = await Board.findByPk(paramsOf<{ id: number }>(req).id, { transaction });
+        if (!row) throw notFound('Board');
+        await row.update(req.body, { transaction });
+        await recordAudit(transaction, me.id, 'update', 'board', row.id, req.body);
+        return row;
+      });
+      res.json({ board });
+    })
+    .delete(requireRole('admin'), validate({ params: idParams }), async (req, res) => {
+      const me = currentUser(req);
+      await db.transaction(async (transaction) => {
+        const row = await Board.findByPk(paramsOf<{ id: number }>(req).id, { transaction });
+        if (!row) throw notFound('Board');
+        await row.destroy({ transaction });
+        await recordAudit(transaction, me.id, 'delete', 'board', row.id, { name: row.name });
+      });
+      res.status(204).end();
+    });
+
+  return router;
+}

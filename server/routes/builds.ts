@@ -1,0 +1,153 @@
+import fs from 'node:fs';
+import { Router, type Request } from 'express';
+import { z } from 'zod';
+import { currentUser, requireRole } from '../auth';
+import { Build, Core, Review, User } from '../db/models';
+import { HttpError, notFound } from '../http-error';
+import { sendReviewDecisionMail, sendReviewRequestedMail } from '../mail/messages';
+import { validate } from '../middleware/validate';
+import { recordAudit } from '../services/audit';
+import { bitstreamPath, sanitizeFileName, singleBitstream, type HashedFile } from '../uploads/bitstream-storage';
+import { mailSafely, type RouteDeps } from './deps';
+import { id, idParams, originOf, paramsOf, queryOf } from './params';
+
+const text = (max: number) => z.string().trim().max(max);
+const createBody = z.strictObject({
+  coreId: id,
+  label: text(120).min(1),
+  sourceRevision: text(80),
+  toolVersion: text(80),
+  clockMHz: z.number().positive().max(10_000),
+  notes: text(10_000).default(''),
+});
+const patchBody = createBody.omit({ coreId: true }).partial();
+const listQuery = z.strictObject({ coreId: id.optional() });
+const reviewBody = z.strictObject({ decision: z.enum(['approve', 'reject']), note: text(10_000).default('') });
+
+/** /api/builds: bitstreams of a core, their files and their reviews. */
+export function buildsRouter({ db, mailer, config, uploadDir }: RouteDeps) {
+  const router = Router();
+  const findBuild = async (req: Request) => {
+    const build = await Build.findByPk(paramsOf<{ id: number }>(req).id, { include: [{ model: Core, as: 'core' }] });
+    if (!build) throw notFound('Build');
+    return build as Build & { core: Core };
+  };
+  const buildLink = (req: Request, build: Build) => `${originOf(req)}/builds/${build.id}`;
+
+  router
+    .route('/')
+    .get(requireRole('reviewer'), validate({ query: listQuery }), async (req, res) => {
+      const { coreId } = queryOf<z.infer<typeof listQuery>>(req);
+      const builds = await Build.findAll({ where: coreId ? { coreId } : {}, order: [['id', 'DESC']] });
+      res.json({ builds });
+    })
+    .post(requireRole('engineer'), validate({ body: createBody }), async (req, res) => {
+      const me = currentUser(req);
+      const body = req.body as z.infer<typeof createBody>;
+      const build = await db.transaction(async (transaction) => {
+        if (!(await Core.findByPk(body.coreId, { transaction }))) throw new HttpError(400, 'invalid', 'body.coreId: no such core');
+        const row = await Build.create({ ...body, createdById: me.id }, { transaction });
+        await recordAudit(transaction, me.id, 'create', 'build', row.id, { coreId: row.coreId, label: row.label });
+        return row;
+      });
+      res.status(201).json({ build });
+    });
+
+  router
+    .route('/:id')
+    .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
+      const build = await findBuild(req);
+      const reviews = await Review.findAll({ where: { buildId: build.id }, order: [['id', 'DESC']] });
+      res.json({ build, reviews, standing: reviews[0]?.decision ?? 'unreviewed' });
+    })
+    .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
+      const me = currentUser(req);
+      const build = await findBuild(req);
+      await db.transaction(async (transaction) => {
+        await build.update(req.body, { transaction });
+        await recordAudit(transaction, me.id, 'update', 'build', build.id, req.body);
+      });
+      res.json({ build });
+    })
+    .delete(requireRole('admin'), validate({ params: idParams }), async (req, res) => {
+      const me = currentUser(req);
+      const build = await findBuild(req);
+      await db.transaction(async (transaction) => {
+        await build.destroy({ transaction });
+        await recordAudit(transaction, me.id, 'delete', 'build', build.id, { label: build.label });
+      });
+      await fs.promises.rm(bitstreamPath(uploadDir, build.id), { force: true });
+      res.status(204).end();
+    });
+
+  router
+    .route('/:id/file')
+    .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
+      const build = await findBuild(req);
+      if (!build.fileName) throw notFound('Bitstream file');
+      res.download(bitstreamPath(uploadDir, build.id), build.fileName);
+    })
+    // The build is looked up before multer runs, so nothing is written for an unknown build.
+    .post(requireRole('engineer'), validate({ params: idParams }), async (req, _res, next) => {
+      await findBuild(req);
+      next();
+    }, singleBitstream(uploadDir, config.uploadLimitBytes), async (req, res) => {
+      const me = currentUser(req);
+      const file = req.file as HashedFile | undefined;
+      if (!file) throw new HttpError(400, 'invalid', 'file: a multipart field named "file" is required');
+      const build = await findBuild(req);
+      const fileName = sanitizeFileName(file.originalname);
+      try {
+        await db.transaction(async (transaction) => {
+          await build.update({ fileName, fileSize: file.size, sha256: file.sha256 }, { transaction });
+          await recordAudit(transaction, me.id, 'upload', 'build', build.id, { fileName, fileSize: file.size, sha256: file.sha256 });
+          // Last, so a failed update keeps the previous file; a rename replaces it atomically.
+          await fs.promises.rename(file.path, bitstreamPath(uploadDir, build.id));
+        });
+      } finally {
+        await fs.promises.rm(file.path, { force: true });
+      }
+      res.json({ build });
+    });
+
+  router
+    .route('/:id/reviews')
+    .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
+      const build = await findBuild(req);
+      res.json({ reviews: await Review.findAll({ where: { buildId: build.id }, order: [['id', 'DESC']] }) });
+    })
+    .post(requireRole('reviewer'), validate({ params: idParams, body: reviewBody }), async (req, res) => {
+      const me = currentUser(req);
+      const build = await findBuild(req);
+      const { decision, note } = req.body as z.infer<typeof reviewBody>;
+      const review = await db.transaction(async (transaction) => {
+        const row = await Review.create({ buildId: build.id, reviewerId: me.id, decision, note }, { transaction });
+        await recordAudit(transaction, me.id, decision, 'build', build.id, { reviewId: row.id, note });
+        return row;
+      });
+      const author = build.createdById ? await User.findByPk(build.createdById) : null;
+      const mailed =
+        !!author &&
+        (await mailSafely(() =>
+          sendReviewDecisionMail(mailer, author.email, { build: build.label, core: build.core.name, reviewer: me.name, decision, note, link: buildLink(req, build) }),
+        ));
+      res.status(201).json({ review, mailed });
+    });
+
+  router.route('/:id/request-review').post(requireRole('engineer'), validate({ params: idParams }), async (req, res) => {
+    const me = currentUser(req);
+    const build = await findBuild(req);
+    const reviewers = await User.findAll({ where: { role: 'reviewer', disabled: false } });
+    await db.transaction(async (transaction) => {
+      await recordAudit(transaction, me.id, 'request_review', 'build', build.id, { reviewers: reviewers.map((r) => r.id) });
+    });
+    const mailed =
+      reviewers.length > 0 &&
+      (await mailSafely(() =>
+        sendReviewRequestedMail(mailer, reviewers.map((r) => r.email), { build: build.label, core: build.core.name, requestedBy: me.name, link: buildLink(req, build) }),
+      ));
+    res.status(202).json({ reviewers: reviewers.length, mailed });
+  });
+
+  return router;
+}

@@ -1,0 +1,102 @@
+import { Router, type Request } from 'express';
+import { z } from 'zod';
+import { currentUser, requireRole } from '../auth';
+import { Core, CoreWatcher } from '../db/models';
+import { notFound } from '../http-error';
+import { validate } from '../middleware/validate';
+import { limitsSchema, linkProfileSchema, modelConfigSchema } from '../schemas/core';
+import { recordAudit } from '../services/audit';
+import type { RouteDeps } from './deps';
+import { idParams, paramsOf } from './params';
+
+const slug = z.string().regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'use lower-case letters, digits and single hyphens').max(64);
+const createBody = z.strictObject({
+  name: z.string().trim().min(1).max(120),
+  slug,
+  linkProfile: linkProfileSchema.default(linkProfileSchema.parse({})),
+  modelConfig: modelConfigSchema.default(modelConfigSchema.parse({})),
+  limits: limitsSchema.default({}),
+});
+const patchBody = z
+  .strictObject({
+    name: z.string().trim().min(1).max(120),
+    slug,
+    linkProfile: linkProfileSchema,
+    modelConfig: modelConfigSchema,
+    limits: limitsSchema,
+    baselineSessionId: z.number().int().positive().nullable(),
+  })
+  .partial();
+
+/** /api/cores: the cores under test, their model configuration, limits and watchers. */
+export function coresRouter({ db }: RouteDeps) {
+  const router = Router();
+  const findCore = async (req: Request) => {
+    const core = await Core.findByPk(paramsOf<{ id: number }>(req).id);
+    if (!core) throw notFound('Core');
+    return core;
+  };
+
+  router
+    .route('/')
+    .get(requireRole('reviewer'), async (_req, res) => {
+      res.json({ cores: await Core.findAll({ order: [['name', 'ASC']] }) });
+    })
+    .post(requireRole('engineer'), validate({ body: createBody }), async (req, res) => {
+      const me = currentUser(req);
+      const core = await db.transaction(async (transaction) => {
+        const row = await Core.create({ ...req.body, baselineSessionId: null }, { transaction });
+        await recordAudit(transaction, me.id, 'create', 'core', row.id, { name: row.name, slug: row.slug });
+        return row;
+      });
+      res.status(201).json({ core });
+    });
+
+  router
+    .route('/:id')
+    .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
+      res.json({ core: await findCore(req) });
+    })
+    .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
+      const me = currentUser(req);
+      const core = await findCore(req);
+      await db.transaction(async (transaction) => {
+        await core.update(req.body, { transaction });
+        await recordAudit(transaction, me.id, 'update', 'core', core.id, req.body);
+      });
+      res.json({ core });
+    })
+    .delete(requireRole('admin'), validate({ params: idParams }), async (req, res) => {
+      const me = currentUser(req);
+      const core = await findCore(req);
+      await db.transaction(async (transaction) => {
+        await core.destroy({ transaction });
+        await recordAudit(transaction, me.id, 'delete', 'core', core.id, { name: core.name, slug: core.slug });
+      });
+      res.status(204).end();
+    });
+
+  // Watching is personal: anyone who reads a core may ask to hear of its regressions.
+  router
+    .route('/:id/watch')
+    .put(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
+      const me = currentUser(req);
+      const core = await findCore(req);
+      await db.transaction(async (transaction) => {
+        const [, created] = await CoreWatcher.findOrCreate({ where: { coreId: core.id, userId: me.id }, transaction });
+        if (created) await recordAudit(transaction, me.id, 'watch', 'core', core.id);
+      });
+      res.status(204).end();
+    })
+    .delete(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
+      const me = currentUser(req);
+      const core = await findCore(req);
+      await db.transaction(async (transaction) => {
+        const removed = await CoreWatcher.destroy({ where: { coreId: core.id, userId: me.id }, transaction });
+        if (removed) await recordAudit(transaction, me.id, 'unwatch', 'core', core.id);
+      });
+      res.status(204).end();
+    });
+
+  return router;
+}

@@ -1,0 +1,51 @@
+import { Router } from 'express';
+import { z } from 'zod';
+import { currentUser, requireRole } from '../auth';
+import { newSecretToken, sha256Hex } from '../auth/tokens';
+import { ApiToken } from '../db/models';
+import { notFound } from '../http-error';
+import { validate } from '../middleware/validate';
+import { recordAudit } from '../services/audit';
+import type { RouteDeps } from './deps';
+import { idParams, paramsOf } from './params';
+
+const createBody = z.strictObject({ name: z.string().trim().min(1).max(80) });
+
+/** /api/tokens: the caller's own API tokens. The secret is returned once, at creation. */
+export function tokensRouter({ db }: RouteDeps) {
+  const router = Router();
+
+  router
+    .route('/')
+    .get(requireRole('engineer'), async (req, res) => {
+      const tokens = await ApiToken.findAll({ where: { userId: currentUser(req).id }, order: [['id', 'ASC']] });
+      res.json({ tokens: tokens.map((t) => t.toPublic()) });
+    })
+    .post(requireRole('engineer'), validate({ body: createBody }), async (req, res) => {
+      const user = currentUser(req);
+      const secret = newSecretToken();
+      const token = await db.transaction(async (transaction) => {
+        const row = await ApiToken.create(
+          { userId: user.id, name: req.body.name, tokenHash: sha256Hex(secret), prefix: secret.slice(0, 10), lastUsedAt: null },
+          { transaction },
+        );
+        await recordAudit(transaction, user.id, 'create', 'api_token', row.id, { name: row.name });
+        return row;
+      });
+      res.status(201).json({ ...token.toPublic(), token: secret });
+    });
+
+  router.route('/:id').delete(requireRole('engineer'), validate({ params: idParams }), async (req, res) => {
+    const user = currentUser(req);
+    const { id } = paramsOf<{ id: number }>(req);
+    await db.transaction(async (transaction) => {
+      const token = await ApiToken.findOne({ where: { id, userId: user.id }, transaction });
+      if (!token) throw notFound('API token');
+      await token.destroy({ transaction });
+      await recordAudit(transaction, user.id, 'delete', 'api_token', id, { name: token.name });
+    });
+    res.status(204).end();
+  });
+
+  return router;
+}

@@ -1,0 +1,53 @@
+import { Router } from 'express';
+import { z } from 'zod';
+import { currentUser, hasRole, requireRole } from '../auth';
+import { ROLES, User } from '../db/models';
+import { HttpError, notFound } from '../http-error';
+import { validate } from '../middleware/validate';
+import { recordAudit } from '../services/audit';
+import type { RouteDeps } from './deps';
+import { idParams, paramsOf } from './params';
+
+const patchBody = z
+  .strictObject({ name: z.string().trim().min(1).max(120), role: z.enum(ROLES), disabled: z.boolean() })
+  .partial()
+  .refine((b) => Object.keys(b).length > 0, { message: 'give at least one of name, role, disabled' });
+
+/** /api/users: admins list and change accounts; everyone may read their own. */
+export function usersRouter({ db }: RouteDeps) {
+  const router = Router();
+
+  router.route('/').get(requireRole('admin'), async (_req, res) => {
+    const users = await User.findAll({ order: [['id', 'ASC']] });
+    res.json({ users: users.map((u) => u.toPublic()) });
+  });
+
+  router
+    .route('/:id')
+    .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
+      const me = currentUser(req);
+      const { id } = paramsOf<{ id: number }>(req);
+      if (id !== me.id && !hasRole(me.role, 'admin')) throw new HttpError(403, 'forbidden', 'Only admins read other accounts');
+      const user = await User.findByPk(id);
+      if (!user) throw notFound('User');
+      res.json({ user: user.toPublic() });
+    })
+    .patch(requireRole('admin'), validate({ params: idParams, body: patchBody }), async (req, res) => {
+      const me = currentUser(req);
+      const { id } = paramsOf<{ id: number }>(req);
+      const changes = req.body as z.infer<typeof patchBody>;
+      const user = await db.transaction(async (transaction) => {
+        const row = await User.findByPk(id, { transaction });
+        if (!row) throw notFound('User');
+        await row.update(changes, { transaction });
+        // Never leave the team without an admin who can sign in.
+        const admins = await User.count({ where: { role: 'admin', disabled: false }, transaction });
+        if (admins === 0) throw new HttpError(409, 'last_admin', 'This would leave no active admin');
+        await recordAudit(transaction, me.id, 'update', 'user', row.id, changes);
+        return row;
+      });
+      res.json({ user: user.toPublic() });
+    });
+
+  return router;
+}
