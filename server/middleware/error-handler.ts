@@ -29,7 +29,7 @@ export function errorHandler(log: (msg: string, err: unknown) => void = console.
       // Checked before ValidationError, its base class.
       status = 409;
       code = 'conflict';
-      message = `${Object.keys(err.fields).join(', ') || 'value'}: already taken`;
+      message = `${err.errors.map((e) => e.path).filter(Boolean).join(', ') || 'value'}: already taken`;
     } else if (err instanceof ValidationError) {
       status = 400;
       code = 'invalid';
