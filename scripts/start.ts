@@ -10,6 +10,11 @@ try {
   await buildClientIfStale();
   const server = await startServer(config);
   console.log(`\nAnglebench is running at ${server.url}\n`);
+  if (server.demoAccounts.length) {
+    const password = process.env.DEMO_PASSWORD ? 'the DEMO_PASSWORD you set' : config.demoPassword;
+    console.log(`Demo sign-ins (password: ${password}):\n${server.demoAccounts.map((a) => `  ${a}`).join('\n')}\n`);
+  }
+  if (server.mailCatcherUrl) console.log(`E-mail is caught locally (admins read it on the outbox page).\n`);
   const stop = () => void server.close().then(() => process.exit(0));
   process.once('SIGINT', stop);
   process.once('SIGTERM', stop);

@@ -4,18 +4,32 @@ import { createApp } from './app';
 import type { Config } from './config';
 import { openDatabase } from './db/connection';
 import { migrate } from './db/migrator';
+import { demoAccountsPresent, seedIfEmpty } from './db/seed';
+import { startMailCatcher, type MailCatcher } from './mail/catcher';
+import { createSmtpMailer } from './mail/mailer';
 
 export interface RunningServer {
   url: string;
+  /** Where mail goes when SMTP_URL is unset: the in-process catcher. */
+  mailCatcherUrl?: string;
+  /** The demo accounts present in the database, e.g. `admin@anglebench.test (admin)`. */
+  demoAccounts: string[];
   close(): Promise<void>;
 }
 
-/** Open the database, migrate it, and listen. Used by `npm start`, `npm run dev` and the e2e tests. */
+/**
+ * Open the database, migrate it, seed the demo on first start, start the mail catcher unless
+ * SMTP_URL is set, and listen. Used by `npm start`, `npm run dev` and the e2e tests.
+ */
 export async function startServer(config: Config): Promise<RunningServer> {
   const db = openDatabase(config.databaseUrl);
   await db.authenticate();
   await migrate(db);
-  const app = createApp({ config, db });
+  await seedIfEmpty(db, config.demoPassword);
+  let catcher: MailCatcher | undefined;
+  if (!config.smtpUrl) catcher = await startMailCatcher(db);
+  const mailer = createSmtpMailer(config.smtpUrl ?? catcher!.url);
+  const app = createApp({ config, db, mailer });
   const server = createServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
@@ -24,9 +38,13 @@ export async function startServer(config: Config): Promise<RunningServer> {
   const { port } = server.address() as AddressInfo;
   return {
     url: `http://${config.host === '0.0.0.0' ? '127.0.0.1' : config.host}:${port}`,
+    mailCatcherUrl: catcher?.url,
+    demoAccounts: await demoAccountsPresent(db),
     close: async () => {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections();
+      mailer.close();
+      await catcher?.close();
       await db.close();
     },
   };

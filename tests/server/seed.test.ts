@@ -1,0 +1,49 @@
+import request from 'supertest';
+import type { Sequelize } from 'sequelize';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createApp } from '../../server/app';
+import { loadConfig } from '../../server/config';
+import { openDatabase } from '../../server/db/connection';
+import { migrate } from '../../server/db/migrator';
+import { Board, Build, Core, Review, User } from '../../server/db/models';
+import { demoAccountsPresent, seedIfEmpty } from '../../server/db/seed';
+import { modelConfigSchema } from '../../server/schemas/core';
+import { tempDatabase } from '../support/temp-db';
+
+const tmp = tempDatabase();
+let db: Sequelize;
+beforeAll(async () => {
+  db = openDatabase(tmp.url);
+  await migrate(db);
+});
+afterAll(async () => {
+  await db.close();
+  tmp.cleanup();
+});
+
+describe('the demo seed', () => {
+  it('fills an empty database once, with one account per role and the default reference core', async () => {
+    expect(await seedIfEmpty(db, 'demo-password', 4)).toBe(true);
+    expect(await seedIfEmpty(db, 'demo-password', 4)).toBe(false);
+    expect((await User.findAll()).map((u) => `${u.email} ${u.role}`).sort()).toEqual([
+      'admin@anglebench.test admin',
+      'engineer@anglebench.test engineer',
+      'reviewer@anglebench.test reviewer',
+    ]);
+    const reference = await Core.findOne({ where: { slug: 'reference-16' } });
+    expect(reference!.modelConfig).toEqual(modelConfigSchema.parse({}));
+    expect(await Core.count()).toBe(2);
+    expect(await Board.count()).toBe(3);
+    expect(await Build.count()).toBe(4);
+    expect((await Review.findAll()).map((r) => r.decision)).toEqual(['approve']);
+    expect(await demoAccountsPresent(db)).toHaveLength(3);
+  });
+
+  it('lets the demo accounts sign in with the demo password', async () => {
+    const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: tmp.url, SESSION_SECRET: 'x'.repeat(32) }, `${tmp.dir}/secret`);
+    const agent = request.agent(createApp({ config, db, bcryptCost: 4 }));
+    const csrf = (await agent.get('/api/auth/csrf').expect(200)).body.token as string;
+    const res = await agent.post('/api/auth/login').set('x-csrf-token', csrf).send({ email: 'reviewer@anglebench.test', password: 'demo-password' }).expect(200);
+    expect(res.body.user.role).toBe('reviewer');
+  });
+});
