@@ -1,0 +1,119 @@
+// Which angle codes a session has covered, overall and per octant of the circle. Exact for every
+// format: a bit set up to 24-bit angles (2 MiB), a set of codes beyond (a 32-bit exhaustive run
+// is hours on any UART, so large sessions stay sparse).
+import { angleCodeRange, type AngleFormat } from './formats';
+
+const BITSET_MAX_BITS = 24;
+const TWO_PI = 2 * Math.PI;
+
+/** The octant 0..7 of the circle an angle code falls in (angle mod 2π, in steps of π/4). */
+export function octantOfCode(f: AngleFormat, code: number): number {
+  if (f.angleFormat === 'turn') return Math.floor((code * 8) / 2 ** f.angleBits);
+  const rad = code / 2 ** f.angleFrac;
+  const t = rad / TWO_PI;
+  const o = Math.floor((t - Math.floor(t)) * 8);
+  return o === 8 ? 0 : o;
+}
+
+const octantSizeCache = new Map<string, readonly number[]>();
+
+/**
+ * How many codes of the format fall in each octant. Exact for `turn`; for `rad` counted by
+ * classifying every code (so it agrees with octantOfCode), or an even split past 2^24 codes.
+ */
+export function codesPerOctant(f: AngleFormat): readonly number[] {
+  const key = `${f.angleFormat}/${f.angleBits}/${f.angleFrac}`;
+  const hit = octantSizeCache.get(key);
+  if (hit) return hit;
+  const r = angleCodeRange(f);
+  let sizes: number[];
+  if (f.angleFormat === 'turn') {
+    sizes = Array.from({ length: 8 }, (_, o) => Math.ceil(((o + 1) * r.count) / 8) - Math.ceil((o * r.count) / 8));
+  } else if (f.angleBits <= BITSET_MAX_BITS) {
+    sizes = new Array<number>(8).fill(0);
+    for (let k = r.min; k <= r.max; k++) sizes[octantOfCode(f, k)]++;
+  } else {
+    sizes = new Array<number>(8).fill(r.count / 8);
+  }
+  octantSizeCache.set(key, sizes);
+  return sizes;
+}
+
+/** Share of the codes covered, overall and per octant. */
+export interface CoverageSummary {
+  distinct: number;
+  total: number;
+  share: number;
+  octants: { distinct: number; total: number; share: number }[];
+}
+
+/** The set of angle codes seen so far. */
+export class CodeCoverage {
+  private readonly bits: Uint8Array | null;
+  private readonly sparse: Set<number> | null;
+  private readonly min: number;
+  readonly perOctant = new Float64Array(8);
+  distinct = 0;
+
+  constructor(readonly format: AngleFormat) {
+    this.min = angleCodeRange(format).min;
+    const useBits = format.angleBits <= BITSET_MAX_BITS;
+    this.bits = useBits ? new Uint8Array(Math.ceil(2 ** format.angleBits / 8)) : null;
+    this.sparse = useBits ? null : new Set<number>();
+  }
+
+  /** Marks one code as seen; the code must be in the format (the scorer checks it). */
+  add(code: number): void {
+    if (this.bits) {
+      const at = code - this.min;
+      const byte = Math.floor(at / 8);
+      const mask = 1 << (at % 8);
+      if (this.bits[byte] & mask) return;
+      this.bits[byte] |= mask;
+    } else {
+      if (this.sparse!.has(code)) return;
+      this.sparse!.add(code);
+    }
+    this.distinct++;
+    this.perOctant[octantOfCode(this.format, code)]++;
+  }
+
+  /** True when the code has been seen. */
+  has(code: number): boolean {
+    if (this.bits) {
+      const at = code - this.min;
+      return (this.bits[Math.floor(at / 8)] & (1 << (at % 8))) !== 0;
+    }
+    return this.sparse!.has(code);
+  }
+
+  /** Folds another coverage of the same format into this one. */
+  merge(o: CodeCoverage): this {
+    if (this.bits && o.bits) {
+      for (let i = 0; i < this.bits.length; i++) {
+        const fresh = o.bits[i] & ~this.bits[i];
+        if (fresh === 0) continue;
+        for (let b = 0; b < 8; b++) if (fresh & (1 << b)) this.add(this.min + i * 8 + b);
+      }
+    } else {
+      for (const code of o.sparse!) this.add(code);
+    }
+    return this;
+  }
+
+  /** Shares of all codes and of each octant's codes covered. */
+  summary(): CoverageSummary {
+    const total = 2 ** this.format.angleBits;
+    const sizes = codesPerOctant(this.format);
+    return {
+      distinct: this.distinct,
+      total,
+      share: this.distinct / total,
+      octants: sizes.map((size, o) => ({
+        distinct: this.perOctant[o],
+        total: size,
+        share: size === 0 ? 1 : Math.min(1, this.perOctant[o] / size),
+      })),
+    };
+  }
+}

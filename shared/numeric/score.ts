@@ -1,0 +1,204 @@
+// Scoring of a core's answers against exact math and against the reference model. Results may
+// arrive in any order and in pieces (RESULTS frames, worker batches); accumulators merge.
+import { createCordicModel, type CordicModel } from './cordic-model';
+import { CodeCoverage, type CoverageSummary } from './coverage';
+import { ErrorHistogram, ErrorMoments, DEFAULT_HISTOGRAM, type HistogramOptions } from './error-stats';
+import { ScoringError } from './errors';
+import { exactSinCosInto } from './exact-reference';
+import { angleCodeToDegrees, assertOutputCode } from './formats';
+import type { ModelConfig, ModelConfigInput } from './model-config';
+
+/** Error statistics of one channel (or both together), in LSB and in output units. */
+export interface ChannelSummary {
+  count: number;
+  maxAbsLsb: number;
+  /** Angle code (and its angle in degrees) where the largest |error| occurred; null when empty. */
+  maxAbsCode: number | null;
+  maxAbsDegrees: number | null;
+  meanLsb: number;
+  rmsLsb: number;
+  maxAbs: number;
+  mean: number;
+  rms: number;
+}
+
+/** One answer that differs from the model. */
+export interface Mismatch {
+  index: number;
+  code: number;
+  cos: number;
+  sin: number;
+  modelCos: number;
+  modelSin: number;
+}
+
+/** Everything scoring says about a set of answers; plain data, safe to save as JSON. */
+export interface ScoreSummary {
+  count: number;
+  cos: ChannelSummary;
+  sin: ChannelSummary;
+  overall: ChannelSummary;
+  /** sqrt(cos² + sin²) − 1 in output units. */
+  magnitude: { maxAbs: number; maxAbsCode: number | null; mean: number; rms: number };
+  /** atan2(sin, cos) − exact angle, wrapped to [−π, π), in radians. */
+  phase: { maxAbsRad: number; maxAbsCode: number | null; meanRad: number; rmsRad: number };
+  histogram: { limitLsb: number; binsPerLsb: number; edgesLsb: number[]; cos: number[]; sin: number[]; below: number; above: number };
+  mismatches: { count: number; maxAbsDiffLsb: number; first: Mismatch[] };
+  coverage: CoverageSummary;
+}
+
+/** Options of a score accumulator. */
+export interface ScoreOptions {
+  histogram?: HistogramOptions;
+  /** How many mismatches to keep, lowest request index first (default 10). */
+  keepMismatches?: number;
+}
+
+const TWO_PI = 2 * Math.PI;
+
+/** Streaming, mergeable scorer for one core configuration. */
+export class ScoreAccumulator {
+  readonly model: CordicModel;
+  readonly config: Readonly<ModelConfig>;
+  private readonly cosErr = new ErrorMoments();
+  private readonly sinErr = new ErrorMoments();
+  private readonly allErr = new ErrorMoments();
+  private readonly magErr = new ErrorMoments();
+  private readonly phaseErr = new ErrorMoments();
+  private readonly cosHist: ErrorHistogram;
+  private readonly sinHist: ErrorHistogram;
+  private readonly coverage: CodeCoverage;
+  private readonly keep: number;
+  private mismatchCount = 0;
+  private maxDiff = 0;
+  private first: Mismatch[] = [];
+  private nextIndex = 0;
+  // Scratch buffers, grown on demand, so scoring a batch allocates nothing per sample.
+  private exactCos = new Float64Array(0);
+  private exactSin = new Float64Array(0);
+  private modelCos = new Int32Array(0);
+  private modelSin = new Int32Array(0);
+
+  constructor(config: ModelConfigInput | ModelConfig = {}, options: ScoreOptions = {}) {
+    this.model = createCordicModel(config);
+    this.config = this.model.config;
+    this.cosHist = new ErrorHistogram(options.histogram ?? DEFAULT_HISTOGRAM);
+    this.sinHist = new ErrorHistogram(options.histogram ?? DEFAULT_HISTOGRAM);
+    this.coverage = new CodeCoverage(this.config);
+    this.keep = options.keepMismatches ?? 10;
+  }
+
+  /**
+   * Scores a batch of answers. `firstIndex` is the request index of codes[0] (RESULTS frames carry
+   * it); by default batches are numbered in arrival order.
+   * @throws AngleCodeError / OutputCodeError for values the formats cannot hold.
+   */
+  add(codes: ArrayLike<number>, cos: ArrayLike<number>, sin: ArrayLike<number>, firstIndex = this.nextIndex): this {
+    const n = codes.length;
+    if (cos.length !== n || sin.length !== n) throw new ScoringError(`codes, cos and sin differ in length (${n}, ${cos.length}, ${sin.length})`);
+    if (this.exactCos.length < n) {
+      this.exactCos = new Float64Array(n);
+      this.exactSin = new Float64Array(n);
+      this.modelCos = new Int32Array(n);
+      this.modelSin = new Int32Array(n);
+    }
+    const c = this.config;
+    this.model.evaluateInto(codes, this.modelCos, this.modelSin); // validates the codes
+    exactSinCosInto(c, codes, this.exactCos, this.exactSin);
+    const scale = 2 ** c.outFrac;
+    const radPerCode = c.angleFormat === 'turn' ? TWO_PI / 2 ** c.angleBits : 2 ** -c.angleFrac;
+    for (let k = 0; k < n; k++) {
+      const code = codes[k];
+      const oc = cos[k];
+      const os = sin[k];
+      assertOutputCode(c, oc);
+      assertOutputCode(c, os);
+      const ec = oc - this.exactCos[k] * scale;
+      const es = os - this.exactSin[k] * scale;
+      this.cosErr.add(ec, code);
+      this.sinErr.add(es, code);
+      this.allErr.add(ec, code);
+      this.allErr.add(es, code);
+      this.cosHist.add(ec);
+      this.sinHist.add(es);
+      const vc = oc / scale;
+      const vs = os / scale;
+      this.magErr.add(Math.sqrt(vc * vc + vs * vs) - 1, code);
+      let dp = Math.atan2(vs, vc) - code * radPerCode;
+      dp -= TWO_PI * Math.floor((dp + Math.PI) / TWO_PI);
+      this.phaseErr.add(dp, code);
+      this.coverage.add(code);
+      const dc = oc - this.modelCos[k];
+      const ds = os - this.modelSin[k];
+      if (dc !== 0 || ds !== 0) {
+        this.mismatchCount++;
+        this.maxDiff = Math.max(this.maxDiff, Math.abs(dc), Math.abs(ds));
+        this.keepMismatch({ index: firstIndex + k, code, cos: oc, sin: os, modelCos: this.modelCos[k], modelSin: this.modelSin[k] });
+      }
+    }
+    this.nextIndex = Math.max(this.nextIndex, firstIndex + n);
+    return this;
+  }
+
+  private keepMismatch(m: Mismatch): void {
+    if (this.first.length >= this.keep && m.index >= this.first[this.first.length - 1].index) return;
+    let at = this.first.length;
+    while (at > 0 && this.first[at - 1].index > m.index) at--;
+    this.first.splice(at, 0, m);
+    if (this.first.length > this.keep) this.first.pop();
+  }
+
+  /** Folds another accumulator of the same configuration into this one. */
+  merge(o: ScoreAccumulator): this {
+    if (JSON.stringify(o.config) !== JSON.stringify(this.config)) throw new ScoringError('cannot merge scores of different model configurations');
+    this.cosErr.merge(o.cosErr);
+    this.sinErr.merge(o.sinErr);
+    this.allErr.merge(o.allErr);
+    this.magErr.merge(o.magErr);
+    this.phaseErr.merge(o.phaseErr);
+    this.cosHist.merge(o.cosHist);
+    this.sinHist.merge(o.sinHist);
+    this.coverage.merge(o.coverage);
+    this.mismatchCount += o.mismatchCount;
+    this.maxDiff = Math.max(this.maxDiff, o.maxDiff);
+    for (const m of o.first) this.keepMismatch(m);
+    this.nextIndex = Math.max(this.nextIndex, o.nextIndex);
+    return this;
+  }
+
+  /** The statistics so far, as plain data. */
+  summary(): ScoreSummary {
+    const lsb = 2 ** -this.config.outFrac;
+    const channel = (m: ErrorMoments): ChannelSummary => ({
+      count: m.count,
+      maxAbsLsb: m.maxAbs,
+      maxAbsCode: m.maxAbsCode,
+      maxAbsDegrees: m.maxAbsCode === null ? null : angleCodeToDegrees(this.config, m.maxAbsCode),
+      meanLsb: m.mean,
+      rmsLsb: m.rms,
+      maxAbs: m.maxAbs * lsb,
+      mean: m.mean * lsb,
+      rms: m.rms * lsb,
+    });
+    const h = this.cosHist.options;
+    return {
+      count: this.cosErr.count,
+      cos: channel(this.cosErr),
+      sin: channel(this.sinErr),
+      overall: channel(this.allErr),
+      magnitude: { maxAbs: this.magErr.maxAbs, maxAbsCode: this.magErr.maxAbsCode, mean: this.magErr.mean, rms: this.magErr.rms },
+      phase: { maxAbsRad: this.phaseErr.maxAbs, maxAbsCode: this.phaseErr.maxAbsCode, meanRad: this.phaseErr.mean, rmsRad: this.phaseErr.rms },
+      histogram: {
+        limitLsb: h.limitLsb,
+        binsPerLsb: h.binsPerLsb,
+        edgesLsb: this.cosHist.edgesLsb(),
+        cos: Array.from(this.cosHist.counts),
+        sin: Array.from(this.sinHist.counts),
+        below: this.cosHist.below + this.sinHist.below,
+        above: this.cosHist.above + this.sinHist.above,
+      },
+      mismatches: { count: this.mismatchCount, maxAbsDiffLsb: this.maxDiff, first: this.first.map((m) => ({ ...m })) },
+      coverage: this.coverage.summary(),
+    };
+  }
+}
