@@ -1,0 +1,41 @@
+// The runner's entry: one sub-command per module, so `run` and `bridge` sit beside `model`.
+// Exit status: 0 pass, 1 fail, 2 error (bad input, bad configuration).
+import { runModelCommand } from './model';
+import type { CliIo } from './io';
+import { nodeIo } from './io';
+
+type Command = (argv: string[], io: CliIo) => Promise<number>;
+
+const COMMANDS: Record<string, { run: Command; summary: string }> = {
+  model: { run: runModelCommand, summary: 'evaluate the reference model for given angle codes and print JSON' },
+};
+
+function usage(): string {
+  const lines = Object.entries(COMMANDS).map(([name, c]) => `  ${name.padEnd(8)} ${c.summary}`);
+  return ['usage: npm run --silent cli -- <command> [options]', '', 'commands:', ...lines, ''].join('\n');
+}
+
+async function main(argv: string[]): Promise<number> {
+  const [name, ...rest] = argv;
+  if (name === undefined || name === '--help' || name === '-h') {
+    nodeIo.stdout(usage());
+    return name === undefined ? 2 : 0;
+  }
+  const command = COMMANDS[name];
+  if (!command) {
+    nodeIo.stderr(`error: unknown command "${name}" (known: ${Object.keys(COMMANDS).join(', ')})\n`);
+    return 2;
+  }
+  return command.run(rest, nodeIo);
+}
+
+// exitCode rather than exit(): a large JSON answer must finish flushing to a pipe first.
+main(process.argv.slice(2)).then(
+  (code) => {
+    process.exitCode = code;
+  },
+  (err: unknown) => {
+    nodeIo.stderr(`error: ${err instanceof Error ? err.message : String(err)}\n`);
+    process.exitCode = 2;
+  },
+);
