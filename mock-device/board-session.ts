@@ -1,0 +1,79 @@
+// One connection to the simulated board: the protocol logic, paced to the line rate, with the
+// line faults applied on the way to the host. Transport-free, so tests run it in-process.
+import { createSimCore, type CoreFault } from './faulty-core';
+import { LineFaults, noLineFaults, type LineFaultSettings } from './line-faults';
+import { LinePacer, realClock, type PacerClock } from './line-pacer';
+import { SimulatedBoard } from './simulated-board';
+import type { ModelConfigInput } from '../shared/numeric';
+
+export interface BoardSettings {
+  core: ModelConfigInput;
+  coreFault?: CoreFault;
+  queueDepth: number;
+  buildId: number;
+  clockKHz: number;
+  name: string;
+  baud: number;
+  lineFaults: LineFaultSettings;
+}
+
+export const defaultBoardSettings = (): BoardSettings => ({
+  core: {},
+  queueDepth: 256,
+  buildId: 0x2026_0001,
+  clockKHz: 200_000,
+  name: 'Anglebench simulated board',
+  baud: 3_000_000,
+  lineFaults: noLineFaults,
+});
+
+export interface BoardSession {
+  /** Bytes from the host. */
+  receive(bytes: Uint8Array): void;
+  /** Stop producing and drop whatever waits on the line. */
+  close(): void;
+  readonly faults: LineFaults;
+}
+
+export function openBoardSession(settings: BoardSettings, deliver: (bytes: Uint8Array) => void, clock: PacerClock = realClock): BoardSession {
+  const faults = new LineFaults(settings.lineFaults);
+  let releaseAt = 0;
+  let closed = false;
+  const out = (chunk: Uint8Array) => {
+    const bytes = faults.corrupt(chunk);
+    if (bytes.length === 0) return;
+    const delay = faults.jitter();
+    if (delay === 0 && releaseAt <= clock.now()) return deliver(bytes);
+    // Jitter delays chunks but never reorders them: each leaves no earlier than the one before.
+    releaseAt = Math.max(releaseAt, clock.now() + delay);
+    clock.after(releaseAt - clock.now(), () => !closed && deliver(bytes));
+  };
+  const holder: { board?: SimulatedBoard } = {};
+  const pacer = new LinePacer({
+    baud: settings.baud,
+    clock,
+    emit: (chunk) => {
+      out(chunk);
+      holder.board!.fill(pacer.queuedBytes);
+    },
+  });
+  const board = (holder.board = new SimulatedBoard({
+    core: createSimCore(settings.core, settings.coreFault),
+    queueDepth: settings.queueDepth,
+    buildId: settings.buildId,
+    clockKHz: settings.clockKHz,
+    name: settings.name,
+    send: (bytes) => {
+      pacer.write(bytes);
+      return pacer.queuedBytes;
+    },
+  }));
+  return {
+    faults,
+    receive: (bytes) => !closed && board.receive(bytes),
+    close: () => {
+      closed = true;
+      pacer.stop();
+    },
+  };
+}

@@ -1,0 +1,232 @@
+// The host side of the bench link: HELLO, then runs that keep the device's queue full without
+// overflowing it, match every reply to its request by TAG and index, and ask again for whatever
+// was refused, lost or corrupted, until each code is answered exactly once or listed as missing.
+//
+// Loss is detected two ways: a device answers requests in order, so a request overtaken by a
+// later one's reply has lost what it still lacks; and a line silent for timeoutMs while requests
+// are in flight has lost all of them. Both feed the same bounded retry path.
+import type { ByteLink } from './byte-link';
+import { emptyFigures, type LinkFigures, type RunProgress } from './link-figures';
+import { expandRequest, type RunRequest } from './run-request';
+import { Kind, NakReason } from '../link/kinds';
+import { encodeFrame } from '../link/frame';
+import { FrameDecoder, type DecodedFrame, type SkipEvent } from '../link/decoder';
+import { DEFAULT_CRC8, type Crc8Name } from '../link/crc8';
+import type { WireProfile } from '../link/wire-profile';
+import { decodePayload, profileFromInfo, type DeviceInfo, type Message, type MessageOf } from '../link/payloads';
+import { Run } from './link-run';
+
+/** Time and timers, injected: shared/ has no clock of its own. */
+export interface EngineClock {
+  now(): number;
+  after(ms: number, fn: () => void): () => void;
+}
+
+export interface LinkEngineOptions {
+  link: ByteLink;
+  clock: EngineClock;
+  crc?: Crc8Name;
+  /** The line rate, for the share-of-line figure. Default 3,000,000. */
+  baud?: number;
+  /** Silence after which requests in flight count as lost. Default 300 ms. */
+  timeoutMs?: number;
+  /** Times one code is asked for again before it is listed missing. Default 8. */
+  maxRetries?: number;
+  /** Codes per SWEEP request; smaller segments cost less to repeat. Default 8192. */
+  sweepSegment?: number;
+  /** Every byte chunk in each direction, for the recorder and the traffic pane. */
+  onTraffic?: (direction: 'tx' | 'rx', bytes: Uint8Array, atMs: number) => void;
+  onFrame?: (frame: DecodedFrame, atMs: number) => void;
+  onSkip?: (event: SkipEvent, atMs: number) => void;
+}
+
+/** One frame of results as it arrived: run indexes and their codes. */
+export interface ResultBatch {
+  indexes: Uint32Array;
+  cos: Int32Array;
+  sin: Int32Array;
+}
+
+export interface MissingCode {
+  index: number;
+  code: number;
+  reason: 'no answer' | 'angle out of range' | 'aborted';
+}
+
+export interface RunResult {
+  status: 'complete' | 'aborted' | 'failed';
+  message?: string;
+  codes: Float64Array;
+  cos: Int32Array;
+  sin: Int32Array;
+  /** 1 where the code was answered. */
+  answered: Uint8Array;
+  missing: MissingCode[];
+  figures: LinkFigures;
+  elapsedMs: number;
+}
+
+export interface RunHandle {
+  pause(): Promise<void>;
+  resume(): Promise<void>;
+  abort(): Promise<void>;
+  progress(): RunProgress;
+  readonly done: Promise<RunResult>;
+}
+
+export interface RunHandlers {
+  onResults?: (batch: ResultBatch) => void;
+  onProgress?: (p: RunProgress) => void;
+}
+
+export class LinkError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'LinkError';
+  }
+}
+
+/** The host end of one connection. */
+export class LinkEngine {
+  info: DeviceInfo | null = null;
+  readonly figures: LinkFigures = emptyFigures();
+  private readonly decoder: FrameDecoder;
+  private readonly o: Required<Omit<LinkEngineOptions, 'onTraffic' | 'onFrame' | 'onSkip'>> & LinkEngineOptions;
+  private nextTag = 0;
+  private readonly tagFreeAt = new Float64Array(256);
+  private readonly tagBusy = new Uint8Array(256);
+  private replyListeners = new Set<(f: DecodedFrame) => void>();
+  private lastRxAt = 0;
+
+  constructor(options: LinkEngineOptions) {
+    this.o = { crc: DEFAULT_CRC8, baud: 3_000_000, timeoutMs: 300, maxRetries: 8, sweepSegment: 8192, ...options };
+    this.decoder = new FrameDecoder({
+      crc: this.o.crc,
+      accept: 'replies',
+      onFrame: (f) => this.onFrame(f),
+      onSkip: (e) => {
+        this.figures.skippedBytes += e.bytes;
+        if (e.reason === 'bad-check') this.figures.checkFailures++;
+        this.o.onSkip?.(e, this.o.clock.now());
+      },
+    });
+    this.o.link.onBytes((bytes) => {
+      const now = this.o.clock.now();
+      this.lastRxAt = now;
+      this.figures.bytesReceived += bytes.length;
+      this.o.onTraffic?.('rx', bytes, now);
+      this.decoder.push(bytes);
+    });
+  }
+
+  /** The wire profile in force (from INFO after hello()). */
+  get profile(): WireProfile {
+    return this.decoder.profile;
+  }
+
+  /** Say HELLO and wait for INFO; the decoder then sizes fields from it. */
+  async hello(): Promise<DeviceInfo> {
+    const frame = await this.request(Kind.Hello, new Uint8Array(0), (f) => f.kind === Kind.Info);
+    const { info } = this.decode(frame) as MessageOf<typeof Kind.Info>;
+    this.info = info;
+    this.decoder.setProfile(profileFromInfo(info));
+    return info;
+  }
+
+  /** Start a run; the handle pauses, resumes or aborts it, and `done` settles with every code accounted for. */
+  run(req: RunRequest, handlers: RunHandlers = {}): RunHandle {
+    if (!this.info) throw new LinkError('Say HELLO before running: the device INFO sizes every field');
+    return new Run(this, expandRequest(req, this.profile), req.kind === 'sweep' ? req : null, handlers);
+  }
+
+  // ---- used by Run ------------------------------------------------------------------------
+
+  /** @internal */ get options() {
+    return this.o;
+  }
+  /** @internal */ get lastReplyAt() {
+    return this.lastRxAt;
+  }
+
+  /** @internal A free TAG, or -1 when all 256 are busy or cooling down after a loss. */
+  takeTag(): number {
+    const now = this.o.clock.now();
+    for (let k = 0; k < 256; k++) {
+      const t = (this.nextTag + k) & 0xff;
+      if (!this.tagBusy[t] && this.tagFreeAt[t] <= now) {
+        this.nextTag = (t + 1) & 0xff;
+        this.tagBusy[t] = 1;
+        return t;
+      }
+    }
+    return -1;
+  }
+
+  /** @internal Release a TAG; after a loss it cools down so a late reply cannot be misread. */
+  releaseTag(tag: number, lost: boolean) {
+    this.tagBusy[tag] = 0;
+    this.tagFreeAt[tag] = lost ? this.o.clock.now() + 4 * this.o.timeoutMs : 0;
+  }
+
+  /** @internal Decode a frame the decoder accepted (its LEN already fits the profile). */
+  decode(f: DecodedFrame): Message {
+    return decodePayload(f.kind, f.payload, this.profile);
+  }
+
+  /** @internal */ send(kind: number, tag: number, payload: Uint8Array) {
+    const bytes = encodeFrame(kind, tag, payload, this.o.crc);
+    this.figures.framesSent++;
+    this.figures.bytesSent += bytes.length;
+    this.o.onTraffic?.('tx', bytes, this.o.clock.now());
+    return this.o.link.write(bytes);
+  }
+
+  /** @internal Listen to every reply frame (the run's dispatcher). */
+  listen(l: (f: DecodedFrame) => void) {
+    this.replyListeners.add(l);
+    return () => this.replyListeners.delete(l);
+  }
+
+  /** @internal Send a control request and wait for its reply, repeating on silence. */
+  async request(kind: number, payload: Uint8Array, isReply: (f: DecodedFrame) => boolean, attempts = 4): Promise<DecodedFrame> {
+    for (let attempt = 0; attempt < attempts; attempt++) {
+      const tag = this.takeTag();
+      if (tag < 0) throw new LinkError('No free TAG for a control request');
+      let cancel = () => {};
+      let unlisten = () => false as boolean;
+      const reply = new Promise<DecodedFrame | null>((resolve) => {
+        unlisten = this.listen((f) => {
+          if (f.tag !== tag) return;
+          if (f.kind === Kind.Nak && (this.decode(f) as MessageOf<typeof Kind.Nak>).refused === kind) resolve(f);
+          else if (isReply(f)) resolve(f);
+        });
+        cancel = this.o.clock.after(Math.max(this.o.timeoutMs, 250), () => resolve(null));
+      });
+      await this.send(kind, tag, payload);
+      const f = await reply;
+      cancel();
+      unlisten();
+      this.releaseTag(tag, f === null);
+      if (f && f.kind === Kind.Nak) {
+        const nak = this.decode(f) as MessageOf<typeof Kind.Nak>;
+        if (nak.reason === NakReason.BadCheck) continue;
+        throw new LinkError(`The device refused ${kindLabel(kind)} (NAK reason ${nak.reason})`);
+      }
+      if (f) return f;
+    }
+    throw new LinkError(`No reply to ${kindLabel(kind)} after ${attempts} tries: is the device connected and at the right baud rate?`);
+  }
+
+  private onFrame(f: DecodedFrame) {
+    this.figures.framesReceived++;
+    this.o.onFrame?.(f, this.o.clock.now());
+    if (f.kind === Kind.Nak) {
+      const { reason } = this.decode(f) as MessageOf<typeof Kind.Nak>;
+      this.figures.naks[reason] = (this.figures.naks[reason] ?? 0) + 1;
+    }
+    for (const l of this.replyListeners) l(f);
+  }
+}
+
+const kindLabel = (kind: number) => ({ [Kind.Hello]: 'HELLO', [Kind.Pause]: 'PAUSE', [Kind.Resume]: 'RESUME', [Kind.Abort]: 'ABORT' })[kind] ?? `KIND 0x${kind.toString(16)}`;
+
