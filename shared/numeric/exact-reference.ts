@@ -1,6 +1,6 @@
 // The exact side of scoring: sin and cos of the angle a code stands for, in double precision, and
 // the ideal output codes (the exact value rounded once to the output format).
-import { assertAngleCode, roundHalfAwayFromZero, saturateOutputCode, type AngleFormat, type OutputFormat } from './formats';
+import { angleCodeRange, assertAngleCode, roundHalfAwayFromZero, saturateOutputCode, type AngleFormat, type OutputFormat } from './formats';
 import type { CosSin } from './cordic-model';
 
 const QUARTER_PI = Math.PI / 4;
@@ -34,8 +34,8 @@ function sinCosOfTurns(turns: number): void {
   }
 }
 
-function sinCosOfCode(f: AngleFormat, code: number): void {
-  assertAngleCode(f, code);
+function sinCosOfCode(f: AngleFormat, code: number, min: number, max: number): void {
+  if (!(Number.isInteger(code) && code >= min && code <= max)) assertAngleCode(f, code);
   if (f.angleFormat === 'turn') {
     sinCosOfTurns(code / 2 ** f.angleBits);
   } else {
@@ -53,14 +53,16 @@ export function exactSinCosOfTurns(turns: number): CosSin {
 
 /** sin and cos of the angle an angle code stands for. @throws AngleCodeError */
 export function exactSinCos(f: AngleFormat, code: number): CosSin {
-  sinCosOfCode(f, code);
+  const r = angleCodeRange(f);
+  sinCosOfCode(f, code, r.min, r.max);
   return { cos: outCos, sin: outSin };
 }
 
 /** Exact sin and cos for many codes, into caller-owned arrays. @throws AngleCodeError */
 export function exactSinCosInto(f: AngleFormat, codes: ArrayLike<number>, cosOut: Float64Array, sinOut: Float64Array): void {
+  const r = angleCodeRange(f);
   for (let k = 0; k < codes.length; k++) {
-    sinCosOfCode(f, codes[k]);
+    sinCosOfCode(f, codes[k], r.min, r.max);
     cosOut[k] = outCos;
     sinOut[k] = outSin;
   }
