@@ -3,6 +3,8 @@
 import { ConfigError, loadConfig } from '../server/config';
 import { startServer } from '../server/server';
 import { buildClientIfStale } from './client-build';
+import { defaultBoardSettings } from '../mock-device/board-session';
+import { startMockServer } from '../mock-device/ws-server';
 
 process.env.NODE_ENV ??= 'production';
 try {
@@ -14,8 +16,14 @@ try {
     const password = process.env.DEMO_PASSWORD ? 'the DEMO_PASSWORD you set' : config.demoPassword;
     console.log(`Demo sign-ins (password: ${password}):\n${server.demoAccounts.map((a) => `  ${a}`).join('\n')}\n`);
   }
+  // The simulated board, so the Bench page has something to talk to out of the box.
+  const board = await startMockServer(defaultBoardSettings(), config.mockWsPort).catch((err: Error) => {
+    console.warn(`The simulated board could not start on port ${config.mockWsPort}: ${err.message}`);
+    return null;
+  });
+  if (board) console.log(`Simulated board (reference-16 core, 3,000,000 baud) at ${board.url}\n`);
   if (server.mailCatcherUrl) console.log(`E-mail is caught locally (admins read it on the outbox page).\n`);
-  const stop = () => void server.close().then(() => process.exit(0));
+  const stop = () => void Promise.all([server.close(), board?.close()]).then(() => process.exit(0));
   process.once('SIGINT', stop);
   process.once('SIGTERM', stop);
 } catch (err) {

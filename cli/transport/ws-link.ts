@@ -1,0 +1,66 @@
+import WebSocket from 'ws';
+import { LinkClosedError, LinkEvents, type ByteLink } from '../../shared/bench/byte-link';
+
+/** A WebSocket device (the simulated board or a bench bridge) from Node, as a ByteLink. */
+export class NodeSocketLink implements ByteLink {
+  private readonly events = new LinkEvents();
+  private requested = false;
+
+  private constructor(private readonly ws: WebSocket) {
+    ws.on('message', (data: Buffer, isBinary: boolean) => {
+      if (isBinary) this.events.emitBytes(new Uint8Array(data.buffer, data.byteOffset, data.byteLength));
+    });
+    ws.on('close', (code, reason) =>
+      this.events.emitClose({
+        requested: this.requested,
+        message: this.requested ? 'Closed by the host' : `The device closed the connection${reason.length ? `: ${reason.toString()}` : ` (code ${code})`}`,
+      }),
+    );
+    ws.on('error', () => undefined); // 'close' follows with the reason
+  }
+
+  /** Connect; reject with a one-line reason (refused, busy, timed out). */
+  static open(url: string, timeoutMs = 5000): Promise<NodeSocketLink> {
+    return new Promise((resolve, reject) => {
+      const ws = new WebSocket(url, { handshakeTimeout: timeoutMs });
+      const fail = (why: string) => reject(new Error(`Cannot connect to ${url}: ${why}`));
+      ws.once('error', (err) => fail(err.message || 'connection failed'));
+      ws.once('open', () => {
+        // A busy device accepts the handshake and closes at once: wait a moment for that.
+        const early = (code: number, reason: Buffer) => fail(reason.toString() || `closed with code ${code}`);
+        ws.once('close', early);
+        setTimeout(() => {
+          ws.off('close', early);
+          if (ws.readyState === WebSocket.OPEN) resolve(new NodeSocketLink(ws));
+        }, 50);
+      });
+    });
+  }
+
+  get closed() {
+    return this.events.closed;
+  }
+  onBytes(l: (b: Uint8Array) => void) {
+    this.events.onBytes(l);
+  }
+  onWarning(l: (m: string) => void) {
+    this.events.onWarning(l);
+  }
+  onClose(l: (r: { requested: boolean; message: string }) => void) {
+    this.events.onClose(l);
+  }
+
+  write(bytes: Uint8Array): Promise<void> {
+    if (this.closed || this.ws.readyState !== WebSocket.OPEN) return Promise.reject(new LinkClosedError());
+    return new Promise((resolve, reject) => this.ws.send(bytes, { binary: true }, (err) => (err ? reject(err) : resolve())));
+  }
+
+  close(): Promise<void> {
+    if (this.closed) return Promise.resolve();
+    this.requested = true;
+    return new Promise((resolve) => {
+      this.onClose(() => resolve());
+      this.ws.close(1000, 'host closed');
+    });
+  }
+}
