@@ -1,12 +1,12 @@
 import WebSocket from 'ws';
-import { LinkClosedError, LinkEvents, type ByteLink } from '../../shared/bench/byte-link';
+import { ByteLinkBase, LinkClosedError } from '../../shared/bench/byte-link';
 
 /** A WebSocket device (the simulated board or a bench bridge) from Node, as a ByteLink. */
-export class NodeSocketLink implements ByteLink {
-  private readonly events = new LinkEvents();
+export class NodeSocketLink extends ByteLinkBase {
   private requested = false;
 
   private constructor(private readonly ws: WebSocket) {
+    super();
     ws.on('message', (data: Buffer, isBinary: boolean) => {
       if (isBinary) this.events.emitBytes(new Uint8Array(data.buffer, data.byteOffset, data.byteLength));
     });
@@ -37,18 +37,6 @@ export class NodeSocketLink implements ByteLink {
     });
   }
 
-  get closed() {
-    return this.events.closed;
-  }
-  onBytes(l: (b: Uint8Array) => void) {
-    this.events.onBytes(l);
-  }
-  onWarning(l: (m: string) => void) {
-    this.events.onWarning(l);
-  }
-  onClose(l: (r: { requested: boolean; message: string }) => void) {
-    this.events.onClose(l);
-  }
 
   write(bytes: Uint8Array): Promise<void> {
     if (this.closed || this.ws.readyState !== WebSocket.OPEN) return Promise.reject(new LinkClosedError());

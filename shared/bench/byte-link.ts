@@ -61,3 +61,23 @@ export class LinkEvents {
     for (const l of this.closes.splice(0)) l(reason);
   }
 }
+
+/** The listener half of a ByteLink; a transport extends it and adds write and close. */
+export abstract class ByteLinkBase implements ByteLink {
+  protected readonly events = new LinkEvents();
+
+  get closed() {
+    return this.events.closed;
+  }
+  onBytes(l: (b: Uint8Array) => void) {
+    this.events.onBytes(l);
+  }
+  onWarning(l: (m: string) => void) {
+    this.events.onWarning(l);
+  }
+  onClose(l: (r: LinkCloseReason) => void) {
+    this.events.onClose(l);
+  }
+  abstract write(bytes: Uint8Array): Promise<void>;
+  abstract close(): Promise<void>;
+}

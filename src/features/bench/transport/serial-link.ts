@@ -1,4 +1,4 @@
-import { LinkClosedError, LinkEvents, type ByteLink } from '../../../../shared/bench/byte-link';
+import { ByteLinkBase, LinkClosedError } from '../../../../shared/bench/byte-link';
 import type { SerialSettings } from './serial-options';
 
 /** Read errors after which the port's readable can be taken again (WICG Web Serial draft). */
@@ -11,8 +11,7 @@ export const hasWebSerial = (nav: Navigator = navigator) => 'serial' in nav && n
  * One open Web Serial port as a ByteLink. A background loop reads into listeners; writes go
  * through one promise chain so they never interleave; locks are always released.
  */
-export class SerialLink implements ByteLink {
-  private readonly events = new LinkEvents();
+export class SerialLink extends ByteLinkBase {
   private reader: ReadableStreamDefaultReader<Uint8Array> | null = null;
   private writeChain: Promise<void> = Promise.resolve();
   private readLoop: Promise<void> = Promise.resolve();
@@ -24,7 +23,9 @@ export class SerialLink implements ByteLink {
   private constructor(
     private readonly port: SerialPort,
     private readonly serial: Serial,
-  ) {}
+  ) {
+    super();
+  }
 
   /** Open `port` with `settings` and start reading. */
   static async open(port: SerialPort, settings: SerialSettings, serial: Serial = navigator.serial): Promise<SerialLink> {
@@ -43,18 +44,6 @@ export class SerialLink implements ByteLink {
     return link;
   }
 
-  get closed() {
-    return this.events.closed;
-  }
-  onBytes(l: (b: Uint8Array) => void) {
-    this.events.onBytes(l);
-  }
-  onWarning(l: (m: string) => void) {
-    this.events.onWarning(l);
-  }
-  onClose(l: (r: { requested: boolean; message: string }) => void) {
-    this.events.onClose(l);
-  }
 
   /** Change DTR/RTS while open (many boards wire them to reset or boot pins). */
   setSignals(signals: { dataTerminalReady?: boolean; requestToSend?: boolean }) {

@@ -1,13 +1,13 @@
-import { LinkClosedError, LinkEvents, type ByteLink } from '../../../../shared/bench/byte-link';
+import { ByteLinkBase, LinkClosedError } from '../../../../shared/bench/byte-link';
 
 /**
  * The simulated board or a bench bridge over WebSocket: each binary message carries raw line
  * bytes in either direction, with no alignment to frames.
  */
-export class SocketLink implements ByteLink {
-  private readonly events = new LinkEvents();
+export class SocketLink extends ByteLinkBase {
 
   private constructor(private readonly socket: WebSocket) {
+    super();
     socket.binaryType = 'arraybuffer';
     socket.addEventListener('message', (e: MessageEvent) => {
       if (e.data instanceof ArrayBuffer) this.events.emitBytes(new Uint8Array(e.data));
@@ -47,18 +47,6 @@ export class SocketLink implements ByteLink {
     });
   }
 
-  get closed() {
-    return this.events.closed;
-  }
-  onBytes(l: (b: Uint8Array) => void) {
-    this.events.onBytes(l);
-  }
-  onWarning(l: (m: string) => void) {
-    this.events.onWarning(l);
-  }
-  onClose(l: (r: { requested: boolean; message: string }) => void) {
-    this.events.onClose(l);
-  }
 
   async write(bytes: Uint8Array): Promise<void> {
     if (this.closed || this.socket.readyState !== WebSocket.OPEN) throw new LinkClosedError();
