@@ -1,5 +1,6 @@
 import { createBrowserRouter } from 'react-router-dom';
 import { queryClient } from '../lib/query-client';
+import { requireUser } from './require-user';
 import { RootLayout } from './routes/root-layout';
 import { RouteError } from './routes/route-error';
 
@@ -14,6 +15,17 @@ export const router = createBrowserRouter([
         lazy: async () => {
           const m = await import('./routes/overview');
           return { Component: m.OverviewRoute, loader: m.overviewLoader(queryClient) };
+        },
+      },
+      {
+        path: 'sign-in',
+        lazy: async () => ({ Component: (await import('./routes/sign-in')).SignInRoute }),
+      },
+      {
+        path: 'bench',
+        lazy: async () => {
+          const m = await import('./routes/bench');
+          return { Component: m.BenchRoute, loader: requireUser(queryClient) };
         },
       },
       {

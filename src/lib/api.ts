@@ -15,9 +15,53 @@ export interface ApiRequest extends Omit<RequestInit, 'body'> {
   body?: unknown;
 }
 
-/** Fetch `/api…` with the session cookie; resolve to the parsed JSON or throw an ApiError. */
+const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
+
+// The session's CSRF token, fetched once and shared by every write. Sign-in and sign-out change
+// the session, so they replace or forget it (setCsrfToken / forgetCsrfToken).
+let csrfToken: Promise<string> | null = null;
+
+/** The session's CSRF token, from GET /api/auth/csrf on first use. */
+export function csrfTokenForWrites(): Promise<string> {
+  csrfToken ??= api<{ token: string }>('/api/auth/csrf').then(
+    (r) => r.token,
+    (err: unknown) => {
+      csrfToken = null; // try again on the next write
+      throw err;
+    },
+  );
+  return csrfToken;
+}
+
+/** Keep the token a sign-in reply carried (the session was regenerated). */
+export function setCsrfToken(token: string): void {
+  csrfToken = Promise.resolve(token);
+}
+
+/** Forget the token (after sign-out); the next write fetches a fresh one. */
+export function forgetCsrfToken(): void {
+  csrfToken = null;
+}
+
+/**
+ * Fetch `/api…` with the session cookie; resolve to the parsed JSON or throw an ApiError.
+ * Writes carry the x-csrf-token header; a stale token is refreshed and the write sent once more.
+ */
 export async function api<T>(path: string, init: ApiRequest = {}): Promise<T> {
+  const method = (init.method ?? 'GET').toUpperCase();
+  if (SAFE_METHODS.has(method)) return send<T>(path, init, null);
+  try {
+    return await send<T>(path, init, await csrfTokenForWrites());
+  } catch (err) {
+    if (!(err instanceof ApiError && err.status === 403 && err.code === 'csrf')) throw err;
+    forgetCsrfToken();
+    return send<T>(path, init, await csrfTokenForWrites());
+  }
+}
+
+async function send<T>(path: string, init: ApiRequest, csrf: string | null): Promise<T> {
   const headers = new Headers(init.headers);
+  if (csrf) headers.set('x-csrf-token', csrf);
   let body: BodyInit | undefined;
   if (init.body instanceof FormData || init.body instanceof Blob) body = init.body;
   else if (init.body !== undefined) {

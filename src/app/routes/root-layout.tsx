@@ -1,7 +1,11 @@
 import { NavLink, Outlet } from 'react-router-dom';
 import { BrandMark } from '../../components/brand-mark';
+import { UserBadge } from '../../features/auth/components/user-badge';
 
-const nav = [{ to: '/', label: 'Overview', end: true }];
+const nav = [
+  { to: '/', label: 'Overview', end: true },
+  { to: '/bench', label: 'Bench', end: false },
+];
 
 export function RootLayout() {
   return (
@@ -26,6 +30,9 @@ export function RootLayout() {
               </NavLink>
             ))}
           </nav>
+          <div className="ml-auto">
+            <UserBadge />
+          </div>
         </div>
       </header>
       <main className="flex-1 mx-auto w-full max-w-screen-2xl px-6 py-6">

@@ -1,0 +1,32 @@
+import { Link, useNavigate } from 'react-router-dom';
+import { useMe } from '../api/get-me';
+import { useLogout } from '../api/logout';
+
+/** Who is signed in, with a sign-out button; a sign-in link when nobody is. */
+export function UserBadge() {
+  const me = useMe();
+  const logout = useLogout();
+  const navigate = useNavigate();
+  if (me.isPending) return null;
+  if (!me.data)
+    return (
+      <Link to="/sign-in" className="rounded px-3 py-1.5 text-sm text-paper/90 hover:bg-white/10">
+        Sign in
+      </Link>
+    );
+  return (
+    <div className="flex items-center gap-3 text-sm">
+      <span data-testid="signed-in-as">
+        <span className="text-paper">{me.data.name}</span> <span className="text-paper/60">· {me.data.role}</span>
+      </span>
+      <button
+        type="button"
+        disabled={logout.isPending}
+        onClick={() => logout.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
+        className="rounded border border-paper/30 px-3 py-1 text-paper/90 hover:bg-white/10"
+      >
+        Sign out
+      </button>
+    </div>
+  );
+}
