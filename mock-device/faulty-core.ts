@@ -4,7 +4,7 @@ import { buildCordicTables, createCordicModel, outputCodeRange, parseModelConfig
 import { readAngle } from '../shared/numeric/cordic-model';
 
 /**
- * `gain`: the start value for the wrong iteration count (n − 4); `fold`: no quadrant folding;
+ * `gain`: the start value for the wrong iteration count (K of 2 iterations, about 4% high); `fold`: no quadrant folding;
  * `sign:K`: iteration K turns the wrong way; `stuck:B`: output bit B stuck at 1.
  */
 export type CoreFault = { kind: 'gain' } | { kind: 'fold' } | { kind: 'sign'; iteration: number } | { kind: 'stuck'; bit: number };
@@ -49,7 +49,7 @@ export function createSimCore(input: ModelConfigInput, fault?: CoreFault): SimCo
     throw new Error(`--core-fault sign:${fault.iteration}: the core has only ${config.iterations} iterations`);
   }
   const tables = buildCordicTables(config);
-  const x0 = fault.kind === 'gain' ? buildCordicTables({ ...config, iterations: Math.max(1, config.iterations - 4) }).x0 : tables.x0;
+  const x0 = fault.kind === 'gain' ? buildCordicTables({ ...config, iterations: Math.min(2, config.iterations) }).x0 : tables.x0;
   const badIteration = fault.kind === 'sign' ? fault.iteration : -1;
   const g = 2 ** config.guardBits;
   const bias = config.outputRounding === 'nearest' && config.guardBits > 0 ? g / 2 : 0;
