@@ -1,6 +1,7 @@
 // The runner's entry: one sub-command per module, so `run` and `bridge` sit beside `model`.
 // Exit status: 0 pass, 1 fail, 2 error (bad input, bad configuration).
 import { runModelCommand } from './model';
+import { runRunCommand } from './run';
 import type { CliIo } from './io';
 import { nodeIo } from './io';
 
@@ -8,6 +9,7 @@ type Command = (argv: string[], io: CliIo) => Promise<number>;
 
 const COMMANDS: Record<string, { run: Command; summary: string }> = {
   model: { run: runModelCommand, summary: 'evaluate the reference model for given angle codes and print JSON' },
+  run: { run: (argv, io) => runRunCommand(argv, io), summary: 'run a bench plan against a board, print the verdict (exit 0 pass, 1 fail, 2 error)' },
 };
 
 function usage(): string {

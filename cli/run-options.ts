@@ -1,0 +1,183 @@
+// The `run` command line, validated at the edge: every mistake is one line naming the option.
+import { parseArgs } from 'node:util';
+import { z } from 'zod';
+import { isCrc8Name, type Crc8Name } from '../shared/link';
+import { parseModelConfig, type ModelConfigInput } from '../shared/numeric';
+import { parseLimits, type Limits } from './run-verdict';
+
+export const RUN_HELP = `usage: npm run --silent cli -- run --device <serial path | ws://host:port/> --plan <plan> --core <slug> [options]
+
+  --device D       a serial port (/dev/ttyUSB0, COM3) or a WebSocket device (ws://127.0.0.1:5175/)
+  --baud N         line rate, 9600..12000000 (default: the core's link profile, else 3000000)
+  --crc NAME       frame check, e.g. CRC-8/AUTOSAR (default: the core's link profile, else CRC-8/SMBUS)
+  --plan P         exhaustive | sweep:START,STEP,COUNT | random:COUNT,SEED | edges | tone:M,N | file:PATH
+  --core SLUG      the core under test (its model and limits come from the server when one is given)
+  --build LABEL    the bitstream build on the board, for the record
+  --board NAME     the bench board, for the record
+  --server URL     the Anglebench server; needs --token (a personal API token)
+  --token T        personal API token, sent as "Authorization: Bearer T"
+  --limits JSON    acceptance limits, e.g. '{"maxAbsErrorLsb":2,"maxModelMismatches":0}'
+  --config JSON    reference-model configuration (default: the server's core, else from INFO)
+  --out FILE       write the capture archive (both directions) to FILE
+  --json           print a machine-readable summary on stdout (progress stays on stderr)
+
+Exit status: 0 every limit passes, 1 a limit fails, 2 an error (one line on stderr).
+`;
+
+/** A bad command line: one line for the user, exit status 2. */
+export class UsageError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'UsageError';
+  }
+}
+
+/** The plan as typed: resolved against the core's angle format once INFO is known. */
+export type PlanSpec =
+  | { kind: 'exhaustive' }
+  | { kind: 'edges' }
+  | { kind: 'sweep'; start: number; step: number; count: number }
+  | { kind: 'random'; count: number; seed: number }
+  | { kind: 'tone'; cycles: number; samples: number }
+  | { kind: 'file'; path: string };
+
+export interface RunOptions {
+  device: string;
+  baud: number | null;
+  plan: PlanSpec;
+  planText: string;
+  core: string;
+  build: string | null;
+  board: string | null;
+  server: { url: string; token: string } | null;
+  limits: Limits | null;
+  config: ModelConfigInput | null;
+  out: string | null;
+  json: boolean;
+  help: boolean;
+  crc: Crc8Name | null;
+}
+
+const INTEGER = /^[+-]?(0x[0-9a-f]+|\d+)$/i;
+
+/** An integer in decimal or 0x hex, signed. */
+export function parseInteger(text: string, where: string): number {
+  const t = text.trim();
+  if (!INTEGER.test(t)) throw new UsageError(`${where}: "${t}" is not an integer`);
+  const v = Number(t.replace(/^[+-]/, ''));
+  return t.startsWith('-') ? -v : v;
+}
+
+function ints(text: string, n: number, where: string, names: string): number[] {
+  const parts = text.split(',');
+  if (parts.length !== n) throw new UsageError(`--plan ${where} needs ${names}, got "${text}"`);
+  return parts.map((p) => parseInteger(p, `--plan ${where}`));
+}
+
+/** Parse a --plan value; ranges are checked later, against the core's format. */
+export function parsePlanSpec(text: string): PlanSpec {
+  const [name, ...rest] = text.split(':');
+  const arg = rest.join(':');
+  switch (name) {
+    case 'exhaustive':
+    case 'edges':
+      if (arg !== '') throw new UsageError(`--plan ${name} takes no arguments`);
+      return { kind: name };
+    case 'sweep': {
+      const [start, step, count] = ints(arg, 3, 'sweep', 'START,STEP,COUNT');
+      return { kind: 'sweep', start, step, count };
+    }
+    case 'random': {
+      const [count, seed] = ints(arg, 2, 'random', 'COUNT,SEED');
+      return { kind: 'random', count, seed };
+    }
+    case 'tone': {
+      const [cycles, samples] = ints(arg, 2, 'tone', 'M,N (M cycles in N samples)');
+      return { kind: 'tone', cycles, samples };
+    }
+    case 'file':
+      if (arg === '') throw new UsageError('--plan file needs a path: file:PATH');
+      return { kind: 'file', path: arg };
+    default:
+      throw new UsageError(`--plan must be exhaustive, sweep:START,STEP,COUNT, random:COUNT,SEED, edges, tone:M,N or file:PATH, got "${text}"`);
+  }
+}
+
+function json(text: string, option: string): unknown {
+  try {
+    return JSON.parse(text);
+  } catch {
+    throw new UsageError(`--${option} must be JSON`);
+  }
+}
+
+const urlSchema = z.url({ protocol: /^https?$/ });
+
+export function parseRunArgs(argv: string[]): RunOptions {
+  let values: Record<string, string | boolean | undefined>;
+  try {
+    ({ values } = parseArgs({
+      args: argv,
+      strict: true,
+      allowPositionals: false,
+      options: {
+        device: { type: 'string' },
+        baud: { type: 'string' },
+        plan: { type: 'string' },
+        core: { type: 'string' },
+        build: { type: 'string' },
+        board: { type: 'string' },
+        server: { type: 'string' },
+        token: { type: 'string' },
+        limits: { type: 'string' },
+        config: { type: 'string' },
+        crc: { type: 'string' },
+        out: { type: 'string' },
+        json: { type: 'boolean' },
+        help: { type: 'boolean', short: 'h' },
+      },
+    }));
+  } catch (e) {
+    throw new UsageError((e as Error).message.split('\n')[0]);
+  }
+  const str = (k: string) => (typeof values[k] === 'string' ? (values[k] as string) : undefined);
+  if (values.help) return { help: true } as RunOptions;
+  for (const k of ['device', 'plan', 'core']) if (str(k) === undefined) throw new UsageError(`--${k} is required (see run --help)`);
+  let baud: number | null = null;
+  if (str('baud') !== undefined) {
+    baud = parseInteger(str('baud')!, '--baud');
+    if (baud < 9_600 || baud > 12_000_000) throw new UsageError(`--baud must be 9600..12000000, got ${baud}`);
+  }
+  const serverUrl = str('server');
+  const token = str('token');
+  if ((serverUrl === undefined) !== (token === undefined)) throw new UsageError('--server and --token go together');
+  if (serverUrl !== undefined && !urlSchema.safeParse(serverUrl).success) throw new UsageError(`--server must be an http(s) URL, got "${serverUrl}"`);
+  let config: ModelConfigInput | null = null;
+  if (str('config') !== undefined) {
+    try {
+      config = parseModelConfig(json(str('config')!, 'config'));
+    } catch (e) {
+      throw new UsageError(`--config: ${(e as Error).message}`);
+    }
+  }
+  const crc = str('crc');
+  if (crc !== undefined && !isCrc8Name(crc)) throw new UsageError(`--crc must be a catalogued CRC-8 name such as CRC-8/SMBUS, got "${crc}"`);
+  const core = str('core')!;
+  if (!/^[a-z0-9]+(?:-[a-z0-9]+)*$/.test(core)) throw new UsageError(`--core must be a core slug (lower-case letters, digits, single hyphens), got "${core}"`);
+  return {
+    device: str('device')!,
+    baud,
+    plan: parsePlanSpec(str('plan')!),
+    planText: str('plan')!,
+    core,
+    build: str('build') ?? null,
+    board: str('board') ?? null,
+    server: serverUrl !== undefined ? { url: serverUrl.replace(/\/+$/, ''), token: token! } : null,
+    limits: str('limits') !== undefined ? parseLimits(json(str('limits')!, 'limits'), '--limits') : null,
+    config,
+    out: str('out') ?? null,
+    json: values.json === true,
+    help: false,
+    crc: (crc as Crc8Name | undefined) ?? null,
+  };
+}

@@ -1,0 +1,159 @@
+// The run's capture: both directions through the shared Recorder, with a label that says what
+// was asked (plan, model configuration), so an archive alone scores again to the same figures.
+import { Kind, RecordedDecoder, Recorder, decodePayload, profileFromInfo, readArchive, replayArchive, sweepAngleCode, type Crc8Name, type DecodedFrame, type MessageOf, type WireProfile } from '../shared/link';
+import { expandRequest } from '../shared/bench/run-request';
+import { parseModelConfig, planSchema, type ModelConfig, type Plan } from '../shared/numeric';
+import { planToRequest } from './run-plan';
+import { scoreRun, type RunScore } from './run-score';
+
+/** The archive label of a runner capture, as JSON. */
+export interface RunLabel {
+  recordedBy: 'anglebench run';
+  core: string;
+  build: string | null;
+  board: string | null;
+  plan: Plan;
+  model: ModelConfig;
+}
+
+/** The label's size limit of the archive format (docs/archive.md), minus its other header fields. */
+export const MAX_LABEL_BYTES = 65_000;
+
+export function labelBytes(label: RunLabel): number {
+  return new TextEncoder().encode(JSON.stringify(label)).length;
+}
+
+/**
+ * Records every chunk each way; the to-host side switches profile at INFO, as the engine does.
+ * The archive header (with its label) is written first, but the label is only known after INFO
+ * has fixed the plan and model: until start(), chunks wait with their times.
+ */
+export class RunRecording {
+  private readonly pending: Array<['tx' | 'rx', Uint8Array, number]> = [];
+  private sides: { recorder: Recorder; toDevice: RecordedDecoder; toHost: RecordedDecoder } | null = null;
+  private timeMs = 0;
+  private finished = false;
+
+  constructor(private readonly crc: Crc8Name) {}
+
+  /** Bytes as they crossed the line, at the caller's time in ms. */
+  traffic(direction: 'tx' | 'rx', bytes: Uint8Array, atMs: number) {
+    if (this.finished) return;
+    if (!this.sides) {
+      this.pending.push([direction, bytes.slice(), atMs]);
+      return;
+    }
+    this.timeMs = atMs;
+    (direction === 'tx' ? this.sides.toDevice : this.sides.toHost).push(bytes);
+  }
+
+  /** Fix the label: write the header and everything recorded so far. */
+  start(label: RunLabel) {
+    if (this.sides) return;
+    const recorder = new Recorder({ crc: this.crc, accept: { 'to-device': 'requests', 'to-host': 'replies' }, label: JSON.stringify(label) });
+    const nowMs = () => this.timeMs;
+    const toDevice = new RecordedDecoder({ recorder, direction: 'to-device', nowMs, onFrame: () => {} });
+    const toHost: RecordedDecoder = new RecordedDecoder({
+      recorder,
+      direction: 'to-host',
+      nowMs,
+      onFrame: (f) => {
+        if (f.kind !== Kind.Info) return;
+        try {
+          const { info } = decodePayload(f.kind, f.payload, toHost.decoder.profile) as MessageOf<typeof Kind.Info>;
+          const p = profileFromInfo(info);
+          toHost.setProfile(p);
+          toDevice.setProfile(p);
+        } catch {
+          // An INFO the engine cannot use either: the run fails on its own.
+        }
+      },
+    });
+    this.sides = { recorder, toDevice, toHost };
+    for (const [d, b, t] of this.pending.splice(0)) this.traffic(d, b, t);
+  }
+
+  /** Close both streams (incomplete frames become truncated skips) and return the archive. */
+  finish(atMs: number): Uint8Array {
+    if (!this.sides) throw new Error('RunRecording.finish before start');
+    if (!this.finished) {
+      this.timeMs = atMs;
+      this.finished = true;
+      this.sides.toDevice.finish();
+      this.sides.toHost.finish();
+    }
+    return this.sides.recorder.toArchive();
+  }
+}
+
+export class NotARunArchiveError extends Error {}
+
+/**
+ * Score an archive written by `run --out` again: requests are matched to replies by TAG as the
+ * engine matches them, and the first answer of each code fills the plan's slots in order.
+ */
+export function scoreArchive(bytes: Uint8Array): { label: RunLabel; score: RunScore } {
+  const { header } = readArchive(bytes);
+  let label: RunLabel;
+  try {
+    const raw = JSON.parse(header.label) as RunLabel;
+    if (raw.recordedBy !== 'anglebench run') throw new Error('not a runner label');
+    label = { ...raw, plan: planSchema.parse(raw.plan), model: parseModelConfig(raw.model) };
+  } catch {
+    throw new NotARunArchiveError('This archive was not written by `run --out`: its label holds no plan');
+  }
+  const replay = replayArchive(bytes);
+  let profile: WireProfile = header.profile;
+  const requests = new Map<number, { codeAt: (i: number) => number; count: number; got: Uint8Array }>();
+  const answers = new Map<number, Array<[number, number]>>();
+  let checkFailures = 0;
+  for (const s of replay.skips) if (s.direction === 'to-host' && s.event.reason === 'bad-check') checkFailures++;
+  for (const { direction, frame } of replay.frames) {
+    const m = safeDecode(frame, profile);
+    if (!m) continue;
+    if (direction === 'to-device') {
+      if (m.kind === Kind.One) requests.set(frame.tag, { codeAt: () => m.angleCode, count: 1, got: new Uint8Array(1) });
+      else if (m.kind === Kind.List) requests.set(frame.tag, { codeAt: (i) => m.angleCodes[i], count: m.angleCodes.length, got: new Uint8Array(m.angleCodes.length) });
+      else if (m.kind === Kind.Sweep) {
+        const p = profile;
+        requests.set(frame.tag, { codeAt: (i) => sweepAngleCode(m.start, m.step, i, p), count: m.count, got: new Uint8Array(m.count) });
+      }
+      continue;
+    }
+    if (m.kind === Kind.Info) profile = profileFromInfo(m.info);
+    if (m.kind !== Kind.Results) continue;
+    const req = requests.get(frame.tag);
+    if (!req) continue;
+    for (let j = 0; j < m.cos.length; j++) {
+      const pos = m.firstIndex + j;
+      if (pos >= req.count || req.got[pos]) continue;
+      req.got[pos] = 1;
+      const code = req.codeAt(pos);
+      const list = answers.get(code) ?? [];
+      list.push([m.cos[j], m.sin[j]]);
+      answers.set(code, list);
+    }
+  }
+  const codes = expandRequest(planToRequest(label.plan, label.model), profile);
+  const cos = new Int32Array(codes.length);
+  const sin = new Int32Array(codes.length);
+  const answered = new Uint8Array(codes.length);
+  const used = new Map<number, number>();
+  for (let i = 0; i < codes.length; i++) {
+    const list = answers.get(codes[i]);
+    const u = used.get(codes[i]) ?? 0;
+    if (!list || u >= list.length) continue;
+    [cos[i], sin[i]] = list[u];
+    used.set(codes[i], u + 1);
+    answered[i] = 1;
+  }
+  return { label, score: scoreRun(label.model, label.plan, { codes, cos, sin, answered }, checkFailures) };
+}
+
+function safeDecode(f: DecodedFrame, p: WireProfile) {
+  try {
+    return decodePayload(f.kind, f.payload, p);
+  } catch {
+    return null;
+  }
+}

@@ -1,0 +1,76 @@
+// Acceptance limits and the verdict of a run. The keys are the server's core `limits` field
+// (server/schemas/core.ts): a missing key is not checked; errors in output LSB, SFDR in dB.
+import { z } from 'zod';
+import type { RunScore } from './run-score';
+import { UsageError } from './run-options';
+
+const lsb = z.number().min(0).max(1e6);
+
+/** The same keys and bounds the server validates a core's limits with. */
+export const limitsSchema = z.strictObject({
+  maxAbsErrorLsb: lsb.optional(),
+  maxRmsErrorLsb: lsb.optional(),
+  maxAbsBiasLsb: lsb.optional(),
+  minSfdrDb: z.number().min(0).max(300).optional(),
+  maxModelMismatches: z.number().int().min(0).optional(),
+  maxLinkErrors: z.number().int().min(0).optional(),
+  minCoveragePct: z.number().min(0).max(100).optional(),
+});
+export type Limits = z.infer<typeof limitsSchema>;
+export type LimitKey = keyof Limits;
+
+export function parseLimits(input: unknown, where: string): Limits {
+  const r = limitsSchema.safeParse(input);
+  if (r.success) return r.data;
+  const issue = r.error.issues[0];
+  if (issue.code === 'unrecognized_keys') throw new UsageError(`${where}: "${issue.keys[0]}" is not a limit (known: ${Object.keys(limitsSchema.shape).join(', ')})`);
+  throw new UsageError(`${where}: ${issue.path.map(String).join('.') || 'limits'} ${issue.message}`);
+}
+
+export interface LimitCheck {
+  key: LimitKey;
+  limit: number;
+  /** The measured value; null when the plan cannot measure it (SFDR needs a tone plan). */
+  value: number | null;
+  /** 'skip': not measured by this plan, so it neither passes nor fails the run. */
+  outcome: 'pass' | 'fail' | 'skip';
+  note?: string;
+}
+
+export interface Verdict {
+  passed: boolean;
+  checks: LimitCheck[];
+}
+
+/** What each limit measures, and which way it must go. */
+const MEASURES: Record<LimitKey, { max: boolean; value: (s: RunScore) => number | null; note?: string }> = {
+  maxAbsErrorLsb: { max: true, value: (s) => s.summary.overall.maxAbsLsb },
+  maxRmsErrorLsb: { max: true, value: (s) => s.summary.overall.rmsLsb },
+  maxAbsBiasLsb: { max: true, value: (s) => Math.max(Math.abs(s.summary.cos.meanLsb), Math.abs(s.summary.sin.meanLsb)) },
+  minSfdrDb: { max: false, value: (s) => s.sfdrDb, note: 'needs a complete tone plan' },
+  maxModelMismatches: { max: true, value: (s) => s.summary.mismatches.count },
+  maxLinkErrors: { max: true, value: (s) => s.linkErrors },
+  minCoveragePct: { max: false, value: (s) => s.summary.coverage.share * 100 },
+};
+
+/**
+ * Every given limit against the score. A run with nothing answered fails every limit it could
+ * measure: an empty run proves nothing.
+ */
+export function judge(score: RunScore, limits: Limits): Verdict {
+  const checks: LimitCheck[] = [];
+  for (const key of Object.keys(MEASURES) as LimitKey[]) {
+    const limit = limits[key];
+    if (limit === undefined) continue;
+    const m = MEASURES[key];
+    const value = m.value(score);
+    if (value === null) {
+      checks.push({ key, limit, value, outcome: 'skip', note: m.note });
+      continue;
+    }
+    const empty = score.summary.count === 0 && key !== 'maxLinkErrors';
+    const ok = !empty && (m.max ? value <= limit : value >= limit);
+    checks.push({ key, limit, value, outcome: ok ? 'pass' : 'fail', ...(empty ? { note: 'no results' } : {}) });
+  }
+  return { passed: checks.every((c) => c.outcome !== 'fail'), checks };
+}

@@ -1,0 +1,166 @@
+// `run`: one bench plan against a board, headless, for CI. HELLO, the plan through the shared
+// link engine, scoring against the reference model, the verdict against the core's limits, the
+// capture archive and the session upload. Exit 0 pass, 1 a limit fails, 2 any error.
+import { writeFileSync } from 'node:fs';
+import type { ByteLink } from '../shared/bench/byte-link';
+import { LinkEngine, type EngineClock, type RunResult } from '../shared/bench/link-engine';
+import { DEFAULT_CRC8, type DeviceInfo } from '../shared/link';
+import { parseModelConfig, type ModelConfig } from '../shared/numeric';
+import { openDevice, type DeviceDeps } from './device';
+import type { CliIo } from './io';
+import { progressSink } from './progress';
+import { parseRunArgs, RUN_HELP, UsageError, type RunOptions } from './run-options';
+import { planToRequest, resolvePlan } from './run-plan';
+import { labelBytes, MAX_LABEL_BYTES, RunRecording, type RunLabel } from './run-record';
+import { humanReport, jsonSummary, type RunReport } from './run-report';
+import { scoreRun } from './run-score';
+import { fetchCore, packSamples, ServerError, uploadSession, type Fetch, type ServerCore } from './run-server';
+import { judge, type Limits } from './run-verdict';
+
+/** What `run` touches besides the CLI streams, so tests can swap it. */
+export interface RunDeps extends DeviceDeps {
+  fetch?: Fetch;
+  writeFile?: (path: string, bytes: Uint8Array) => void;
+  /** Whether stderr is a terminal (a redrawn bar) or a log (a line a second). */
+  stderrIsTty?: boolean;
+}
+
+/** Something went wrong that is not the core's fault: exit status 2 with this one line. */
+class RunError extends Error {}
+
+const clock: EngineClock = {
+  now: () => performance.now(),
+  after: (ms, fn) => {
+    const t = setTimeout(fn, ms);
+    return () => clearTimeout(t);
+  },
+};
+
+const oneLine = (text: string) => text.replace(/\s*\n\s*/g, ' ').trim();
+
+/** The model to score with: the server's core, --config, or the device's INFO with defaults. */
+function chooseModel(o: RunOptions, core: ServerCore | null, info: DeviceInfo): { model: ModelConfig; from: RunReport['modelFrom'] } {
+  let model: ModelConfig;
+  let from: RunReport['modelFrom'];
+  if (o.config) [model, from] = [parseModelConfig(o.config), 'config'];
+  else if (core) [model, from] = [core.model, 'server'];
+  else {
+    const { angleFormat, angleBits, outBits, outFrac, iterations } = info;
+    model = parseModelConfig({ angleFormat, angleBits, outBits, outFrac, iterations, ...(angleFormat === 'rad' ? { angleFrac: info.angleFrac } : {}) });
+    from = 'info';
+  }
+  // The device's formats must be the model's: otherwise every figure would be nonsense.
+  const keys: Array<'angleFormat' | 'angleBits' | 'outBits' | 'outFrac' | 'angleFrac'> = ['angleFormat', 'angleBits', 'outBits', 'outFrac'];
+  if (info.angleFormat === 'rad') keys.push('angleFrac');
+  const differ = keys.filter((k) => model[k] !== info[k]);
+  if (differ.length > 0) {
+    const what = differ.map((k) => `${k} ${String(info[k])} on the device, ${String(model[k])} in the model`).join('; ');
+    throw new RunError(`the device's formats differ from the model of core "${o.core}" (${what}): is the right bitstream loaded?`);
+  }
+  return { model, from };
+}
+
+async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number> {
+  const fetchImpl = deps.fetch ?? fetch;
+  const core = o.server ? await fetchCore(fetchImpl, o.server, o.core) : null;
+  const limits: Limits = o.limits ?? core?.limits ?? {};
+  const limitsFrom: RunReport['limitsFrom'] = o.limits ? 'option' : core ? 'server' : 'none';
+  const baud = o.baud ?? core?.baud ?? 3_000_000;
+  const crc = o.crc ?? core?.crc ?? DEFAULT_CRC8;
+
+  let link: ByteLink;
+  try {
+    link = await openDevice(o.device, baud, deps);
+  } catch (e) {
+    throw new RunError((e as Error).message);
+  }
+  const t0 = clock.now();
+  const recording = new RunRecording(crc);
+  const warnings: string[] = [];
+  link.onWarning((m) => warnings.push(m));
+  try {
+    const engine = new LinkEngine({ link, clock, baud, crc, onTraffic: (d, bytes, at) => recording.traffic(d, bytes, at - t0) });
+    let info: DeviceInfo;
+    try {
+      info = await engine.hello();
+    } catch (e) {
+      throw new RunError(`the device at ${o.device} did not answer HELLO (${(e as Error).message}): check the baud rate, the CRC and that the bitstream is loaded`);
+    }
+    const { model, from } = chooseModel(o, core, info);
+    const plan = resolvePlan(o.plan, model, io.readFile);
+    const label: RunLabel = { recordedBy: 'anglebench run', core: o.core, build: o.build, board: o.board, plan, model };
+    if (o.out && labelBytes(label) > MAX_LABEL_BYTES) throw new UsageError(`--plan file: too many codes to record in the archive's label (${labelBytes(label)} bytes, at most ${MAX_LABEL_BYTES})`);
+    recording.start(label);
+    const request = planToRequest(plan, model);
+    const progress = progressSink(io.stderr, deps.stderrIsTty ?? false, () => clock.now());
+    const startedAt = new Date();
+    let result: RunResult;
+    try {
+      result = await engine.run(request, { onProgress: (p) => progress.update(p) }).done;
+    } finally {
+      progress.end(null);
+    }
+    const endedAt = new Date();
+    if (result.status === 'failed') throw new RunError(result.message ?? 'the run failed');
+    const archive = recording.finish(clock.now() - t0);
+    if (o.out) {
+      try {
+        (deps.writeFile ?? writeFileSync)(o.out, archive);
+      } catch (e) {
+        throw new RunError(`cannot write the archive to ${o.out}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
+      }
+    }
+    const score = scoreRun(model, plan, result, result.figures.checkFailures);
+    const verdict = judge(score, limits);
+    const report: RunReport = {
+      core: o.core, build: o.build, board: o.board, device: o.device, baud, info, plan, planText: o.planText, model, modelFrom: from,
+      limitsFrom, status: result.status, elapsedMs: result.elapsedMs, score, figures: result.figures, verdict, archive: o.out,
+    };
+    for (const w of warnings.slice(0, 5)) io.stderr(`warning: ${w}\n`);
+    let sessionId: number | null = null;
+    if (o.server && core) {
+      // Print the verdict first: a refused upload must not hide what the board did.
+      if (!o.json) io.stdout(humanReport(report));
+      const summary = jsonSummary(report, null);
+      try {
+        sessionId = await uploadSession(fetchImpl, o.server, {
+          session: {
+            coreId: core.id, coreSlug: core.slug, build: o.build, board: o.board, plan, startedAt: startedAt.toISOString(), endedAt: endedAt.toISOString(),
+            transport: { kind: o.device.startsWith('ws') ? 'websocket' : 'serial', device: o.device, baud, crc },
+            deviceInfo: info, stats: summary.stats, link: result.figures, verdict: summary.verdict, passed: verdict.passed, sampleCount: score.answered,
+          },
+          samples: packSamples(result.codes, result.cos, result.sin, result.answered),
+          archive,
+        });
+      } catch (e) {
+        if (o.json) io.stdout(JSON.stringify({ ...summary, upload: { error: (e as Error).message } }, null, 2) + '\n');
+        throw e;
+      }
+      if (o.json) io.stdout(JSON.stringify(jsonSummary(report, { sessionId }), null, 2) + '\n');
+      else io.stdout(`session uploaded${sessionId !== null ? `: ${o.server.url}/sessions/${sessionId}` : ''}\n`);
+    } else if (o.json) io.stdout(JSON.stringify(jsonSummary(report, null), null, 2) + '\n');
+    else io.stdout(humanReport(report));
+    return verdict.passed ? 0 : 1;
+  } finally {
+    await link.close().catch(() => undefined);
+  }
+}
+
+/** The `run` command. */
+export async function runRunCommand(argv: string[], io: CliIo, deps: RunDeps = { stderrIsTty: process.stderr.isTTY === true }): Promise<number> {
+  try {
+    const o = parseRunArgs(argv);
+    if (o.help) {
+      io.stdout(RUN_HELP);
+      return 0;
+    }
+    return await execute(o, io, deps);
+  } catch (e) {
+    if (e instanceof UsageError || e instanceof RunError || e instanceof ServerError) {
+      io.stderr(`error: ${oneLine(e.message)}\n`);
+      return 2;
+    }
+    io.stderr(`error: ${oneLine(e instanceof Error ? e.message : String(e))}\n`);
+    return 2;
+  }
+}
