@@ -1,5 +1,8 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startMockServer, type MockServer } from '../../mock-device/ws-server';
+import { defaultBoardSettings } from '../../mock-device/board-session';
+import { parseCoreFault } from '../../mock-device/faulty-core';
 import { launchBrowser, startApp, type RunningApp } from './harness';
 
 let app: RunningApp;
@@ -46,5 +49,57 @@ describe('sign-in in a real browser', () => {
     await page.waitForURL(/\/sign-in/);
     await page.goto(`${app.url}/bench`);
     await page.waitForURL(/\/sign-in/);
+  });
+});
+
+/** Connect the bench to `board`, run every code of the 16-bit core and wait for the end. */
+async function runExhaustive(page: Page, board: MockServer, shots?: string) {
+  await page.getByLabel('Board address').fill(board.url);
+  await page.getByRole('button', { name: 'Connect' }).click();
+  await expect.poll(() => page.getByTestId('device-info').textContent(), { timeout: 10_000 }).toContain('simulated board');
+  if (shots) await page.screenshot({ path: `/tmp/bench-${shots}-connected.png`, fullPage: true });
+  await page.getByLabel('What to ask').selectOption('exhaustive');
+  await page.getByRole('button', { name: 'Run', exact: true }).click();
+  if (shots) {
+    await page.waitForTimeout(400);
+    await page.screenshot({ path: `/tmp/bench-${shots}-running.png`, fullPage: true });
+  }
+  await expect.poll(() => page.getByTestId('run-state').textContent(), { timeout: 45_000 }).toBe('Complete');
+  expect(await page.getByTestId('run-progress').textContent()).toBe('65,536 / 65,536');
+  // The final summary follows the last batch from the worker.
+  await expect.poll(() => page.getByTestId('stat-scored').textContent()).toContain('65,536');
+}
+
+describe('the Bench page against the simulated board', () => {
+  let good: MockServer;
+  let folded: MockServer;
+  beforeAll(async () => {
+    good = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
+    folded = await startMockServer({ ...defaultBoardSettings(), coreFault: parseCoreFault('fold') }, 0, '127.0.0.1', () => undefined);
+  });
+  afterAll(async () => {
+    await good?.close();
+    await folded?.close();
+  });
+
+  it('runs an exhaustive 16-bit sweep to the end with zero model mismatches', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signIn(page);
+    await runExhaustive(page, good, '1280');
+    expect(await page.getByTestId('stat-mismatches').textContent()).toBe('0');
+    await page.screenshot({ path: '/tmp/bench-1280-done.png', fullPage: true });
+    await page.setViewportSize({ width: 1920, height: 1080 });
+    await page.waitForTimeout(300);
+    await page.screenshot({ path: '/tmp/bench-1920-done.png', fullPage: true });
+  });
+
+  it('shows model mismatches for a core with a folding fault', async () => {
+    const page = await browser.newPage({ viewport: { width: 1920, height: 1080 } });
+    await signIn(page);
+    await runExhaustive(page, folded, '1920-fold');
+    const mismatches = Number((await page.getByTestId('stat-mismatches').textContent())!.replace(/,/g, ''));
+    expect(mismatches).toBeGreaterThan(0);
+    expect(await page.getByText('First mismatches').isVisible()).toBe(true);
+    await page.screenshot({ path: '/tmp/bench-1920-fold-done.png', fullPage: true });
   });
 });

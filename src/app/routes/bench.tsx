@@ -1,3 +1,5 @@
+import { BenchPage } from '../../features/bench/components/bench-page';
+
 export function BenchRoute() {
-  return <h1 className="text-3xl font-bold">Bench</h1>;
+  return <BenchPage />;
 }

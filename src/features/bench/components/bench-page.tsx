@@ -1,0 +1,44 @@
+import { useEffect, useRef, useState, useSyncExternalStore } from 'react';
+import { BenchController } from '../session/bench-controller';
+import type { LiveSamples } from '../session/live-samples';
+import { ConnectPanel } from './connect-panel';
+import { LiveCharts } from './live-charts';
+import { ProgressBar } from './progress-bar';
+import { RunPanel } from './run-panel';
+import { StatsPanel } from './stats-panel';
+import { TrafficPane } from './traffic-pane';
+import { panel } from './ui';
+
+/** The bench: link and plan on the left, progress, charts and traffic on the right. */
+export function BenchPage() {
+  const [controller] = useState(() => new BenchController());
+  const snap = useSyncExternalStore(controller.subscribe, controller.getSnapshot);
+  // The charts read the controller's current sample store through this ref on every frame.
+  const samplesRef = useRef<LiveSamples | null>(null);
+  useEffect(() => {
+    samplesRef.current = controller.samples;
+  });
+  useEffect(() => {
+    const c = controller;
+    return () => c.dispose();
+  }, [controller]);
+
+  return (
+    // One stats panel: under the plan on narrower screens, a third column on wide ones.
+    <div className="grid items-start gap-4 lg:grid-cols-[20rem_minmax(0,1fr)] lg:grid-rows-[auto_1fr] 2xl:grid-cols-[20rem_minmax(0,1fr)_24rem]">
+      <div className="grid content-start gap-4 lg:col-start-1 lg:row-start-1">
+        <h1 className="text-2xl font-bold">Bench</h1>
+        <ConnectPanel controller={controller} snap={snap} />
+        <RunPanel controller={controller} snap={snap} />
+      </div>
+      <div className="grid min-w-0 content-start gap-4 lg:col-start-2 lg:row-span-2 lg:row-start-1">
+        <div className={panel}>{snap.run ? <ProgressBar run={snap.run} /> : <p className="text-sm text-ink-soft">{snap.status === 'connected' ? 'Connected. Choose a plan and run it.' : 'Connect to a board, then run a plan.'}</p>}</div>
+        <LiveCharts samplesRef={samplesRef} />
+        <TrafficPane log={controller.traffic} />
+      </div>
+      <div className="lg:col-start-1 lg:row-start-2 2xl:col-start-3 2xl:row-span-2 2xl:row-start-1">
+        <StatsPanel run={snap.run} />
+      </div>
+    </div>
+  );
+}

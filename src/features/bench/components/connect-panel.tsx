@@ -1,0 +1,259 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import type { BenchController, BenchSnapshot } from '../session/bench-controller';
+import { COMMON_BAUD_RATES, MAX_BAUD, MIN_BAUD, recommendedBufferSize, type SerialSettings } from '../transport/serial-options';
+import { hasWebSerial, SerialLink } from '../transport/serial-link';
+import { SocketLink } from '../transport/socket-link';
+import { SerialCaution, serialCautionSeen } from './serial-caution';
+import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from './ui';
+
+export const SIMULATED_BOARD_URL = 'ws://127.0.0.1:5175/';
+const wsUrl = z.string().trim().regex(/^wss?:\/\/\S+$/, 'A ws:// or wss:// address');
+
+const connectSchema = z
+  .object({
+    transport: z.enum(['simulated', 'bridge', 'serial']),
+    simulatedUrl: z.string(),
+    bridgeUrl: z.string(),
+    bridgeToken: z.string().trim().max(500),
+    baud: z.string(),
+    customBaud: z.string(),
+    dataBits: z.enum(['7', '8']),
+    parity: z.enum(['none', 'even', 'odd']),
+    stopBits: z.enum(['1', '2']),
+    flowControl: z.enum(['none', 'hardware']),
+    bufferSize: z.coerce.number<string>().int('A whole number of bytes').min(256, 'At least 256 bytes').max(16 * 1024 * 1024, 'At most 16 MiB'),
+    dtr: z.boolean(),
+    rts: z.boolean(),
+    reuseGranted: z.boolean(),
+  })
+  .superRefine((v, ctx) => {
+    const url = v.transport === 'simulated' ? ['simulatedUrl', v.simulatedUrl] : v.transport === 'bridge' ? ['bridgeUrl', v.bridgeUrl] : null;
+    if (url && !wsUrl.safeParse(url[1]).success) ctx.addIssue({ code: 'custom', path: [url[0]], message: 'Enter a ws:// or wss:// address' });
+    if (v.transport === 'serial' && v.baud === 'custom') {
+      const b = Number(v.customBaud);
+      if (!Number.isInteger(b) || b < MIN_BAUD || b > MAX_BAUD) ctx.addIssue({ code: 'custom', path: ['customBaud'], message: `A whole rate from ${MIN_BAUD.toLocaleString()} to ${MAX_BAUD.toLocaleString()}` });
+    }
+  });
+type ConnectForm = z.input<typeof connectSchema>;
+
+const baudOf = (v: { baud: string; customBaud: string }) => (v.baud === 'custom' ? Number(v.customBaud) : Number(v.baud));
+
+export function ConnectPanel({ controller, snap }: { controller: BenchController; snap: BenchSnapshot }) {
+  const serialAvailable = hasWebSerial();
+  const [caution, setCaution] = useState<ConnectForm | null>(null);
+  const { register, handleSubmit, watch, setValue, formState } = useForm<ConnectForm, unknown, z.output<typeof connectSchema>>({
+    resolver: zodResolver(connectSchema),
+    defaultValues: {
+      transport: 'simulated',
+      simulatedUrl: SIMULATED_BOARD_URL,
+      bridgeUrl: 'ws://127.0.0.1:5176/',
+      bridgeToken: '',
+      baud: '3000000',
+      customBaud: '',
+      dataBits: '8',
+      parity: 'none',
+      stopBits: '1',
+      flowControl: 'none',
+      bufferSize: String(recommendedBufferSize(3_000_000)),
+      dtr: true,
+      rts: false,
+      reuseGranted: false,
+    },
+  });
+  const { errors } = formState;
+  const transport = watch('transport');
+  const baud = watch('baud');
+  const busy = snap.status === 'connecting' || snap.status === 'connected';
+
+  const resizeBuffer = (v: { baud: string; customBaud: string }) => {
+    const b = baudOf(v);
+    if (Number.isInteger(b) && b >= MIN_BAUD) setValue('bufferSize', String(recommendedBufferSize(b)));
+  };
+
+  const connect = (v: z.output<typeof connectSchema>) => {
+    if (v.transport === 'simulated') return controller.connect(() => SocketLink.open(v.simulatedUrl.trim()), `Simulated board ${v.simulatedUrl}`, 3_000_000);
+    if (v.transport === 'bridge') {
+      const url = new URL(v.bridgeUrl.trim());
+      if (v.bridgeToken) url.searchParams.set('token', v.bridgeToken);
+      return controller.connect(() => SocketLink.open(url.toString()), `Bench bridge ${v.bridgeUrl}`, 3_000_000);
+    }
+    const settings: SerialSettings = {
+      baudRate: baudOf(v),
+      dataBits: Number(v.dataBits) as 7 | 8,
+      parity: v.parity,
+      stopBits: Number(v.stopBits) as 1 | 2,
+      flowControl: v.flowControl,
+      bufferSize: v.bufferSize,
+      dataTerminalReady: v.dtr,
+      requestToSend: v.rts,
+    };
+    return controller.connect(
+      async () => {
+        const granted = v.reuseGranted ? (await navigator.serial.getPorts())[0] : undefined;
+        const port = granted ?? (await navigator.serial.requestPort());
+        return SerialLink.open(port, settings);
+      },
+      `Serial port at ${settings.baudRate.toLocaleString()} baud`,
+      settings.baudRate,
+    );
+  };
+
+  const onValid = (v: z.output<typeof connectSchema>) => {
+    if (v.transport === 'serial' && !serialCautionSeen()) setCaution(v as unknown as ConnectForm);
+    else void connect(v);
+  };
+
+  return (
+    <section aria-labelledby="connect-title" className={panel}>
+      <h2 id="connect-title" className={panelTitle}>
+        Link
+      </h2>
+      {snap.status === 'connected' ? (
+        <div className="grid gap-3">
+          <p className="text-sm">
+            <span className="font-bold text-pass">Connected</span> · {snap.transportLabel}
+          </p>
+          {snap.info && <DeviceInfoTable info={snap.info} />}
+          <button type="button" className={btn} onClick={() => void controller.disconnect()}>
+            Disconnect
+          </button>
+        </div>
+      ) : (
+        <form noValidate onSubmit={handleSubmit(onValid)} className="grid gap-3">
+          <fieldset className="grid gap-1.5 text-sm" disabled={busy}>
+            <legend className="mb-1 font-bold">Connect through</legend>
+            <label className="flex items-center gap-2">
+              <input type="radio" value="simulated" {...register('transport')} /> Simulated board
+            </label>
+            <label className="flex items-center gap-2">
+              <input type="radio" value="bridge" {...register('transport')} /> Bench bridge (network)
+            </label>
+            <label className="flex items-center gap-2">
+              <input type="radio" value="serial" disabled={!serialAvailable} {...register('transport')} /> Serial port in this browser
+            </label>
+            {!serialAvailable && <p className="text-xs text-ink-soft">This browser has no Web Serial, so it cannot open a serial port itself. Use the simulated board, or a bench bridge on the machine the board is plugged into.</p>}
+          </fieldset>
+
+          {transport === 'simulated' && (
+            <label className={label}>
+              Board address
+              <input className={`${input} font-mono`} {...register('simulatedUrl')} />
+              {errors.simulatedUrl && <span className={fieldError}>{errors.simulatedUrl.message}</span>}
+            </label>
+          )}
+          {transport === 'bridge' && (
+            <>
+              <label className={label}>
+                Bridge address
+                <input className={`${input} font-mono`} {...register('bridgeUrl')} />
+                {errors.bridgeUrl && <span className={fieldError}>{errors.bridgeUrl.message}</span>}
+              </label>
+              <label className={label}>
+                Bridge token
+                <input type="password" autoComplete="off" className={`${input} font-mono`} {...register('bridgeToken')} />
+              </label>
+            </>
+          )}
+          {transport === 'serial' && (
+            <div className="grid grid-cols-2 gap-2">
+              <label className={label}>
+                Baud
+                <select className={input} {...register('baud', { onChange: (e) => resizeBuffer({ baud: e.target.value, customBaud: watch('customBaud') }) })}>
+                  {COMMON_BAUD_RATES.map((b) => (
+                    <option key={b} value={b}>
+                      {b.toLocaleString()}
+                    </option>
+                  ))}
+                  <option value="custom">Other…</option>
+                </select>
+              </label>
+              {baud === 'custom' ? (
+                <label className={label}>
+                  Other rate
+                  <input inputMode="numeric" className={`${input} font-mono`} {...register('customBaud', { onChange: (e) => resizeBuffer({ baud: 'custom', customBaud: e.target.value }) })} />
+                  {errors.customBaud && <span className={fieldError}>{errors.customBaud.message}</span>}
+                </label>
+              ) : (
+                <span />
+              )}
+              <Select label="Data bits" options={['8', '7']} reg={register('dataBits')} />
+              <Select label="Parity" options={['none', 'even', 'odd']} reg={register('parity')} />
+              <Select label="Stop bits" options={['1', '2']} reg={register('stopBits')} />
+              <Select label="Flow control" options={['none', 'hardware']} reg={register('flowControl')} />
+              <label className={`${label} col-span-2`}>
+                Receive buffer, bytes (sized for 20 ms at this rate)
+                <input inputMode="numeric" className={`${input} font-mono`} {...register('bufferSize')} />
+                {errors.bufferSize && <span className={fieldError}>{errors.bufferSize.message}</span>}
+              </label>
+              <label className="flex items-center gap-2 text-sm">
+                <input type="checkbox" {...register('dtr')} /> DTR
+              </label>
+              <label className="flex items-center gap-2 text-sm">
+                <input type="checkbox" {...register('rts')} /> RTS
+              </label>
+              <label className="col-span-2 flex items-center gap-2 text-sm">
+                <input type="checkbox" {...register('reuseGranted')} /> Reuse the port granted before
+              </label>
+            </div>
+          )}
+          {snap.linkMessage && (
+            <p role="alert" className="rounded border border-fail bg-fail-soft px-2 py-1.5 text-sm text-fail">
+              {snap.linkMessage}
+            </p>
+          )}
+          <button type="submit" className={btnPrimary} disabled={busy}>
+            {snap.status === 'connecting' ? 'Connecting…' : 'Connect'}
+          </button>
+        </form>
+      )}
+      {caution && (
+        <SerialCaution
+          onCancel={() => setCaution(null)}
+          onGoOn={() => {
+            const v = connectSchema.parse(caution);
+            setCaution(null);
+            void connect(v);
+          }}
+        />
+      )}
+    </section>
+  );
+}
+
+function Select({ label: text, options, reg }: { label: string; options: string[]; reg: ReturnType<ReturnType<typeof useForm<ConnectForm>>['register']> }) {
+  return (
+    <label className={label}>
+      {text}
+      <select className={input} {...reg}>
+        {options.map((o) => (
+          <option key={o}>{o}</option>
+        ))}
+      </select>
+    </label>
+  );
+}
+
+function DeviceInfoTable({ info }: { info: NonNullable<BenchSnapshot['info']> }) {
+  const rows: [string, string][] = [
+    ['Device', info.name || '—'],
+    ['Angle', `${info.angleFormat}, ${info.angleBits} bit${info.angleFormat === 'rad' ? `, ${info.angleFrac} frac` : ''}`],
+    ['Output', `${info.outBits} bit, ${info.outFrac} frac`],
+    ['Iterations', String(info.iterations)],
+    ['Queue depth', String(info.queueDepth)],
+    ['Build', `0x${info.buildId.toString(16).padStart(8, '0')}`],
+    ['Clock', `${(info.clockKHz / 1000).toLocaleString()} MHz`],
+  ];
+  return (
+    <dl data-testid="device-info" className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm">
+      {rows.map(([k, v]) => (
+        <div key={k} className="contents">
+          <dt className="text-ink-soft">{k}</dt>
+          <dd className="font-mono">{v}</dd>
+        </div>
+      ))}
+    </dl>
+  );
+}

@@ -1,0 +1,158 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { bindPlan, parseModelConfig, PlanError } from '../../../../shared/numeric';
+import type { BenchController, BenchSnapshot } from '../session/bench-controller';
+import { ANGLE_UNITS, defaultPlanForm, PLAN_KINDS, planFormSchema, PlanFieldError, planFromForm, type PlanForm } from './plan-from-form';
+import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from './ui';
+
+/** The core profile to score against, prefilled from INFO; the fields INFO does not carry keep the model's defaults. */
+const profileFromInfo = (info: NonNullable<BenchSnapshot['info']>) =>
+  JSON.stringify({ angleFormat: info.angleFormat, angleBits: info.angleBits, ...(info.angleFormat === 'rad' ? { angleFrac: info.angleFrac } : {}), outBits: info.outBits, outFrac: info.outFrac, iterations: info.iterations }, null, 1);
+
+export function RunPanel({ controller, snap }: { controller: BenchController; snap: BenchSnapshot }) {
+  const info = snap.info;
+  const [profileText, setProfileText] = useState<string | null>(null);
+  const profile = profileText ?? (info ? profileFromInfo(info) : '');
+  const [problem, setProblem] = useState<{ field: keyof PlanForm | 'profile' | null; message: string } | null>(null);
+  const { register, handleSubmit, watch } = useForm<PlanForm>({ resolver: zodResolver(planFormSchema), defaultValues: defaultPlanForm });
+  const kind = watch('kind');
+  const run = snap.run;
+  const active = run?.state === 'running' || run?.state === 'paused';
+  const connected = snap.status === 'connected';
+
+  const start = (v: PlanForm) => {
+    setProblem(null);
+    let config;
+    try {
+      config = parseModelConfig(JSON.parse(profile));
+    } catch (e) {
+      return setProblem({ field: 'profile', message: `Core profile: ${(e as Error).message}` });
+    }
+    try {
+      const plan = planFromForm(v, config);
+      bindPlan(plan, config);
+      controller.startRun(plan, config);
+    } catch (e) {
+      if (e instanceof PlanFieldError) setProblem({ field: e.field, message: e.message });
+      else if (e instanceof PlanError) setProblem({ field: null, message: e.message });
+      else setProblem({ field: null, message: (e as Error).message });
+    }
+  };
+  const err = (f: keyof PlanForm | 'profile') => problem?.field === f && <span className={fieldError}>{problem.message}</span>;
+  const usesUnit = kind === 'one' || kind === 'list' || kind === 'sweep';
+
+  return (
+    <section aria-labelledby="run-title" className={panel}>
+      <h2 id="run-title" className={panelTitle}>
+        Plan
+      </h2>
+      <form noValidate onSubmit={handleSubmit(start)} className="grid gap-3">
+        <fieldset disabled={!connected || active} className="grid grid-cols-2 gap-2">
+          <label className={`${label} col-span-2`}>
+            What to ask
+            <select className={input} {...register('kind')}>
+              {PLAN_KINDS.map(([k, text]) => (
+                <option key={k} value={k}>
+                  {text}
+                </option>
+              ))}
+            </select>
+          </label>
+          {usesUnit && (
+            <label className={`${label} col-span-2`}>
+              Angles in
+              <select className={input} {...register('unit')}>
+                {ANGLE_UNITS.map(([u, text]) => (
+                  <option key={u} value={u}>
+                    {text}
+                  </option>
+                ))}
+              </select>
+            </label>
+          )}
+          {kind === 'one' && (
+            <label className={`${label} col-span-2`}>
+              Angle
+              <input className={`${input} font-mono`} {...register('angle')} />
+              {err('angle')}
+            </label>
+          )}
+          {kind === 'list' && (
+            <label className={`${label} col-span-2`}>
+              Angles (commas, spaces or lines between)
+              <textarea rows={3} className={`${input} font-mono`} {...register('list')} />
+              {err('list')}
+            </label>
+          )}
+          {kind === 'sweep' && (
+            <>
+              <label className={label}>
+                Start
+                <input className={`${input} font-mono`} {...register('start')} />
+                {err('start')}
+              </label>
+              <label className={label}>
+                Step, codes
+                <input className={`${input} font-mono`} {...register('step')} />
+                {err('step')}
+              </label>
+            </>
+          )}
+          {(kind === 'sweep' || kind === 'random') && (
+            <label className={label}>
+              Count
+              <input className={`${input} font-mono`} {...register('count')} />
+              {err('count')}
+            </label>
+          )}
+          {kind === 'random' && (
+            <label className={label}>
+              Seed
+              <input className={`${input} font-mono`} {...register('seed')} />
+              {err('seed')}
+            </label>
+          )}
+          {kind === 'tone' && (
+            <>
+              <label className={label}>
+                Cycles
+                <input className={`${input} font-mono`} {...register('cycles')} />
+                {err('cycles')}
+              </label>
+              <label className={label}>
+                Samples (power of 2)
+                <input className={`${input} font-mono`} {...register('samples')} />
+                {err('samples')}
+              </label>
+            </>
+          )}
+          <details className="col-span-2 text-sm">
+            <summary className="cursor-pointer text-ink-soft">Core profile to score against</summary>
+            <textarea aria-label="Core profile (JSON)" rows={5} className={`${input} mt-1 font-mono text-xs`} value={profile} onChange={(e) => setProfileText(e.target.value)} />
+          </details>
+          {err('profile')}
+        </fieldset>
+        {problem && problem.field === null && (
+          <p role="alert" className="text-sm text-fail">
+            {problem.message}
+          </p>
+        )}
+        <div className="flex flex-wrap gap-2">
+          <button type="submit" className={btnPrimary} disabled={!connected || active}>
+            Run
+          </button>
+          <button type="button" className={btn} disabled={run?.state !== 'running'} onClick={() => void controller.pause()}>
+            Pause
+          </button>
+          <button type="button" className={btn} disabled={run?.state !== 'paused'} onClick={() => void controller.resume()}>
+            Resume
+          </button>
+          <button type="button" className={btn} disabled={!active} onClick={() => void controller.abort()}>
+            Abort
+          </button>
+        </div>
+      </form>
+    </section>
+  );
+}
