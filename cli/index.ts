@@ -2,6 +2,7 @@
 // Exit status: 0 pass, 1 fail, 2 error (bad input, bad configuration).
 import { runModelCommand } from './model';
 import { runRunCommand } from './run';
+import { runBridgeCommand } from './bridge';
 import type { CliIo } from './io';
 import { nodeIo } from './io';
 
@@ -10,6 +11,7 @@ type Command = (argv: string[], io: CliIo) => Promise<number>;
 const COMMANDS: Record<string, { run: Command; summary: string }> = {
   model: { run: runModelCommand, summary: 'evaluate the reference model for given angle codes and print JSON' },
   run: { run: (argv, io) => runRunCommand(argv, io), summary: 'run a bench plan against a board, print the verdict (exit 0 pass, 1 fail, 2 error)' },
+  bridge: { run: (argv, io) => runBridgeCommand(argv, io), summary: 'offer one serial port to a browser elsewhere over WebSocket, guarded by a token' },
 };
 
 function usage(): string {
