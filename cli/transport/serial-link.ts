@@ -54,7 +54,7 @@ export class SerialLink implements ByteLink {
       return Promise.reject(new Error(`Cannot open ${options.path}: ${(err as Error).message}`));
     }
     return new Promise((resolve, reject) => {
-      port.open((err) => (err ? reject(new Error(`Cannot open ${options.path}: ${err.message}`)) : resolve(new SerialLink(port))));
+      port.open((err) => (err ? reject(new Error(`Cannot open ${options.path}: ${err.message.replace(/^Error: /, '')}`)) : resolve(new SerialLink(port))));
     });
   }
 
