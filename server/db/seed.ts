@@ -28,7 +28,9 @@ export async function seedIfEmpty(db: Sequelize, password: string, bcryptCost = 
         linkProfile: linkProfileSchema.parse({}),
         // Exactly the default configuration, which the simulated board also runs by default.
         modelConfig: modelConfigSchema.parse({}),
-        limits: limitsSchema.parse({ maxAbsErrorLsb: 2, maxRmsErrorLsb: 0.8, maxAbsBiasLsb: 0.25, minSfdrDb: 84, maxModelMismatches: 0, maxLinkErrors: 0 }),
+        // The default model itself reaches 3.3 LSB max and 0.68 LSB RMS over every 16-bit code, so
+        // a healthy board passes with margin and a core fault does not.
+        limits: limitsSchema.parse({ maxAbsErrorLsb: 4, maxRmsErrorLsb: 0.8, maxAbsBiasLsb: 0.25, minSfdrDb: 84, maxModelMismatches: 0, maxLinkErrors: 0 }),
         baselineSessionId: null,
       },
       opts,
