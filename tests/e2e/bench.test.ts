@@ -42,6 +42,14 @@ describe('sign-in in a real browser', () => {
     await expect.poll(() => page.getByRole('alert').textContent()).toContain('Wrong e-mail or password');
   });
 
+  it('keeps a reviewer off the bench: no Bench link, and the page says who it is for', async () => {
+    const page = await browser.newPage();
+    await signIn(page, 'reviewer@anglebench.test');
+    await expect.poll(() => page.getByRole('heading', { name: 'The bench is for engineers' }).isVisible()).toBe(true);
+    expect(await page.getByRole('button', { name: 'Connect' }).count()).toBe(0);
+    expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Bench' }).count()).toBe(0);
+  });
+
   it('signs out with the CSRF token and lands on the sign-in page', async () => {
     const page = await browser.newPage();
     await signIn(page);

@@ -1,13 +1,16 @@
 import { NavLink, Outlet } from 'react-router-dom';
 import { BrandMark } from '../../components/brand-mark';
+import { useMe, type Role } from '../../features/auth/api/get-me';
 import { UserBadge } from '../../features/auth/components/user-badge';
 
-const nav = [
+/** `hideFor`: roles the page is not for, so the link is left out rather than shown dead. */
+const nav: Array<{ to: string; label: string; end: boolean; hideFor?: Role[] }> = [
   { to: '/', label: 'Overview', end: true },
-  { to: '/bench', label: 'Bench', end: false },
+  { to: '/bench', label: 'Bench', end: false, hideFor: ['reviewer'] },
 ];
 
 export function RootLayout() {
+  const role = useMe().data?.role;
   return (
     <div className="min-h-screen flex flex-col">
       <header className="bg-ink text-paper">
@@ -17,7 +20,7 @@ export function RootLayout() {
             Anglebench
           </NavLink>
           <nav aria-label="Main" className="flex gap-1">
-            {nav.map((item) => (
+            {nav.filter((item) => !(role && item.hideFor?.includes(role))).map((item) => (
               <NavLink
                 key={item.to}
                 to={item.to}
