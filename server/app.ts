@@ -18,6 +18,7 @@ import { coresRouter } from './routes/cores';
 import type { RouteDeps } from './routes/deps';
 import { healthRouter } from './routes/health';
 import { invitationsRouter } from './routes/invitations';
+import { sessionsRouter } from './routes/sessions';
 import { tokensRouter } from './routes/tokens';
 import { usersRouter } from './routes/users';
 import { securityHeaders } from './security-headers';
@@ -67,6 +68,7 @@ export function createApp({
   app.use('/api/builds', buildsRouter(deps));
   app.use('/api/boards', boardsRouter(deps));
   app.use('/api/sessions/:sessionId/comments', sessionCommentsRouter(deps));
+  app.use('/api/sessions', sessionsRouter(deps));
   app.use('/api/comments', commentsRouter(deps));
   app.use('/api/audit', auditRouter());
   app.use('/api/outbox', outboxRouter());

@@ -1,0 +1,232 @@
+import { Router, type Request, type RequestHandler } from 'express';
+import multer from 'multer';
+import { Op, type WhereOptions } from 'sequelize';
+import { z } from 'zod';
+import { currentUser, requireRole } from '../auth';
+import { BenchSession, Board, Build, Core, CoreWatcher, User } from '../db/models';
+import { HttpError, notFound } from '../http-error';
+import { sendRegressionMail } from '../mail/messages';
+import { validate } from '../middleware/validate';
+import { recordAudit } from '../services/audit';
+import { decodeSamples, judgeSession, regressedLimits, scoreSamples } from '../services/session-scoring';
+import { mailSafely, type RouteDeps } from './deps';
+import { id, idParams, originOf, paramsOf, queryOf } from './params';
+
+const json = z.record(z.string(), z.unknown());
+const text = (max: number) => z.string().trim().max(max);
+
+/**
+ * The `session` part of an upload. The runner also sends its own `stats`, `verdict`, `passed`
+ * and `sampleCount`: they are accepted so its uploads are not refused, and ignored — the server
+ * scores the samples itself. `build` and `board` are the runner's labels, looked up by name.
+ */
+const sessionPart = z
+  .strictObject({
+    coreId: id.optional(),
+    coreSlug: text(80).min(1).optional(),
+    buildId: id.nullish(),
+    boardId: id.nullish(),
+    build: text(120).nullish(),
+    board: text(120).nullish(),
+    startedAt: z.coerce.date(),
+    endedAt: z.coerce.date().nullish(),
+    plan: json,
+    transport: json,
+    deviceInfo: json.nullish(),
+    notes: text(10_000).default(''),
+    tags: z.array(text(40).min(1)).max(20).default([]),
+    link: json.optional(),
+    stats: z.unknown().optional(),
+    verdict: z.unknown().optional(),
+    passed: z.unknown().optional(),
+    sampleCount: z.unknown().optional(),
+  })
+  .refine((s) => s.coreId !== undefined || s.coreSlug !== undefined, { path: ['coreId'], message: 'coreId or coreSlug is required' });
+type SessionPart = z.infer<typeof sessionPart>;
+
+const flag = z.enum(['true', 'false']).transform((v) => v === 'true');
+const listQuery = z.strictObject({
+  coreId: id.optional(),
+  buildId: id.optional(),
+  boardId: id.optional(),
+  operatorId: id.optional(),
+  passed: flag.optional(),
+  regression: flag.optional(),
+  from: z.coerce.date().optional(),
+  to: z.coerce.date().optional(),
+  sort: z.enum(['startedAt', '-startedAt', 'id', '-id']).default('-startedAt'),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(25),
+});
+type ListQuery = z.infer<typeof listQuery>;
+
+const NO_BLOBS = { exclude: ['samples', 'archive'] };
+
+/** Multipart in memory: one `session` JSON field, `samples` and an optional `archive` (413 beyond the limit). */
+function sessionUpload(limitBytes: number): RequestHandler {
+  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: limitBytes, files: 2, fields: 1, fieldSize: 1024 * 1024 } }).fields([
+    { name: 'samples', maxCount: 1 },
+    { name: 'archive', maxCount: 1 },
+  ]);
+  return (req, res, next) =>
+    upload(req, res, (err: unknown) => {
+      if (!err) return next();
+      if (err instanceof multer.MulterError) {
+        if (err.code === 'LIMIT_FILE_SIZE') return next(new HttpError(413, 'too_large', `${err.field ?? 'A file'} is over the upload limit of ${limitBytes} bytes`));
+        if (err.code === 'LIMIT_FIELD_VALUE') return next(new HttpError(413, 'too_large', 'session: the JSON part is over 1 MiB'));
+        return next(new HttpError(400, 'bad_upload', `${err.field ? `${err.field}: ` : ''}${err.message}`));
+      }
+      next(err instanceof Error && /multipart|unexpected end/i.test(err.message) ? new HttpError(400, 'bad_upload', err.message) : err);
+    });
+}
+
+function parseSessionPart(req: Request): SessionPart {
+  const raw = (req.body as Record<string, unknown> | undefined)?.session;
+  if (typeof raw !== 'string') throw new HttpError(400, 'invalid', 'session: a multipart field named "session" holding JSON is required');
+  let value: unknown;
+  try {
+    value = JSON.parse(raw);
+  } catch {
+    throw new HttpError(400, 'invalid', 'session: not valid JSON');
+  }
+  const r = sessionPart.safeParse(value);
+  if (!r.success) {
+    const issues = r.error.issues.map((i) => ({ path: ['session', ...i.path].join('.'), message: i.message }));
+    throw new HttpError(400, 'invalid', `${issues[0].path}: ${issues[0].message}`, issues);
+  }
+  return r.data;
+}
+
+function listWhere(q: ListQuery): WhereOptions {
+  const where: Record<string | symbol, unknown> = {};
+  for (const key of ['coreId', 'buildId', 'boardId', 'operatorId', 'passed', 'regression'] as const) {
+    if (q[key] !== undefined) where[key] = q[key];
+  }
+  if (q.from || q.to) where.startedAt = { ...(q.from ? { [Op.gte]: q.from } : {}), ...(q.to ? { [Op.lte]: q.to } : {}) };
+  return where as WhereOptions;
+}
+
+/** /api/sessions: bench sessions, scored on the server from their samples. */
+export function sessionsRouter({ db, mailer, config }: RouteDeps) {
+  const router = Router();
+  const findSession = async (req: Request, attributes?: { exclude: string[] }) => {
+    const session = await BenchSession.findByPk(paramsOf<{ id: number }>(req).id, attributes ? { attributes } : {});
+    if (!session) throw notFound('Session');
+    return session;
+  };
+
+  router
+    .route('/')
+    .get(requireRole('reviewer'), validate({ query: listQuery }), async (req, res) => {
+      const q = queryOf<ListQuery>(req);
+      const column = q.sort.replace('-', '');
+      const { rows, count } = await BenchSession.findAndCountAll({
+        where: listWhere(q),
+        attributes: NO_BLOBS,
+        order: [[column, q.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']],
+        limit: q.pageSize,
+        offset: (q.page - 1) * q.pageSize,
+      });
+      res.json({ items: rows, total: count, page: q.page, pageSize: q.pageSize });
+    })
+    .post(requireRole('engineer'), sessionUpload(config.uploadLimitBytes), async (req, res) => {
+      const me = currentUser(req);
+      const part = parseSessionPart(req);
+      const files = (req.files ?? {}) as Record<string, Express.Multer.File[] | undefined>;
+      const samplesFile = files.samples?.[0];
+      if (!samplesFile) throw new HttpError(400, 'invalid', 'samples: a multipart file named "samples" is required');
+      const archive = files.archive?.[0]?.buffer ?? null;
+
+      const result = await db.transaction(async (transaction) => {
+        const core = part.coreId !== undefined ? await Core.findByPk(part.coreId, { transaction }) : await Core.findOne({ where: { slug: part.coreSlug }, transaction });
+        if (!core) throw new HttpError(400, 'invalid', part.coreId !== undefined ? 'session.coreId: no such core' : 'session.coreSlug: no such core');
+        if (part.coreId !== undefined && part.coreSlug !== undefined && core.slug !== part.coreSlug) {
+          throw new HttpError(400, 'invalid', 'session.coreSlug: does not name the core of session.coreId');
+        }
+        let buildId = part.buildId ?? null;
+        if (buildId !== null) {
+          const build = await Build.findByPk(buildId, { transaction });
+          if (!build || build.coreId !== core.id) throw new HttpError(400, 'invalid', 'session.buildId: no such build of this core');
+        } else if (part.build) {
+          buildId = (await Build.findOne({ where: { coreId: core.id, label: part.build }, order: [['id', 'DESC']], transaction }))?.id ?? null;
+        }
+        let boardId = part.boardId ?? null;
+        if (boardId !== null) {
+          if (!(await Board.findByPk(boardId, { transaction }))) throw new HttpError(400, 'invalid', 'session.boardId: no such board');
+        } else if (part.board) {
+          boardId = (await Board.findOne({ where: { name: part.board }, transaction }))?.id ?? null;
+        }
+
+        const model = core.modelConfig as { angleFormat?: 'turn' | 'rad' };
+        const samples = decodeSamples(samplesFile.buffer, model.angleFormat ?? 'turn');
+        const stats = scoreSamples(core.modelConfig, samples);
+        const checkFailures = typeof part.link?.checkFailures === 'number' ? part.link.checkFailures : undefined;
+        const { verdict, passed } = judgeSession(core.limits, stats, { checkFailures });
+        const baseline = core.baselineSessionId ? await BenchSession.findByPk(core.baselineSessionId, { attributes: ['id', 'verdict'], transaction }) : null;
+        const failedLimits = baseline ? regressedLimits(baseline.verdict, verdict) : [];
+
+        const row = await BenchSession.create(
+          {
+            coreId: core.id,
+            buildId,
+            boardId,
+            operatorId: me.id,
+            startedAt: part.startedAt,
+            endedAt: part.endedAt ?? null,
+            plan: part.plan,
+            transport: part.link ? { ...part.transport, linkFigures: part.link } : part.transport,
+            deviceInfo: part.deviceInfo ?? null,
+            stats: stats as unknown as Record<string, unknown>,
+            verdict: verdict as Record<string, unknown>,
+            passed,
+            regression: failedLimits.length > 0,
+            sampleCount: samples.codes.length,
+            samples: samplesFile.buffer,
+            archive,
+            notes: part.notes,
+            tags: part.tags,
+          },
+          { transaction },
+        );
+        await recordAudit(transaction, me.id, 'upload', 'session', row.id, { coreId: core.id, sampleCount: row.sampleCount, passed, regression: row.regression });
+        return { row, core, stats, verdict, passed, failedLimits };
+      });
+
+      const { row, core, stats, verdict, passed, failedLimits } = result;
+      if (failedLimits.length > 0) await mailRegression(req, row, core, failedLimits);
+      res.status(201).json({ id: row.id, passed, regression: row.regression, verdict, stats });
+    });
+
+  async function mailRegression(req: Request, row: BenchSession, core: Core, failedLimits: string[]) {
+    const watchers = await CoreWatcher.findAll({ where: { coreId: core.id } });
+    const users = watchers.length ? await User.findAll({ where: { id: watchers.map((w) => w.userId), disabled: false } }) : [];
+    if (!users.length) return;
+    const build = row.buildId ? await Build.findByPk(row.buildId) : null;
+    await mailSafely(() =>
+      sendRegressionMail(mailer, users.map((u) => u.email), {
+        core: core.name,
+        build: build?.label ?? 'unknown',
+        sessionId: row.id,
+        failedLimits,
+        link: `${originOf(req)}/sessions/${row.id}`,
+      }),
+    );
+  }
+
+  router.route('/:id').get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
+    res.json({ session: await findSession(req, NO_BLOBS) });
+  });
+
+  router.route('/:id/samples').get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
+    const session = await findSession(req);
+    res.type('application/octet-stream').attachment(`session-${session.id}-samples.bin`).send(session.samples);
+  });
+
+  router.route('/:id/archive').get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
+    const session = await findSession(req);
+    if (!session.archive) throw notFound('Session archive');
+    res.type('application/octet-stream').attachment(`session-${session.id}.abrc`).send(session.archive);
+  });
+
+  return router;
+}

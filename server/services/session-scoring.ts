@@ -1,0 +1,102 @@
+// Scoring of an uploaded bench session on the server: the packed samples are decoded, scored with
+// the shared ScoreAccumulator under the core's own model configuration, and judged against the
+// core's limits. Nothing the client computed is trusted.
+import { HttpError } from '../http-error';
+import { modelConfigSchema, limitsSchema } from '../schemas/core';
+import { ScoreAccumulator, type ScoreSummary } from '../../shared/numeric/score';
+import type { z } from 'zod';
+
+type Limits = z.infer<typeof limitsSchema>;
+export type LimitKey = keyof Limits;
+
+/** Bytes per packed sample: angle code, cos code, sin code, each a little-endian int32. */
+export const SAMPLE_BYTES = 12;
+
+export interface DecodedSamples {
+  codes: Float64Array;
+  cos: Int32Array;
+  sin: Int32Array;
+}
+
+/**
+ * Unpack `samples` (12 bytes per result: i32 LE angle code, cos, sin). Binary angles (`turn`)
+ * are unsigned, so a 32-bit code above 2^31 is read back with its bits kept.
+ * @throws HttpError 400 when the length is not a whole number of samples.
+ */
+export function decodeSamples(bytes: Uint8Array, angleFormat: 'turn' | 'rad'): DecodedSamples {
+  if (bytes.length % SAMPLE_BYTES !== 0) {
+    throw new HttpError(400, 'bad_samples', `samples: ${bytes.length} bytes is not a whole number of ${SAMPLE_BYTES}-byte samples (truncated?)`);
+  }
+  const n = bytes.length / SAMPLE_BYTES;
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  const out: DecodedSamples = { codes: new Float64Array(n), cos: new Int32Array(n), sin: new Int32Array(n) };
+  for (let i = 0, at = 0; i < n; i++, at += SAMPLE_BYTES) {
+    out.codes[i] = angleFormat === 'turn' ? view.getUint32(at, true) : view.getInt32(at, true);
+    out.cos[i] = view.getInt32(at + 4, true);
+    out.sin[i] = view.getInt32(at + 8, true);
+  }
+  return out;
+}
+
+/** Score decoded samples with the core's model. @throws HttpError 400 for codes the model refuses. */
+export function scoreSamples(modelConfig: unknown, samples: DecodedSamples): ScoreSummary {
+  const config = modelConfigSchema.parse(modelConfig);
+  try {
+    return new ScoreAccumulator(config).add(samples.codes, samples.cos, samples.sin).summary();
+  } catch (err) {
+    throw new HttpError(400, 'bad_samples', `samples: ${(err as Error).message}`);
+  }
+}
+
+/** One limit's outcome; `measured` and `pass` are null when the server cannot measure it. */
+export interface LimitOutcome {
+  limit: number;
+  measured: number | null;
+  pass: boolean | null;
+}
+export type Verdict = Partial<Record<LimitKey, LimitOutcome>>;
+
+/** What the server knows besides the samples: the link figures the runner reported. */
+export interface JudgeContext {
+  checkFailures?: number;
+}
+
+const MEASURES: Record<LimitKey, { max: boolean; value: (s: ScoreSummary, c: JudgeContext) => number | null }> = {
+  maxAbsErrorLsb: { max: true, value: (s) => s.overall.maxAbsLsb },
+  maxRmsErrorLsb: { max: true, value: (s) => s.overall.rmsLsb },
+  maxAbsBiasLsb: { max: true, value: (s) => Math.max(Math.abs(s.cos.meanLsb), Math.abs(s.sin.meanLsb)) },
+  // SFDR needs the tone plan's spectrum, which the server does not rebuild yet.
+  minSfdrDb: { max: false, value: () => null },
+  maxModelMismatches: { max: true, value: (s) => s.mismatches.count },
+  // Link errors happen on the wire, not in the samples: the runner's own count is all there is.
+  maxLinkErrors: { max: true, value: (_s, c) => c.checkFailures ?? null },
+  minCoveragePct: { max: false, value: (s) => s.coverage.share * 100 },
+};
+
+/**
+ * Every limit of the core against the summary. An empty session fails every limit it could
+ * measure from samples: nothing answered proves nothing.
+ */
+export function judgeSession(limitsInput: unknown, summary: ScoreSummary, context: JudgeContext = {}): { verdict: Verdict; passed: boolean } {
+  const limits = limitsSchema.parse(limitsInput ?? {});
+  const verdict: Verdict = {};
+  for (const key of Object.keys(MEASURES) as LimitKey[]) {
+    const limit = limits[key];
+    if (limit === undefined) continue;
+    const m = MEASURES[key];
+    const measured = m.value(summary, context);
+    if (measured === null) {
+      verdict[key] = { limit, measured: null, pass: null };
+      continue;
+    }
+    const empty = summary.count === 0 && key !== 'maxLinkErrors';
+    verdict[key] = { limit, measured, pass: !empty && (m.max ? measured <= limit : measured >= limit) };
+  }
+  return { verdict, passed: Object.values(verdict).every((v) => v.pass !== false) };
+}
+
+/** The limits the baseline passed that this session fails (empty: no regression). */
+export function regressedLimits(baselineVerdict: unknown, verdict: Verdict): LimitKey[] {
+  const base = (baselineVerdict ?? {}) as Partial<Record<string, { pass?: unknown }>>;
+  return (Object.keys(verdict) as LimitKey[]).filter((key) => verdict[key]?.pass === false && base[key]?.pass === true);
+}
