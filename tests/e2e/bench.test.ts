@@ -99,6 +99,30 @@ describe('the Bench page against the simulated board', () => {
     await page.setViewportSize({ width: 1920, height: 1080 });
     await page.waitForTimeout(300);
     await page.screenshot({ path: '/tmp/bench-1920-done.png', fullPage: true });
+
+    // Save it: the core defaults to reference-16, and the server judges the samples itself.
+    await page.getByRole('button', { name: 'Save session' }).click();
+    const form = page.getByRole('form', { name: 'Save session' });
+    await expect.poll(() => form.getByLabel('Core').inputValue()).not.toBe('');
+    expect(await form.getByLabel('Core').locator('option:checked').textContent()).toContain('reference-16');
+    await form.getByLabel('Notes').fill('exhaustive sweep from the browser test');
+    await form.getByLabel('Tags (comma-separated)').fill('e2e, exhaustive');
+    await form.getByRole('button', { name: 'Save', exact: true }).click();
+    await expect.poll(() => page.getByTestId('save-verdict').textContent(), { timeout: 20_000 }).toBe('PASS');
+    const result = (await page.getByTestId('save-result').textContent())!;
+    expect(result).toContain('PASS — Largest error');
+    expect(result).not.toContain('FAIL');
+    const id = Number((await page.getByTestId('saved-session-id').textContent())!.replace('#', ''));
+    expect(id).toBeGreaterThan(0);
+    await page.screenshot({ path: '/tmp/bench-1920-saved.png', fullPage: true });
+
+    // The session list (with the page's own cookies) has it, passed, with all 65,536 samples.
+    const list = await page.evaluate(async () => {
+      const res = await fetch('/api/sessions', { headers: { accept: 'application/json' } });
+      return (await res.json()) as { items: { id: number; passed: boolean; sampleCount: number; tags: string[]; notes: string }[] };
+    });
+    const row = list.items.find((s) => s.id === id);
+    expect(row).toMatchObject({ passed: true, sampleCount: 65_536, tags: ['e2e', 'exhaustive'], notes: 'exhaustive sweep from the browser test' });
   });
 
   it('shows model mismatches for a core with a folding fault', async () => {

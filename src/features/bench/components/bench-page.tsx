@@ -5,6 +5,7 @@ import { ConnectPanel } from './connect-panel';
 import { LiveCharts } from './live-charts';
 import { ProgressBar } from './progress-bar';
 import { RunPanel } from './run-panel';
+import { SaveSessionPanel } from './save-session-panel';
 import { StatsPanel } from './stats-panel';
 import { TrafficPane } from './traffic-pane';
 import { panel } from './ui';
@@ -30,6 +31,7 @@ export function BenchPage() {
         <h1 className="text-2xl font-bold">Bench</h1>
         <ConnectPanel controller={controller} snap={snap} />
         <RunPanel controller={controller} snap={snap} />
+        <SaveSessionPanel controller={controller} snap={snap} />
       </div>
       <div className="grid min-w-0 content-start gap-4 lg:col-start-2 lg:row-span-2 lg:row-start-1">
         <div className={panel}>{snap.run ? <ProgressBar run={snap.run} /> : <p className="text-sm text-ink-soft">{snap.status === 'connected' ? 'Connected. Choose a plan and run it.' : 'Connect to a board, then run a plan.'}</p>}</div>

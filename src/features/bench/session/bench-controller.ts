@@ -27,6 +27,22 @@ export interface BenchSnapshot {
   } | null;
 }
 
+/** Every answered result of the latest run, in request order, kept for "Save session". */
+export interface RunRecord {
+  codes: Float64Array;
+  cos: Int32Array;
+  sin: Int32Array;
+  /** 1 where the board answered that index. */
+  answered: Uint8Array;
+  plan: Plan;
+  config: ModelConfig;
+  startedAt: Date;
+  endedAt: Date | null;
+  transportLabel: string | null;
+  baud: number;
+  info: DeviceInfo | null;
+}
+
 const clock = {
   now: () => performance.now(),
   after: (ms: number, fn: () => void) => {
@@ -41,6 +57,9 @@ const FLUSH_EVERY_MS = 16;
 export class BenchController {
   readonly traffic = new TrafficLog();
   samples: LiveSamples | null = null;
+  /** The latest run's results (for saving); null before the first run. */
+  record: RunRecord | null = null;
+  private baud = 0;
   private snap: BenchSnapshot = { status: 'idle', transportLabel: null, info: null, linkMessage: null, run: null };
   private listeners = new Set<() => void>();
   private link: ByteLink | null = null;
@@ -66,6 +85,7 @@ export class BenchController {
 
   /** Open a link (made by the caller), say HELLO and keep INFO. */
   async connect(open: () => Promise<ByteLink>, label: string, baud: number) {
+    this.baud = baud;
     this.set({ status: 'connecting', transportLabel: label, linkMessage: null, info: null, run: null });
     try {
       const link = await open();
@@ -113,15 +133,38 @@ export class BenchController {
           ? { kind: 'sweep', start: plan.start, step: plan.step, count: plan.count }
           : { kind: 'codes', codes };
     this.samples = new LiveSamples(config);
+    const record: RunRecord = {
+      codes,
+      cos: new Int32Array(codes.length),
+      sin: new Int32Array(codes.length),
+      answered: new Uint8Array(codes.length),
+      plan,
+      config,
+      startedAt: new Date(),
+      endedAt: null,
+      transportLabel: this.snap.transportLabel,
+      baud: this.baud,
+      info: this.snap.info,
+    };
+    this.record = record;
     this.startWorker(config);
     this.set({ run: { state: 'running', progress: null, result: null, summary: null, figures: null, error: null, plan } });
     const handle = this.engine.run(req, {
-      onResults: (b) => this.queueResults(codes, b.indexes, b.cos, b.sin),
+      onResults: (b) => {
+        for (let k = 0; k < b.indexes.length; k++) {
+          const i = b.indexes[k];
+          record.cos[i] = b.cos[k];
+          record.sin[i] = b.sin[k];
+          record.answered[i] = 1;
+        }
+        this.queueResults(codes, b.indexes, b.cos, b.sin);
+      },
       onProgress: (p) => this.setRun({ progress: p, figures: { ...this.engine!.figures } }),
     });
     this.handle = handle;
     handle.done.then(
       (res) => {
+        record.endedAt = new Date();
         this.flush();
         this.worker?.postMessage({ type: 'summary' } satisfies ScoreWorkerRequest);
         this.setRun({
@@ -131,7 +174,10 @@ export class BenchController {
           result: { status: res.status, message: res.message, elapsedMs: res.elapsedMs, missing: res.missing.length },
         });
       },
-      (err: Error) => this.setRun({ state: 'finished', error: err.message }),
+      (err: Error) => {
+        record.endedAt = new Date();
+        this.setRun({ state: 'finished', error: err.message });
+      },
     );
   }
 

@@ -1,0 +1,64 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api } from '../../../lib/api';
+import type { RunRecord } from '../session/bench-controller';
+import { packSamples } from '../session/pack-samples';
+
+export const sessionKeys = { all: ['sessions'] as const };
+
+export interface LimitOutcome {
+  limit: number;
+  measured: number | null;
+  pass: boolean | null;
+}
+
+/** The server's reply: it scores the samples itself and judges them against the core's limits. */
+export interface SavedSession {
+  id: number;
+  passed: boolean;
+  regression: boolean;
+  verdict: Record<string, LimitOutcome | undefined>;
+  stats: unknown;
+}
+
+export interface SaveSessionInput {
+  record: RunRecord;
+  coreId: number;
+  buildId: number | null;
+  boardId: number | null;
+  notes: string;
+  tags: string[];
+  /** Link figures of the run, when known (check failures count towards the verdict). */
+  link?: Record<string, unknown> | null;
+  /** A capture archive, when the page recorded one. */
+  archive?: Blob | null;
+}
+
+export function saveSession(input: SaveSessionInput): Promise<SavedSession> {
+  const { record } = input;
+  const session = {
+    coreId: input.coreId,
+    buildId: input.buildId,
+    boardId: input.boardId,
+    startedAt: record.startedAt.toISOString(),
+    endedAt: record.endedAt?.toISOString() ?? null,
+    plan: { ...record.plan },
+    transport: { label: record.transportLabel, baud: record.baud, source: 'bench' },
+    deviceInfo: record.info ? { ...record.info } : null,
+    notes: input.notes,
+    tags: input.tags,
+    ...(input.link ? { link: input.link } : {}),
+  };
+  const form = new FormData();
+  form.set('session', JSON.stringify(session));
+  form.set('samples', new Blob([packSamples(record.codes, record.cos, record.sin, record.answered)], { type: 'application/octet-stream' }), 'samples.bin');
+  if (input.archive) form.set('archive', input.archive, 'capture.abrc');
+  return api<SavedSession>('/api/sessions', { method: 'POST', body: form });
+}
+
+export function useSaveSession() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: saveSession,
+    onSuccess: () => qc.invalidateQueries({ queryKey: sessionKeys.all }),
+  });
+}
