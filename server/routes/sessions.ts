@@ -2,7 +2,7 @@ import { Router, type Request, type RequestHandler } from 'express';
 import multer from 'multer';
 import { Op, type WhereOptions } from 'sequelize';
 import { z } from 'zod';
-import { currentUser, requireRole } from '../auth';
+import { currentUser, hasRole, requireRole } from '../auth';
 import { BenchSession, Board, Build, Core, CoreWatcher, User } from '../db/models';
 import { HttpError, notFound } from '../http-error';
 import { sendRegressionMail } from '../mail/messages';
@@ -61,6 +61,17 @@ const listQuery = z.strictObject({
 type ListQuery = z.infer<typeof listQuery>;
 
 const NO_BLOBS = { exclude: ['samples', 'archive'] };
+
+/** What an engineer may change on a stored session; `baseline: true` makes it its core's baseline. */
+const patchBody = z.strictObject({
+  notes: text(10_000).optional(),
+  tags: z.array(text(40).min(1)).max(20).optional(),
+  baseline: z.literal(true).optional(),
+});
+type PatchBody = z.infer<typeof patchBody>;
+
+/** How long an operator may delete a session of their own after uploading it. */
+const OWN_DELETE_WINDOW_MS = 24 * 60 * 60 * 1000;
 
 /** Multipart in memory: one `session` JSON field, `samples` and an optional `archive` (413 beyond the limit). */
 function sessionUpload(limitBytes: number): RequestHandler {
@@ -213,9 +224,41 @@ export function sessionsRouter({ db, mailer, config }: RouteDeps) {
     );
   }
 
-  router.route('/:id').get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
-    res.json({ session: await findSession(req, NO_BLOBS) });
-  });
+  router
+    .route('/:id')
+    .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
+      res.json({ session: await findSession(req, NO_BLOBS) });
+    })
+    .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
+      const me = currentUser(req);
+      const body = req.body as PatchBody;
+      const session = await findSession(req, NO_BLOBS);
+      if (body.baseline && !session.passed) throw new HttpError(409, 'conflict', 'baseline: only a passing session may be its core’s baseline');
+      await db.transaction(async (transaction) => {
+        const changes: { notes?: string; tags?: string[] } = {};
+        if (body.notes !== undefined) changes.notes = body.notes;
+        if (body.tags !== undefined) changes.tags = body.tags;
+        if (Object.keys(changes).length) await session.update(changes, { transaction });
+        if (body.baseline) await Core.update({ baselineSessionId: session.id }, { where: { id: session.coreId }, transaction });
+        await recordAudit(transaction, me.id, 'update', 'session', session.id, { ...body });
+      });
+      res.json({ session });
+    })
+    .delete(requireRole('engineer'), validate({ params: idParams }), async (req, res) => {
+      const me = currentUser(req);
+      const session = await findSession(req, NO_BLOBS);
+      const fresh = Date.now() - session.createdAt.getTime() < OWN_DELETE_WINDOW_MS;
+      if (!hasRole(me.role, 'admin') && !(session.operatorId === me.id && fresh)) {
+        throw new HttpError(403, 'forbidden', 'Only an admin, or its operator within 24 hours of the upload, may delete a session');
+      }
+      await db.transaction(async (transaction) => {
+        // No foreign key guards a core's baseline: a deleted baseline leaves the core without one.
+        await Core.update({ baselineSessionId: null }, { where: { baselineSessionId: session.id }, transaction });
+        await session.destroy({ transaction });
+        await recordAudit(transaction, me.id, 'delete', 'session', session.id, { coreId: session.coreId, passed: session.passed, sampleCount: session.sampleCount });
+      });
+      res.status(204).end();
+    });
 
   router.route('/:id/samples').get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
     const session = await findSession(req);

@@ -48,6 +48,8 @@ const table: Row[] = [
   ['post', '/api/sessions', {}, 401, 403, 400, 400],
   ['get', '/api/sessions/:session', undefined, 401, 200, 200, 200],
   ['get', `/api/sessions/${NONE}`, undefined, 401, 404, 404, 404],
+  ['patch', '/api/sessions/:session', { colour: 'red' }, 401, 403, 400, 400],
+  ['delete', `/api/sessions/${NONE}`, undefined, 401, 403, 404, 404],
   ['get', '/api/sessions/:session/samples', undefined, 401, 200, 200, 200],
   ['get', '/api/sessions/:session/archive', undefined, 401, 404, 404, 404],
   ['get', '/api/sessions/:session/comments', undefined, 401, 200, 200, 200],
