@@ -1,3 +1,4 @@
+import { once } from 'node:events';
 import { Router, type Request, type RequestHandler } from 'express';
 import multer from 'multer';
 import { Op, type WhereOptions } from 'sequelize';
@@ -8,6 +9,7 @@ import { HttpError, notFound } from '../http-error';
 import { sendRegressionMail } from '../mail/messages';
 import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
+import { sessionCsvChunks } from '../services/session-csv';
 import { decodeSamples, judgeSession, regressedLimits, scoreSamples } from '../services/session-scoring';
 import { mailSafely, type RouteDeps } from './deps';
 import { id, idParams, originOf, paramsOf, queryOf } from './params';
@@ -269,6 +271,21 @@ export function sessionsRouter({ db, mailer, config }: RouteDeps) {
     const session = await findSession(req);
     if (!session.archive) throw notFound('Session archive');
     res.type('application/octet-stream').attachment(`session-${session.id}.abrc`).send(session.archive);
+  });
+
+  router.route('/:id/export.csv').get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
+    const session = await findSession(req);
+    const core = await Core.findByPk(session.coreId);
+    if (!core) throw notFound('Core');
+    const model = core.modelConfig as { angleFormat?: 'turn' | 'rad' };
+    const samples = decodeSamples(session.samples, model.angleFormat ?? 'turn');
+    res.type('text/csv; charset=utf-8').set('content-disposition', `attachment; filename="session-${session.id}.csv"`);
+    for (const chunk of sessionCsvChunks(core.modelConfig, samples)) {
+      if (res.write(chunk)) continue;
+      await Promise.race([once(res, 'drain'), once(res, 'close')]);
+      if (res.destroyed) return;
+    }
+    res.end();
   });
 
   return router;

@@ -52,6 +52,7 @@ const table: Row[] = [
   ['delete', `/api/sessions/${NONE}`, undefined, 401, 403, 404, 404],
   ['get', '/api/sessions/:session/samples', undefined, 401, 200, 200, 200],
   ['get', '/api/sessions/:session/archive', undefined, 401, 404, 404, 404],
+  ['get', '/api/sessions/:session/export.csv', undefined, 401, 200, 200, 200],
   ['get', '/api/sessions/:session/comments', undefined, 401, 200, 200, 200],
   ['post', '/api/sessions/:session/comments', {}, 401, 400, 400, 400],
   ['delete', `/api/comments/${NONE}`, undefined, 401, 404, 404, 404],

@@ -3,7 +3,7 @@ import { packSamples } from '../../cli/run-server';
 import { hashPassword } from '../../server/auth/passwords';
 import { AuditEntry, BenchSession, Core, User } from '../../server/db/models';
 import { modelConfigSchema } from '../../server/schemas/core';
-import { createCordicModel } from '../../shared/numeric/cordic-model';
+import { angleCodeToDegrees, createCordicModel, exactSinCos } from '../../shared/numeric';
 import { TEST_PASSWORD, testApp, type Agent, type TestApp } from '../support/test-app';
 
 // Editing, deleting and exporting stored sessions. Sessions are uploaded as the runner sends them;
@@ -106,5 +106,43 @@ describe('DELETE /api/sessions/:id', () => {
     await engineer.delete(`/api/sessions/${id}`).expect(204);
     await core.reload();
     expect(core.baselineSessionId).toBeNull();
+  });
+});
+
+describe('GET /api/sessions/:id/export.csv', () => {
+  it('gives a reviewer one row per sample of a 65,536-sample session, as an attachment', async () => {
+    // Every code of the 16-bit circle, in a scrambled order, with one wrong answer.
+    const n = 65_536;
+    const r = run(n, 40_503, [[12_345, 3]]);
+    const id = await upload(engineer, r.packed);
+    const started = Date.now();
+    const res = await reviewer.get(`/api/sessions/${id}/export.csv`).expect(200);
+    expect(Date.now() - started).toBeLessThan(4000);
+    expect(res.headers['content-type']).toMatch(/^text\/csv/);
+    expect(res.headers['content-disposition']).toBe(`attachment; filename="session-${id}.csv"`);
+    const lines = (res.text as string).trimEnd().split('\n');
+    expect(lines[0]).toBe('index,angle_code,angle_deg,cos_code,sin_code,exact_cos,exact_sin,model_cos,model_sin,cos_err_lsb,sin_err_lsb');
+    expect(lines).toHaveLength(n + 1);
+
+    const i = 12_345;
+    const code = r.codes[i];
+    const exact = exactSinCos(config, code);
+    const model = createCordicModel(config).evaluate(code);
+    const scale = 2 ** config.outFrac;
+    const cells = lines[i + 1].split(',').map(Number);
+    expect(cells).toHaveLength(11);
+    const [index, angleCode, deg, cosCode, sinCode, exactCos, exactSin, modelCos, modelSin, cosErr, sinErr] = cells;
+    expect([index, angleCode, cosCode, sinCode, modelCos, modelSin]).toEqual([i, code, r.cos[i], r.sin[i], model.cos, model.sin]);
+    expect(cosCode).toBe(model.cos + 3);
+    expect(deg).toBeCloseTo(angleCodeToDegrees(config, code), 12);
+    expect(exactCos).toBeCloseTo(exact.cos, 15);
+    expect(exactSin).toBeCloseTo(exact.sin, 15);
+    expect(cosErr).toBeCloseTo(r.cos[i] - exact.cos * scale, 9);
+    expect(sinErr).toBeCloseTo(r.sin[i] - exact.sin * scale, 9);
+  });
+
+  it('refuses a signed-out caller with 401 and answers 404 for an unknown session', async () => {
+    await (await t.visitor()).get('/api/sessions/1/export.csv').expect(401);
+    await reviewer.get('/api/sessions/999999/export.csv').expect(404);
   });
 });
