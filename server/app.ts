@@ -14,6 +14,7 @@ import { authRouter, type LoginLimit } from './routes/auth';
 import { boardsRouter } from './routes/boards';
 import { buildsRouter } from './routes/builds';
 import { commentsRouter, sessionCommentsRouter } from './routes/comments';
+import { compareRouter } from './routes/compare';
 import { coresRouter } from './routes/cores';
 import type { RouteDeps } from './routes/deps';
 import { healthRouter } from './routes/health';
@@ -70,6 +71,7 @@ export function createApp({
   app.use('/api/sessions/:sessionId/comments', sessionCommentsRouter(deps));
   app.use('/api/sessions', sessionsRouter(deps));
   app.use('/api/comments', commentsRouter(deps));
+  app.use('/api/compare', compareRouter(deps));
   app.use('/api/audit', auditRouter());
   app.use('/api/outbox', outboxRouter());
   app.use('/api', apiNotFound);

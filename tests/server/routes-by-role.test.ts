@@ -56,6 +56,8 @@ const table: Row[] = [
   ['get', '/api/sessions/:session/comments', undefined, 401, 200, 200, 200],
   ['post', '/api/sessions/:session/comments', {}, 401, 400, 400, 400],
   ['delete', `/api/comments/${NONE}`, undefined, 401, 404, 404, 404],
+  ['get', '/api/compare', undefined, 401, 400, 400, 400],
+  ['get', `/api/compare?ids=:session,${NONE}`, undefined, 401, 404, 404, 404],
   ['get', '/api/audit', undefined, 401, 403, 403, 200],
   ['get', '/api/outbox', undefined, 401, 403, 403, 200],
 ];

@@ -1,0 +1,76 @@
+// Bit-exact comparison of two sessions' answers on the angle codes both covered. Each side is
+// put in code order through a typed index array, then the two orders are merged; nothing is
+// allocated per sample beyond those arrays, so million-sample sessions stay cheap.
+import type { DecodedSamples } from './session-scoring';
+
+/** One code both sessions answered, differently. */
+export interface DifferingCode {
+  code: number;
+  a: { cos: number; sin: number };
+  b: { cos: number; sin: number };
+}
+
+export interface SessionDiff {
+  /** Distinct angle codes both sessions answered. */
+  common: number;
+  /** Of those, the codes whose cos or sin codes differ. */
+  differing: number;
+  /** The largest |Δcos| or |Δsin| over the common codes, in output LSBs (0 when none differ). */
+  maxAbsDiffLsb: number;
+  /** The first differing codes in ascending code order, at most `keep`. */
+  firstDiffering: DifferingCode[];
+}
+
+export const KEEP_DIFFERING = 50;
+
+/**
+ * Sample indices in ascending code order, each code once: where a code was answered more than
+ * once its first answer stands.
+ */
+export function uniqueCodeOrder(codes: Float64Array): Uint32Array {
+  const order = new Uint32Array(codes.length);
+  for (let i = 0; i < order.length; i++) order[i] = i;
+  order.sort((x, y) => codes[x] - codes[y] || x - y);
+  let kept = 0;
+  for (let k = 0; k < order.length; k++) {
+    if (kept > 0 && codes[order[kept - 1]] === codes[order[k]]) continue;
+    order[kept++] = order[k];
+  }
+  return order.subarray(0, kept);
+}
+
+/** Compare `b` against `a` code by code. */
+export function diffSessions(a: DecodedSamples, b: DecodedSamples, keep = KEEP_DIFFERING): SessionDiff {
+  const oa = uniqueCodeOrder(a.codes);
+  const ob = uniqueCodeOrder(b.codes);
+  const out: SessionDiff = { common: 0, differing: 0, maxAbsDiffLsb: 0, firstDiffering: [] };
+  let i = 0;
+  let j = 0;
+  while (i < oa.length && j < ob.length) {
+    const ia = oa[i];
+    const ib = ob[j];
+    const ca = a.codes[ia];
+    const cb = b.codes[ib];
+    if (ca < cb) {
+      i++;
+      continue;
+    }
+    if (cb < ca) {
+      j++;
+      continue;
+    }
+    out.common++;
+    const dCos = Math.abs(a.cos[ia] - b.cos[ib]);
+    const dSin = Math.abs(a.sin[ia] - b.sin[ib]);
+    if (dCos !== 0 || dSin !== 0) {
+      out.differing++;
+      out.maxAbsDiffLsb = Math.max(out.maxAbsDiffLsb, dCos, dSin);
+      if (out.firstDiffering.length < keep) {
+        out.firstDiffering.push({ code: ca, a: { cos: a.cos[ia], sin: a.sin[ia] }, b: { cos: b.cos[ib], sin: b.sin[ib] } });
+      }
+    }
+    i++;
+    j++;
+  }
+  return out;
+}
