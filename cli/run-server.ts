@@ -127,20 +127,5 @@ export async function uploadSession(fetchImpl: Fetch, server: { url: string; tok
   return typeof id === 'number' ? id : null;
 }
 
-/** Pack answered results for the upload. */
-export function packSamples(codes: ArrayLike<number>, cos: ArrayLike<number>, sin: ArrayLike<number>, answered: ArrayLike<number>): Uint8Array {
-  let n = 0;
-  for (let i = 0; i < codes.length; i++) if (answered[i]) n++;
-  const out = new Uint8Array(n * 12);
-  const view = new DataView(out.buffer);
-  let at = 0;
-  for (let i = 0; i < codes.length; i++) {
-    if (!answered[i]) continue;
-    // Angle codes are at most 32 bits; unsigned ones above 2^31 keep their bits.
-    view.setInt32(at, codes[i] | 0, true);
-    view.setInt32(at + 4, cos[i], true);
-    view.setInt32(at + 8, sin[i], true);
-    at += 12;
-  }
-  return out;
-}
+/** The upload's sample packing is shared with the Bench page and the server. */
+export { packSamples } from '../shared/bench/sample-pack';

@@ -1,6 +1,7 @@
 // Scoring of an uploaded bench session on the server: the packed samples are decoded, scored with
 // the shared ScoreAccumulator under the core's own model configuration, and judged against the
 // core's limits. Nothing the client computed is trusted.
+import { SamplePackError, unpackSamples, type UnpackedSamples } from '../../shared/bench/sample-pack';
 import { HttpError } from '../http-error';
 import { modelConfigSchema, limitsSchema } from '../schemas/core';
 import { ScoreAccumulator, type ScoreSummary } from '../../shared/numeric/score';
@@ -9,33 +10,16 @@ import type { z } from 'zod';
 type Limits = z.infer<typeof limitsSchema>;
 export type LimitKey = keyof Limits;
 
-/** Bytes per packed sample: angle code, cos code, sin code, each a little-endian int32. */
-export const SAMPLE_BYTES = 12;
+export type DecodedSamples = UnpackedSamples;
 
-export interface DecodedSamples {
-  codes: Float64Array;
-  cos: Int32Array;
-  sin: Int32Array;
-}
-
-/**
- * Unpack `samples` (12 bytes per result: i32 LE angle code, cos, sin). Binary angles (`turn`)
- * are unsigned, so a 32-bit code above 2^31 is read back with its bits kept.
- * @throws HttpError 400 when the length is not a whole number of samples.
- */
+/** Unpack uploaded samples. @throws HttpError 400 when the length is not a whole number of samples. */
 export function decodeSamples(bytes: Uint8Array, angleFormat: 'turn' | 'rad'): DecodedSamples {
-  if (bytes.length % SAMPLE_BYTES !== 0) {
-    throw new HttpError(400, 'bad_samples', `samples: ${bytes.length} bytes is not a whole number of ${SAMPLE_BYTES}-byte samples (truncated?)`);
+  try {
+    return unpackSamples(bytes, angleFormat);
+  } catch (err) {
+    if (err instanceof SamplePackError) throw new HttpError(400, 'bad_samples', `samples: ${err.message}`);
+    throw err;
   }
-  const n = bytes.length / SAMPLE_BYTES;
-  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  const out: DecodedSamples = { codes: new Float64Array(n), cos: new Int32Array(n), sin: new Int32Array(n) };
-  for (let i = 0, at = 0; i < n; i++, at += SAMPLE_BYTES) {
-    out.codes[i] = angleFormat === 'turn' ? view.getUint32(at, true) : view.getInt32(at, true);
-    out.cos[i] = view.getInt32(at + 4, true);
-    out.sin[i] = view.getInt32(at + 8, true);
-  }
-  return out;
 }
 
 /** Score decoded samples with the core's model. @throws HttpError 400 for codes the model refuses. */

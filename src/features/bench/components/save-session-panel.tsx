@@ -8,7 +8,7 @@ import { useBuilds } from '../api/get-builds';
 import { useCores } from '../api/get-cores';
 import { useSaveSession, type LimitOutcome, type SavedSession } from '../api/save-session';
 import type { BenchController, BenchSnapshot } from '../session/bench-controller';
-import { answeredCount } from '../session/pack-samples';
+import { answeredCount } from '../../../../shared/bench/sample-pack';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from './ui';
 
 const DEFAULT_CORE_SLUG = 'reference-16';
