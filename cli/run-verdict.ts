@@ -1,23 +1,10 @@
 // Acceptance limits and the verdict of a run. The keys are the server's core `limits` field
 // (server/schemas/core.ts): a missing key is not checked; errors in output LSB, SFDR in dB.
-import { z } from 'zod';
 import type { RunScore } from './run-score';
 import { UsageError } from './run-options';
 
-const lsb = z.number().min(0).max(1e6);
-
-/** The same keys and bounds the server validates a core's limits with. */
-export const limitsSchema = z.strictObject({
-  maxAbsErrorLsb: lsb.optional(),
-  maxRmsErrorLsb: lsb.optional(),
-  maxAbsBiasLsb: lsb.optional(),
-  minSfdrDb: z.number().min(0).max(300).optional(),
-  maxModelMismatches: z.number().int().min(0).optional(),
-  maxLinkErrors: z.number().int().min(0).optional(),
-  minCoveragePct: z.number().min(0).max(100).optional(),
-});
-export type Limits = z.infer<typeof limitsSchema>;
-export type LimitKey = keyof Limits;
+export { limitsSchema, type Limits, type LimitKey } from '../shared/bench/limits';
+import { limitsSchema, type Limits, type LimitKey } from '../shared/bench/limits';
 
 export function parseLimits(input: unknown, where: string): Limits {
   const r = limitsSchema.safeParse(input);

@@ -2,7 +2,7 @@
 // `serialport` package. The binding is injectable so tests run on @serialport/binding-mock.
 import { SerialPort, type SerialPortOpenOptions } from 'serialport';
 import type { AutoDetectTypes } from '@serialport/bindings-cpp';
-import { LinkClosedError, LinkEvents, type ByteLink, type LinkCloseReason } from '../../shared/bench/byte-link';
+import { ByteLinkBase, LinkClosedError } from '../../shared/bench/byte-link';
 
 export interface SerialLinkOptions {
   path: string;
@@ -19,11 +19,11 @@ export interface SerialLinkOptions {
 const RECOVERABLE = /overrun|framing|parity|break/i;
 
 /** One open serial port. Writes are serialised in call order through the port's own queue. */
-export class SerialLink implements ByteLink {
-  private readonly events = new LinkEvents();
+export class SerialLink extends ByteLinkBase {
   private requested = false;
 
   private constructor(private readonly port: SerialPort) {
+    super();
     port.on('data', (data: Buffer) => this.events.emitBytes(new Uint8Array(data.buffer, data.byteOffset, data.byteLength)));
     port.on('error', (err: Error) => {
       if (RECOVERABLE.test(err.message)) this.events.emitWarning(err.message);
@@ -56,19 +56,6 @@ export class SerialLink implements ByteLink {
     return new Promise((resolve, reject) => {
       port.open((err) => (err ? reject(new Error(`Cannot open ${options.path}: ${err.message.replace(/^Error: /, '')}`)) : resolve(new SerialLink(port))));
     });
-  }
-
-  get closed() {
-    return this.events.closed;
-  }
-  onBytes(l: (b: Uint8Array) => void) {
-    this.events.onBytes(l);
-  }
-  onWarning(l: (m: string) => void) {
-    this.events.onWarning(l);
-  }
-  onClose(l: (r: LinkCloseReason) => void) {
-    this.events.onClose(l);
   }
 
   write(bytes: Uint8Array): Promise<void> {

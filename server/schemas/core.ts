@@ -15,15 +15,4 @@ export const linkProfileSchema = z.strictObject({
   crc: z.enum(['CRC-8/SMBUS', 'CRC-8/MAXIM-DOW', 'CRC-8/DVB-S2', 'CRC-8/AUTOSAR']).default('CRC-8/SMBUS'),
 });
 
-const lsb = z.number().min(0).max(1e6);
-
-/** Acceptance limits; a missing key is not checked. Errors are in output LSB, SFDR in dB. */
-export const limitsSchema = z.strictObject({
-  maxAbsErrorLsb: lsb.optional(),
-  maxRmsErrorLsb: lsb.optional(),
-  maxAbsBiasLsb: lsb.optional(),
-  minSfdrDb: z.number().min(0).max(300).optional(),
-  maxModelMismatches: z.number().int().min(0).optional(),
-  maxLinkErrors: z.number().int().min(0).optional(),
-  minCoveragePct: z.number().min(0).max(100).optional(),
-});
+export { limitsSchema } from '../../shared/bench/limits';
