@@ -4,11 +4,10 @@
  * Bytes leave in chunks of whatever accumulated since the last tick, the way a USB-serial adapter
  * merges and splits the line into packets, so chunk boundaries carry no meaning.
  */
-export interface PacerClock {
-  now(): number;
-  /** Call `fn` after about `ms`; returns a cancel function. */
-  after(ms: number, fn: () => void): () => void;
-}
+import type { EngineClock } from '../shared/bench/link-engine';
+
+/** The same injected time as the link engine's, so one clock serves both ends in tests. */
+export type PacerClock = EngineClock;
 
 export const realClock: PacerClock = {
   now: () => performance.now(),

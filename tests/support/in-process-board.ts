@@ -1,14 +1,9 @@
 import { LinkEvents, type ByteLink } from '../../shared/bench/byte-link';
-import type { EngineClock } from '../../shared/bench/link-engine';
+import { realClock } from '../../mock-device/line-pacer';
 import { defaultBoardSettings, openBoardSession, type BoardSettings } from '../../mock-device/board-session';
 
-export const realEngineClock: EngineClock = {
-  now: () => performance.now(),
-  after: (ms, fn) => {
-    const t = setTimeout(fn, ms);
-    return () => clearTimeout(t);
-  },
-};
+/** Real time for the engine, the same clock the simulated board paces with. */
+export { realClock as realEngineClock };
 
 /** The simulated board in this process, behind a ByteLink, paced by real time. */
 export function inProcessBoard(overrides: Partial<BoardSettings> = {}) {
