@@ -21,9 +21,36 @@ export function clientIsStale(): boolean {
   return Math.max(...sources.map(newestMtimeMs)) > fs.statSync(built).mtimeMs;
 }
 
+const LOCK_DIR = path.join(projectRoot, 'node_modules', '.anglebench-client-build.lock');
+const STALE_LOCK_MS = 5 * 60 * 1000;
+
+/** Hold a directory lock while `fn` runs, so two test runs never build into dist/ at once. */
+async function withBuildLock<T>(fn: () => Promise<T>): Promise<T> {
+  for (;;) {
+    try {
+      fs.mkdirSync(LOCK_DIR);
+      break;
+    } catch (err) {
+      if ((err as NodeJS.ErrnoException).code !== 'EEXIST') throw err;
+      // A build that died leaves its lock behind; after a while it is taken over.
+      const age = Date.now() - (fs.statSync(LOCK_DIR, { throwIfNoEntry: false })?.mtimeMs ?? Date.now());
+      if (age > STALE_LOCK_MS) fs.rmSync(LOCK_DIR, { recursive: true, force: true });
+      else await new Promise((r) => setTimeout(r, 250));
+    }
+  }
+  try {
+    return await fn();
+  } finally {
+    fs.rmSync(LOCK_DIR, { recursive: true, force: true });
+  }
+}
+
 /** Build the client into dist/ unless it is up to date. */
 export async function buildClientIfStale(log: (msg: string) => void = console.log): Promise<void> {
   if (!clientIsStale()) return;
-  log('Building the client…');
-  await build({ root: projectRoot, logLevel: 'warn' });
+  await withBuildLock(async () => {
+    if (!clientIsStale()) return; // another run built it while this one waited
+    log('Building the client…');
+    await build({ root: projectRoot, logLevel: 'warn' });
+  });
 }

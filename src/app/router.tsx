@@ -29,6 +29,50 @@ export const router = createBrowserRouter([
         },
       },
       {
+        path: 'sessions',
+        lazy: async () => ({ Component: (await import('./routes/sessions')).SessionsRoute, loader: requireUser(queryClient) }),
+      },
+      {
+        path: 'sessions/:id',
+        lazy: async () => ({ Component: (await import('./routes/session')).SessionRoute, loader: requireUser(queryClient) }),
+      },
+      {
+        path: 'sessions/:id/report',
+        lazy: async () => ({ Component: (await import('./routes/session-report')).SessionReportRoute, loader: requireUser(queryClient) }),
+      },
+      {
+        path: 'compare',
+        lazy: async () => ({ Component: (await import('./routes/compare')).CompareRoute, loader: requireUser(queryClient) }),
+      },
+      {
+        path: 'builds',
+        lazy: async () => ({ Component: (await import('./routes/builds')).BuildsRoute, loader: requireUser(queryClient) }),
+      },
+      {
+        path: 'builds/:id',
+        lazy: async () => ({ Component: (await import('./routes/build')).BuildRoute, loader: requireUser(queryClient) }),
+      },
+      {
+        path: 'cores',
+        lazy: async () => ({ Component: (await import('./routes/cores')).CoresRoute, loader: requireUser(queryClient) }),
+      },
+      {
+        path: 'cores/:id',
+        lazy: async () => ({ Component: (await import('./routes/core')).CoreRoute, loader: requireUser(queryClient) }),
+      },
+      {
+        path: 'boards',
+        lazy: async () => ({ Component: (await import('./routes/boards')).BoardsRoute, loader: requireUser(queryClient) }),
+      },
+      {
+        path: 'boards/:id',
+        lazy: async () => ({ Component: (await import('./routes/board')).BoardRoute, loader: requireUser(queryClient) }),
+      },
+      {
+        path: 'team',
+        lazy: async () => ({ Component: (await import('./routes/team')).TeamRoute, loader: requireUser(queryClient) }),
+      },
+      {
         path: '*',
         lazy: async () => ({ Component: (await import('./routes/not-found')).NotFoundRoute }),
       },

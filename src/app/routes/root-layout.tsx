@@ -7,6 +7,12 @@ import { UserBadge } from '../../features/auth/components/user-badge';
 const nav: Array<{ to: string; label: string; end: boolean; hideFor?: Role[] }> = [
   { to: '/', label: 'Overview', end: true },
   { to: '/bench', label: 'Bench', end: false, hideFor: ['reviewer'] },
+  { to: '/sessions', label: 'Sessions', end: false },
+  { to: '/compare', label: 'Compare', end: false },
+  { to: '/builds', label: 'Builds', end: false },
+  { to: '/cores', label: 'Cores', end: false },
+  { to: '/boards', label: 'Boards', end: false },
+  { to: '/team', label: 'Team', end: false, hideFor: ['engineer', 'reviewer'] },
 ];
 
 export function RootLayout() {

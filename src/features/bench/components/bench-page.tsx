@@ -8,7 +8,7 @@ import { RunPanel } from './run-panel';
 import { SaveSessionPanel } from './save-session-panel';
 import { StatsPanel } from './stats-panel';
 import { TrafficPane } from './traffic-pane';
-import { panel } from './ui';
+import { panel } from '../../../components/ui';
 
 /** The bench: link and plan on the left, progress, charts and traffic on the right. */
 export function BenchPage() {

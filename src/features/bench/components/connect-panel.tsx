@@ -7,7 +7,7 @@ import { COMMON_BAUD_RATES, MAX_BAUD, MIN_BAUD, recommendedBufferSize, type Seri
 import { hasWebSerial, SerialLink } from '../transport/serial-link';
 import { SocketLink } from '../transport/socket-link';
 import { SerialCaution, serialCautionSeen } from './serial-caution';
-import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from './ui';
+import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 
 export const SIMULATED_BOARD_URL = 'ws://127.0.0.1:5175/';
 const wsUrl = z.string().trim().regex(/^wss?:\/\/\S+$/, 'A ws:// or wss:// address');

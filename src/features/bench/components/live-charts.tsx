@@ -4,7 +4,7 @@ import { useEffect, useRef } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
 import { COLUMNS, RAW_LIMIT, type LiveSamples } from '../session/live-samples';
-import { panel, panelTitle } from './ui';
+import { panel, panelTitle } from '../../../components/ui';
 
 const INK = '#1f2a2e';
 const SIGNAL = '#c9821e';

@@ -4,7 +4,7 @@ import { useForm } from 'react-hook-form';
 import { bindPlan, parseModelConfig, PlanError } from '../../../../shared/numeric';
 import type { BenchController, BenchSnapshot } from '../session/bench-controller';
 import { ANGLE_UNITS, defaultPlanForm, PLAN_KINDS, planFormSchema, PlanFieldError, planFromForm, type PlanForm } from './plan-from-form';
-import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from './ui';
+import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 
 /** The core profile to score against, prefilled from INFO; the fields INFO does not carry keep the model's defaults. */
 const profileFromInfo = (info: NonNullable<BenchSnapshot['info']>) =>

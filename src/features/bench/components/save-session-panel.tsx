@@ -9,7 +9,7 @@ import { useCores } from '../api/get-cores';
 import { useSaveSession, type LimitOutcome, type SavedSession } from '../api/save-session';
 import type { BenchController, BenchSnapshot } from '../session/bench-controller';
 import { answeredCount } from '../../../../shared/bench/sample-pack';
-import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from './ui';
+import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 
 const DEFAULT_CORE_SLUG = 'reference-16';
 

@@ -1,5 +1,5 @@
 import { useEffect, useRef } from 'react';
-import { btn, btnPrimary } from './ui';
+import { btn, btnPrimary } from '../../../components/ui';
 
 const KEY = 'anglebench.serialCautionSeen';
 

@@ -1,5 +1,5 @@
 import type { BenchSnapshot } from '../session/bench-controller';
-import { panel, panelTitle } from './ui';
+import { panel, panelTitle } from '../../../components/ui';
 
 const n = (v: number, digits = 3) => (Number.isFinite(v) ? v.toFixed(digits) : '—');
 const int = (v: number) => v.toLocaleString('en-US');

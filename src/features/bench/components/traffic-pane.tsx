@@ -7,7 +7,7 @@ import '@xterm/xterm/css/xterm.css';
 import { useEffect, useRef, useState } from 'react';
 import { kindName } from '../../../../shared/link';
 import type { TrafficEntry, TrafficLog } from '../session/traffic-log';
-import { btn, panel, panelTitle } from './ui';
+import { btn, panel, panelTitle } from '../../../components/ui';
 
 const SCROLLBACK_LINES = 5000;
 const LINES_PER_FRAME = 120;

@@ -1,4 +1,4 @@
-// Class names shared by the bench panels: one look for every field and button.
+// Class names shared by every page: one look for every panel, field and button.
 export const panel = 'rounded-lg border border-rule bg-panel p-4';
 export const panelTitle = 'mb-3 text-sm font-bold uppercase tracking-wider text-ink-soft';
 export const input = 'w-full rounded border border-rule bg-white px-2 py-1.5 text-sm focus:border-signal disabled:bg-paper disabled:text-ink-soft';

@@ -1,0 +1,4 @@
+// Placeholder until the page lands: the route exists so links to it resolve.
+export function SessionRoute() {
+  return <p className="text-ink-soft">This page is being built.</p>;
+}
