@@ -1,7 +1,7 @@
 import { Router, type Request } from 'express';
 import { z } from 'zod';
 import { currentUser, requireRole } from '../auth';
-import { Core, CoreWatcher } from '../db/models';
+import { Core, CoreWatcher, User } from '../db/models';
 import { notFound } from '../http-error';
 import { validate } from '../middleware/validate';
 import { limitsSchema, linkProfileSchema, modelConfigSchema } from '../schemas/core';
@@ -55,7 +55,13 @@ export function coresRouter({ db }: RouteDeps) {
   router
     .route('/:id')
     .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
-      res.json({ core: await findCore(req) });
+      const me = currentUser(req);
+      const core = await findCore(req);
+      // Who hears of this core's regressions, and whether the caller is one of them (for the toggle).
+      const rows = await CoreWatcher.findAll({ where: { coreId: core.id }, attributes: ['userId'] });
+      const users = rows.length ? await User.findAll({ where: { id: rows.map((r) => r.userId) }, attributes: ['id', 'name'], order: [['name', 'ASC']] }) : [];
+      const watchers = users.map((u) => ({ id: u.id, name: u.name }));
+      res.json({ core, watchers, watching: watchers.some((w) => w.id === me.id) });
     })
     .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
       const me = currentUser(req);

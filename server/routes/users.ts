@@ -36,6 +36,10 @@ export function usersRouter({ db }: RouteDeps) {
       const me = currentUser(req);
       const { id } = paramsOf<{ id: number }>(req);
       const changes = req.body as z.infer<typeof patchBody>;
+      // An admin cannot lock themselves out: another admin has to demote or disable them.
+      if (id === me.id && (changes.disabled === true || (changes.role !== undefined && changes.role !== 'admin'))) {
+        throw new HttpError(409, 'self_lockout', 'You cannot disable your own account or take away your own admin role; ask another admin');
+      }
       const user = await db.transaction(async (transaction) => {
         const row = await User.findByPk(id, { transaction });
         if (!row) throw notFound('User');
