@@ -1,7 +1,8 @@
 import { once } from 'node:events';
 import { Router, type Request, type RequestHandler } from 'express';
 import multer from 'multer';
-import { Op, type WhereOptions } from 'sequelize';
+import { literal, Op, type WhereOptions } from 'sequelize';
+import type { Literal } from 'sequelize/types/utils';
 import { z } from 'zod';
 import { currentUser, hasRole, requireRole } from '../auth';
 import { BenchSession, Board, Build, Core, CoreWatcher, User } from '../db/models';
@@ -10,7 +11,8 @@ import { sendRegressionMail } from '../mail/messages';
 import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import { sessionCsvChunks } from '../services/session-csv';
-import { decodeSamples, judgeSession, regressedLimits, scoreSamples } from '../services/session-scoring';
+import { decodeSamples } from '../services/session-scoring';
+import { storeSession } from '../services/session-store';
 import { mailSafely, type RouteDeps } from './deps';
 import { id, idParams, originOf, paramsOf, queryOf } from './params';
 
@@ -54,6 +56,7 @@ const listQuery = z.strictObject({
   operatorId: id.optional(),
   passed: flag.optional(),
   regression: flag.optional(),
+  tag: text(40).min(1).optional(),
   from: z.coerce.date().optional(),
   to: z.coerce.date().optional(),
   sort: z.enum(['startedAt', '-startedAt', 'id', '-id']).default('-startedAt'),
@@ -63,6 +66,18 @@ const listQuery = z.strictObject({
 type ListQuery = z.infer<typeof listQuery>;
 
 const NO_BLOBS = { exclude: ['samples', 'archive'] };
+
+/** Without the blobs, with whether an archive is kept and the names a list shows. */
+const LISTED = {
+  attributes: { exclude: ['samples', 'archive'], include: [[literal('"BenchSession"."archive" IS NOT NULL'), 'hasArchive']] as [Literal, string][] },
+  include: [
+    { model: Core, as: 'core', attributes: ['id', 'name', 'slug'] },
+    { model: Build, as: 'build', attributes: ['id', 'label'] },
+    { model: Board, as: 'board', attributes: ['id', 'name'] },
+    { model: User, as: 'operator', attributes: ['id', 'name'] },
+  ],
+};
+const listed = (row: BenchSession) => ({ ...row.toJSON(), hasArchive: Boolean(row.get('hasArchive')) });
 
 /** What an engineer may change on a stored session; `baseline: true` makes it its core's baseline. */
 const patchBody = z.strictObject({
@@ -116,6 +131,7 @@ function listWhere(q: ListQuery): WhereOptions {
     if (q[key] !== undefined) where[key] = q[key];
   }
   if (q.from || q.to) where.startedAt = { ...(q.from ? { [Op.gte]: q.from } : {}), ...(q.to ? { [Op.lte]: q.to } : {}) };
+  if (q.tag) where[Op.and] = literal(`EXISTS (SELECT 1 FROM json_each("BenchSession"."tags") WHERE json_each.value = ${BenchSession.sequelize!.escape(q.tag)})`);
   return where as WhereOptions;
 }
 
@@ -134,13 +150,13 @@ export function sessionsRouter({ db, mailer, config }: RouteDeps) {
       const q = queryOf<ListQuery>(req);
       const column = q.sort.replace('-', '');
       const { rows, count } = await BenchSession.findAndCountAll({
+        ...LISTED,
         where: listWhere(q),
-        attributes: NO_BLOBS,
         order: [[column, q.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']],
         limit: q.pageSize,
         offset: (q.page - 1) * q.pageSize,
       });
-      res.json({ items: rows, total: count, page: q.page, pageSize: q.pageSize });
+      res.json({ items: rows.map(listed), total: count, page: q.page, pageSize: q.pageSize });
     })
     .post(requireRole('engineer'), sessionUpload(config.uploadLimitBytes), async (req, res) => {
       const me = currentUser(req);
@@ -150,61 +166,8 @@ export function sessionsRouter({ db, mailer, config }: RouteDeps) {
       if (!samplesFile) throw new HttpError(400, 'invalid', 'samples: a multipart file named "samples" is required');
       const archive = files.archive?.[0]?.buffer ?? null;
 
-      const result = await db.transaction(async (transaction) => {
-        const core = part.coreId !== undefined ? await Core.findByPk(part.coreId, { transaction }) : await Core.findOne({ where: { slug: part.coreSlug }, transaction });
-        if (!core) throw new HttpError(400, 'invalid', part.coreId !== undefined ? 'session.coreId: no such core' : 'session.coreSlug: no such core');
-        if (part.coreId !== undefined && part.coreSlug !== undefined && core.slug !== part.coreSlug) {
-          throw new HttpError(400, 'invalid', 'session.coreSlug: does not name the core of session.coreId');
-        }
-        let buildId = part.buildId ?? null;
-        if (buildId !== null) {
-          const build = await Build.findByPk(buildId, { transaction });
-          if (!build || build.coreId !== core.id) throw new HttpError(400, 'invalid', 'session.buildId: no such build of this core');
-        } else if (part.build) {
-          buildId = (await Build.findOne({ where: { coreId: core.id, label: part.build }, order: [['id', 'DESC']], transaction }))?.id ?? null;
-        }
-        let boardId = part.boardId ?? null;
-        if (boardId !== null) {
-          if (!(await Board.findByPk(boardId, { transaction }))) throw new HttpError(400, 'invalid', 'session.boardId: no such board');
-        } else if (part.board) {
-          boardId = (await Board.findOne({ where: { name: part.board }, transaction }))?.id ?? null;
-        }
-
-        const model = core.modelConfig as { angleFormat?: 'turn' | 'rad' };
-        const samples = decodeSamples(samplesFile.buffer, model.angleFormat ?? 'turn');
-        const stats = scoreSamples(core.modelConfig, samples);
-        const checkFailures = typeof part.link?.checkFailures === 'number' ? part.link.checkFailures : undefined;
-        const { verdict, passed } = judgeSession(core.limits, stats, { checkFailures });
-        const baseline = core.baselineSessionId ? await BenchSession.findByPk(core.baselineSessionId, { attributes: ['id', 'verdict'], transaction }) : null;
-        const failedLimits = baseline ? regressedLimits(baseline.verdict, verdict) : [];
-
-        const row = await BenchSession.create(
-          {
-            coreId: core.id,
-            buildId,
-            boardId,
-            operatorId: me.id,
-            startedAt: part.startedAt,
-            endedAt: part.endedAt ?? null,
-            plan: part.plan,
-            transport: part.link ? { ...part.transport, linkFigures: part.link } : part.transport,
-            deviceInfo: part.deviceInfo ?? null,
-            stats: stats as unknown as Record<string, unknown>,
-            verdict: verdict as Record<string, unknown>,
-            passed,
-            regression: failedLimits.length > 0,
-            sampleCount: samples.codes.length,
-            samples: samplesFile.buffer,
-            archive,
-            notes: part.notes,
-            tags: part.tags,
-          },
-          { transaction },
-        );
-        await recordAudit(transaction, me.id, 'upload', 'session', row.id, { coreId: core.id, sampleCount: row.sampleCount, passed, regression: row.regression });
-        return { row, core, stats, verdict, passed, failedLimits };
-      });
-
+      const { link, stats: _s, verdict: _v, passed: _p, sampleCount: _n, ...draft } = part;
+      const result = await db.transaction((transaction) => storeSession(transaction, me.id, { ...draft, link }, samplesFile.buffer, archive));
       const { row, core, stats, verdict, passed, failedLimits } = result;
       if (failedLimits.length > 0) await mailRegression(req, row, core, failedLimits);
       res.status(201).json({ id: row.id, passed, regression: row.regression, verdict, stats });
@@ -229,7 +192,9 @@ export function sessionsRouter({ db, mailer, config }: RouteDeps) {
   router
     .route('/:id')
     .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
-      res.json({ session: await findSession(req, NO_BLOBS) });
+      const session = await BenchSession.findByPk(paramsOf<{ id: number }>(req).id, LISTED);
+      if (!session) throw notFound('Session');
+      res.json({ session: listed(session) });
     })
     .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
       const me = currentUser(req);

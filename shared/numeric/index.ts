@@ -34,5 +34,6 @@ export { exactSinCos, exactSinCosInto, exactSinCosOfTurns, idealOutputCode, idea
 export { DEFAULT_HISTOGRAM, type HistogramOptions } from './error-stats';
 export { codesPerOctant, octantOfCode, type CoverageSummary } from './coverage';
 export { ScoreAccumulator, type ChannelSummary, type Mismatch, type ScoreOptions, type ScoreSummary } from './score';
+export { errorProfile, PROFILE_BINS, PROFILE_EMPTY } from './error-profile';
 export { gcd, powerSpectrum, SpectralError, toneFigures, type ToneFigures, type ToneOptions } from './spectral';
 export { bindPlan, MAX_PLAN_CODES, planCodes, planCodesInto, planSchema, type BoundPlan, type Plan } from './plans';

@@ -25,6 +25,8 @@ export class BenchSession extends Model<InferAttributes<BenchSession>, InferCrea
   declare deviceInfo: Json | null;
   declare stats: Json;
   declare verdict: Json;
+  /** Largest |error| in LSB per 1/64 of the code range (-1: no answer there); null for old rows. */
+  declare profile: CreationOptional<number[] | null>;
   declare passed: boolean;
   declare regression: CreationOptional<boolean>;
   declare sampleCount: number;
@@ -51,6 +53,7 @@ export function initBenchSession(sequelize: Sequelize) {
       deviceInfo: { type: DataTypes.JSON, allowNull: true },
       stats: { type: DataTypes.JSON, allowNull: false },
       verdict: { type: DataTypes.JSON, allowNull: false },
+      profile: { type: DataTypes.JSON, allowNull: true },
       passed: { type: DataTypes.BOOLEAN, allowNull: false },
       regression: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       sampleCount: { type: DataTypes.INTEGER, allowNull: false, validate: { min: 0 } },
