@@ -2,11 +2,13 @@ import fs from 'node:fs';
 import { Router, type Request } from 'express';
 import { z } from 'zod';
 import { currentUser, requireRole } from '../auth';
+import { Op } from 'sequelize';
 import { Build, Core, Review, User } from '../db/models';
 import { HttpError, notFound } from '../http-error';
 import { sendReviewDecisionMail, sendReviewRequestedMail } from '../mail/messages';
 import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
+import { buildStandings } from '../services/build-status';
 import { bitstreamPath, sanitizeFileName, singleBitstream, type HashedFile } from '../uploads/bitstream-storage';
 import { mailSafely, type RouteDeps } from './deps';
 import { id, idParams, originOf, paramsOf, queryOf } from './params';
@@ -33,13 +35,25 @@ export function buildsRouter({ db, mailer, config, uploadDir }: RouteDeps) {
     return build as Build & { core: Core };
   };
   const buildLink = (req: Request, build: Build) => `${originOf(req)}/builds/${build.id}`;
+  const people = { model: User, as: 'createdBy', attributes: ['id', 'name'] };
+  const coreBrief = { model: Core, as: 'core', attributes: ['id', 'name', 'slug'] };
+  /** Builds as the API shows them: with their core, author and status (see build-status.ts). */
+  const withStanding = async (builds: Build[]) => {
+    const standings = await buildStandings(builds.map((b) => b.id));
+    return builds.map((b) => ({ ...b.toJSON(), ...standings.get(b.id)! }));
+  };
+  /** Other builds holding a file with this SHA-256, so the same bitstream is not taken for two. */
+  const duplicatesOf = async (build: Build) =>
+    build.sha256 ? Build.findAll({ where: { sha256: build.sha256, id: { [Op.ne]: build.id } }, attributes: ['id', 'label'], order: [['id', 'ASC']] }) : [];
+  const reviewsOf = (buildId: number) =>
+    Review.findAll({ where: { buildId }, include: [{ model: User, as: 'reviewer', attributes: ['id', 'name'] }], order: [['id', 'DESC']] });
 
   router
     .route('/')
     .get(requireRole('reviewer'), validate({ query: listQuery }), async (req, res) => {
       const { coreId } = queryOf<z.infer<typeof listQuery>>(req);
-      const builds = await Build.findAll({ where: coreId ? { coreId } : {}, order: [['id', 'DESC']] });
-      res.json({ builds });
+      const builds = await Build.findAll({ where: coreId ? { coreId } : {}, include: [coreBrief, people], order: [['id', 'DESC']] });
+      res.json({ builds: await withStanding(builds) });
     })
     .post(requireRole('engineer'), validate({ body: createBody }), async (req, res) => {
       const me = currentUser(req);
@@ -56,9 +70,11 @@ export function buildsRouter({ db, mailer, config, uploadDir }: RouteDeps) {
   router
     .route('/:id')
     .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
-      const build = await findBuild(req);
-      const reviews = await Review.findAll({ where: { buildId: build.id }, order: [['id', 'DESC']] });
-      res.json({ build, reviews, standing: reviews[0]?.decision ?? 'unreviewed' });
+      const found = await findBuild(req);
+      const build = (await Build.findByPk(found.id, { include: [coreBrief, people] }))!;
+      const reviews = await reviewsOf(build.id);
+      const [shown] = await withStanding([build]);
+      res.json({ build: { ...shown, duplicates: await duplicatesOf(build) }, reviews, standing: reviews[0]?.decision ?? 'unreviewed' });
     })
     .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
       const me = currentUser(req);
@@ -107,14 +123,14 @@ export function buildsRouter({ db, mailer, config, uploadDir }: RouteDeps) {
       } finally {
         await fs.promises.rm(file.path, { force: true });
       }
-      res.json({ build });
+      res.json({ build, duplicates: await duplicatesOf(build) });
     });
 
   router
     .route('/:id/reviews')
     .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
       const build = await findBuild(req);
-      res.json({ reviews: await Review.findAll({ where: { buildId: build.id }, order: [['id', 'DESC']] }) });
+      res.json({ reviews: await reviewsOf(build.id) });
     })
     .post(requireRole('reviewer'), validate({ params: idParams, body: reviewBody }), async (req, res) => {
       const me = currentUser(req);
