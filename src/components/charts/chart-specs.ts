@@ -1,0 +1,75 @@
+// What each signal chart shows, apart from where its data comes from: the Bench page feeds them
+// live, the Session page from stored samples. Data is columnar, as uPlot takes it:
+//   values     [angle°, exact cos, cos, exact sin, sin]
+//   error      [angle°, cos error LSB, sin error LSB]
+//   errorCos   [angle°, cos error LSB]       errorSin [angle°, sin error LSB]
+//   histogram  [bin centre LSB, cos count, sin count]
+//   xy         [cos ascending, sin]
+import uPlot from 'uplot';
+import { axis, dots, FAIL, INK, line, REFERENCE, SIGNAL } from './uplot-theme';
+
+export type ChartId = 'values' | 'error' | 'errorCos' | 'errorSin' | 'histogram' | 'xy';
+
+export interface ChartSpec {
+  title: string;
+  testId: string;
+  options: Omit<uPlot.Options, 'width' | 'height'>;
+}
+
+const bars = (align: -1 | 1) => uPlot.paths.bars!({ size: [0.45, Infinity], align });
+
+export const CHART_SPECS: Record<ChartId, ChartSpec> = {
+  values: {
+    title: 'Returned against exact',
+    testId: 'chart-values',
+    options: { scales: { x: { time: false } }, axes: [axis('angle, °'), axis()], series: [{}, line(REFERENCE, 'exact cos'), dots(SIGNAL, 'cos'), line(INK, 'exact sin'), dots(FAIL, 'sin')] },
+  },
+  error: {
+    title: 'Error against angle, LSB',
+    testId: 'chart-error',
+    options: { scales: { x: { time: false } }, axes: [axis('angle, °'), axis('LSB')], series: [{}, dots(SIGNAL, 'cos error'), dots(REFERENCE, 'sin error')] },
+  },
+  errorCos: {
+    title: 'cos error against angle, LSB',
+    testId: 'chart-error-cos',
+    options: { scales: { x: { time: false } }, axes: [axis('angle, °'), axis('LSB')], series: [{}, dots(SIGNAL, 'cos error')] },
+  },
+  errorSin: {
+    title: 'sin error against angle, LSB',
+    testId: 'chart-error-sin',
+    options: { scales: { x: { time: false } }, axes: [axis('angle, °'), axis('LSB')], series: [{}, dots(REFERENCE, 'sin error')] },
+  },
+  histogram: {
+    title: 'Error histogram',
+    testId: 'chart-histogram',
+    options: {
+      scales: { x: { time: false } },
+      axes: [axis('error, LSB'), axis('count')],
+      series: [{}, { label: 'cos', stroke: SIGNAL, fill: SIGNAL + '88', paths: bars(-1) }, { label: 'sin', stroke: REFERENCE, fill: REFERENCE + '88', paths: bars(1) }],
+    },
+  },
+  xy: {
+    title: 'XY circle (sin against cos)',
+    testId: 'chart-xy',
+    // Ranges are set by SignalCharts: one extent for both scales, so a circle stays round.
+    options: { scales: { x: { time: false }, y: {} }, axes: [axis('cos'), axis('sin')], series: [{}, dots(SIGNAL, 'sin vs cos')], cursor: { show: false } },
+  },
+};
+
+/** Half-width of both XY scales: the unit circle with a margin, or wider if the data is. */
+export function xyExtent(data: uPlot.AlignedData): number {
+  let m = 1;
+  for (const col of data) {
+    for (let i = 0; i < col.length; i++) {
+      const v = col[i];
+      if (typeof v === 'number' && Number.isFinite(v) && Math.abs(v) > m) m = Math.abs(v);
+    }
+  }
+  return m * 1.1;
+}
+
+/** Centres of the histogram's bins (edgesLsb holds each bin's left edge). */
+export function histogramData(h: { edgesLsb: number[]; binsPerLsb: number; cos: number[]; sin: number[] } | null | undefined): uPlot.AlignedData {
+  if (!h) return [[], [], []];
+  return [h.cos.map((_, i) => h.edgesLsb[i] + 0.5 / h.binsPerLsb), h.cos, h.sin];
+}
