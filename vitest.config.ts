@@ -25,6 +25,17 @@ export default defineConfig({
           fileParallelism: false,
         },
       },
+      {
+        test: {
+          name: 'robustness',
+          include: ['tests/robustness/**/*.test.ts'],
+          environment: 'node',
+          testTimeout: 120_000,
+          hookTimeout: 60_000,
+          // Fuzzing and load tests each want both cores: one file at a time.
+          fileParallelism: false,
+        },
+      },
     ],
   },
 });
