@@ -1,6 +1,7 @@
 // The run's capture: both directions through the shared Recorder, with a label that says what
 // was asked (plan, model configuration), so an archive alone scores again to the same figures.
-import { Kind, RecordedDecoder, Recorder, decodePayload, profileFromInfo, readArchive, replayArchive, sweepAngleCode, type Crc8Name, type DecodedFrame, type MessageOf, type WireProfile } from '../shared/link';
+import { Kind, RecordedDecoder, Recorder, decodePayload, profileFromInfo, readArchive, type Crc8Name, type MessageOf } from '../shared/link';
+import { samplesFromArchive } from '../shared/bench/archive-samples';
 import { expandRequest } from '../shared/bench/run-request';
 import { parseModelConfig, planSchema, type ModelConfig, type Plan } from '../shared/numeric';
 import { planToRequest } from './run-plan';
@@ -102,38 +103,15 @@ export function scoreArchive(bytes: Uint8Array): { label: RunLabel; score: RunSc
   } catch {
     throw new NotARunArchiveError('This archive was not written by `run --out`: its label holds no plan');
   }
-  const replay = replayArchive(bytes);
-  let profile: WireProfile = header.profile;
-  const requests = new Map<number, { codeAt: (i: number) => number; count: number; got: Uint8Array }>();
+  // The answers in request order, then each code's answers handed out to the plan's slots in turn.
+  const found = samplesFromArchive(bytes);
   const answers = new Map<number, Array<[number, number]>>();
-  let checkFailures = 0;
-  for (const s of replay.skips) if (s.direction === 'to-host' && s.event.reason === 'bad-check') checkFailures++;
-  for (const { direction, frame } of replay.frames) {
-    const m = safeDecode(frame, profile);
-    if (!m) continue;
-    if (direction === 'to-device') {
-      if (m.kind === Kind.One) requests.set(frame.tag, { codeAt: () => m.angleCode, count: 1, got: new Uint8Array(1) });
-      else if (m.kind === Kind.List) requests.set(frame.tag, { codeAt: (i) => m.angleCodes[i], count: m.angleCodes.length, got: new Uint8Array(m.angleCodes.length) });
-      else if (m.kind === Kind.Sweep) {
-        const p = profile;
-        requests.set(frame.tag, { codeAt: (i) => sweepAngleCode(m.start, m.step, i, p), count: m.count, got: new Uint8Array(m.count) });
-      }
-      continue;
-    }
-    if (m.kind === Kind.Info) profile = profileFromInfo(m.info);
-    if (m.kind !== Kind.Results) continue;
-    const req = requests.get(frame.tag);
-    if (!req) continue;
-    for (let j = 0; j < m.cos.length; j++) {
-      const pos = m.firstIndex + j;
-      if (pos >= req.count || req.got[pos]) continue;
-      req.got[pos] = 1;
-      const code = req.codeAt(pos);
-      const list = answers.get(code) ?? [];
-      list.push([m.cos[j], m.sin[j]]);
-      answers.set(code, list);
-    }
+  for (let i = 0; i < found.codes.length; i++) {
+    const list = answers.get(found.codes[i]) ?? [];
+    list.push([found.cos[i], found.sin[i]]);
+    answers.set(found.codes[i], list);
   }
+  const profile = found.profile;
   const codes = expandRequest(planToRequest(label.plan, label.model), profile);
   const cos = new Int32Array(codes.length);
   const sin = new Int32Array(codes.length);
@@ -147,13 +125,5 @@ export function scoreArchive(bytes: Uint8Array): { label: RunLabel; score: RunSc
     used.set(codes[i], u + 1);
     answered[i] = 1;
   }
-  return { label, score: scoreRun(label.model, label.plan, { codes, cos, sin, answered }, checkFailures) };
-}
-
-function safeDecode(f: DecodedFrame, p: WireProfile) {
-  try {
-    return decodePayload(f.kind, f.payload, p);
-  } catch {
-    return null;
-  }
+  return { label, score: scoreRun(label.model, label.plan, { codes, cos, sin, answered }, found.checkFailures) };
 }

@@ -26,6 +26,11 @@ export function packSamples(codes: ArrayLike<number>, cos: ArrayLike<number>, si
   return out;
 }
 
+/** Pack every sample of unpacked columns (the inverse of unpackSamples). */
+export function packColumns(s: UnpackedSamples): Uint8Array<ArrayBuffer> {
+  return packSamples(s.codes, s.cos, s.sin, new Uint8Array(s.codes.length).fill(1));
+}
+
 /** How many results were answered. */
 export function answeredCount(answered: ArrayLike<number>): number {
   let n = 0;
