@@ -4,6 +4,7 @@ import { requireRole } from '../auth';
 import { BenchSession, Build, Core } from '../db/models';
 import { notFound } from '../http-error';
 import { validate } from '../middleware/validate';
+import { codeBinner, errorEnvelope } from '../services/error-envelope';
 import { diffSessions } from '../services/session-diff';
 import { decodeSamples, type DecodedSamples } from '../services/session-scoring';
 import type { RouteDeps } from './deps';
@@ -22,10 +23,13 @@ type CompareQuery = z.infer<typeof compareQuery>;
 interface StoredStats {
   count?: number;
   overall?: { maxAbsLsb?: number; rmsLsb?: number };
-  cos?: { meanLsb?: number };
-  sin?: { meanLsb?: number };
+  cos?: { meanLsb?: number; maxAbsLsb?: number };
+  sin?: { meanLsb?: number; maxAbsLsb?: number };
+  magnitude?: { maxAbs?: number };
+  phase?: { maxAbsRad?: number };
   mismatches?: { count?: number };
   coverage?: { share?: number };
+  histogram?: { binsPerLsb: number; edgesLsb: number[]; cos: number[]; sin: number[]; below: number; above: number };
 }
 
 /** The figures a comparison shows beside each session, read from its stored score. */
@@ -35,11 +39,22 @@ function keyStats(stats: unknown) {
     count: s.count ?? null,
     maxAbsErrorLsb: s.overall?.maxAbsLsb ?? null,
     rmsErrorLsb: s.overall?.rmsLsb ?? null,
+    cosMaxAbsLsb: s.cos?.maxAbsLsb ?? null,
+    sinMaxAbsLsb: s.sin?.maxAbsLsb ?? null,
     cosBiasLsb: s.cos?.meanLsb ?? null,
     sinBiasLsb: s.sin?.meanLsb ?? null,
+    magnitudeMaxAbs: s.magnitude?.maxAbs ?? null,
+    phaseMaxAbsRad: s.phase?.maxAbsRad ?? null,
     modelMismatches: s.mismatches?.count ?? null,
     coveragePct: s.coverage?.share === undefined ? null : s.coverage.share * 100,
   };
+}
+
+/** The stored error histogram, cos and sin counts added together (null when the score has none). */
+function histogramOf(stats: unknown) {
+  const h = (stats as StoredStats | null)?.histogram;
+  if (!h) return null;
+  return { binsPerLsb: h.binsPerLsb, edgesLsb: h.edgesLsb, counts: h.cos.map((c, i) => c + (h.sin[i] ?? 0)), below: h.below, above: h.above };
 }
 
 /** /api/compare: sessions side by side, the first against each other bit for bit. */
@@ -58,13 +73,13 @@ export function compareRouter(_deps: RouteDeps) {
     const buildIds = [...new Set(sessions.map((s) => s.buildId).filter((b): b is number => b !== null))];
     const builds = new Map((buildIds.length ? await Build.findAll({ where: { id: buildIds } }) : []).map((b) => [b.id, b]));
 
-    const decoded: DecodedSamples[] = sessions.map((s) => {
-      const model = (cores.get(s.coreId)?.modelConfig ?? {}) as { angleFormat?: 'turn' | 'rad' };
-      return decodeSamples(s.samples, model.angleFormat ?? 'turn');
-    });
+    const modelOf = (s: BenchSession) => (cores.get(s.coreId)?.modelConfig ?? {}) as { angleFormat?: 'turn' | 'rad' };
+    const decoded: DecodedSamples[] = sessions.map((s) => decodeSamples(s.samples, modelOf(s).angleFormat ?? 'turn'));
+    // The diff's bins and angles are those of the first session's core.
+    const binner = codeBinner(modelOf(sessions[0]));
 
     res.json({
-      sessions: sessions.map((s) => {
+      sessions: sessions.map((s, k) => {
         const core = cores.get(s.coreId);
         const build = s.buildId !== null ? builds.get(s.buildId) : undefined;
         return {
@@ -77,9 +92,15 @@ export function compareRouter(_deps: RouteDeps) {
           regression: s.regression,
           verdict: s.verdict,
           stats: keyStats(s.stats),
+          histogram: histogramOf(s.stats),
+          errorEnvelope: errorEnvelope(modelOf(s), decoded[k]),
         };
       }),
-      pairs: sessions.slice(1).map((s, k) => ({ a: sessions[0].id, b: s.id, ...diffSessions(decoded[0], decoded[k + 1]) })),
+      pairs: sessions.slice(1).map((s, k) => {
+        const diff = diffSessions(decoded[0], decoded[k + 1], undefined, binner);
+        const firstDiffering = diff.firstDiffering.map((d) => ({ ...d, degrees: binner.degreesOf(d.code) }));
+        return { a: sessions[0].id, b: s.id, ...diff, firstDiffering };
+      }),
     });
   });
 

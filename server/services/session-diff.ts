@@ -19,6 +19,14 @@ export interface SessionDiff {
   maxAbsDiffLsb: number;
   /** The first differing codes in ascending code order, at most `keep`. */
   firstDiffering: DifferingCode[];
+  /** Per bin of the code range (when binning was asked for): differing codes and their largest |Δ| in LSB. */
+  byBin?: { differing: number[]; maxAbsDiffLsb: number[] };
+}
+
+/** How to place codes in bins for `byBin`: `binOf(code)` is an integer in [0, bins). */
+export interface DiffBinning {
+  bins: number;
+  binOf: (code: number) => number;
 }
 
 export const KEEP_DIFFERING = 50;
@@ -30,7 +38,10 @@ export const KEEP_DIFFERING = 50;
 export function uniqueCodeOrder(codes: Float64Array): Uint32Array {
   const order = new Uint32Array(codes.length);
   for (let i = 0; i < order.length; i++) order[i] = i;
-  order.sort((x, y) => codes[x] - codes[y] || x - y);
+  // Sweeps and exhaustive runs arrive in code order already; sorting them again is the slow part.
+  let ascending = true;
+  for (let i = 1; i < codes.length && ascending; i++) ascending = codes[i - 1] <= codes[i];
+  if (!ascending) order.sort((x, y) => codes[x] - codes[y] || x - y);
   let kept = 0;
   for (let k = 0; k < order.length; k++) {
     if (kept > 0 && codes[order[kept - 1]] === codes[order[k]]) continue;
@@ -40,10 +51,11 @@ export function uniqueCodeOrder(codes: Float64Array): Uint32Array {
 }
 
 /** Compare `b` against `a` code by code. */
-export function diffSessions(a: DecodedSamples, b: DecodedSamples, keep = KEEP_DIFFERING): SessionDiff {
+export function diffSessions(a: DecodedSamples, b: DecodedSamples, keep = KEEP_DIFFERING, binning?: DiffBinning): SessionDiff {
   const oa = uniqueCodeOrder(a.codes);
   const ob = uniqueCodeOrder(b.codes);
   const out: SessionDiff = { common: 0, differing: 0, maxAbsDiffLsb: 0, firstDiffering: [] };
+  const byBin = binning ? { differing: new Array<number>(binning.bins).fill(0), maxAbsDiffLsb: new Array<number>(binning.bins).fill(0) } : undefined;
   let i = 0;
   let j = 0;
   while (i < oa.length && j < ob.length) {
@@ -65,6 +77,11 @@ export function diffSessions(a: DecodedSamples, b: DecodedSamples, keep = KEEP_D
     if (dCos !== 0 || dSin !== 0) {
       out.differing++;
       out.maxAbsDiffLsb = Math.max(out.maxAbsDiffLsb, dCos, dSin);
+      if (byBin) {
+        const bin = binning!.binOf(ca);
+        byBin.differing[bin]++;
+        byBin.maxAbsDiffLsb[bin] = Math.max(byBin.maxAbsDiffLsb[bin], dCos, dSin);
+      }
       if (out.firstDiffering.length < keep) {
         out.firstDiffering.push({ code: ca, a: { cos: a.cos[ia], sin: a.sin[ia] }, b: { cos: b.cos[ib], sin: b.sin[ib] } });
       }
@@ -72,5 +89,6 @@ export function diffSessions(a: DecodedSamples, b: DecodedSamples, keep = KEEP_D
     i++;
     j++;
   }
+  if (byBin) out.byBin = byBin;
   return out;
 }

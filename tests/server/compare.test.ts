@@ -30,7 +30,7 @@ let t: TestApp;
 let reviewer: Agent;
 let engineer: Agent;
 let core: Core;
-const ids: Record<'base' | 'faulty' | 'disjoint' | 'half', number> = { base: 0, faulty: 0, disjoint: 0, half: 0 };
+const ids: Record<'base' | 'faulty' | 'disjoint' | 'half' | 'partial', number> = { base: 0, faulty: 0, disjoint: 0, half: 0, partial: 0 };
 let base: ReturnType<typeof answers>;
 
 const upload = async (samples: Uint8Array): Promise<number> => {
@@ -51,7 +51,11 @@ beforeAll(async () => {
   ids.faulty = await upload(answers(range(4096, (i) => i * 16), [[7, 2, 0], [100, 0, -5], [4000, 1, 1]]).packed);
   ids.disjoint = await upload(answers(range(4096, (i) => i * 16 + 1)).packed);
   ids.half = await upload(answers(range(4096, (i) => (4095 - i) * 8)).packed);
+  // Upper half of the base codes (with two wrong answers) plus as many codes the base never asked.
+  partialCodes = [...range(2048, (i) => (2048 + i) * 16), ...range(2048, (i) => i * 16 + 8)];
+  ids.partial = await upload(answers(partialCodes, [[10, 0, 3], [2000, -1, 0]]).packed);
 });
+let partialCodes: number[] = [];
 afterAll(() => t.close());
 
 describe('GET /api/compare', () => {
@@ -65,12 +69,12 @@ describe('GET /api/compare', () => {
 
     const [faulty, disjoint, half] = res.body.pairs;
     expect(faulty).toMatchObject({ a: ids.base, b: ids.faulty, common: 4096, differing: 3, maxAbsDiffLsb: 5 });
-    expect(faulty.firstDiffering).toEqual([
+    expect(faulty.firstDiffering).toMatchObject([
       { code: 7 * 16, a: { cos: base.cos[7], sin: base.sin[7] }, b: { cos: base.cos[7] + 2, sin: base.sin[7] } },
       { code: 100 * 16, a: { cos: base.cos[100], sin: base.sin[100] }, b: { cos: base.cos[100], sin: base.sin[100] - 5 } },
       { code: 4000 * 16, a: { cos: base.cos[4000], sin: base.sin[4000] }, b: { cos: base.cos[4000] + 1, sin: base.sin[4000] + 1 } },
     ]);
-    expect(disjoint).toEqual({ a: ids.base, b: ids.disjoint, common: 0, differing: 0, maxAbsDiffLsb: 0, firstDiffering: [] });
+    expect(disjoint).toMatchObject({ a: ids.base, b: ids.disjoint, common: 0, differing: 0, maxAbsDiffLsb: 0, firstDiffering: [] });
     // Multiples of 16 below 32,768: half of the base session's codes, all answered alike.
     expect(half).toMatchObject({ a: ids.base, b: ids.half, common: 2048, differing: 0, maxAbsDiffLsb: 0, firstDiffering: [] });
   });
@@ -86,6 +90,95 @@ describe('GET /api/compare', () => {
     expect(res.body.error.message).toMatch(/999999/);
     await (await t.visitor()).get(`/api/compare?ids=${ids.base},${ids.faulty}`).expect(401);
   });
+});
+
+describe('GET /api/compare, what the compare page draws', () => {
+  it('diffs sessions whose codes overlap in part: only common codes count, each placed in its bin', async () => {
+    const res = await reviewer.get(`/api/compare?ids=${ids.base},${ids.partial}`).expect(200);
+    const [pair] = res.body.pairs;
+    const wrong = [partialCodes[10], partialCodes[2000]];
+    expect(pair).toMatchObject({ common: 2048, differing: 2, maxAbsDiffLsb: 3 });
+    expect(pair.firstDiffering.map((d: { code: number; degrees: number }) => [d.code, d.degrees])).toEqual(wrong.map((c) => [c, (c / 65536) * 360]));
+    // 720 bins over 65,536 codes: the two wrong answers land in bins 720·code/65536.
+    const bins = pair.byBin.differing as number[];
+    expect(bins).toHaveLength(720);
+    expect(bins.reduce((x, y) => x + y, 0)).toBe(2);
+    for (const c of wrong) expect(bins[Math.floor((c / 65536) * 720)]).toBe(1);
+    expect(pair.byBin.maxAbsDiffLsb[Math.floor((wrong[0] / 65536) * 720)]).toBe(3);
+    expect(pair.byBin.maxAbsDiffLsb[Math.floor((wrong[1] / 65536) * 720)]).toBe(1);
+  });
+
+  it('reports disjoint sessions as nothing in common: empty bins, no differing codes', async () => {
+    const res = await reviewer.get(`/api/compare?ids=${ids.base},${ids.disjoint}`).expect(200);
+    const [pair] = res.body.pairs;
+    expect(pair).toMatchObject({ common: 0, differing: 0, maxAbsDiffLsb: 0, firstDiffering: [] });
+    expect(pair.byBin.differing.every((n: number) => n === 0)).toBe(true);
+    expect(res.body.sessions[1].stats.count).toBe(4096);
+  });
+
+  it('gives each session an error envelope that matches errors computed here with Math.cos and Math.sin', async () => {
+    const res = await reviewer.get(`/api/compare?ids=${ids.faulty},${ids.half}`).expect(200);
+    const [faulty, half] = res.body.sessions;
+    const env = faulty.errorEnvelope as { degrees: number[]; lo: (number | null)[]; hi: (number | null)[] };
+    expect(env.degrees).toHaveLength(720);
+    expect(env.degrees[0]).toBeCloseTo(0.25, 2);
+    // The outside check: the platform's Math.cos/Math.sin (double precision) at 2π·code/65536,
+    // scaled by 2^outFrac; the model's output rounding keeps every error well under 0.5 LSB apart.
+    const f = answers(range(4096, (i) => i * 16), [[7, 2, 0], [100, 0, -5], [4000, 1, 1]]);
+    const lo = new Array<number>(720).fill(Infinity);
+    const hi = new Array<number>(720).fill(-Infinity);
+    for (let i = 0; i < f.codes.length; i++) {
+      const a = (2 * Math.PI * f.codes[i]) / 65536;
+      const errs = [f.cos[i] - Math.cos(a) * 2 ** config.outFrac, f.sin[i] - Math.sin(a) * 2 ** config.outFrac];
+      const b = Math.floor((f.codes[i] / 65536) * 720);
+      lo[b] = Math.min(lo[b], ...errs);
+      hi[b] = Math.max(hi[b], ...errs);
+    }
+    for (let b = 0; b < 720; b++) {
+      expect(env.lo[b]).toBeCloseTo(lo[b], 2);
+      expect(env.hi[b]).toBeCloseTo(hi[b], 2);
+    }
+    // The sin answer made 5 LSB low shows as the lowest point of the whole envelope.
+    expect(Math.min(...(env.lo as number[]))).toBe(env.lo[Math.floor(((100 * 16) / 65536) * 720)]);
+    // Codes below 32,768 only: the upper half of the circle has no answers, so no envelope.
+    expect(half.errorEnvelope.hi.slice(0, 360).every((v: number | null) => v !== null)).toBe(true);
+    expect(half.errorEnvelope.hi.slice(360).every((v: number | null) => v === null)).toBe(true);
+  });
+
+  it('gives each session its error histogram, cos and sin together, every answer counted once per channel', async () => {
+    const res = await reviewer.get(`/api/compare?ids=${ids.base},${ids.faulty}`).expect(200);
+    for (const s of res.body.sessions) {
+      const h = s.histogram as { counts: number[]; edgesLsb: number[]; below: number; above: number };
+      expect(h.counts).toHaveLength(h.edgesLsb.length);
+      expect(h.counts.reduce((x, y) => x + y, 0) + h.below + h.above).toBe(2 * 4096);
+    }
+  });
+
+  it('compares two 1,048,576-sample sessions through the API in under 5 s', async () => {
+    const wide = modelConfigSchema.parse({ angleBits: 20 });
+    const wideModel = createCordicModel(wide);
+    const wideCore = await Core.create({ name: 'Wide core', slug: 'wide-core', linkProfile: {}, modelConfig: wide, limits: { maxModelMismatches: 0 }, baselineSessionId: null });
+    const n = 1 << 20;
+    const codes = Int32Array.from({ length: n }, (_, i) => i);
+    const cos = new Int32Array(n);
+    const sin = new Int32Array(n);
+    wideModel.evaluateInto(codes, cos, sin);
+    const post = async () => {
+      const session = { coreId: wideCore.id, startedAt: '2026-03-02T09:00:00.000Z', plan: { kind: 'exhaustive' }, transport: { kind: 'serial' } };
+      const r = await engineer.post('/api/sessions').field('session', JSON.stringify(session)).attach('samples', Buffer.from(packSamples(codes, cos, sin, new Uint8Array(n).fill(1))), 's.bin').expect(201);
+      return r.body.id as number;
+    };
+    const first = await post();
+    cos[123_456] += 4;
+    const second = await post();
+    const started = Date.now();
+    const res = await reviewer.get(`/api/compare?ids=${first},${second}`).expect(200);
+    expect(Date.now() - started).toBeLessThan(5000);
+    expect(res.body.pairs[0]).toMatchObject({ common: n, differing: 1, maxAbsDiffLsb: 4 });
+    expect(res.body.pairs[0].firstDiffering[0].code).toBe(123_456);
+    // The reply stays small: envelopes, not samples.
+    expect(JSON.stringify(res.body).length).toBeLessThan(200_000);
+  }, 60_000);
 });
 
 describe('diffSessions', () => {
