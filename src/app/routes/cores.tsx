@@ -1,4 +1,7 @@
-// Placeholder until the page lands: the route exists so links to it resolve.
+import { useMe } from '../../features/auth/api/get-me';
+import { CoresPage } from '../../features/cores/components/cores-page';
+
 export function CoresRoute() {
-  return <p className="text-ink-soft">This page is being built.</p>;
+  const role = useMe().data?.role;
+  return <CoresPage canEdit={role === 'engineer' || role === 'admin'} />;
 }
