@@ -1,4 +1,10 @@
-// Placeholder until the page lands: the route exists so links to it resolve.
+import { useParams } from 'react-router-dom';
+import { useMe } from '../../features/auth/api/get-me';
+import { BoardPage } from '../../features/boards/components/board-page';
+
 export function BoardRoute() {
-  return <p className="text-ink-soft">This page is being built.</p>;
+  const id = Number(useParams().id);
+  const role = useMe().data?.role;
+  if (!Number.isInteger(id) || id <= 0) return <p className="text-ink-soft">That is not a board address.</p>;
+  return <BoardPage key={id} id={id} canEdit={role === 'engineer' || role === 'admin'} />;
 }

@@ -1,4 +1,7 @@
-// Placeholder until the page lands: the route exists so links to it resolve.
+import { useMe } from '../../features/auth/api/get-me';
+import { BoardsPage } from '../../features/boards/components/boards-page';
+
 export function BoardsRoute() {
-  return <p className="text-ink-soft">This page is being built.</p>;
+  const role = useMe().data?.role;
+  return <BoardsPage canEdit={role === 'engineer' || role === 'admin'} />;
 }
