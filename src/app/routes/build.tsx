@@ -1,4 +1,9 @@
-// Placeholder until the page lands: the route exists so links to it resolve.
+import { useParams } from 'react-router-dom';
+import { BuildPage } from '../../features/builds/components/build-page';
+
 export function BuildRoute() {
-  return <p className="text-ink-soft">This page is being built.</p>;
+  const raw = useParams().id;
+  const id = Number(raw);
+  if (!Number.isInteger(id) || id <= 0) return <p role="alert" className="text-fail">“{raw}” is not a build number.</p>;
+  return <BuildPage key={id} id={id} />;
 }

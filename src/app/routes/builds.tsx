@@ -1,4 +1,5 @@
-// Placeholder until the page lands: the route exists so links to it resolve.
+import { BuildsPage } from '../../features/builds/components/builds-page';
+
 export function BuildsRoute() {
-  return <p className="text-ink-soft">This page is being built.</p>;
+  return <BuildsPage />;
 }

@@ -1,0 +1,7 @@
+import { useMutation } from '@tanstack/react-query';
+import { api } from '../../../lib/api';
+
+/** Ask every reviewer to look at a build; `reviewers` is how many were asked, `mailed` whether the mail went. */
+export const requestReview = (buildId: number) => api<{ reviewers: number; mailed: boolean }>(`/api/builds/${buildId}/request-review`, { method: 'POST' });
+
+export const useRequestReview = (buildId: number) => useMutation({ mutationFn: () => requestReview(buildId) });

@@ -1,0 +1,23 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { z } from 'zod';
+import { api } from '../../../lib/api';
+import { buildKeys } from './build-keys';
+import type { ReviewRecord } from './build-types';
+
+export const reviewSchema = z.object({
+  decision: z.enum(['approve', 'reject']),
+  note: z.string().trim().max(10_000, 'The note is limited to 10,000 characters'),
+});
+export type ReviewInput = z.infer<typeof reviewSchema>;
+
+/** A reviewer's decision; the server mails the build's author (`mailed` says whether it could). */
+export const reviewBuild = (buildId: number, body: ReviewInput) =>
+  api<{ review: ReviewRecord; mailed: boolean }>(`/api/builds/${buildId}/reviews`, { method: 'POST', body });
+
+export function useReviewBuild(buildId: number) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (body: ReviewInput) => reviewBuild(buildId, body),
+    onSuccess: () => qc.invalidateQueries({ queryKey: buildKeys.all }),
+  });
+}

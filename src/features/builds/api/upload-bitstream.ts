@@ -1,0 +1,53 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { ApiError, csrfTokenForWrites } from '../../../lib/api';
+import { buildKeys } from './build-keys';
+import type { BuildRecord, BuildRef } from './build-types';
+
+export interface UploadReply {
+  build: BuildRecord;
+  /** Other builds whose bitstream has the same SHA-256. */
+  duplicates: BuildRef[];
+}
+
+export interface UploadInput {
+  buildId: number;
+  file: File;
+  /** Share of the bytes sent so far, 0..1. */
+  onProgress?: (share: number) => void;
+}
+
+// XMLHttpRequest rather than fetch: only it reports upload progress. Errors become ApiErrors
+// just as api() makes them.
+export async function uploadBitstream({ buildId, file, onProgress }: UploadInput): Promise<UploadReply> {
+  const token = await csrfTokenForWrites();
+  const form = new FormData();
+  form.set('file', file, file.name);
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', `/api/builds/${buildId}/file`);
+    xhr.setRequestHeader('x-csrf-token', token);
+    xhr.setRequestHeader('accept', 'application/json');
+    xhr.upload.onprogress = (e) => e.lengthComputable && onProgress?.(e.loaded / e.total);
+    xhr.onerror = () => reject(new ApiError(0, 'network', 'The server could not be reached. Is it running?'));
+    xhr.onload = () => {
+      let body: unknown;
+      try {
+        body = JSON.parse(xhr.responseText);
+      } catch {
+        body = undefined;
+      }
+      if (xhr.status >= 200 && xhr.status < 300) return resolve(body as UploadReply);
+      const err = (body as { error?: { code?: string; message?: string } } | undefined)?.error;
+      reject(new ApiError(xhr.status, err?.code ?? `http_${xhr.status}`, err?.message ?? `${xhr.status} ${xhr.statusText}`));
+    };
+    xhr.send(form);
+  });
+}
+
+export function useUploadBitstream() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: uploadBitstream,
+    onSuccess: () => qc.invalidateQueries({ queryKey: buildKeys.all }),
+  });
+}
