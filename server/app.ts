@@ -17,6 +17,7 @@ import { commentsRouter, sessionCommentsRouter } from './routes/comments';
 import { compareRouter } from './routes/compare';
 import { coresRouter } from './routes/cores';
 import type { RouteDeps } from './routes/deps';
+import { goldenVectorsRouter } from './routes/golden-vectors';
 import { healthRouter } from './routes/health';
 import { invitationsRouter } from './routes/invitations';
 import { sessionsRouter } from './routes/sessions';
@@ -65,6 +66,7 @@ export function createApp({
   app.use('/api/tokens', tokensRouter(deps));
   app.use('/api/users', usersRouter(deps));
   app.use('/api/invitations', invitationsRouter(deps));
+  app.use('/api/cores/:id/golden-vectors', goldenVectorsRouter(deps));
   app.use('/api/cores', coresRouter(deps));
   app.use('/api/builds', buildsRouter(deps));
   app.use('/api/boards', boardsRouter(deps));

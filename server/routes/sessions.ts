@@ -12,7 +12,9 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import { sessionCsvChunks } from '../services/session-csv';
 import { decodeSamples } from '../services/session-scoring';
+import { readImport } from '../services/session-import';
 import { storeSession } from '../services/session-store';
+import { sanitizeFileName } from '../uploads/bitstream-storage';
 import { mailSafely, type RouteDeps } from './deps';
 import { id, idParams, originOf, paramsOf, queryOf } from './params';
 
@@ -47,6 +49,19 @@ const sessionPart = z
   })
   .refine((s) => s.coreId !== undefined || s.coreSlug !== undefined, { path: ['coreId'], message: 'coreId or coreSlug is required' });
 type SessionPart = z.infer<typeof sessionPart>;
+
+/** The `session` part of an import: where the results belong; what ran is read from the file. */
+const importPart = z
+  .strictObject({
+    coreId: id.optional(),
+    coreSlug: text(80).min(1).optional(),
+    buildId: id.nullish(),
+    boardId: id.nullish(),
+    startedAt: z.coerce.date().optional(),
+    notes: text(10_000).default(''),
+    tags: z.array(text(40).min(1)).max(20).default([]),
+  })
+  .refine((s) => s.coreId !== undefined || s.coreSlug !== undefined, { path: ['coreId'], message: 'coreId or coreSlug is required' });
 
 const flag = z.enum(['true', 'false']).transform((v) => v === 'true');
 const listQuery = z.strictObject({
@@ -96,19 +111,27 @@ function sessionUpload(limitBytes: number): RequestHandler {
     { name: 'samples', maxCount: 1 },
     { name: 'archive', maxCount: 1 },
   ]);
-  return (req, res, next) =>
-    upload(req, res, (err: unknown) => {
-      if (!err) return next();
-      if (err instanceof multer.MulterError) {
-        if (err.code === 'LIMIT_FILE_SIZE') return next(new HttpError(413, 'too_large', `${err.field ?? 'A file'} is over the upload limit of ${limitBytes} bytes`));
-        if (err.code === 'LIMIT_FIELD_VALUE') return next(new HttpError(413, 'too_large', 'session: the JSON part is over 1 MiB'));
-        return next(new HttpError(400, 'bad_upload', `${err.field ? `${err.field}: ` : ''}${err.message}`));
-      }
-      next(err instanceof Error && /multipart|unexpected end/i.test(err.message) ? new HttpError(400, 'bad_upload', err.message) : err);
-    });
+  return (req, res, next) => upload(req, res, (err: unknown) => next(err ? uploadError(err, limitBytes) : undefined));
 }
 
-function parseSessionPart(req: Request): SessionPart {
+/** Multer's failures as the API's errors: 413 past a limit, 400 for a malformed body. */
+function uploadError(err: unknown, limitBytes: number): unknown {
+  if (err instanceof multer.MulterError) {
+    if (err.code === 'LIMIT_FILE_SIZE') return new HttpError(413, 'too_large', `${err.field ?? 'A file'} is over the upload limit of ${limitBytes} bytes`);
+    if (err.code === 'LIMIT_FIELD_VALUE') return new HttpError(413, 'too_large', 'session: the JSON part is over its size limit');
+    return new HttpError(400, 'bad_upload', `${err.field ? `${err.field}: ` : ''}${err.message}`);
+  }
+  return err instanceof Error && /multipart|unexpected end/i.test(err.message) ? new HttpError(400, 'bad_upload', err.message) : err;
+}
+
+function importUpload(limitBytes: number): RequestHandler {
+  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: limitBytes, files: 1, fields: 1, fieldSize: 64 * 1024 } }).single('file');
+  return (req, res, next) => upload(req, res, (err: unknown) => next(err ? uploadError(err, limitBytes) : undefined));
+}
+
+function parseSessionPart(req: Request): SessionPart;
+function parseSessionPart<T extends z.ZodType>(req: Request, schema: T): z.infer<T>;
+function parseSessionPart(req: Request, schema: z.ZodType = sessionPart): unknown {
   const raw = (req.body as Record<string, unknown> | undefined)?.session;
   if (typeof raw !== 'string') throw new HttpError(400, 'invalid', 'session: a multipart field named "session" holding JSON is required');
   let value: unknown;
@@ -117,7 +140,7 @@ function parseSessionPart(req: Request): SessionPart {
   } catch {
     throw new HttpError(400, 'invalid', 'session: not valid JSON');
   }
-  const r = sessionPart.safeParse(value);
+  const r = schema.safeParse(value);
   if (!r.success) {
     const issues = r.error.issues.map((i) => ({ path: ['session', ...i.path].join('.'), message: i.message }));
     throw new HttpError(400, 'invalid', `${issues[0].path}: ${issues[0].message}`, issues);
@@ -172,6 +195,34 @@ export function sessionsRouter({ db, mailer, config }: RouteDeps) {
       if (failedLimits.length > 0) await mailRegression(req, row, core, failedLimits);
       res.status(201).json({ id: row.id, passed, regression: row.regression, verdict, stats });
     });
+
+  router.route('/import').post(requireRole('engineer'), importUpload(config.uploadLimitBytes), async (req, res) => {
+    const me = currentUser(req);
+    const part = parseSessionPart(req, importPart);
+    const file = (req.file as Express.Multer.File | undefined) ?? null;
+    if (!file) throw new HttpError(400, 'invalid', 'file: a multipart file named "file" (a recorder archive or a CSV) is required');
+    const imported = readImport(file.buffer, file.originalname);
+    const result = await db.transaction((transaction) =>
+      storeSession(
+        transaction,
+        me.id,
+        {
+          ...part,
+          startedAt: part.startedAt ?? new Date(),
+          plan: { kind: 'imported', from: imported.source, fileName: sanitizeFileName(file.originalname) },
+          transport: { kind: 'import', source: imported.source },
+          deviceInfo: imported.deviceInfo,
+          link: imported.link,
+        },
+        imported.samples,
+        imported.archive,
+        { action: 'import' },
+      ),
+    );
+    const { row, core, stats, verdict, passed, failedLimits } = result;
+    if (failedLimits.length > 0) await mailRegression(req, row, core, failedLimits);
+    res.status(201).json({ id: row.id, passed, regression: row.regression, verdict, stats });
+  });
 
   async function mailRegression(req: Request, row: BenchSession, core: Core, failedLimits: string[]) {
     const watchers = await CoreWatcher.findAll({ where: { coreId: core.id } });

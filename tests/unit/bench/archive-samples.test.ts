@@ -2,31 +2,13 @@ import { describe, expect, it } from 'vitest';
 import { samplesFromArchive } from '../../../shared/bench/archive-samples';
 import { Kind } from '../../../shared/link/kinds';
 import { encodeMessage, sweepAngleCode, type DeviceInfo } from '../../../shared/link/payloads';
-import { RecordedDecoder, Recorder } from '../../../shared/link/recorder';
-import type { WireProfile } from '../../../shared/link/wire-profile';
 import { createCordicModel } from '../../../shared/numeric';
+import { capture, modelResults, P16 } from '../../support/capture';
 
-const p16: WireProfile = { angleFormat: 'turn', angleBits: 16, outBits: 16 };
+const p16 = P16;
 const info: DeviceInfo = { version: 1, angleFormat: 'turn', angleBits: 16, angleFrac: 0, outBits: 16, outFrac: 14, iterations: 16, queueDepth: 256, buildId: 7, clockKHz: 100000, name: 'test board' };
 const model = createCordicModel({});
-
-function results(tag: number, firstIndex: number, codes: number[]) {
-  const out = codes.map((c) => model.evaluate(c));
-  return encodeMessage({ kind: Kind.Results, firstIndex, cos: Int32Array.from(out, (o) => o.cos), sin: Int32Array.from(out, (o) => o.sin) }, tag, p16);
-}
-
-/** Record a capture: `script` pushes bytes each way in order. */
-function capture(script: (tx: (b: Uint8Array) => void, rx: (b: Uint8Array) => void) => void): Uint8Array {
-  let t = 0;
-  const recorder = new Recorder({ label: 'unit capture', accept: { 'to-host': 'replies', 'to-device': 'requests' } });
-  const side = (direction: 'to-host' | 'to-device') => new RecordedDecoder({ recorder, direction, nowMs: () => (t += 1), onFrame: () => {} });
-  const host = side('to-host');
-  const device = side('to-device');
-  script((b) => device.push(b), (b) => host.push(b));
-  host.finish();
-  device.finish();
-  return recorder.toArchive();
-}
+const results = (tag: number, firstIndex: number, codes: number[]) => modelResults(tag, firstIndex, codes);
 
 describe('samplesFromArchive', () => {
   it('pairs LIST and SWEEP requests with their RESULTS by TAG, in request order, first answer kept', () => {
@@ -50,7 +32,7 @@ describe('samplesFromArchive', () => {
     expect(Array.from(s.cos)).toEqual(codes.map((c) => model.evaluate(c).cos));
     expect(Array.from(s.sin)).toEqual(codes.map((c) => model.evaluate(c).sin));
     expect(s.info?.name).toBe('test board');
-    expect(s.label).toBe('unit capture');
+    expect(s.label).toBe('test capture');
     expect(s.incompleteRequests).toBe(0);
     expect(s.checkFailures).toBe(0);
   });

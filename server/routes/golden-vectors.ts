@@ -1,0 +1,89 @@
+import { Router, type Request } from 'express';
+import multer from 'multer';
+import { z } from 'zod';
+import { checkGoldenVectors, GoldenVectorError, summariseGoldenVectors } from '../../shared/bench/golden-vectors';
+import { parseSampleCsv, SampleCsvError } from '../../shared/bench/sample-csv';
+import { packColumns, unpackSamples } from '../../shared/bench/sample-pack';
+import { parseModelConfig, type ModelConfig } from '../../shared/numeric';
+import { currentUser, requireRole } from '../auth';
+import { Core, GoldenVectorSet } from '../db/models';
+import { HttpError, notFound } from '../http-error';
+import { validate } from '../middleware/validate';
+import { recordAudit } from '../services/audit';
+import type { RouteDeps } from './deps';
+import { id, paramsOf } from './params';
+
+const coreParams = z.strictObject({ id });
+const setParams = z.strictObject({ id, setId: id });
+const nameField = z.string().trim().min(1, 'name: give the set a name').max(120, 'name: at most 120 characters');
+
+/** A set as the API shows it: its rows summarised against the core's current model. */
+function describe(set: GoldenVectorSet, config: ModelConfig) {
+  const rows = unpackSamples(set.codes, config.angleFormat);
+  return { id: set.id, coreId: set.coreId, name: set.name, createdAt: set.createdAt, ...summariseGoldenVectors(config, rows) };
+}
+
+/** /api/cores/:id/golden-vectors: expected codes from RTL simulation, as CSV uploads. */
+export function goldenVectorsRouter({ db, config }: RouteDeps) {
+  const router = Router({ mergeParams: true });
+  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: config.uploadLimitBytes, files: 1, fields: 2 } }).single('file');
+  const findCore = async (req: Request) => {
+    const core = await Core.findByPk(paramsOf<{ id: number }>(req).id);
+    if (!core) throw notFound('Core');
+    return { core, model: parseModelConfig(core.modelConfig) };
+  };
+
+  router
+    .route('/')
+    .get(requireRole('reviewer'), validate({ params: coreParams }), async (req, res) => {
+      const { core, model } = await findCore(req);
+      const sets = await GoldenVectorSet.findAll({ where: { coreId: core.id }, order: [['id', 'ASC']] });
+      res.json({ sets: sets.map((s) => describe(s, model)) });
+    })
+    .post(
+      requireRole('engineer'),
+      validate({ params: coreParams }),
+      (req, res, next) =>
+        upload(req, res, (err: unknown) => {
+          if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE') return next(new HttpError(413, 'too_large', `file: over the upload limit of ${config.uploadLimitBytes} bytes`));
+          if (err instanceof multer.MulterError) return next(new HttpError(400, 'bad_upload', `${err.field ? `${err.field}: ` : ''}${err.message}`));
+          next(err);
+        }),
+      async (req, res) => {
+        const me = currentUser(req);
+        const { core, model } = await findCore(req);
+        const name = nameField.safeParse((req.body as Record<string, unknown> | undefined)?.name ?? '');
+        if (!name.success) throw new HttpError(400, 'invalid', name.error.issues[0].message);
+        if (!req.file) throw new HttpError(400, 'invalid', 'file: a multipart file named "file" (CSV angle_code,cos_code,sin_code) is required');
+        let rows;
+        try {
+          rows = parseSampleCsv(req.file.buffer.toString('utf8'));
+          checkGoldenVectors(model, rows);
+        } catch (err) {
+          if (err instanceof SampleCsvError) throw new HttpError(400, 'bad_csv', `file: ${err.message}`, [{ path: 'file', line: err.line, message: err.message }]);
+          if (err instanceof GoldenVectorError) throw new HttpError(400, 'bad_csv', `file: line ${err.row + 2}: ${err.message}`, [{ path: 'file', line: err.row + 2, message: err.message }]);
+          throw err;
+        }
+        const set = await db.transaction(async (transaction) => {
+          const row = await GoldenVectorSet.create({ coreId: core.id, name: name.data, count: rows.codes.length, codes: Buffer.from(packColumns(rows).buffer) }, { transaction });
+          await recordAudit(transaction, me.id, 'upload', 'golden-vectors', row.id, { coreId: core.id, name: row.name, count: row.count });
+          return row;
+        });
+        res.status(201).json({ set: describe(set, model) });
+      },
+    );
+
+  router.route('/:setId').delete(requireRole('engineer'), validate({ params: setParams }), async (req, res) => {
+    const me = currentUser(req);
+    const { id: coreId, setId } = paramsOf<{ id: number; setId: number }>(req);
+    const set = await GoldenVectorSet.findOne({ where: { id: setId, coreId } });
+    if (!set) throw notFound('Golden vector set');
+    await db.transaction(async (transaction) => {
+      await set.destroy({ transaction });
+      await recordAudit(transaction, me.id, 'delete', 'golden-vectors', set.id, { coreId, name: set.name });
+    });
+    res.status(204).end();
+  });
+
+  return router;
+}

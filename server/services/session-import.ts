@@ -1,0 +1,47 @@
+// Reading an imported session file: a recorder archive (kept as the session's archive) or a CSV of
+// angle_code,cos_code,sin_code. Either becomes packed samples for storeSession, which scores them.
+import { samplesFromArchive } from '../../shared/bench/archive-samples';
+import { parseSampleCsv, SampleCsvError } from '../../shared/bench/sample-csv';
+import { packColumns, type UnpackedSamples } from '../../shared/bench/sample-pack';
+import { ARCHIVE_MAGIC, ArchiveError } from '../../shared/link';
+import { HttpError } from '../http-error';
+
+export interface ImportedFile {
+  source: 'archive' | 'csv';
+  samples: Buffer;
+  archive: Buffer | null;
+  deviceInfo: Record<string, unknown> | null;
+  link: Record<string, unknown> | undefined;
+}
+
+const isArchive = (bytes: Uint8Array) => bytes.length >= ARCHIVE_MAGIC.length && ARCHIVE_MAGIC.every((b, i) => bytes[i] === b);
+
+const packed = (s: UnpackedSamples) => Buffer.from(packColumns(s).buffer);
+
+/** @throws HttpError 400 saying what is wrong with the file (for a CSV, on which line). */
+export function readImport(bytes: Buffer, fileName: string): ImportedFile {
+  if (isArchive(bytes)) {
+    let found;
+    try {
+      found = samplesFromArchive(bytes);
+    } catch (err) {
+      if (err instanceof ArchiveError) throw new HttpError(400, 'bad_archive', `file: not a readable recorder archive (${err.message})`);
+      throw err;
+    }
+    if (found.codes.length === 0) throw new HttpError(400, 'bad_archive', 'file: the archive holds no answered requests');
+    return {
+      source: 'archive',
+      samples: packed(found),
+      archive: bytes,
+      deviceInfo: found.info as Record<string, unknown> | null,
+      link: { checkFailures: found.checkFailures, incompleteRequests: found.incompleteRequests },
+    };
+  }
+  if (bytes.includes(0)) throw new HttpError(400, 'bad_import', `file: ${fileName || 'the file'} is neither a recorder archive nor CSV text`);
+  try {
+    return { source: 'csv', samples: packed(parseSampleCsv(bytes.toString('utf8'))), archive: null, deviceInfo: null, link: undefined };
+  } catch (err) {
+    if (err instanceof SampleCsvError) throw new HttpError(400, 'bad_csv', `file: ${err.message}`, [{ path: 'file', line: err.line, message: err.message }]);
+    throw err;
+  }
+}
