@@ -1,0 +1,133 @@
+// page: the Bench page in headless Chromium while the simulated board (its own process, 12,000,000
+// baud, about 300,000 results/s) answers a 6,000,000-code sweep for 20 s. Counted in the page:
+// requestAnimationFrame callbacks (frames the page could draw), during the run and, beside it,
+// on the same page idle; and the page's JS heap through CDP, after a forced GC, at the start of
+// the run, half-way and at the end.
+import { writeFileSync } from 'node:fs';
+import { chromium, type CDPSession, type Page } from 'playwright-core';
+import { buildClientIfStale } from '../scripts/client-build';
+import { startApp } from '../tests/e2e/harness';
+import { startBoardProcess } from './board-process';
+import type { BenchResult } from './report';
+
+const BAUD = 12_000_000;
+const SWEEP_CODES = 6_000_000;
+const RUN_MS = 20_000;
+const IDLE_MS = 3_000;
+const MIN_FPS = 30;
+/** Heap bound: what the heap may still grow over the run's second half, after GC. */
+const MAX_LATE_GROWTH_MB = 4;
+
+declare global {
+  interface Window {
+    benchFrames?: number;
+  }
+}
+
+async function signIn(page: Page, url: string) {
+  await page.goto(`${url}/bench`);
+  await page.waitForURL(/\/sign-in/);
+  await page.getByLabel('E-mail').fill('engineer@anglebench.test');
+  await page.getByLabel('Password').fill('anglebench');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL(/\/bench$/);
+}
+
+async function connect(page: Page, boardUrl: string) {
+  await page.getByLabel('Board address').fill(boardUrl);
+  await page.getByRole('button', { name: 'Connect' }).click();
+  await page.getByTestId('device-info').filter({ hasText: 'simulated board' }).waitFor({ timeout: 15_000 });
+}
+
+const frames = (page: Page) => page.evaluate(() => window.benchFrames ?? 0);
+const answered = async (page: Page) => Number(((await page.getByTestId('run-progress').textContent()) ?? '0').split('/')[0].replace(/[^0-9]/g, '') || 0);
+
+/** Frames per second over `ms` of wall time, counted inside the page. */
+async function fpsOver(page: Page, ms: number): Promise<number> {
+  const f0 = await frames(page);
+  const t0 = performance.now();
+  await page.waitForTimeout(ms);
+  return ((await frames(page)) - f0) / ((performance.now() - t0) / 1000);
+}
+
+/** One sweep run on the connected page: frames/s over `ms` (two halves), heap after GC, results/s. */
+async function measureRun(page: Page, heapMb: () => Promise<number>, ms: number, cdp?: CDPSession) {
+  await page.getByLabel('What to ask').selectOption('sweep');
+  await page.getByLabel('Start').fill('0');
+  await page.getByLabel('Step, codes').fill('1');
+  await page.getByLabel('Count').fill(String(SWEEP_CODES));
+  const heapStart = await heapMb();
+  await page.getByRole('button', { name: 'Run', exact: true }).click();
+  await page.getByTestId('run-state').filter({ hasText: 'Running' }).waitFor({ timeout: 10_000 });
+  const done0 = await answered(page);
+  const t0 = performance.now();
+  // BENCH_PAGE_PROFILE=file.cpuprofile: the page's main thread profiled over the first half.
+  const profileTo = cdp && process.env.BENCH_PAGE_PROFILE;
+  if (profileTo) await cdp.send('Profiler.enable').then(() => cdp.send('Profiler.start'));
+  const fpsFirst = await fpsOver(page, ms / 2);
+  if (profileTo) writeFileSync(profileTo, JSON.stringify((await cdp.send('Profiler.stop')).profile));
+  const heapMid = await heapMb();
+  const fpsSecond = await fpsOver(page, ms / 2);
+  const heapEnd = await heapMb();
+  const rate = ((await answered(page)) - done0) / ((performance.now() - t0) / 1000);
+  const state = await page.getByTestId('run-state').textContent();
+  if (state !== 'Running') throw new Error(`the run was "${state}" at the end of the window, not running: the figures would cover an idle page`);
+  await page.getByRole('button', { name: 'Abort' }).click();
+  await page.getByTestId('run-state').filter({ hasText: 'Aborted' }).waitFor({ timeout: 15_000 });
+  return { fps: (fpsFirst + fpsSecond) / 2, fpsFirst, fpsSecond, heapStart, heapMid, heapEnd, rate };
+}
+
+export async function pageBench(): Promise<BenchResult[]> {
+  await buildClientIfStale();
+  const board = await startBoardProcess(BAUD);
+  const app = await startApp();
+  const browser = await chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    headless: true,
+    args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--enable-precise-memory-info'],
+  });
+  try {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signIn(page, app.url);
+    await connect(page, board.url);
+    const cdp = await page.context().newCDPSession(page);
+    const heapMb = async () => {
+      await cdp.send('HeapProfiler.collectGarbage');
+      return (await cdp.send('Runtime.getHeapUsage')).usedSize / 2 ** 20;
+    };
+    // A string, not a function: tsx would wrap a named inner function in a helper the page lacks.
+    await page.evaluate('window.benchFrames = 0; (function tick() { window.benchFrames++; requestAnimationFrame(tick); })();');
+    const idleFps = await fpsOver(page, IDLE_MS);
+
+    const main = await measureRun(page, heapMb, RUN_MS, cdp);
+    // Diagnosis beside it: the same run with the traffic pane paused (no xterm rows redrawn).
+    // A fresh connection first, so nothing the aborted run left in the socket's buffers is counted.
+    await page.getByRole('button', { name: 'Disconnect' }).click();
+    await connect(page, board.url);
+    await page.getByRole('region', { name: 'Line traffic' }).getByRole('button', { name: 'Pause' }).click();
+    const quiet = await measureRun(page, heapMb, RUN_MS / 2);
+    const fps = main.fps;
+    const { heapStart, heapMid, heapEnd, rate } = main;
+    console.log(`  idle ${idleFps.toFixed(1)} fps; running ${main.fpsFirst.toFixed(1)} / ${main.fpsSecond.toFixed(1)} fps (first / second half); ${Math.round(rate).toLocaleString('en-US')} results/s reached the page`);
+    console.log(`  JS heap after GC: ${heapStart.toFixed(1)} MB before the run, ${heapMid.toFixed(1)} MB at ${RUN_MS / 2000} s, ${heapEnd.toFixed(1)} MB at ${RUN_MS / 1000} s`);
+    console.log(`  traffic pane paused: ${quiet.fps.toFixed(1)} fps, ${Math.round(quiet.rate).toLocaleString('en-US')} results/s`);
+    return [
+      { name: 'page-fps', value: fps, unit: 'frames/s while running', ratio: fps / idleFps, ratioOf: 'frames/s running ÷ the same page idle', target: `≥ ${MIN_FPS} frames/s`, met: fps >= MIN_FPS },
+      {
+        name: 'page-heap-growth',
+        value: heapEnd - heapStart,
+        unit: `MB of JS heap over ${RUN_MS / 1000} s (after GC)`,
+        ratio: heapEnd / heapStart,
+        ratioOf: 'heap at the end ÷ heap before the run',
+        target: `≤ ${MAX_LATE_GROWTH_MB} MB growth over the second half`,
+        met: heapEnd - heapMid <= MAX_LATE_GROWTH_MB,
+      },
+      { name: 'page-fps-traffic-paused', value: quiet.fps, unit: 'frames/s while running, traffic pane paused', ratio: quiet.fps / idleFps, ratioOf: 'frames/s running ÷ the same page idle', target: null, met: null },
+      { name: 'page-results-rate', value: rate, unit: 'results/s reaching the page', ratio: rate / ((BAUD / 10) / (257 / 62)), ratioOf: 'results/s ÷ the line bound at 12,000,000 baud', target: null, met: null },
+    ];
+  } finally {
+    await browser.close();
+    await app.stop();
+    await board.stop();
+  }
+}
