@@ -1,0 +1,94 @@
+import { tableFeatures, useTable, type ColumnDef } from '@tanstack/react-table';
+import { useMemo, useState } from 'react';
+import { btn, fieldError, input } from '../../../components/ui';
+import { ROLES, type Role, type TeamUser } from '../api/get-users';
+import { useUpdateUser } from '../api/update-user';
+
+const features = tableFeatures({});
+
+function RoleCell({ user, isMe }: { user: TeamUser; isMe: boolean }) {
+  const update = useUpdateUser();
+  const [role, setRole] = useState<Role>(user.role);
+  // Your own role is not yours to drop: the server refuses it too.
+  if (isMe) return <span>{user.role} <span className="text-ink-soft">(you)</span></span>;
+  return (
+    <div className="grid gap-1">
+      <div className="flex items-center gap-2">
+        <select className={`${input} w-32`} aria-label={`Role of ${user.name}`} value={role} onChange={(e) => setRole(e.target.value as Role)}>
+          {ROLES.map((r) => (
+            <option key={r}>{r}</option>
+          ))}
+        </select>
+        {role !== user.role && (
+          <button type="button" className={btn} disabled={update.isPending} onClick={() => update.mutate({ id: user.id, change: { role } })}>
+            Change role
+          </button>
+        )}
+      </div>
+      {update.isError && <span role="alert" className={fieldError}>{update.error.message}</span>}
+    </div>
+  );
+}
+
+function AccessCell({ user, isMe }: { user: TeamUser; isMe: boolean }) {
+  const update = useUpdateUser();
+  const state = <span className={user.disabled ? 'font-bold text-fail' : 'text-pass'}>{user.disabled ? 'Disabled' : 'Active'}</span>;
+  if (isMe) return state;
+  return (
+    <div className="grid gap-1">
+      <div className="flex items-center gap-3">
+        {state}
+        <button
+          type="button"
+          className={btn}
+          disabled={update.isPending}
+          aria-label={`${user.disabled ? 'Enable' : 'Disable'} ${user.name}`}
+          onClick={() => update.mutate({ id: user.id, change: { disabled: !user.disabled } })}
+        >
+          {user.disabled ? 'Enable' : 'Disable'}
+        </button>
+      </div>
+      {update.isError && <span role="alert" className={fieldError}>{update.error.message}</span>}
+    </div>
+  );
+}
+
+/** Every account, with role and access controls for everyone but yourself. */
+export function UsersTable({ users, meId }: { users: TeamUser[]; meId: number }) {
+  const columns = useMemo<ColumnDef<typeof features, TeamUser>[]>(() => [
+    { id: 'name', header: 'Name', accessorFn: (u) => u.name, cell: ({ getValue }) => <span className="font-bold">{String(getValue())}</span> },
+    { id: 'email', header: 'E-mail', accessorFn: (u) => u.email, cell: ({ getValue }) => <span className="font-mono text-xs">{String(getValue())}</span> },
+    { id: 'role', header: 'Role', accessorFn: (u) => u.role, cell: ({ row }) => <RoleCell key={row.original.role} user={row.original} isMe={row.original.id === meId} /> },
+    { id: 'access', header: 'Access', accessorFn: (u) => u.disabled, cell: ({ row }) => <AccessCell user={row.original} isMe={row.original.id === meId} /> },
+    { id: 'since', header: 'Since', accessorFn: (u) => new Date(u.createdAt).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' }) },
+  ], [meId]);
+  const table = useTable({ features, columns, data: users });
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full text-sm" aria-label="Users">
+        <thead className="border-b border-rule text-left text-xs uppercase tracking-wider text-ink-soft">
+          {table.getHeaderGroups().map((g) => (
+            <tr key={g.id}>
+              {g.headers.map((h) => (
+                <th key={h.id} scope="col" className="px-3 py-2 font-bold">
+                  <table.FlexRender header={h} />
+                </th>
+              ))}
+            </tr>
+          ))}
+        </thead>
+        <tbody>
+          {table.getRowModel().rows.map((row) => (
+            <tr key={row.id} className="border-b border-rule/60 last:border-0" data-testid={`user-${row.original.email}`}>
+              {row.getAllCells().map((cell) => (
+                <td key={cell.id} className="px-3 py-2 align-middle">
+                  <table.FlexRender cell={cell} />
+                </td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
