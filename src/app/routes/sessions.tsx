@@ -1,4 +1,5 @@
-// Placeholder until the page lands: the route exists so links to it resolve.
+import { SessionsPage } from '../../features/sessions/list/sessions-page';
+
 export function SessionsRoute() {
-  return <p className="text-ink-soft">This page is being built.</p>;
+  return <SessionsPage />;
 }

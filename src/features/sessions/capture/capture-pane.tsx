@@ -1,0 +1,176 @@
+// The session's capture in an xterm: browsed a page of records at a time, or replayed at the
+// pace it was recorded (faster if asked), with a Stop.
+import { FitAddon } from '@xterm/addon-fit';
+import { Terminal } from '@xterm/xterm';
+import '@xterm/xterm/css/xterm.css';
+import { useEffect, useMemo, useRef, useState } from 'react';
+import type { ArchiveRecord, Direction } from '../../../../shared/link';
+import { btn, input, label, panel, panelTitle } from '../../../components/ui';
+import { useSessionCapture, type SessionCapture } from '../api/get-session-capture';
+import { C, profilesByRecord, recordLines } from './capture-lines';
+import { dueUntil, REPLAY_SPEEDS } from './replay-clock';
+
+const PAGE_RECORDS = 300;
+const LINES_PER_FRAME = 200;
+type Which = 'both' | Direction;
+
+export function CapturePane({ sessionId, hasArchive }: { sessionId: number; hasArchive: boolean }) {
+  const [open, setOpen] = useState(false);
+  const capture = useSessionCapture(sessionId, open && hasArchive);
+  return (
+    <section aria-labelledby="capture-title" className={`${panel} min-w-0`}>
+      <h2 id="capture-title" className={panelTitle}>
+        Recorded capture
+      </h2>
+      {!hasArchive ? (
+        <p className="text-sm text-ink-soft">No capture was uploaded with this session.</p>
+      ) : !open ? (
+        <button type="button" className={btn} onClick={() => setOpen(true)}>
+          Open capture
+        </button>
+      ) : capture.isPending ? (
+        <p className="text-sm text-ink-soft">Reading the capture…</p>
+      ) : capture.isError ? (
+        <p role="alert" className="text-sm font-bold text-fail">
+          The capture could not be read: {capture.error.message}
+        </p>
+      ) : (
+        <CaptureTerminal capture={capture.data} />
+      )}
+    </section>
+  );
+}
+
+function CaptureTerminal({ capture }: { capture: SessionCapture }) {
+  const { archive } = capture;
+  const [which, setWhich] = useState<Which>('both');
+  const [page, setPage] = useState(0);
+  const [speed, setSpeed] = useState<number>(1);
+  const [replaying, setReplaying] = useState(false);
+  const box = useRef<HTMLDivElement>(null);
+  const term = useRef<Terminal | null>(null);
+
+  const all = archive.records;
+  const profiles = useMemo(() => profilesByRecord(all, archive.header.profile), [all, archive.header.profile]);
+  const t0 = all[0]?.timeMs ?? 0;
+  const shown = useMemo(() => all.map((r, i) => [r, i] as const).filter(([r]) => which === 'both' || r.direction === which), [all, which]);
+  const pages = Math.max(1, Math.ceil(shown.length / PAGE_RECORDS));
+  const linesOf = (r: ArchiveRecord, i: number) => recordLines(r, t0, profiles[i]);
+
+  useEffect(() => {
+    const t = new Terminal({ scrollback: 20_000, fontFamily: '"JetBrains Mono", monospace', fontSize: 12, disableStdin: true, convertEol: true, theme: { background: '#1f2a2e', foreground: '#f6f3ec', cursor: '#1f2a2e' } });
+    const fit = new FitAddon();
+    t.loadAddon(fit);
+    t.open(box.current!);
+    fit.fit();
+    term.current = t;
+    const ro = new ResizeObserver(() => fit.fit());
+    ro.observe(box.current!);
+    return () => {
+      ro.disconnect();
+      t.dispose();
+      term.current = null;
+    };
+  }, []);
+
+  // Browsing: one page of records.
+  useEffect(() => {
+    const t = term.current;
+    if (!t || replaying) return;
+    t.reset();
+    const slice = shown.slice(page * PAGE_RECORDS, (page + 1) * PAGE_RECORDS);
+    t.write(slice.flatMap(([r, i]) => linesOf(r, i)).join('\r\n') + '\r\n');
+    t.scrollToTop();
+    // linesOf depends only on what is listed here.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [shown, page, replaying, profiles]);
+
+  // Replay: records appear when their recorded time (scaled by speed) comes round.
+  useEffect(() => {
+    const t = term.current;
+    if (!t || !replaying) return;
+    t.reset();
+    t.write(`${C.dim}Replaying ${shown.length.toLocaleString('en-US')} records at ${speed}× recorded pace…${C.off}\r\n`);
+    const times = shown.map(([r]) => r.timeMs);
+    const start = performance.now();
+    let next = 0;
+    let raf = 0;
+    const tick = () => {
+      const due = dueUntil(times, next, t0, performance.now() - start, speed);
+      const lines: string[] = [];
+      let skipped = 0;
+      for (; next < due; next++) {
+        if (lines.length >= LINES_PER_FRAME) skipped++;
+        else lines.push(...linesOf(...shown[next]));
+      }
+      if (skipped) lines.push(`${C.dim}… ${skipped.toLocaleString('en-US')} records not shown (faster than the pane at this speed)${C.off}`);
+      if (lines.length) t.write(lines.join('\r\n') + '\r\n');
+      if (next >= shown.length) {
+        t.write(`${C.dim}End of the capture.${C.off}\r\n`);
+        setReplaying(false);
+        return;
+      }
+      raf = requestAnimationFrame(tick);
+    };
+    raf = requestAnimationFrame(tick);
+    return () => cancelAnimationFrame(raf);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [replaying]);
+
+  const matches = capture.replayedFrames === capture.recordedFrames;
+  const durationS = all.length ? (all[all.length - 1].timeMs - t0) / 1000 : 0;
+  return (
+    <div className="grid gap-2">
+      <p className="text-sm">
+        <span className="font-mono">{capture.bytes.toLocaleString('en-US')} B</span>, {all.length.toLocaleString('en-US')} records over {durationS.toFixed(3)} s; {archive.header.crc}, {archive.header.profile.angleFormat} {archive.header.profile.angleBits}-bit angles, {archive.header.profile.outBits}-bit outputs
+        {archive.header.label && <> — “{archive.header.label}”</>}.
+      </p>
+      <p data-testid="capture-recheck" className={`text-sm ${matches ? 'text-pass' : 'font-bold text-fail'}`}>
+        {matches
+          ? `Decoded again: ${capture.replayedFrames.toLocaleString('en-US')} frames and ${capture.replayedSkips} skips, the same frames as recorded.`
+          : `Decoded again: ${capture.replayedFrames} frames, but ${capture.recordedFrames} were recorded. The capture may be damaged.`}
+      </p>
+      <div className="flex flex-wrap items-end gap-2">
+        <label className={label}>
+          Direction
+          <select className={input} value={which} disabled={replaying} onChange={(e) => (setWhich(e.target.value as Which), setPage(0))}>
+            <option value="both">Both</option>
+            <option value="to-device">To the device (TX)</option>
+            <option value="to-host">From the device (RX)</option>
+          </select>
+        </label>
+        <div className="flex items-center gap-1" role="group" aria-label="Pages of records">
+          <button type="button" className={btn} disabled={replaying || page === 0} onClick={() => setPage(page - 1)}>
+            Earlier
+          </button>
+          <span className="px-2 text-sm tabular-nums" aria-live="polite">
+            {shown.length ? `${(page * PAGE_RECORDS + 1).toLocaleString('en-US')}–${Math.min(shown.length, (page + 1) * PAGE_RECORDS).toLocaleString('en-US')} of ${shown.length.toLocaleString('en-US')}` : 'no records'}
+          </span>
+          <button type="button" className={btn} disabled={replaying || page >= pages - 1} onClick={() => setPage(page + 1)}>
+            Later
+          </button>
+        </div>
+        <label className={`${label} ml-auto`}>
+          Replay speed
+          <select className={input} value={speed} disabled={replaying} onChange={(e) => setSpeed(Number(e.target.value))}>
+            {REPLAY_SPEEDS.map((s) => (
+              <option key={s} value={s}>
+                {s === 1 ? 'as recorded' : `${s}× faster`}
+              </option>
+            ))}
+          </select>
+        </label>
+        {replaying ? (
+          <button type="button" className={btn} onClick={() => setReplaying(false)}>
+            Stop
+          </button>
+        ) : (
+          <button type="button" className={btn} disabled={!shown.length} onClick={() => setReplaying(true)}>
+            Replay
+          </button>
+        )}
+      </div>
+      <div ref={box} data-testid="capture-terminal" className="h-72 min-w-0 overflow-hidden rounded bg-ink p-1" />
+    </div>
+  );
+}

@@ -1,0 +1,130 @@
+// The Sessions list's filters, sort and page, kept in the address bar so a filtered list can be
+// shared and reloaded. Parsing is forgiving (a bad value is dropped, not an error page); the API
+// query is built from the parsed form only.
+
+export const SORTS = ['-startedAt', 'startedAt', '-id', 'id'] as const;
+export type SortKey = (typeof SORTS)[number];
+export const PAGE_SIZES = [25, 50, 100] as const;
+
+export interface SessionFilters {
+  coreId: number | null;
+  buildId: number | null;
+  boardId: number | null;
+  operatorId: number | null;
+  verdict: 'pass' | 'fail' | null;
+  regression: boolean | null;
+  /** Exact tag match. */
+  tag: string | null;
+  /** Local calendar days, YYYY-MM-DD, both inclusive. */
+  from: string | null;
+  to: string | null;
+  sort: SortKey;
+  page: number;
+  pageSize: number;
+}
+
+export const DEFAULT_FILTERS: SessionFilters = {
+  coreId: null,
+  buildId: null,
+  boardId: null,
+  operatorId: null,
+  verdict: null,
+  regression: null,
+  tag: null,
+  from: null,
+  to: null,
+  sort: '-startedAt',
+  page: 1,
+  pageSize: 25,
+};
+
+const DAY = /^\d{4}-\d{2}-\d{2}$/;
+
+const positiveInt = (v: string | null): number | null => {
+  if (v === null || !/^\d+$/.test(v)) return null;
+  const n = Number(v);
+  return n >= 1 && Number.isSafeInteger(n) ? n : null;
+};
+
+const day = (v: string | null): string | null => (v !== null && DAY.test(v) && !Number.isNaN(localDay(v, 0).getTime()) ? v : null);
+
+/** Midnight of a YYYY-MM-DD day in local time, `plusDays` later. */
+function localDay(v: string, plusDays: number): Date {
+  const [y, m, d] = v.split('-').map(Number);
+  const date = new Date(y, m - 1, d + plusDays);
+  // Reject days the calendar does not have (2026-02-30 would roll over to March).
+  return plusDays === 0 && (date.getMonth() !== m - 1 || date.getDate() !== d) ? new Date(NaN) : date;
+}
+
+/** Filters from the address bar's search params. */
+export function filtersFromSearch(params: URLSearchParams): SessionFilters {
+  const verdict = params.get('verdict');
+  const regression = params.get('regression');
+  const sort = params.get('sort') as SortKey | null;
+  const size = positiveInt(params.get('size'));
+  const tag = params.get('tag')?.trim();
+  return {
+    coreId: positiveInt(params.get('core')),
+    buildId: positiveInt(params.get('build')),
+    boardId: positiveInt(params.get('board')),
+    operatorId: positiveInt(params.get('operator')),
+    verdict: verdict === 'pass' || verdict === 'fail' ? verdict : null,
+    regression: regression === 'yes' ? true : regression === 'no' ? false : null,
+    tag: tag ? tag.slice(0, 40) : null,
+    from: day(params.get('from')),
+    to: day(params.get('to')),
+    sort: sort && SORTS.includes(sort) ? sort : DEFAULT_FILTERS.sort,
+    page: positiveInt(params.get('page')) ?? 1,
+    pageSize: size && (PAGE_SIZES as readonly number[]).includes(size) ? size : DEFAULT_FILTERS.pageSize,
+  };
+}
+
+/** Search params for the address bar; defaults are left out so plain /sessions stays plain. */
+export function filtersToSearch(f: SessionFilters): URLSearchParams {
+  const p = new URLSearchParams();
+  const put = (k: string, v: string | number | null, dflt: string | number | null = null) => {
+    if (v !== null && v !== dflt) p.set(k, String(v));
+  };
+  put('core', f.coreId);
+  put('build', f.buildId);
+  put('board', f.boardId);
+  put('operator', f.operatorId);
+  put('verdict', f.verdict);
+  put('regression', f.regression === null ? null : f.regression ? 'yes' : 'no');
+  put('tag', f.tag);
+  put('from', f.from);
+  put('to', f.to);
+  put('sort', f.sort, DEFAULT_FILTERS.sort);
+  put('page', f.page, 1);
+  put('size', f.pageSize, DEFAULT_FILTERS.pageSize);
+  return p;
+}
+
+/** The GET /api/sessions query string for these filters (without the leading "?"). */
+export function filtersToApiQuery(f: SessionFilters): string {
+  const p = new URLSearchParams();
+  if (f.coreId !== null) p.set('coreId', String(f.coreId));
+  if (f.buildId !== null) p.set('buildId', String(f.buildId));
+  if (f.boardId !== null) p.set('boardId', String(f.boardId));
+  if (f.operatorId !== null) p.set('operatorId', String(f.operatorId));
+  if (f.verdict !== null) p.set('passed', String(f.verdict === 'pass'));
+  if (f.regression !== null) p.set('regression', String(f.regression));
+  if (f.tag !== null) p.set('tag', f.tag);
+  // Whole local days: from its midnight up to (not including) the midnight after `to`.
+  if (f.from !== null) p.set('from', localDay(f.from, 0).toISOString());
+  if (f.to !== null) p.set('to', new Date(localDay(f.to, 1).getTime() - 1).toISOString());
+  p.set('sort', f.sort);
+  p.set('page', String(f.page));
+  p.set('pageSize', String(f.pageSize));
+  return p.toString();
+}
+
+/** Change some filters; any change but the page itself goes back to page 1. */
+export function withFilters(f: SessionFilters, patch: Partial<SessionFilters>): SessionFilters {
+  return { ...f, ...patch, page: patch.page ?? 1 };
+}
+
+/** How many filters narrow the list (sort and page aside). */
+export function activeFilterCount(f: SessionFilters): number {
+  return (['coreId', 'buildId', 'boardId', 'operatorId', 'verdict', 'regression', 'tag', 'from', 'to'] as const).filter((k) => f[k] !== null).length;
+}
