@@ -34,10 +34,15 @@ export async function startBoardProcess(baud: number): Promise<BoardProcess> {
     const timer = setTimeout(() => reject(new Error(`the simulated board did not start in 20 s:\n${log}`)), 20_000);
     child.stdout!.on('data', (d) => {
       log += d;
-      if (log.includes('listening on')) (clearTimeout(timer), resolve());
+      if (!log.includes('listening on')) return;
+      clearTimeout(timer);
+      resolve();
     });
     child.stderr!.on('data', (d) => (log += d));
-    child.once('exit', (code) => (clearTimeout(timer), reject(new Error(`the simulated board exited with ${code}:\n${log}`))));
+    child.once('exit', (code) => {
+      clearTimeout(timer);
+      reject(new Error(`the simulated board exited with ${code}:\n${log}`));
+    });
   });
   return { url: `ws://127.0.0.1:${port}/`, output: () => log, stop };
 }

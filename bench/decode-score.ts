@@ -28,12 +28,18 @@ export function recordSweepReply(): Uint8Array {
     clockKHz: 100_000,
     name: 'bench',
     // Report an empty line every time, so the board produces the whole sweep at once.
-    send: (bytes) => (parts.push(bytes), 0),
+    send: (bytes) => {
+      parts.push(bytes);
+      return 0;
+    },
   });
   board.receive(encodeMessage({ kind: Kind.Sweep, start: 0, step: 1, count: CODES }, 1, DEFAULT_PROFILE));
   const out = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
   let at = 0;
-  for (const p of parts) (out.set(p, at), (at += p.length));
+  for (const p of parts) {
+    out.set(p, at);
+    at += p.length;
+  }
   return out;
 }
 

@@ -102,11 +102,14 @@ function filters(s: Seeded): ListFilter[] {
     const kind = i % 8;
     if (kind === 1) f.coreId = pick(s.coreIds);
     if (kind === 2) f.buildId = pick(s.buildIds);
-    if (kind === 3) (f.boardId = pick(s.boardIds), (f.passed = rnd(2) === 0));
+    if (kind === 3) Object.assign(f, { boardId: pick(s.boardIds), passed: rnd(2) === 0 });
     if (kind === 4) f.operatorId = pick(s.operatorIds);
     if (kind === 5) f.passed = false;
-    if (kind === 6) (f.from = new Date(EPOCH + rnd(200) * DAY_MS), (f.to = new Date(f.from.getTime() + 60 * DAY_MS)));
-    if (kind === 7) (f.coreId = pick(s.coreIds), (f.passed = true));
+    if (kind === 6) {
+      f.from = new Date(EPOCH + rnd(200) * DAY_MS);
+      f.to = new Date(f.from.getTime() + 60 * DAY_MS);
+    }
+    if (kind === 7) Object.assign(f, { coreId: pick(s.coreIds), passed: true });
     if (f.page > 1 && kind !== 0) f.page = 1 + rnd(4);
     return f;
   });
@@ -199,7 +202,9 @@ export async function listCompareBench(): Promise<BenchResult[]> {
         let worst = 0;
         for (let k = 0; k < big.cos.length; k++) {
           const d = Math.max(Math.abs(big.cos[k] - cosB[k]), Math.abs(big.sin[k] - big.sin[k]));
-          if (d !== 0) (n++, (worst = Math.max(worst, d)));
+          if (d === 0) continue;
+          n++;
+          worst = Math.max(worst, d);
         }
         sink += n + worst;
       }));
