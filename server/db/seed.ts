@@ -1,10 +1,11 @@
 // Demo data for a fresh install: an invented signal-processing lab bringing up two rotator cores
-// on three bench boards. Bench sessions are added by later work.
+// on three bench boards, with a month of bench sessions (server/db/seed-sessions.ts).
 import type { Sequelize } from 'sequelize';
 import { DEFAULT_BCRYPT_COST, hashPassword } from '../auth/passwords';
 import { limitsSchema, linkProfileSchema, modelConfigSchema } from '../schemas/core';
 import { recordAudit } from '../services/audit';
-import { Board, Build, Core, initModels, Review, User, type Role } from './models';
+import { Board, Build, Core, CoreWatcher, initModels, Review, User, type Role } from './models';
+import { seedDemoSessions } from './seed-sessions';
 
 export const DEMO_ACCOUNTS: ReadonlyArray<{ email: string; name: string; role: Role }> = [
   { email: 'admin@anglebench.test', name: 'Ines Okafor', role: 'admin' },
@@ -47,7 +48,7 @@ export async function seedIfEmpty(db: Sequelize, password: string, bcryptCost = 
       opts,
     );
 
-    await Board.bulkCreate(
+    const boards = await Board.bulkCreate(
       [
         { name: 'Bay 3 / bench A', serial: 'AB-0173', fpgaPart: 'mid-range FPGA, 85k LUT', adapter: 'USB-UART bridge, 3.3 V', location: 'Signal lab, bay 3' },
         { name: 'Bay 3 / bench B', serial: 'AB-0174', fpgaPart: 'mid-range FPGA, 85k LUT', adapter: 'USB-UART bridge, 1.8 V', location: 'Signal lab, bay 3' },
@@ -65,8 +66,11 @@ export async function seedIfEmpty(db: Sequelize, password: string, bcryptCost = 
       ],
       opts,
     );
+    const sessions = await seedDemoSessions(transaction, engineer.id, { reference, mixer, builds, boards });
     await Review.create({ buildId: builds[1].id, reviewerId: reviewer.id, decision: 'approve', note: 'Sweep and edge set within limits on both benches.' }, opts);
-    await recordAudit(transaction, admin.id, 'seed', 'demo', null, { cores: 2, boards: 3, builds: builds.length });
+    // The reviewer hears of reference-16's regressions.
+    await CoreWatcher.create({ coreId: reference.id, userId: reviewer.id }, opts);
+    await recordAudit(transaction, admin.id, 'seed', 'demo', null, { cores: 2, boards: 3, builds: builds.length, sessions: sessions.length });
   });
   return true;
 }

@@ -5,12 +5,18 @@ import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
 import { openDatabase } from '../../server/db/connection';
 import { migrate } from '../../server/db/migrator';
-import { Board, Build, Core, Review, User } from '../../server/db/models';
+import { BenchSession, Board, Build, Core, Review, User } from '../../server/db/models';
+import { unpackSamples } from '../../shared/bench/sample-pack';
+import { ScoreAccumulator } from '../../shared/numeric/score';
 import { demoAccountsPresent, seedIfEmpty } from '../../server/db/seed';
 import { modelConfigSchema } from '../../server/schemas/core';
 import { tempDatabase } from '../support/temp-db';
 
 const tmp = tempDatabase();
+const columns = (s: BenchSession) => {
+  const u = unpackSamples(s.samples, 'turn');
+  return [u.codes, u.cos, u.sin] as const;
+};
 let db: Sequelize;
 beforeAll(async () => {
   db = openDatabase(tmp.url);
@@ -37,6 +43,33 @@ describe('the demo seed', () => {
     expect(await Build.count()).toBe(4);
     expect((await Review.findAll()).map((r) => r.decision)).toEqual(['approve']);
     expect(await demoAccountsPresent(db)).toHaveLength(3);
+  });
+
+  it('holds a dozen scored sessions from the model and the board’s faults: one regression, a passing baseline per core', async () => {
+    const sessions = await BenchSession.findAll({ order: [['startedAt', 'ASC']] });
+    expect(sessions).toHaveLength(12);
+    const regressions = sessions.filter((s) => s.regression);
+    expect(regressions).toHaveLength(1);
+    const [regression] = regressions;
+    const build = await Build.findByPk(regression.buildId!);
+    expect(build?.label).toBe('ref16-r3');
+    expect(regression.passed).toBe(false);
+    for (const core of await Core.findAll()) {
+      const baseline = sessions.find((s) => s.id === core.baselineSessionId);
+      expect(baseline?.passed).toBe(true);
+      expect(baseline!.startedAt.getTime()).toBeLessThan(Date.now());
+    }
+    const reference = await Core.findOne({ where: { slug: 'reference-16' } });
+    // The regression fails a limit the baseline met: both judged by the server's scoring of the
+    // stored samples, recomputed here with the shared accumulator.
+    const stats = new ScoreAccumulator(reference!.modelConfig).add(...columns(regression)).summary();
+    expect(regression.stats).toEqual(JSON.parse(JSON.stringify(stats)));
+    expect((regression.verdict as Record<string, { pass: boolean }>).maxModelMismatches.pass).toBe(false);
+    expect(stats.mismatches.count).toBeGreaterThan(0);
+    expect(sessions.filter((s) => !s.passed).length).toBe(3);
+    expect(sessions.filter((s) => s.archive).length).toBeGreaterThan(0);
+    const approved = await Review.findOne({ where: { decision: 'approve' } });
+    expect(sessions.find((s) => s.id === reference!.baselineSessionId)?.buildId).toBe(approved?.buildId);
   });
 
   it('lets the demo accounts sign in with the demo password', async () => {
