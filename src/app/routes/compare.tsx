@@ -1,4 +1,5 @@
-// Placeholder until the page lands: the route exists so links to it resolve.
+import { ComparePage } from '../../features/compare/components/compare-page';
+
 export function CompareRoute() {
-  return <p className="text-ink-soft">This page is being built.</p>;
+  return <ComparePage />;
 }

@@ -1,4 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
+import { useEffect } from 'react';
 import { useForm } from 'react-hook-form';
 import { useNavigate } from 'react-router-dom';
 import { ApiError } from '../../../lib/api';
@@ -18,10 +19,14 @@ export function NewBuildForm({ coreId, onCancel }: { coreId: number | null; onCa
   const cores = useCoreChoices();
   const create = useCreateBuild();
   const navigate = useNavigate();
-  const { register, handleSubmit, formState } = useForm<NewBuildForm>({
+  const { register, handleSubmit, formState, setValue } = useForm<NewBuildForm>({
     resolver: zodResolver(newBuildSchema),
     defaultValues: { coreId: coreId === null ? '' : String(coreId), label: '', sourceRevision: '', toolVersion: '', clockMHz: '', notes: '' },
   });
+  // The select only takes the filtered core once its options exist.
+  useEffect(() => {
+    if (cores.data && coreId !== null) setValue('coreId', String(coreId));
+  }, [cores.data, coreId, setValue]);
   const errors = formState.errors;
   const submit = (v: NewBuildForm) => create.mutate(v, { onSuccess: (b) => navigate(`/builds/${b.id}`) });
 
