@@ -19,7 +19,7 @@ export function RootLayout() {
   const role = useMe().data?.role;
   return (
     <div className="min-h-screen flex flex-col">
-      <header className="bg-ink text-paper">
+      <header className="bg-ink text-paper print:hidden">
         <div className="mx-auto max-w-screen-2xl flex items-center gap-8 px-6 h-14">
           <NavLink to="/" className="flex items-center gap-2 font-bold tracking-wide text-lg">
             <BrandMark className="h-7 w-7" />
