@@ -1,0 +1,125 @@
+import type { Browser, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { launchBrowser, startApp, type RunningApp } from './harness';
+
+let app: RunningApp;
+let browser: Browser;
+
+beforeAll(async () => {
+  app = await startApp();
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await app?.stop();
+});
+
+// The machine is shared: give the page and the server time (vitest's default poll is 1 s).
+const poll = <T>(read: () => Promise<T>) => expect.poll(read, { timeout: 10_000 });
+
+/** A fresh browser context signed in as one of the seeded accounts. */
+async function signIn(who: 'engineer' | 'reviewer' | 'admin'): Promise<Page> {
+  const page = await (await browser.newContext({ viewport: { width: 1280, height: 800 } })).newPage();
+  await page.goto(`${app.url}/sign-in`);
+  await page.getByLabel('E-mail').fill(`${who}@anglebench.test`);
+  await page.getByLabel('Password').fill('anglebench');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+  return page;
+}
+
+async function openReferenceCore(page: Page) {
+  await page.goto(`${app.url}/cores`);
+  await page.getByRole('link', { name: 'Reference rotator, 16-bit' }).click();
+  await poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Reference rotator, 16-bit');
+}
+
+describe('the core page for an engineer', () => {
+  it('keeps a changed limit after a reload, as the server stored it', async () => {
+    const page = await signIn('engineer');
+    await openReferenceCore(page);
+    const largest = page.getByLabel('Largest error');
+    expect(await largest.inputValue()).toBe('4'); // the seeded limit
+    await largest.fill('5.5');
+    await page.getByRole('button', { name: 'Save changes' }).click();
+    await poll(() => page.getByRole('status').filter({ hasText: 'Saved at' }).count()).toBe(1);
+
+    await page.reload();
+    await poll(() => page.getByLabel('Largest error').inputValue()).toBe('5.5');
+    const coreId = Number(new URL(page.url()).pathname.split('/').pop());
+    const stored = await page.evaluate(async (id) => (await (await fetch(`/api/cores/${id}`)).json()) as { core: { limits: Record<string, number> } }, coreId);
+    expect(stored.core.limits.maxAbsErrorLsb).toBe(5.5);
+  });
+
+  it('shows a bad value next to its field and saves nothing', async () => {
+    const page = await signIn('engineer');
+    await openReferenceCore(page);
+    await page.getByLabel('RMS error').fill('-1');
+    await page.getByLabel('Output fraction bits').fill('16'); // must be below output bits (16)
+    await page.getByRole('button', { name: 'Save changes' }).click();
+    await poll(() => page.locator('#core-limit-maxRmsErrorLsb-error').textContent()).toBe('Must be at least 0');
+    expect(await page.locator('#core-outFrac-error').textContent()).toMatch(/below outBits \(16\)/);
+    await page.reload();
+    await poll(() => page.getByLabel('RMS error').inputValue()).toBe('0.8');
+  });
+});
+
+describe('the core page for a reviewer', () => {
+  it('shows the settings as values, with no form controls and no engineer actions', async () => {
+    const page = await signIn('reviewer');
+    await openReferenceCore(page);
+    await poll(() => page.getByRole('heading', { name: 'Acceptance limits' }).isVisible()).toBe(true);
+    const coreId = Number(new URL(page.url()).pathname.split('/').pop());
+    const stored = await page.evaluate(async (id) => (await (await fetch(`/api/cores/${id}`)).json()) as { core: { limits: Record<string, number> } }, coreId);
+    expect(await page.getByTestId('value-Largest error').textContent()).toBe(`at most ${stored.core.limits.maxAbsErrorLsb} LSB`);
+    expect(await page.locator('main input, main select, main textarea').count()).toBe(0);
+    for (const name of ['Save changes', 'Clear baseline', 'Upload', 'New core']) {
+      expect(await page.getByRole('button', { name }).count()).toBe(0);
+    }
+    // Watching is for everyone signed in.
+    expect(await page.getByRole('button', { name: /watching|Watch this core/ }).count()).toBe(1);
+  });
+});
+
+describe('the team page for an admin', () => {
+  it('invites someone, and the invitation mail is readable in the outbox', async () => {
+    const page = await signIn('admin');
+    await page.goto(`${app.url}/team`);
+    const form = page.getByRole('form', { name: 'Invite someone' });
+    await form.getByLabel('E-mail').fill('lab.newcomer@lab.test');
+    await form.getByLabel('Role').selectOption('reviewer');
+    await page.getByRole('button', { name: 'Send invitation' }).click();
+    const pending = page.getByRole('table', { name: 'Pending invitations' });
+    await poll(() => pending.textContent()).toContain('lab.newcomer@lab.test');
+    expect(await pending.textContent()).toContain('reviewer');
+
+    await page.getByRole('list', { name: 'Messages' }).getByRole('button').filter({ hasText: 'lab.newcomer@lab.test' }).click();
+    await poll(() => page.getByTestId('mail-to').textContent()).toContain('lab.newcomer@lab.test');
+    expect(await page.locator('#mail-subject').textContent()).toBe('You are invited to Anglebench');
+    expect(await page.getByTestId('mail-text').textContent()).toMatch(/\/invite\/\S{10,}/);
+  });
+
+  it('disables a user, who then cannot sign in, and offers no way to disable themselves', async () => {
+    const page = await signIn('admin');
+    await page.goto(`${app.url}/team`);
+    const row = page.getByTestId('user-reviewer@anglebench.test');
+    await row.getByRole('button', { name: 'Disable Mei Lindqvist' }).click();
+    await poll(() => row.textContent()).toContain('Disabled');
+    expect(await page.getByTestId('user-admin@anglebench.test').getByRole('button').count()).toBe(0);
+
+    const other = await (await browser.newContext()).newPage();
+    await other.goto(`${app.url}/sign-in`);
+    await other.getByLabel('E-mail').fill('reviewer@anglebench.test');
+    await other.getByLabel('Password').fill('anglebench');
+    await other.getByRole('button', { name: 'Sign in' }).click();
+    await poll(() => other.getByRole('alert').count()).toBe(1);
+    expect(new URL(other.url()).pathname).toBe('/sign-in');
+  });
+
+  it('shows an engineer a plain admins-only notice', async () => {
+    const page = await signIn('engineer');
+    await page.goto(`${app.url}/team`);
+    await poll(() => page.getByRole('heading', { name: 'Admins only' }).isVisible()).toBe(true);
+    expect(await page.getByRole('table').count()).toBe(0);
+  });
+});
