@@ -3,6 +3,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startMockServer, type MockServer } from '../../mock-device/ws-server';
 import { defaultBoardSettings } from '../../mock-device/board-session';
 import { parseCoreFault } from '../../mock-device/faulty-core';
+import { samplesFromArchive } from '../../shared/bench/archive-samples';
+import { readArchive } from '../../shared/link';
 import { launchBrowser, startApp, type RunningApp } from './harness';
 
 let app: RunningApp;
@@ -48,6 +50,7 @@ describe('sign-in in a real browser', () => {
     await expect.poll(() => page.getByRole('heading', { name: 'The bench is for engineers' }).isVisible()).toBe(true);
     expect(await page.getByRole('button', { name: 'Connect' }).count()).toBe(0);
     expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Bench' }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: 'Save session' }).count()).toBe(0);
   });
 
   it('signs out with the CSRF token and lands on the sign-in page', async () => {
@@ -108,12 +111,11 @@ describe('the Bench page against the simulated board', () => {
     await form.getByLabel('Notes').fill('exhaustive sweep from the browser test');
     await form.getByLabel('Tags (comma-separated)').fill('e2e, exhaustive');
     await form.getByRole('button', { name: 'Save', exact: true }).click();
-    await expect.poll(() => page.getByTestId('save-verdict').textContent(), { timeout: 20_000 }).toBe('PASS');
-    const result = (await page.getByTestId('save-result').textContent())!;
-    expect(result).toContain('PASS — Largest error');
-    expect(result).not.toContain('FAIL');
-    const id = Number((await page.getByTestId('saved-session-id').textContent())!.replace('#', ''));
+    // Saved: the page moves to the session's own page.
+    await page.waitForURL(/\/sessions\/\d+$/, { timeout: 20_000 });
+    const id = Number(new URL(page.url()).pathname.split('/').pop());
     expect(id).toBeGreaterThan(0);
+    await page.waitForTimeout(500);
     await page.screenshot({ path: '/tmp/bench-1920-saved.png', fullPage: true });
 
     // The session list (with the page's own cookies) has it, passed, with all 65,536 samples.
@@ -123,6 +125,17 @@ describe('the Bench page against the simulated board', () => {
     });
     const row = list.items.find((s) => s.id === id);
     expect(row).toMatchObject({ passed: true, sampleCount: 65_536, tags: ['e2e', 'exhaustive'], notes: 'exhaustive sweep from the browser test' });
+
+    // Its archive is the connection's capture: HELLO to the last RESULTS, every code answered once.
+    const archive = Uint8Array.from(
+      await page.evaluate(async (sid) => Array.from(new Uint8Array(await (await fetch(`/api/sessions/${sid}/archive`)).arrayBuffer())), id),
+    );
+    const read = readArchive(archive);
+    expect(JSON.parse(read.header.label)).toMatchObject({ recordedBy: 'anglebench bench' });
+    const replayed = samplesFromArchive(archive);
+    expect(replayed.codes.length).toBe(65_536);
+    expect(new Set(replayed.codes).size).toBe(65_536);
+    expect(read.streams['to-host'].length).toBeGreaterThan(65_536 * 4);
   });
 
   it('shows model mismatches for a core with a folding fault', async () => {
@@ -133,5 +146,47 @@ describe('the Bench page against the simulated board', () => {
     expect(mismatches).toBeGreaterThan(0);
     expect(await page.getByText('First mismatches').isVisible()).toBe(true);
     await page.screenshot({ path: '/tmp/bench-1920-fold-done.png', fullPage: true });
+    // Mismatches carry their request index; an exhaustive sweep asks code i at index i (codes from 0).
+    const first = page.getByRole('table').filter({ hasText: 'First mismatches' }).locator('tbody tr').first();
+    const [index, code] = await first.locator('td').allTextContents();
+    expect(Number(index)).toBe(Number(code));
+  });
+
+  it('keeps an unsaved tone run through a reload, with its spectral figures', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signIn(page);
+    await page.getByLabel('Board address').fill(good.url);
+    await page.getByRole('button', { name: 'Connect' }).click();
+    await expect.poll(() => page.getByTestId('device-info').textContent(), { timeout: 10_000 }).toContain('simulated board');
+    await page.getByLabel('What to ask').selectOption('tone');
+    await page.getByLabel('Cycles').fill('127');
+    await page.getByLabel('Samples (power of 2)').fill('4096');
+    await page.getByRole('button', { name: 'Run', exact: true }).click();
+    await expect.poll(() => page.getByTestId('run-state').textContent(), { timeout: 30_000 }).toBe('Complete');
+    await expect.poll(() => page.getByTestId('stat-scored').textContent()).toContain('4,096');
+    // The 16-bit model's spurs sit far below the tone (its error is a few LSB of 2^14).
+    await expect.poll(() => page.getByTestId('tone-sfdr-cos').textContent()).toMatch(/dB$/);
+    const sfdr = parseFloat((await page.getByTestId('tone-sfdr-cos').textContent())!);
+    expect(sfdr).toBeGreaterThan(60);
+    const enob = parseFloat((await page.getByTestId('tone-enob-sin').textContent())!);
+    expect(enob).toBeGreaterThan(8);
+    expect(enob).toBeLessThan(16);
+
+    await page.reload();
+    const restore = page.getByRole('button', { name: /^Restore unsaved run from / });
+    await restore.waitFor({ timeout: 10_000 });
+    await restore.click();
+    await expect.poll(() => page.getByTestId('stat-scored').textContent()).toContain('4,096');
+    expect(await page.getByTestId('stat-mismatches').textContent()).toBe('0');
+    await expect.poll(() => page.getByTestId('tone-sfdr-cos').textContent()).toBe(`${sfdr.toFixed(1)} dB`);
+    expect(await page.getByRole('button', { name: 'Save session' }).isVisible()).toBe(true);
+
+    // Discarded, it is not offered again.
+    await page.reload();
+    await page.getByRole('button', { name: 'Discard' }).click();
+    await page.reload();
+    await page.getByRole('heading', { name: 'Bench' }).waitFor();
+    await page.waitForTimeout(500);
+    expect(await restore.count()).toBe(0);
   });
 });

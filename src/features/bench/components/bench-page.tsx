@@ -4,6 +4,7 @@ import type { LiveSamples } from '../session/live-samples';
 import { ConnectPanel } from './connect-panel';
 import { LiveCharts } from './live-charts';
 import { ProgressBar } from './progress-bar';
+import { RestoreOffer } from './restore-offer';
 import { RunPanel } from './run-panel';
 import { SaveSessionPanel } from './save-session-panel';
 import { StatsPanel } from './stats-panel';
@@ -21,6 +22,7 @@ export function BenchPage() {
   });
   useEffect(() => {
     const c = controller;
+    void c.findUnsaved();
     return () => c.dispose();
   }, [controller]);
 
@@ -29,6 +31,7 @@ export function BenchPage() {
     <div className="grid items-start gap-4 lg:grid-cols-[20rem_minmax(0,1fr)] lg:grid-rows-[auto_1fr] 2xl:grid-cols-[20rem_minmax(0,1fr)_24rem]">
       <div className="grid content-start gap-4 lg:col-start-1 lg:row-start-1">
         <h1 className="text-2xl font-bold">Bench</h1>
+        <RestoreOffer controller={controller} snap={snap} />
         <ConnectPanel controller={controller} snap={snap} />
         <RunPanel controller={controller} snap={snap} />
         <SaveSessionPanel controller={controller} snap={snap} />

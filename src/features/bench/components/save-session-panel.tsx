@@ -1,6 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
+import { useNavigate } from 'react-router-dom';
 import { z } from 'zod';
 import { ApiError } from '../../../lib/api';
 import { useBoards } from '../api/get-boards';
@@ -93,6 +94,7 @@ export function SaveSessionPanel({ controller, snap }: { controller: BenchContro
   const [open, setOpen] = useState(false);
   const [saved, setSaved] = useState<SavedSession | null>(null);
   const save = useSaveSession();
+  const navigate = useNavigate();
   const cores = useCores();
   const boards = useBoards();
   const { register, handleSubmit, watch, setValue, getValues, reset, formState } = useForm<SaveForm>({
@@ -132,12 +134,16 @@ export function SaveSessionPanel({ controller, snap }: { controller: BenchContro
         notes: v.notes.trim(),
         tags: splitTags(v.tags),
         link: run.figures ? { ...run.figures } : null,
+        archive: record.archive ? new Blob([record.archive.slice()], { type: 'application/octet-stream' }) : null,
       },
       {
-        onSuccess: (s) => {
+        onSuccess: async (s) => {
           setSaved(s);
           setOpen(false);
           reset(v);
+          // Saved: the browser's copy is no longer needed; the session's own page shows the verdict.
+          await controller.forgetUnsaved();
+          await navigate(`/sessions/${s.id}`, { state: { saved: s } });
         },
       },
     );

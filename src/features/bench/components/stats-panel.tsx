@@ -1,5 +1,6 @@
 import type { BenchSnapshot } from '../session/bench-controller';
 import { panel, panelTitle } from '../../../components/ui';
+import { ToneFigures } from './tone-figures';
 
 const n = (v: number, digits = 3) => (Number.isFinite(v) ? v.toFixed(digits) : '—');
 const int = (v: number) => v.toLocaleString('en-US');
@@ -44,11 +45,13 @@ export function StatsPanel({ run }: { run: BenchSnapshot['run'] }) {
               </div>
             ))}
           </dl>
+          {run?.tone && <ToneFigures tone={run.tone} />}
           {s.mismatches.first.length > 0 && (
             <table className="w-full text-left font-mono text-xs">
               <caption className="mb-1 text-left font-sans text-sm text-ink-soft">First mismatches</caption>
               <thead>
                 <tr className="text-ink-soft">
+                  <th className="font-normal">index</th>
                   <th className="font-normal">code</th>
                   <th className="font-normal">cos / model</th>
                   <th className="font-normal">sin / model</th>
@@ -57,6 +60,7 @@ export function StatsPanel({ run }: { run: BenchSnapshot['run'] }) {
               <tbody>
                 {s.mismatches.first.slice(0, 5).map((m) => (
                   <tr key={m.index}>
+                    <td>{m.index}</td>
                     <td>{m.code}</td>
                     <td>
                       {m.cos} / {m.modelCos}

@@ -1,46 +1,28 @@
-// Raw line traffic in an xterm: hex and ASCII by direction, with decoded frames and decoder
-// events in between. Drained once per animation frame with a line budget, so a fast run cannot
-// flood the page; the scroll-back is bounded.
+// Raw line traffic in an xterm. Drained a few times a second with a line budget, so a fast run
+// cannot flood the page; the scroll-back is bounded, and a plain-text copy of it (TrafficLines)
+// serves find and copy.
 import { FitAddon } from '@xterm/addon-fit';
 import { Terminal } from '@xterm/xterm';
 import '@xterm/xterm/css/xterm.css';
 import { useEffect, useRef, useState } from 'react';
-import { kindName } from '../../../../shared/link';
-import type { TrafficEntry, TrafficLog } from '../session/traffic-log';
-import { btn, panel, panelTitle } from '../../../components/ui';
+import type { TrafficLog } from '../session/traffic-log';
+import { TrafficLines } from '../session/traffic-lines';
+import { C, copyOrDownload, formatTraffic } from './traffic-format';
+import { btn, input, panel, panelTitle } from '../../../components/ui';
 
 const SCROLLBACK_LINES = 5000;
-const LINES_PER_FRAME = 120;
-const C = { dim: '\x1b[90m', tx: '\x1b[33m', rx: '\x1b[36m', frame: '\x1b[32m', warn: '\x1b[31m', off: '\x1b[0m' };
-
-const stamp = (atMs: number) => {
-  const d = new Date(performance.timeOrigin + atMs);
-  return `${d.toTimeString().slice(0, 8)}.${String(d.getMilliseconds()).padStart(3, '0')}`;
-};
-const hex = (b: number) => b.toString(16).padStart(2, '0');
-
-function format(e: TrafficEntry): string[] {
-  const t = `${C.dim}${stamp(e.atMs)}${C.off}`;
-  if (e.type === 'note') return [`${t} ${C.warn}! ${e.text}${C.off}`];
-  if (e.type === 'skip') return [`${t} ${C.warn}! skipped ${e.event.bytes} B (${e.event.reason}) at ${e.event.offset}${C.off}`];
-  if (e.type === 'frame') return [`${t} ${C.frame}  ⇐ ${kindName(e.frame.kind)} tag ${e.frame.tag}, ${e.frame.payload.length} B payload${C.off}`];
-  const out: string[] = [];
-  const col = e.direction === 'tx' ? C.tx : C.rx;
-  const arrow = e.direction === 'tx' ? 'TX →' : 'RX ←';
-  for (let at = 0; at < e.bytes.length; at += 16) {
-    const row = e.bytes.subarray(at, at + 16);
-    const h = Array.from(row, hex).join(' ').padEnd(47);
-    const a = Array.from(row, (b) => (b >= 0x20 && b < 0x7f ? String.fromCharCode(b) : '.')).join('');
-    out.push(`${at === 0 ? t : ' '.repeat(12)} ${col}${at === 0 ? arrow : '    '}${C.off} ${h}  ${C.dim}${a}${C.off}`);
-  }
-  return out;
-}
+const WRITE_EVERY_MS = 100;
+const LINES_PER_WRITE = 300;
 
 export function TrafficPane({ log }: { log: TrafficLog }) {
   const box = useRef<HTMLDivElement>(null);
   const term = useRef<Terminal | null>(null);
+  const [lines] = useState(() => new TrafficLines(SCROLLBACK_LINES));
   const paused = useRef(false);
   const [isPaused, setPaused] = useState(false);
+  const [query, setQuery] = useState('');
+  const [hit, setHit] = useState<{ line: number; index: number; total: number } | null | 'none'>(null);
+  const [copyNote, setCopyNote] = useState('');
 
   useEffect(() => {
     const t = new Terminal({
@@ -49,7 +31,7 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
       fontSize: 12,
       disableStdin: true,
       convertEol: true,
-      theme: { background: '#1f2a2e', foreground: '#f6f3ec', cursor: '#1f2a2e' },
+      theme: { background: '#1f2a2e', foreground: '#f6f3ec', cursor: '#1f2a2e', selectionBackground: '#e0b84a', selectionForeground: '#1f2a2e' },
     });
     const fit = new FitAddon();
     t.loadAddon(fit);
@@ -59,17 +41,20 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
     const ro = new ResizeObserver(() => fit.fit());
     ro.observe(box.current!);
     let raf = 0;
-    const tick = () => {
-      if (!paused.current) {
+    let lastWrite = 0;
+    const tick = (now: number) => {
+      if (!paused.current && now - lastWrite >= WRITE_EVERY_MS) {
+        lastWrite = now;
         const { entries, dropped } = log.drain();
-        const lines: string[] = [];
+        const out: string[] = [];
         let skipped = dropped;
         for (const e of entries) {
-          if (lines.length >= LINES_PER_FRAME) skipped++;
-          else lines.push(...format(e));
+          if (out.length >= LINES_PER_WRITE) skipped++;
+          else out.push(...formatTraffic(e));
         }
-        if (skipped) lines.push(`${C.dim}… ${skipped.toLocaleString('en-US')} entries not shown (traffic faster than the pane)${C.off}`);
-        if (lines.length) t.write(lines.join('\r\n') + '\r\n');
+        if (skipped) out.push(`${C.dim}… ${skipped.toLocaleString('en-US')} entries not shown (traffic faster than the pane)${C.off}`);
+        for (const l of out) lines.push(l);
+        if (out.length) t.write(out.join('\r\n') + '\r\n');
       }
       raf = requestAnimationFrame(tick);
     };
@@ -80,14 +65,81 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
       t.dispose();
       term.current = null;
     };
-  }, [log]);
+  }, [log, lines]);
+
+  /** Select line `n`'s hit in the terminal and scroll it into view. */
+  const show = (n: number, column: number) => {
+    const t = term.current;
+    if (!t) return;
+    // The terminal holds the last scrollback + rows lines (plus the empty cursor line).
+    const trimmed = Math.max(0, lines.written + 1 - (SCROLLBACK_LINES + t.rows));
+    const row = n - trimmed;
+    t.scrollToLine(Math.max(0, row - Math.floor(t.rows / 2)));
+    t.select(column, row, query.length);
+  };
+
+  const find = (direction: 1 | -1) => {
+    const from = hit && hit !== 'none' ? hit.line : direction === 1 ? -1 : lines.written;
+    const found = lines.find(query, from, direction);
+    if (!found) return setHit('none');
+    setHit({ line: found.line, ...lines.count(query, found.line) });
+    show(found.line, found.column);
+  };
+
+  const copy = async (what: 'visible' | 'all') => {
+    const t = term.current;
+    let text = lines.text();
+    if (what === 'visible' && t) {
+      const b = t.buffer.active;
+      const rows: string[] = [];
+      for (let y = b.viewportY; y < b.viewportY + t.rows; y++) rows.push(b.getLine(y)?.translateToString(true) ?? '');
+      text = rows.join('\n').trimEnd();
+    }
+    const how = await copyOrDownload(text, 'line-traffic.txt');
+    setCopyNote(how === 'copied' ? `Copied ${what === 'all' ? 'the kept traffic' : 'the visible lines'}.` : 'The clipboard is not available here, so the text was downloaded as line-traffic.txt.');
+  };
 
   return (
     <section aria-labelledby="traffic-title" className={`${panel} min-w-0`}>
-      <div className="mb-2 flex items-center gap-2">
+      <div className="mb-2 flex flex-wrap items-center gap-2">
         <h2 id="traffic-title" className={`${panelTitle} mb-0 mr-auto`}>
           Line traffic
         </h2>
+        <form
+          role="search"
+          aria-label="Traffic search"
+          className="flex items-center gap-1"
+          onSubmit={(e) => {
+            e.preventDefault();
+            find(1);
+          }}
+        >
+          <input
+            aria-label="Find in traffic"
+            className={`${input} w-36 py-1 font-mono text-xs`}
+            value={query}
+            placeholder="a5 90, RESULTS…"
+            onChange={(e) => {
+              setQuery(e.target.value);
+              setHit(null);
+            }}
+            onKeyDown={(e) => {
+              if (e.key === 'Enter' && e.shiftKey) {
+                e.preventDefault();
+                find(-1);
+              }
+            }}
+          />
+          <button type="button" className={btn} disabled={!query} onClick={() => find(-1)} aria-label="Previous match">
+            ↑
+          </button>
+          <button type="submit" className={btn} disabled={!query} aria-label="Next match">
+            ↓
+          </button>
+          <span className="min-w-16 text-xs text-ink-soft" aria-live="polite" data-testid="traffic-find-status">
+            {hit === 'none' ? 'Not found' : hit ? `${hit.index} of ${hit.total}` : ''}
+          </span>
+        </form>
         <button
           type="button"
           className={btn}
@@ -101,11 +153,28 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
         >
           {isPaused ? 'Resume' : 'Pause'}
         </button>
-        <button type="button" className={btn} onClick={() => term.current?.clear()}>
+        <button
+          type="button"
+          className={btn}
+          onClick={() => {
+            term.current?.reset();
+            lines.clear();
+            setHit(null);
+          }}
+        >
           Clear
+        </button>
+        <button type="button" className={btn} onClick={() => void copy('visible')}>
+          Copy visible
+        </button>
+        <button type="button" className={btn} onClick={() => void copy('all')}>
+          Copy all
         </button>
       </div>
       <div ref={box} className="h-64 min-w-0 overflow-hidden rounded bg-ink p-1" />
+      <p className="mt-1 min-h-4 text-xs text-ink-soft" aria-live="polite">
+        {copyNote}
+      </p>
     </section>
   );
 }

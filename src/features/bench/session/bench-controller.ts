@@ -1,14 +1,22 @@
 // One bench connection and its runs, outside React: the page reads a small snapshot through
 // useSyncExternalStore (status, INFO, progress, summary); live samples and traffic bypass React.
-import { LinkEngine, type RunHandle, type RunResult } from '../../../../shared/bench/link-engine';
+// The connection is recorded from open to close; the latest run is kept in IndexedDB until it is
+// saved or discarded, so a reload does not lose it.
+import { LinkEngine, type RunHandle } from '../../../../shared/bench/link-engine';
 import type { ByteLink } from '../../../../shared/bench/byte-link';
 import type { RunProgress, LinkFigures } from '../../../../shared/bench/link-figures';
 import type { RunRequest } from '../../../../shared/bench/run-request';
 import type { DeviceInfo } from '../../../../shared/link';
 import { angleCodeRange, parseModelConfig, planCodes, type ModelConfig, type Plan, type ScoreSummary } from '../../../../shared/numeric';
+import { ConnectionRecording } from './connection-recording';
 import { LiveSamples } from './live-samples';
-import type { ScoreWorkerReply, ScoreWorkerRequest } from './score-protocol';
+import { ScoreClient } from './score-client';
+import type { ToneResult } from './score-protocol';
 import { TrafficLog } from './traffic-log';
+import { fromStoredRun, toStoredRun, type RunOutcome, type RunRecord } from './unsaved-run';
+import { unsavedRunStore, type UnsavedRunStore } from './unsaved-run-store';
+
+export type { RunRecord } from './unsaved-run';
 
 export interface BenchSnapshot {
   status: 'idle' | 'connecting' | 'connected' | 'closed';
@@ -19,28 +27,19 @@ export interface BenchSnapshot {
   run: {
     state: 'running' | 'paused' | 'finished';
     progress: RunProgress | null;
-    result: Pick<RunResult, 'status' | 'message' | 'elapsedMs'> & { missing: number } | null;
+    result: RunOutcome | null;
     summary: ScoreSummary | null;
+    tone: ToneResult | null;
     figures: LinkFigures | null;
     error: string | null;
     plan: Plan;
+    /** Set when the run was brought back from the browser's store. */
+    restoredFrom: number | null;
   } | null;
-}
-
-/** Every answered result of the latest run, in request order, kept for "Save session". */
-export interface RunRecord {
-  codes: Float64Array;
-  cos: Int32Array;
-  sin: Int32Array;
-  /** 1 where the board answered that index. */
-  answered: Uint8Array;
-  plan: Plan;
-  config: ModelConfig;
-  startedAt: Date;
-  endedAt: Date | null;
-  transportLabel: string | null;
-  baud: number;
-  info: DeviceInfo | null;
+  /** An unsaved run found in the browser's store, offered for restoring; when it was stored. */
+  restorable: { storedAt: number; plan: Plan; answered: number } | null;
+  /** A problem keeping or reading the unsaved run. */
+  storeMessage: string | null;
 }
 
 const clock = {
@@ -51,8 +50,8 @@ const clock = {
   },
 };
 
-/** Results are handed to the worker in chunks at most this often, not one message per frame. */
-const FLUSH_EVERY_MS = 16;
+/** Progress reaches React at most this often; the engine reports every 100 ms. */
+const PROGRESS_EVERY_MS = 250;
 
 export class BenchController {
   readonly traffic = new TrafficLog();
@@ -60,14 +59,16 @@ export class BenchController {
   /** The latest run's results (for saving); null before the first run. */
   record: RunRecord | null = null;
   private baud = 0;
-  private snap: BenchSnapshot = { status: 'idle', transportLabel: null, info: null, linkMessage: null, run: null };
+  private snap: BenchSnapshot = { status: 'idle', transportLabel: null, info: null, linkMessage: null, run: null, restorable: null, storeMessage: null };
   private listeners = new Set<() => void>();
   private link: ByteLink | null = null;
   private engine: LinkEngine | null = null;
+  private recording: ConnectionRecording | null = null;
   private handle: RunHandle | null = null;
-  private worker: Worker | null = null;
-  private pending: { first: number; codes: number[]; cos: number[]; sin: number[] } | null = null;
-  private flushTimer: ReturnType<typeof setTimeout> | null = null;
+  private scorer: ScoreClient | null = null;
+  private lastProgressAt = 0;
+
+  constructor(private readonly store: UnsavedRunStore = unsavedRunStore) {}
 
   subscribe = (l: () => void) => {
     this.listeners.add(l);
@@ -83,15 +84,18 @@ export class BenchController {
     if (this.snap.run) this.set({ run: { ...this.snap.run, ...patch } });
   }
 
-  /** Open a link (made by the caller), say HELLO and keep INFO. */
+  /** Open a link (made by the caller), say HELLO and keep INFO. Everything on it is recorded. */
   async connect(open: () => Promise<ByteLink>, label: string, baud: number) {
     this.baud = baud;
-    this.set({ status: 'connecting', transportLabel: label, linkMessage: null, info: null, run: null });
+    this.set({ status: 'connecting', transportLabel: label, linkMessage: null, info: null });
     try {
       const link = await open();
+      const recording = new ConnectionRecording({ transport: label, baud, openedAt: new Date().toISOString() });
       this.link = link;
+      this.recording = recording;
       link.onWarning((m) => this.traffic.push({ type: 'note', text: m, atMs: clock.now() }));
       link.onClose((r) => {
+        recording.finish(clock.now());
         if (this.link !== link) return;
         this.link = null;
         this.engine = null;
@@ -101,11 +105,21 @@ export class BenchController {
         link,
         clock,
         baud,
-        onTraffic: (direction, bytes, atMs) => this.traffic.push({ type: 'bytes', direction, bytes: bytes.slice(), atMs }),
-        onFrame: (frame, atMs) => this.traffic.push({ type: 'frame', frame, atMs }),
-        onSkip: (event, atMs) => this.traffic.push({ type: 'skip', event, atMs }),
+        onTraffic: (direction, bytes, atMs) => {
+          recording.traffic(direction, bytes, atMs);
+          this.traffic.push({ type: 'bytes', direction, bytes: bytes.slice(), atMs });
+        },
+        onFrame: (frame, atMs) => {
+          recording.frame(frame, atMs);
+          this.traffic.push({ type: 'frame', frame, atMs });
+        },
+        onSkip: (event, atMs) => {
+          recording.skip(event, atMs);
+          this.traffic.push({ type: 'skip', event, atMs });
+        },
       });
       const info = await this.engine.hello();
+      recording.info(info, clock.now());
       this.set({ status: 'connected', info });
     } catch (err) {
       await this.link?.close().catch(() => undefined);
@@ -132,12 +146,12 @@ export class BenchController {
         : plan.kind === 'sweep'
           ? { kind: 'sweep', start: plan.start, step: plan.step, count: plan.count }
           : { kind: 'codes', codes };
-    this.samples = new LiveSamples(config);
+    const n = codes.length;
     const record: RunRecord = {
       codes,
-      cos: new Int32Array(codes.length),
-      sin: new Int32Array(codes.length),
-      answered: new Uint8Array(codes.length),
+      cos: new Int32Array(n),
+      sin: new Int32Array(n),
+      answered: new Uint8Array(n),
       plan,
       config,
       startedAt: new Date(),
@@ -145,10 +159,13 @@ export class BenchController {
       transportLabel: this.snap.transportLabel,
       baud: this.baud,
       info: this.snap.info,
+      archive: null,
+      outcome: null,
+      figures: null,
     };
     this.record = record;
-    this.startWorker(config);
-    this.set({ run: { state: 'running', progress: null, result: null, summary: null, figures: null, error: null, plan } });
+    const scorer = this.startScoring(record);
+    this.set({ restorable: null, run: { state: 'running', progress: null, result: null, summary: null, tone: null, figures: null, error: null, plan, restoredFrom: null } });
     const handle = this.engine.run(req, {
       onResults: (b) => {
         for (let k = 0; k < b.indexes.length; k++) {
@@ -157,25 +174,25 @@ export class BenchController {
           record.sin[i] = b.sin[k];
           record.answered[i] = 1;
         }
-        this.queueResults(codes, b.indexes, b.cos, b.sin);
+        scorer.queue(codes, b.indexes, b.cos, b.sin);
       },
-      onProgress: (p) => this.setRun({ progress: p, figures: { ...this.engine!.figures } }),
+      onProgress: (p) => {
+        const now = clock.now();
+        if (now - this.lastProgressAt < PROGRESS_EVERY_MS) return;
+        this.lastProgressAt = now;
+        this.setRun({ progress: p, figures: { ...this.engine!.figures } });
+      },
     });
     this.handle = handle;
     handle.done.then(
       (res) => {
-        record.endedAt = new Date();
-        this.flush();
-        this.worker?.postMessage({ type: 'summary' } satisfies ScoreWorkerRequest);
-        this.setRun({
-          state: 'finished',
-          progress: handle.progress(),
-          figures: res.figures,
-          result: { status: res.status, message: res.message, elapsedMs: res.elapsedMs, missing: res.missing.length },
-        });
+        record.outcome = { status: res.status, message: res.message, elapsedMs: res.elapsedMs, missing: res.missing.length };
+        record.figures = res.figures;
+        this.endRun(record, scorer);
+        this.setRun({ state: 'finished', progress: handle.progress(), figures: res.figures, result: record.outcome });
       },
       (err: Error) => {
-        record.endedAt = new Date();
+        this.endRun(record, scorer);
         this.setRun({ state: 'finished', error: err.message });
       },
     );
@@ -193,46 +210,78 @@ export class BenchController {
     await this.handle?.abort();
   }
 
+  /** Look for an unsaved run from an earlier visit and offer it. */
+  async findUnsaved() {
+    try {
+      const raw = (await this.store.get()) as { storedAt?: number; plan?: Plan; answered?: Uint8Array } | undefined;
+      if (!raw || this.snap.run) return;
+      let answered = 0;
+      for (const a of raw.answered ?? []) answered += a ? 1 : 0;
+      this.set({ restorable: { storedAt: raw.storedAt ?? 0, plan: raw.plan as Plan, answered } });
+    } catch (err) {
+      this.set({ storeMessage: `An unsaved run could not be read back: ${(err as Error).message}` });
+    }
+  }
+
+  /** Bring the offered run back: scored again in the worker, so charts and figures return. */
+  async restoreUnsaved() {
+    try {
+      const raw = await this.store.get();
+      const record = fromStoredRun(raw);
+      const storedAt = (raw as { storedAt: number }).storedAt;
+      this.record = record;
+      const scorer = this.startScoring(record);
+      this.set({
+        restorable: null,
+        storeMessage: null,
+        run: { state: 'finished', progress: null, result: record.outcome, summary: null, tone: null, figures: record.figures, error: null, plan: record.plan, restoredFrom: storedAt },
+      });
+      const indexes: number[] = [];
+      for (let i = 0; i < record.codes.length; i++) if (record.answered[i]) indexes.push(i);
+      scorer.queue(record.codes, indexes, indexes.map((i) => record.cos[i]), indexes.map((i) => record.sin[i]));
+      scorer.finish();
+    } catch (err) {
+      this.set({ restorable: null, storeMessage: `The unsaved run could not be restored: ${(err as Error).message}` });
+    }
+  }
+
+  /** Forget the stored run: it was saved to the server, or the operator discarded it. */
+  async forgetUnsaved() {
+    this.set({ restorable: null });
+    try {
+      await this.store.clear();
+    } catch (err) {
+      this.set({ storeMessage: `The unsaved run could not be removed from this browser: ${(err as Error).message}` });
+    }
+  }
+
   dispose() {
     void this.disconnect();
-    this.worker?.terminate();
+    this.scorer?.terminate();
     this.listeners.clear();
   }
 
-  private startWorker(config: ModelConfig) {
-    this.worker?.terminate();
-    const w = new Worker(new URL('./score.worker.ts', import.meta.url), { type: 'module' });
-    w.onmessage = (e: MessageEvent<ScoreWorkerReply>) => {
-      if (w !== this.worker) return;
-      const m = e.data;
-      if (m.type === 'scored') this.samples?.add(m.codes, m.cos, m.sin, m.errCos, m.errSin);
-      else if (m.type === 'summary') {
-        this.samples?.setSummary(m.summary);
-        this.setRun({ summary: m.summary });
-      } else this.setRun({ error: `Scoring stopped: ${m.message}` });
-    };
-    w.onerror = (e) => this.setRun({ error: `The scoring worker failed: ${e.message}` });
-    w.postMessage({ type: 'init', config } satisfies ScoreWorkerRequest);
-    this.worker = w;
+  private startScoring(record: RunRecord): ScoreClient {
+    this.scorer?.terminate();
+    const samples = new LiveSamples(record.config);
+    this.samples = samples;
+    const scorer: ScoreClient = new ScoreClient(record.config, record.plan, samples, {
+      summary: (summary, tone) => scorer === this.scorer && this.setRun({ summary, tone }),
+      error: (message) => scorer === this.scorer && this.setRun({ error: message }),
+    });
+    this.scorer = scorer;
+    return scorer;
   }
 
-  private queueResults(codes: Float64Array, indexes: Uint32Array, cos: Int32Array, sin: Int32Array) {
-    this.pending ??= { first: indexes[0] ?? 0, codes: [], cos: [], sin: [] };
-    for (let k = 0; k < indexes.length; k++) {
-      this.pending.codes.push(codes[indexes[k]]);
-      this.pending.cos.push(cos[k]);
-      this.pending.sin.push(sin[k]);
-    }
-    this.flushTimer ??= setTimeout(() => this.flush(), FLUSH_EVERY_MS);
-  }
-
-  private flush() {
-    if (this.flushTimer) clearTimeout(this.flushTimer);
-    this.flushTimer = null;
-    const p = this.pending;
-    this.pending = null;
-    if (!p || !this.worker) return;
-    const msg: ScoreWorkerRequest = { type: 'batch', firstIndex: p.first, codes: Float64Array.from(p.codes), cos: Int32Array.from(p.cos), sin: Int32Array.from(p.sin) };
-    this.worker.postMessage(msg, [msg.codes.buffer, msg.cos.buffer, msg.sin.buffer]);
+  /** The run is over: score what is left, keep the capture and put the run away until saved. */
+  private endRun(record: RunRecord, scorer: ScoreClient) {
+    record.endedAt = new Date();
+    record.archive = this.recording?.toArchive() ?? null;
+    scorer.finish();
+    this.set({ restorable: null });
+    this.store.put(toStoredRun(record, Date.now())).then(
+      () => this.snap.storeMessage && this.set({ storeMessage: null }),
+      (err: Error) => this.set({ storeMessage: `This run is not kept in the browser, so a reload loses it: ${err.message}` }),
+    );
   }
 }

@@ -1,0 +1,65 @@
+// The capture of one bench connection: every chunk each way with its time, the frames and decoder
+// events of the host's own decoder, and the profile switch at INFO, from the moment the link opens
+// until it closes. It uses the engine's decoder events rather than a second decoder, so recording
+// costs the page almost nothing; docs/archive.md has the byte layout.
+import { profileFromInfo, Recorder, type DecodedFrame, type DeviceInfo, type SkipEvent } from '../../../../shared/link';
+
+/** What the archive label says about where the capture came from (JSON). */
+export interface BenchLabel {
+  recordedBy: 'anglebench bench';
+  transport: string;
+  baud: number;
+  openedAt: string;
+}
+
+export class ConnectionRecording {
+  private readonly recorder: Recorder;
+  private bytes = { 'to-device': 0, 'to-host': 0 };
+  private finished = false;
+
+  constructor(label: Omit<BenchLabel, 'recordedBy'>) {
+    this.recorder = new Recorder({ accept: { 'to-device': 'requests', 'to-host': 'replies' }, label: JSON.stringify({ recordedBy: 'anglebench bench', ...label } satisfies BenchLabel) });
+  }
+
+  /** Bytes as they crossed the line ('tx': host to device). */
+  traffic(direction: 'tx' | 'rx', bytes: Uint8Array, atMs: number) {
+    if (this.finished) return;
+    const d = direction === 'tx' ? 'to-device' : 'to-host';
+    this.recorder.chunk(d, atMs, bytes);
+    this.bytes[d] += bytes.length;
+  }
+
+  /** A frame the host decoded. */
+  frame(f: DecodedFrame, atMs: number) {
+    if (!this.finished) this.recorder.frame('to-host', atMs, f);
+  }
+
+  skip(e: SkipEvent, atMs: number) {
+    if (!this.finished) this.recorder.skip('to-host', atMs, e);
+  }
+
+  /** INFO fixed the field sizes: both directions switch profile where their streams are now. */
+  info(info: DeviceInfo, atMs: number) {
+    if (this.finished) return;
+    const p = profileFromInfo(info);
+    this.recorder.profile('to-host', atMs, this.bytes['to-host'], p);
+    this.recorder.profile('to-device', atMs, this.bytes['to-device'], p);
+  }
+
+  /** The link closed: both streams end here. */
+  finish(atMs: number) {
+    if (this.finished) return;
+    this.finished = true;
+    this.recorder.finish('to-device', atMs);
+    this.recorder.finish('to-host', atMs);
+  }
+
+  /** The archive so far (recording may go on). */
+  toArchive(): Uint8Array {
+    return this.recorder.toArchive();
+  }
+
+  get byteLength() {
+    return this.recorder.byteLength;
+  }
+}
