@@ -51,11 +51,17 @@ export function createCordicModel(input: ModelConfigInput | ModelConfig = {}): C
   const config = Object.freeze(parseModelConfig(input));
   const tables = buildCordicTables(config);
   const { atan, pow2, x0, zHalf, zQuarter } = tables;
+  // Multiplying by 2^−i is exact, as dividing by 2^i is, and much cheaper in the loop below.
+  const invPow2 = pow2.map((p) => 1 / p);
+  const turn = config.angleFormat === 'turn';
+  const zUnit = 2 ** config.zGuardBits;
+  const codeHalf = 2 ** (config.angleBits - 1);
+  const codeTurn = 2 ** config.angleBits;
   const fold = config.fold;
   const n = config.iterations;
   const nearestShift = config.shiftRounding === 'nearest';
   const g = config.guardBits;
-  const outDiv = 2 ** g;
+  const outScale = 2 ** -g;
   const outBias = config.outputRounding === 'nearest' && g > 0 ? 2 ** (g - 1) : 0;
   const { min: outMin, max: outMax } = outputCodeRange(config);
   const { min: codeMin, max: codeMax } = angleCodeRange(config);
@@ -63,13 +69,14 @@ export function createCordicModel(input: ModelConfigInput | ModelConfig = {}): C
   let lastSin = 0;
 
   const out = (v: number): number => {
-    const r = g === 0 ? v : Math.floor((v + outBias) / outDiv);
+    const r = g === 0 ? v : Math.floor((v + outBias) * outScale);
     return r < outMin ? outMin : r > outMax ? outMax : r;
   };
 
   // Leaves the result in lastCos/lastSin so the batch path allocates nothing per sample.
   const run = (code: number): void => {
-    let z = readAngle(config, tables, code);
+    // readAngle for `turn`, inlined with its constants hoisted.
+    let z = turn ? (code >= codeHalf ? code - codeTurn : code) * zUnit : readAngle(config, tables, code);
     let negate = false;
     if (fold) {
       if (z > zQuarter) {
@@ -83,16 +90,16 @@ export function createCordicModel(input: ModelConfigInput | ModelConfig = {}): C
     let x = x0;
     let y = 0;
     for (let i = 0; i < n; i++) {
-      const p = pow2[i];
+      const inv = invPow2[i];
       let sx: number;
       let sy: number;
       if (nearestShift && i > 0) {
         const half = pow2[i - 1];
-        sx = Math.floor((x + half) / p);
-        sy = Math.floor((y + half) / p);
+        sx = Math.floor((x + half) * inv);
+        sy = Math.floor((y + half) * inv);
       } else {
-        sx = Math.floor(x / p);
-        sy = Math.floor(y / p);
+        sx = Math.floor(x * inv);
+        sy = Math.floor(y * inv);
       }
       if (z >= 0) {
         x -= sy;

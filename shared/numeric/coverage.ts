@@ -52,11 +52,15 @@ export class CodeCoverage {
   private readonly bits: Uint8Array | null;
   private readonly sparse: Set<number> | null;
   private readonly min: number;
+  /** octantOfCode with the power of two hoisted for `turn` (exact: 8 / 2^bits is a power of two). */
+  private readonly octantOf: (code: number) => number;
   readonly perOctant = new Float64Array(8);
   distinct = 0;
 
   constructor(readonly format: AngleFormat) {
     this.min = angleCodeRange(format).min;
+    const eighths = 8 / 2 ** format.angleBits;
+    this.octantOf = format.angleFormat === 'turn' ? (code) => Math.floor(code * eighths) : (code) => octantOfCode(format, code);
     const useBits = format.angleBits <= BITSET_MAX_BITS;
     this.bits = useBits ? new Uint8Array(Math.ceil(2 ** format.angleBits / 8)) : null;
     this.sparse = useBits ? null : new Set<number>();
@@ -75,7 +79,7 @@ export class CodeCoverage {
       this.sparse!.add(code);
     }
     this.distinct++;
-    this.perOctant[octantOfCode(this.format, code)]++;
+    this.perOctant[this.octantOf(code)]++;
   }
 
   /** True when the code has been seen. */
