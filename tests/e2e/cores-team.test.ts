@@ -1,5 +1,6 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createCordicModel } from '../../shared/numeric';
 import { launchBrowser, startApp, type RunningApp } from './harness';
 
 let app: RunningApp;
@@ -61,6 +62,58 @@ describe('the core page for an engineer', () => {
     expect(await page.locator('#core-outFrac-error').textContent()).toMatch(/below outBits \(16\)/);
     await page.reload();
     await poll(() => page.getByLabel('RMS error').inputValue()).toBe('0.8');
+  });
+});
+
+describe('golden vectors on the core page', () => {
+  it('names the bad line of a refused CSV, lists a good set with its mismatches, and deletes it', async () => {
+    const page = await signIn('engineer');
+    await openReferenceCore(page);
+    const coreId = Number(new URL(page.url()).pathname.split('/').pop());
+    const { core } = await page.evaluate(async (id) => (await (await fetch(`/api/cores/${id}`)).json()) as { core: { modelConfig: object } }, coreId);
+    const form = page.getByRole('form', { name: 'Upload golden vectors' });
+    await form.getByLabel('Set name').fill('rtl-sim smoke');
+
+    await form.getByLabel('CSV file').setInputFiles({ name: 'bad.csv', mimeType: 'text/csv', buffer: Buffer.from('angle_code,cos_code,sin_code\n0,16384,0\nabc,1,2\n') });
+    await form.getByRole('button', { name: 'Upload' }).click();
+    await poll(() => form.getByRole('alert').textContent()).toContain('line 3');
+
+    // Four codes answered by the core's own model, one sin code nudged by 1 LSB: one mismatch.
+    const model = createCordicModel(core.modelConfig);
+    const codes = [0, 1000, 16384, 40000];
+    const rows = codes.map((c, i) => {
+      const { cos, sin } = model.evaluate(c);
+      return `${c},${cos},${i === 1 ? sin + 1 : sin}`;
+    });
+    await form.getByLabel('CSV file').setInputFiles({ name: 'good.csv', mimeType: 'text/csv', buffer: Buffer.from(`angle_code,cos_code,sin_code\n${rows.join('\n')}\n`) });
+    await form.getByRole('button', { name: 'Upload' }).click();
+    const row = page.getByRole('table', { name: 'Golden-vector sets' }).getByRole('row').filter({ hasText: 'rtl-sim smoke' });
+    await poll(() => row.count()).toBe(1);
+    const cells = await row.getByRole('cell').allTextContents();
+    expect(cells.slice(1, 3)).toEqual(['4', '4']);
+    expect(cells[4]).toBe('1');
+
+    page.once('dialog', (d) => void d.accept());
+    await row.getByRole('button', { name: 'Delete golden vectors rtl-sim smoke' }).click();
+    await poll(() => row.count()).toBe(0);
+  });
+});
+
+describe('a new core', () => {
+  it('is created from the list page with the default model and opens on its own page', async () => {
+    const page = await signIn('engineer');
+    await page.goto(`${app.url}/cores`);
+    await page.getByRole('button', { name: 'New core' }).click();
+    const form = page.getByRole('form', { name: 'New core' });
+    await form.getByLabel('Name').fill('Bring-up rotator, 12-bit');
+    await form.getByLabel('Slug').fill('bringup-12');
+    await form.getByLabel('Output bits').fill('12');
+    await form.getByLabel('Output fraction bits').fill('10');
+    await form.getByRole('button', { name: 'Create core' }).click();
+    await page.waitForURL(/\/cores\/\d+$/);
+    await poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Bring-up rotator, 12-bit');
+    expect(await page.getByLabel('Output bits').inputValue()).toBe('12');
+    expect(await page.getByText('No baseline.').count()).toBe(1);
   });
 });
 

@@ -66,7 +66,7 @@ function UploadForm({ coreId }: { coreId: number }) {
       </button>
       {upload.isError && (
         <p role="alert" className={`${fieldError} sm:col-span-3`}>
-          The set was refused: {upload.error.message}
+          The set was refused: {upload.error.message.replace(/^(file|name): /, '')}
         </p>
       )}
     </form>
