@@ -51,8 +51,9 @@ export const CHART_SPECS: Record<ChartId, ChartSpec> = {
   xy: {
     title: 'XY circle (sin against cos)',
     testId: 'chart-xy',
-    // Ranges are set by SignalCharts: one extent for both scales, so a circle stays round.
-    options: { scales: { x: { time: false }, y: {} }, axes: [axis('cos'), axis('sin')], series: [{}, dots(SIGNAL, 'sin vs cos')], cursor: { show: false } },
+    // Ranges are set by SignalCharts: one extent for both scales, so a circle stays round. Fixed
+    // padding (top = right) with equal axis sizes makes a square canvas a square plotting area.
+    options: { padding: [12, 12, 0, 0], scales: { x: { time: false }, y: {} }, axes: [axis('cos'), axis('sin')], series: [{}, dots(SIGNAL, 'sin vs cos')], cursor: { show: false } },
   },
 };
 

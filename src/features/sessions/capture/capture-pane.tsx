@@ -79,8 +79,8 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
     if (!t || replaying) return;
     t.reset();
     const slice = shown.slice(page * PAGE_RECORDS, (page + 1) * PAGE_RECORDS);
-    t.write(slice.flatMap(([r, i]) => linesOf(r, i)).join('\r\n') + '\r\n');
-    t.scrollToTop();
+    // Writes are asynchronous: scroll once this page has landed.
+    t.write(slice.flatMap(([r, i]) => linesOf(r, i)).join('\r\n') + '\r\n', () => t.scrollToTop());
     // linesOf depends only on what is listed here.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [shown, page, replaying, profiles]);

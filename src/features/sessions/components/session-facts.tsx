@@ -2,6 +2,8 @@ import { Link } from 'react-router-dom';
 import type { SessionRecord } from '../api/session-types';
 
 export const dateTime = (iso: string | null | undefined) => (iso ? new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'medium' }) : '—');
+/** Shorter, for table rows. */
+export const shortDateTime = (iso: string) => new Date(iso).toLocaleString('en-GB', { day: '2-digit', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
 
 /** Core, build, board, operator and times of a session; `links` off for the printed report. */
 export function SessionFacts({ session, links = true, buildExtra }: { session: SessionRecord; links?: boolean; buildExtra?: React.ReactNode }) {

@@ -1,6 +1,8 @@
 import type { ScoreSummary } from '../../../../shared/numeric';
 
 const n = (v: number | undefined | null, digits = 3) => (typeof v === 'number' && Number.isFinite(v) ? v.toFixed(digits) : '—');
+/** A percentage with enough digits to tell a small share from none. */
+const pct = (share: number) => (share > 0 && share < 0.001 ? (share * 100).toPrecision(2) : (share * 100).toFixed(2));
 const int = (v: number | undefined | null) => (typeof v === 'number' ? v.toLocaleString('en-US') : '—');
 
 /** The key figures of a session's ScoreSummary, as label/value pairs. */
@@ -17,7 +19,7 @@ export function statRows(s: Partial<ScoreSummary>): [label: string, value: strin
     ['Magnitude error RMS', s.magnitude ? `${n(s.magnitude.rms * 1e6, 2)} ppm` : '—'],
     ['Phase error RMS', s.phase ? `${n(s.phase.rmsRad * 1e6, 2)} µrad` : '—'],
     ['Model mismatches', s.mismatches ? `${int(s.mismatches.count)}${s.mismatches.count ? ` (largest ${s.mismatches.maxAbsDiffLsb} LSB)` : ''}` : '—'],
-    ['Coverage', s.coverage ? `${n(s.coverage.share * 100, 2)} % of codes (${int(s.coverage.distinct)})` : '—'],
+    ['Coverage', s.coverage ? `${pct(s.coverage.share)} % of codes (${int(s.coverage.distinct)})` : '—'],
   ];
 }
 

@@ -46,7 +46,7 @@ export function SessionCharts({ session, config }: { session: SessionRecord; con
           ? `Scored again in this browser from the ${mine.count.toLocaleString('en-US')} stored samples: the same figures as the server's.`
           : `Scored again in this browser, the figures differ from the server's (largest error ${mine.overall.maxAbsLsb.toFixed(3)} LSB, ${mine.mismatches.count} mismatches). The core's model may have changed since.`}
       </p>
-      <SignalCharts charts={CHARTS} feed={feed} />
+      <SignalCharts charts={CHARTS} feed={feed} heightPx={260} />
     </div>
   );
 }

@@ -3,7 +3,7 @@
 import { createColumnHelper, rowPaginationFeature, rowSelectionFeature, rowSortingFeature, tableFeatures } from '@tanstack/react-table';
 import { Link } from 'react-router-dom';
 import type { SessionRecord } from '../api/session-types';
-import { dateTime } from '../components/session-facts';
+import { shortDateTime } from '../components/session-facts';
 import { RegressionBadge, VerdictBadge } from '../components/verdict-badges';
 import { Sparkline } from './sparkline';
 
@@ -42,9 +42,9 @@ export function sessionColumns(limitOf: (coreId: number) => number | undefined) 
         </Link>
       ),
     }),
-    helper.accessor('startedAt', { header: 'Started', sortDescFirst: true, cell: (c) => <span className="whitespace-nowrap font-mono text-xs">{dateTime(c.getValue())}</span> }),
+    helper.accessor('startedAt', { header: 'Started', sortDescFirst: true, cell: (c) => <span className="whitespace-nowrap font-mono text-xs">{shortDateTime(c.getValue())}</span> }),
     helper.accessor((r) => r.core?.name ?? `core #${r.coreId}`, { id: 'core', header: 'Core', enableSorting: false }),
-    helper.accessor((r) => r.build?.label ?? null, { id: 'build', header: 'Build', enableSorting: false, cell: (c) => c.getValue() ?? muted('—') }),
+    helper.accessor((r) => r.build?.label ?? null, { id: 'build', header: 'Build', enableSorting: false, cell: (c) => <span className="whitespace-nowrap font-mono text-xs">{c.getValue() ?? muted('—')}</span> }),
     helper.accessor((r) => r.board?.name ?? null, { id: 'board', header: 'Board', enableSorting: false, cell: (c) => c.getValue() ?? muted('—') }),
     helper.accessor((r) => r.operator?.name ?? null, { id: 'operator', header: 'Operator', enableSorting: false, cell: (c) => c.getValue() ?? muted('—') }),
     helper.accessor('sampleCount', { header: 'Samples', enableSorting: false, cell: (c) => <span className="font-mono">{c.getValue().toLocaleString('en-US')}</span> }),

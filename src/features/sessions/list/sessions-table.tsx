@@ -98,7 +98,7 @@ export function SessionsTable({ items, total, filters, onFilters, selection, onS
         <button type="button" className={btn} disabled={!table.getCanNextPage()} onClick={() => table.nextPage()}>
           Next page
         </button>
-        <label className="ml-auto flex items-center gap-2">
+        <label className="ml-auto flex items-center gap-2 whitespace-nowrap">
           Rows per page
           <select className={`${input} w-auto`} value={filters.pageSize} onChange={(e) => table.setPageSize(Number(e.target.value))}>
             {PAGE_SIZES.map((n) => (

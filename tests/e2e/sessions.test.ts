@@ -1,0 +1,135 @@
+import type { Browser, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { packSamples } from '../../shared/bench/sample-pack';
+import { createCordicModel, parseModelConfig } from '../../shared/numeric';
+import { launchBrowser, startApp, type RunningApp } from './harness';
+
+let app: RunningApp;
+let browser: Browser;
+// A tag of this run's own, so the checks below do not depend on the demo sessions.
+const tag = `e2e-${Date.now().toString(36)}`;
+let passingId: number;
+let failingId: number;
+
+async function signIn(page: Page, email: string, next = '/sessions') {
+  await page.goto(`${app.url}/sign-in?next=${encodeURIComponent(next)}`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill('anglebench');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((u) => u.pathname === next);
+}
+
+/** Every 16th 16-bit code answered as the reference-16 model does, `faulty` of them 40 LSB off in cos. */
+function samples(faulty: number): number[] {
+  const n = 4096;
+  const codes = new Int32Array(n).map((_, i) => i * 16);
+  const cos = new Int32Array(n);
+  const sin = new Int32Array(n);
+  createCordicModel(parseModelConfig({})).evaluateInto(codes, cos, sin);
+  for (let i = 0; i < faulty; i++) cos[i * 97] += 40;
+  return Array.from(packSamples(codes, cos, sin, new Uint8Array(n).fill(1)));
+}
+
+/** POST /api/sessions from the page, with its cookie and CSRF token, as the Bench page does. */
+async function upload(page: Page, bytes: number[], notes: string) {
+  const session = { coreSlug: 'reference-16', startedAt: new Date().toISOString(), plan: { kind: 'sweep', first: 0, step: 16, count: 4096 }, transport: { kind: 'test' }, notes, tags: [tag] };
+  return page.evaluate(
+    async ({ session, bytes }) => {
+      const { token } = (await (await fetch('/api/auth/csrf')).json()) as { token: string };
+      const form = new FormData();
+      form.set('session', JSON.stringify(session));
+      form.set('samples', new Blob([new Uint8Array(bytes)]), 'samples.bin');
+      const res = await fetch('/api/sessions', { method: 'POST', body: form, headers: { 'x-csrf-token': token } });
+      return { status: res.status, body: (await res.json()) as { id: number; passed: boolean } };
+    },
+    { session, bytes },
+  );
+}
+
+const rowsOf = (page: Page) => page.getByTestId('session-row');
+
+beforeAll(async () => {
+  app = await startApp();
+  browser = await launchBrowser();
+  const page = await browser.newPage();
+  await signIn(page, 'engineer@anglebench.test');
+  const good = await upload(page, samples(0), 'healthy sweep');
+  const bad = await upload(page, samples(10), 'ten answers off by 40 LSB');
+  expect([good.status, bad.status]).toEqual([201, 201]);
+  expect([good.body.passed, bad.body.passed]).toEqual([true, false]);
+  passingId = good.body.id;
+  failingId = bad.body.id;
+  await page.close();
+});
+afterAll(async () => {
+  await browser?.close();
+  await app?.stop();
+});
+
+describe('the Sessions list and Session page for a reviewer', () => {
+  it('lists sessions with their verdict in words, and filters to failing ones through the address bar', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signIn(page, 'reviewer@anglebench.test');
+    await expect.poll(() => rowsOf(page).count()).toBeGreaterThanOrEqual(2);
+    const words = await rowsOf(page).getByTestId('verdict').allTextContents();
+    expect(words.length).toBe(await rowsOf(page).count());
+    expect(new Set(words)).toEqual(new Set(['Pass', 'Fail']));
+    expect(await page.getByRole('link', { name: `#${passingId}`, exact: true }).count()).toBe(1);
+
+    await page.getByLabel('Verdict').selectOption('fail');
+    await page.waitForURL(/verdict=fail/);
+    await expect.poll(() => page.getByRole('link', { name: `#${passingId}`, exact: true }).count()).toBe(0);
+    expect(await page.getByRole('link', { name: `#${failingId}`, exact: true }).count()).toBe(1);
+    expect(new Set(await rowsOf(page).getByTestId('verdict').allTextContents())).toEqual(new Set(['Fail']));
+
+    // The filter survives a reload, and narrows further by this run's tag to the one session.
+    await page.goto(`${app.url}/sessions?verdict=fail&tag=${tag}`);
+    await expect.poll(() => rowsOf(page).count()).toBe(1);
+    expect(await page.getByLabel('Verdict').inputValue()).toBe('fail');
+    expect(await rowsOf(page).first().textContent()).toContain(`#${failingId}`);
+  });
+
+  it('shows the verdict per limit and leaves out the engineer-only actions', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signIn(page, 'reviewer@anglebench.test');
+    await page.getByRole('link', { name: `#${failingId}`, exact: true }).click();
+    await page.waitForURL(new RegExp(`/sessions/${failingId}$`));
+    const table = page.getByRole('table', { name: 'Verdict per limit' });
+    await table.waitFor();
+    expect(await page.getByTestId('verdict-maxAbsErrorLsb').textContent()).toContain('Fail');
+    expect(await page.getByTestId('verdict-maxModelMismatches').textContent()).toMatch(/at most 0\s*10.*Fail/);
+    expect(await page.getByTestId('verdict-minSfdrDb').textContent()).toContain('Not measured');
+    await page.getByRole('heading', { name: 'Notes and tags' }).waitFor();
+    expect(await page.getByTestId('session-notes').textContent()).toBe('ten answers off by 40 LSB');
+    expect(await page.getByRole('button', { name: 'Edit notes and tags' }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: 'Set as baseline' }).count()).toBe(0);
+    // Reviewers may still comment.
+    expect(await page.getByRole('button', { name: 'Post comment' }).count()).toBe(1);
+  });
+});
+
+describe('the Session page for an engineer', () => {
+  it('re-scores the stored samples in the browser and draws the XY circle with a square plotting area', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signIn(page, 'engineer@anglebench.test', `/sessions/${passingId}`);
+    await expect.poll(() => page.getByTestId('browser-recheck').textContent(), { timeout: 20_000 }).toContain('the same figures as the server');
+    const over = await page.getByTestId('chart-xy').locator('.u-over').boundingBox();
+    expect(over!.width).toBeGreaterThan(100);
+    expect(Math.abs(over!.width - over!.height)).toBeLessThanOrEqual(1);
+  });
+
+  it('edits the notes and keeps them after a reload', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signIn(page, 'engineer@anglebench.test', `/sessions/${passingId}`);
+    await page.getByRole('button', { name: 'Edit notes and tags' }).click();
+    const form = page.getByRole('form', { name: 'Edit notes and tags' });
+    await form.getByLabel('Notes').fill('Re-run after the clock fix: <b>clean</b>.');
+    await form.getByLabel('Tags (comma-separated)').fill(`${tag}, rerun`);
+    await form.getByRole('button', { name: 'Save notes and tags' }).click();
+    await expect.poll(() => page.getByTestId('session-notes').textContent()).toBe('Re-run after the clock fix: <b>clean</b>.');
+    await page.reload();
+    await expect.poll(() => page.getByTestId('session-notes').textContent()).toBe('Re-run after the clock fix: <b>clean</b>.');
+    expect(await page.getByRole('list', { name: 'Tags' }).textContent()).toContain('rerun');
+    expect(await page.getByRole('button', { name: 'Set as baseline' }).count()).toBe(1);
+  });
+});
