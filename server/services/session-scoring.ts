@@ -4,6 +4,7 @@
 import { SamplePackError, unpackSamples, type UnpackedSamples } from '../../shared/bench/sample-pack';
 import { HttpError } from '../http-error';
 import { modelConfigSchema, limitsSchema } from '../schemas/core';
+import { planCodes, planSchema, SpectralError, toneFigures, type ToneFigures } from '../../shared/numeric';
 import { ScoreAccumulator, type ScoreSummary } from '../../shared/numeric/score';
 import type { z } from 'zod';
 
@@ -40,17 +41,44 @@ export interface LimitOutcome {
 }
 export type Verdict = Partial<Record<LimitKey, LimitOutcome>>;
 
-/** What the server knows besides the samples: the link figures the runner reported. */
+/** What the server knows besides the score: the reported link figures, the tone's spectrum. */
 export interface JudgeContext {
   checkFailures?: number;
+  /** The worse channel's SFDR of a coherent-tone session, dBc. */
+  sfdrDb?: number;
+}
+
+/** Spectral figures of each channel of a tone session. */
+export interface SessionSpectrum {
+  cycles: number;
+  cos: ToneFigures;
+  sin: ToneFigures;
+}
+
+/**
+ * The spectrum of a coherent-tone session, when every sample of the plan came back in plan order
+ * (a gap would smear the tone); null for other plans or incomplete tones.
+ */
+export function sessionSpectrum(planInput: unknown, modelConfig: unknown, samples: DecodedSamples): SessionSpectrum | null {
+  const plan = planSchema.safeParse(planInput);
+  if (!plan.success || plan.data.kind !== 'tone') return null;
+  const config = modelConfigSchema.parse(modelConfig);
+  const codes = planCodes(plan.data, config);
+  if (codes.length !== samples.codes.length || codes.some((c, i) => c !== samples.codes[i])) return null;
+  try {
+    return { cycles: plan.data.cycles, cos: toneFigures(samples.cos, plan.data.cycles), sin: toneFigures(samples.sin, plan.data.cycles) };
+  } catch (err) {
+    if (err instanceof SpectralError) return null;
+    throw err;
+  }
 }
 
 const MEASURES: Record<LimitKey, { max: boolean; value: (s: ScoreSummary, c: JudgeContext) => number | null }> = {
   maxAbsErrorLsb: { max: true, value: (s) => s.overall.maxAbsLsb },
   maxRmsErrorLsb: { max: true, value: (s) => s.overall.rmsLsb },
   maxAbsBiasLsb: { max: true, value: (s) => Math.max(Math.abs(s.cos.meanLsb), Math.abs(s.sin.meanLsb)) },
-  // SFDR needs the tone plan's spectrum, which the server does not rebuild yet.
-  minSfdrDb: { max: false, value: () => null },
+  // Only a complete coherent tone has a spectrum to measure.
+  minSfdrDb: { max: false, value: (_s, c) => c.sfdrDb ?? null },
   maxModelMismatches: { max: true, value: (s) => s.mismatches.count },
   // Link errors happen on the wire, not in the samples: the runner's own count is all there is.
   maxLinkErrors: { max: true, value: (_s, c) => c.checkFailures ?? null },

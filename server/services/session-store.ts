@@ -6,7 +6,7 @@ import { errorProfile } from '../../shared/numeric';
 import { BenchSession, Board, Build, Core } from '../db/models';
 import { HttpError } from '../http-error';
 import { recordAudit } from './audit';
-import { decodeSamples, judgeSession, regressedLimits, scoreSamples, type LimitKey, type Verdict } from './session-scoring';
+import { decodeSamples, judgeSession, regressedLimits, scoreSamples, sessionSpectrum, type LimitKey, type SessionSpectrum, type Verdict } from './session-scoring';
 import type { ScoreSummary } from '../../shared/numeric/score';
 
 type Json = Record<string, unknown>;
@@ -33,7 +33,8 @@ export interface SessionDraft {
 export interface StoredSession {
   row: BenchSession;
   core: Core;
-  stats: ScoreSummary;
+  /** The score, with the tone's spectra for a tone session. */
+  stats: ScoreSummary & { spectrum?: SessionSpectrum };
   verdict: Verdict;
   passed: boolean;
   failedLimits: LimitKey[];
@@ -88,7 +89,10 @@ export async function storeSession(
   const decoded = decodeSamples(samples, model.angleFormat ?? 'turn');
   const stats = scoreSamples(core.modelConfig, decoded);
   const checkFailures = typeof draft.link?.checkFailures === 'number' ? draft.link.checkFailures : undefined;
-  const { verdict, passed } = judgeSession(core.limits, stats, { checkFailures });
+  const spectrum = sessionSpectrum(draft.plan, core.modelConfig, decoded);
+  const sfdrDb = spectrum ? Math.min(spectrum.cos.sfdrDbc, spectrum.sin.sfdrDbc) : undefined;
+  const stored = spectrum ? { ...stats, spectrum } : stats;
+  const { verdict, passed } = judgeSession(core.limits, stats, { checkFailures, sfdrDb });
   const baseline = core.baselineSessionId ? await BenchSession.findByPk(core.baselineSessionId, { attributes: ['id', 'verdict'], transaction }) : null;
   const failedLimits = baseline ? regressedLimits(baseline.verdict, verdict) : [];
 
@@ -103,7 +107,7 @@ export async function storeSession(
       plan: draft.plan,
       transport: draft.link ? { ...draft.transport, linkFigures: draft.link } : draft.transport,
       deviceInfo: draft.deviceInfo ?? null,
-      stats: stats as unknown as Json,
+      stats: stored as unknown as Json,
       verdict: verdict as Json,
       profile: errorProfile(core.modelConfig, decoded.codes, decoded.cos, decoded.sin),
       passed,
@@ -117,5 +121,5 @@ export async function storeSession(
     { transaction },
   );
   await recordAudit(transaction, operatorId, audit.action, 'session', row.id, { coreId: core.id, sampleCount: row.sampleCount, passed, regression: row.regression });
-  return { row, core, stats, verdict, passed, failedLimits };
+  return { row, core, stats: stored, verdict, passed, failedLimits };
 }
