@@ -4,6 +4,7 @@ import { WebSession } from '../db/models';
 
 const DAY_MS = 24 * 60 * 60 * 1000;
 const SWEEP_EVERY_MS = 60 * 60 * 1000;
+const TOUCH_EVERY_MS = 60 * 1000;
 
 /**
  * express-session's store on the `web_sessions` table. Expired rows are ignored when read and
@@ -12,6 +13,7 @@ const SWEEP_EVERY_MS = 60 * 60 * 1000;
  */
 export class DatabaseSessionStore extends session.Store {
   private lastSweep = 0;
+  private readonly touchedAt = new Map<string, number>();
 
   constructor(private readonly defaultTtlMs = 7 * DAY_MS) {
     super();
@@ -34,11 +36,21 @@ export class DatabaseSessionStore extends session.Store {
       .then(() => cb?.(), (err) => cb?.(err));
   }
 
+  /**
+   * express-session touches the session on every request that did not change it. Writing each
+   * touch made every read a database write; moving the expiry of a week-long session by less
+   * than a minute is not worth one, so a touch within a minute of the last is skipped.
+   */
   override touch(sid: string, sess: session.SessionData, cb?: (err?: unknown) => void): void {
+    const now = Date.now();
+    if (now - (this.touchedAt.get(sid) ?? 0) < TOUCH_EVERY_MS) return void cb?.();
+    if (this.touchedAt.size > 10_000) this.touchedAt.clear();
+    this.touchedAt.set(sid, now);
     WebSession.update({ expiresAt: this.expiry(sess) }, { where: { sid } }).then(() => cb?.(), (err) => cb?.(err));
   }
 
   override destroy(sid: string, cb?: (err?: unknown) => void): void {
+    this.touchedAt.delete(sid);
     WebSession.destroy({ where: { sid } }).then(() => cb?.(), (err) => cb?.(err));
   }
 
