@@ -14,7 +14,7 @@ import { originOf } from './params';
 
 const INVITATION_TTL_MS = 7 * 24 * 60 * 60 * 1000;
 
-const createBody = z.strictObject({ email: z.email().max(254), role: z.enum(ROLES) });
+const createBody = z.strictObject({ email: z.email().max(254), name: z.string().trim().max(120).optional(), role: z.enum(ROLES) });
 const acceptBody = z.strictObject({
   token: z.string().min(10).max(200),
   name: z.string().trim().min(1).max(120),
@@ -34,14 +34,15 @@ export function invitationsRouter({ db, mailer, bcryptCost }: RouteDeps) {
     .post(requireRole('admin'), validate({ body: createBody }), async (req, res) => {
       const me = currentUser(req);
       const email = (req.body.email as string).toLowerCase();
+      const name = (req.body.name as string | undefined) || null;
       if (await User.findOne({ where: { email } })) throw new HttpError(409, 'exists', 'body.email: an account with this e-mail exists');
       const token = newSecretToken();
       const invitation = await db.transaction(async (transaction) => {
         const row = await Invitation.create(
-          { email, role: req.body.role, tokenHash: sha256Hex(token), expiresAt: new Date(Date.now() + INVITATION_TTL_MS), usedAt: null, invitedById: me.id },
+          { email, name, role: req.body.role, tokenHash: sha256Hex(token), expiresAt: new Date(Date.now() + INVITATION_TTL_MS), usedAt: null, invitedById: me.id },
           { transaction },
         );
-        await recordAudit(transaction, me.id, 'create', 'invitation', row.id, { email, role: row.role });
+        await recordAudit(transaction, me.id, 'create', 'invitation', row.id, { email, ...(name ? { name } : {}), role: row.role });
         return row;
       });
       const link = `${originOf(req)}/invite/${token}`;

@@ -140,10 +140,12 @@ describe('the team page for an admin', () => {
     await page.goto(`${app.url}/team`);
     const form = page.getByRole('form', { name: 'Invite someone' });
     await form.getByLabel('E-mail').fill('lab.newcomer@lab.test');
+    await form.getByLabel('Name').fill('Lab Newcomer');
     await form.getByLabel('Role').selectOption('reviewer');
     await page.getByRole('button', { name: 'Send invitation' }).click();
     const pending = page.getByRole('table', { name: 'Pending invitations' });
     await poll(() => pending.textContent()).toContain('lab.newcomer@lab.test');
+    expect(await pending.textContent()).toContain('Lab Newcomer');
     expect(await pending.textContent()).toContain('reviewer');
 
     await page.getByRole('list', { name: 'Messages' }).getByRole('button').filter({ hasText: 'lab.newcomer@lab.test' }).click();

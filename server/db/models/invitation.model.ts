@@ -5,6 +5,8 @@ import { ROLES, type Role, type User } from './user.model';
 export class Invitation extends Model<InferAttributes<Invitation>, InferCreationAttributes<Invitation>> {
   declare id: CreationOptional<number>;
   declare email: string;
+  /** Who it is for, as the admin wrote it (optional). */
+  declare name: CreationOptional<string | null>;
   declare role: Role;
   declare tokenHash: string;
   declare expiresAt: Date;
@@ -14,7 +16,7 @@ export class Invitation extends Model<InferAttributes<Invitation>, InferCreation
   declare updatedAt: CreationOptional<Date>;
 
   toPublic() {
-    return { id: this.id, email: this.email, role: this.role, expiresAt: this.expiresAt, usedAt: this.usedAt, invitedById: this.invitedById, createdAt: this.createdAt };
+    return { id: this.id, email: this.email, name: this.name ?? null, role: this.role, expiresAt: this.expiresAt, usedAt: this.usedAt, invitedById: this.invitedById, createdAt: this.createdAt };
   }
 }
 
@@ -23,6 +25,7 @@ export function initInvitation(sequelize: Sequelize) {
     {
       id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
       email: { type: DataTypes.STRING(254), allowNull: false, validate: { isEmail: true } },
+      name: { type: DataTypes.STRING(120), allowNull: true },
       role: { type: DataTypes.STRING(16), allowNull: false, validate: { isIn: [ROLES as unknown as string[]] } },
       tokenHash: { type: DataTypes.STRING(64), allowNull: false, unique: true, validate: { is: /^[0-9a-f]{64}$/ } },
       expiresAt: { type: DataTypes.DATE, allowNull: false },

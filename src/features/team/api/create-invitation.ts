@@ -6,6 +6,7 @@ import { teamKeys } from './keys';
 
 export const invitationInputSchema = z.object({
   email: z.email('Enter an e-mail address').max(254, 'At most 254 characters'),
+  name: z.string().trim().max(120, 'At most 120 characters'),
   role: z.enum(['reviewer', 'engineer', 'admin']),
 });
 export type InvitationInput = z.infer<typeof invitationInputSchema>;

@@ -6,6 +6,8 @@ import { teamKeys } from './keys';
 export interface Invitation {
   id: number;
   email: string;
+  /** Who it is for, as the admin wrote it; the invitee chooses their own account name. */
+  name: string | null;
   role: Role;
   expiresAt: string;
   usedAt: string | null;
