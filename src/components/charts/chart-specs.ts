@@ -16,6 +16,10 @@ export interface ChartSpec {
   options: Omit<uPlot.Options, 'width' | 'height'>;
 }
 
+/** Counts to a million and beyond fit the axis: 250k, 1.2M. */
+export const compactCount = (v: number) => (Math.abs(v) >= 1e6 ? `${+(v / 1e6).toFixed(1)}M` : Math.abs(v) >= 1e4 ? `${+(v / 1e3).toFixed(0)}k` : v.toLocaleString('en-US'));
+const countAxis = (): uPlot.Axis => ({ ...axis('count'), values: (_u, splits) => splits.map(compactCount) });
+
 const bars = (align: -1 | 1) => uPlot.paths.bars!({ size: [0.45, Infinity], align });
 
 export const CHART_SPECS: Record<ChartId, ChartSpec> = {
@@ -44,7 +48,7 @@ export const CHART_SPECS: Record<ChartId, ChartSpec> = {
     testId: 'chart-histogram',
     options: {
       scales: { x: { time: false } },
-      axes: [axis('error, LSB'), axis('count')],
+      axes: [axis('error, LSB'), countAxis()],
       series: [{}, { label: 'cos', stroke: SIGNAL, fill: SIGNAL + '88', paths: bars(-1) }, { label: 'sin', stroke: REFERENCE, fill: REFERENCE + '88', paths: bars(1) }],
     },
   },

@@ -32,7 +32,7 @@ export function SessionsFilterBar({ filters, onFilters, operators }: Props) {
   return (
     <form
       aria-label="Filter sessions"
-      className="grid grid-cols-2 items-end gap-3 rounded-lg border border-rule bg-panel p-3 md:grid-cols-4 xl:grid-cols-[repeat(7,minmax(0,1fr))_9.5rem_9.5rem_auto]"
+      className="grid grid-cols-2 items-end gap-3 rounded-lg border border-rule bg-panel p-3 md:grid-cols-4 lg:grid-cols-5"
       onSubmit={(e) => {
         e.preventDefault();
         applyTag();
