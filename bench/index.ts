@@ -1,6 +1,7 @@
 // `npm run bench [-- NAME …]`: runs the benchmarks (all, or the ones named), prints each figure
 // with its side-by-side ratio, and writes bench/results/latest.json. Exit 1 if any target is
 // missed, 2 for an unknown name or a benchmark that failed to run.
+import { loadavg } from 'node:os';
 import { printResult, writeResults, type BenchResult } from './report';
 
 type Bench = () => Promise<BenchResult[]>;
@@ -22,10 +23,12 @@ async function main(): Promise<number> {
     return 2;
   }
   const names = asked.length > 0 ? asked : Object.keys(BENCHES);
+  // Every figure here is wall time on a shared machine: say how busy it was.
+  const load = () => loadavg().map((l) => l.toFixed(1)).join(' / ');
   const results: BenchResult[] = [];
   let failed = false;
   for (const name of names) {
-    console.log(`\n== ${name}`);
+    console.log(`\n== ${name}   (load average ${load()})`);
     const t0 = performance.now();
     try {
       const rs = await BENCHES[name]();
