@@ -33,17 +33,13 @@ export function alignSeries(series: XY[]): uPlot.AlignedData {
   return [xs, ...ys] as uPlot.AlignedData;
 }
 
-/** Each bin drawn as its low then its high point, so the line sweeps the whole band. */
-export function envelopeSeries(s: ComparedSession): XY {
+/** The highest and the lowest error of each bin, as two lines the chart fills between. */
+export function envelopeSeries(s: ComparedSession): [hi: XY, lo: XY] {
   const e = s.errorEnvelope;
-  const x: number[] = [];
-  const y: (number | null)[] = [];
-  e.degrees.forEach((d, b) => {
-    if (e.lo[b] === null) return;
-    x.push(d, d);
-    y.push(e.lo[b], e.hi[b]);
-  });
-  return { x, y };
+  return [
+    { x: e.degrees, y: e.hi },
+    { x: e.degrees, y: e.lo },
+  ];
 }
 
 /** Share of answers (cos and sin together) per histogram bin, in percent, at each bin's left edge. */

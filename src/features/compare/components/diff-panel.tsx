@@ -4,6 +4,7 @@ import { panel, panelTitle } from '../../../components/ui';
 import type { ComparedPair, ComparedSession } from '../api/compare-types';
 import { alignSeries, diffSeries, sessionName } from './chart-data';
 import { ANGLE_SYNC, axis, colourOf } from './chart-look';
+import { SessionLegend } from './session-legend';
 import { UplotChart } from './uplot-chart';
 
 const n = (v: number) => v.toLocaleString('en-US');
@@ -81,6 +82,7 @@ export function DiffPanel({ sessions, pairs }: { sessions: ComparedSession[]; pa
       scales: { x: { time: false } },
       axes: [axis('angle, °'), axis('largest |Δ|, LSB')],
       cursor: { sync: { key: ANGLE_SYNC } },
+      legend: { show: false },
       series: [
         { label: 'angle, °' },
         ...names.split('|').map((label, k): uPlot.Series => ({ label, stroke: cs[k], width: 0, paths: () => null, points: { show: true, size: 6, stroke: cs[k], fill: cs[k] } })),
@@ -104,6 +106,7 @@ export function DiffPanel({ sessions, pairs }: { sessions: ComparedSession[]; pa
             <h3 className="mb-1 text-sm font-bold">Where the codes differ</h3>
             <p className="mb-2 text-xs text-ink-soft">A point per half-degree band holding a differing code, at the largest difference in it.</p>
             <UplotChart options={options} data={data} height={200} testId="compare-diff-chart" />
+            <SessionLegend names={pairs.map((p) => sessionName(byId.get(p.b)!.s))} colours={pairs.map((p) => colourOf(byId.get(p.b)!.i))} />
           </div>
         )}
       </div>

@@ -4,24 +4,35 @@ import { panel, panelTitle } from '../../../components/ui';
 import type { ComparedSession } from '../api/compare-types';
 import { alignSeries, envelopeSeries, histogramSeries, sessionName } from './chart-data';
 import { ANGLE_SYNC, axis, colourOf } from './chart-look';
+import { SessionLegend } from './session-legend';
 import { UplotChart } from './uplot-chart';
 
 /** Error against angle and the error histograms, one series per session, in the sessions' colours. */
 export function OverlayCharts({ sessions }: { sessions: ComparedSession[] }) {
   const names = sessions.map(sessionName).join('|');
-  const envelopeOptions = useMemo(
-    () => ({
+  const envelopeOptions = useMemo(() => {
+    const labels = names.split('|');
+    return {
       scales: { x: { time: false } },
       axes: [axis('angle, °'), axis('error, LSB')],
       cursor: { sync: { key: ANGLE_SYNC } },
-      series: [{ label: 'angle, °' }, ...names.split('|').map((label, i): uPlot.Series => ({ label, stroke: colourOf(i), width: 1, spanGaps: true }))],
-    }),
-    [names],
-  );
+      legend: { show: false },
+      series: [
+        { label: 'angle, °' },
+        ...labels.flatMap((label, i): uPlot.Series[] => [
+          { label: `${label} highest`, stroke: colourOf(i), width: 1 },
+          { label: `${label} lowest`, stroke: colourOf(i), width: 1 },
+        ]),
+      ],
+      // Each session's band, translucent so the others show through it.
+      bands: labels.map((_, i): uPlot.Band => ({ series: [2 * i + 1, 2 * i + 2], fill: `${colourOf(i)}33` })),
+    };
+  }, [names]);
   const histogramOptions = useMemo(
     () => ({
       scales: { x: { time: false } },
       axes: [axis('error, LSB'), axis('share of answers, %')],
+      legend: { show: false },
       series: [
         { label: 'error, LSB' },
         ...names.split('|').map((label, i): uPlot.Series => ({ label, stroke: colourOf(i), width: 2, paths: uPlot.paths.stepped!({ align: 1 }) })),
@@ -29,20 +40,22 @@ export function OverlayCharts({ sessions }: { sessions: ComparedSession[] }) {
     }),
     [names],
   );
-  const envelope = useMemo(() => alignSeries(sessions.map(envelopeSeries)), [sessions]);
+  const envelope = useMemo(() => alignSeries(sessions.flatMap(envelopeSeries)), [sessions]);
   const histogram = useMemo(() => alignSeries(sessions.map(histogramSeries)), [sessions]);
 
   return (
     <div className="grid gap-4 xl:grid-cols-2">
       <section aria-label="Error against angle" className={`${panel} min-w-0`}>
         <h2 className={panelTitle}>Error against angle</h2>
-        <p className="mb-2 text-xs text-ink-soft">Each line sweeps the lowest to the highest error (cos and sin) of every half-degree band.</p>
+        <p className="mb-2 text-xs text-ink-soft">Each session’s band spans the lowest to the highest error (cos and sin) in every half-degree of angle.</p>
         <UplotChart options={envelopeOptions} data={envelope} testId="compare-error-chart" />
+        <SessionLegend names={sessions.map(sessionName)} />
       </section>
       <section aria-label="Error histograms" className={`${panel} min-w-0`}>
         <h2 className={panelTitle}>Error histograms</h2>
         <p className="mb-2 text-xs text-ink-soft">Share of each session’s answers (cos and sin) per error bin, so runs of any length compare.</p>
         <UplotChart options={histogramOptions} data={histogram} testId="compare-histogram-chart" />
+        <SessionLegend names={sessions.map(sessionName)} />
       </section>
     </div>
   );
