@@ -1,7 +1,7 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:net';
 import path from 'node:path';
-import { chromium, type Browser } from 'playwright-core';
+import { chromium, type Browser, type Page } from 'playwright-core';
 import { projectRoot } from '../../server/paths';
 import { tempDatabase } from '../support/temp-db';
 
@@ -84,4 +84,16 @@ export function launchBrowser(): Promise<Browser> {
       '--no-first-run',
     ],
   });
+}
+
+/** The demo accounts the seed creates, password `anglebench`. */
+export type DemoRole = 'engineer' | 'reviewer' | 'admin';
+
+/** Sign in through the form as a demo account and wait until the app has gone on to `next`. */
+export async function signInAs(page: Page, app: RunningApp, who: DemoRole, next = '/'): Promise<void> {
+  await page.goto(`${app.url}/sign-in?next=${encodeURIComponent(next)}`);
+  await page.getByLabel('E-mail').fill(`${who}@anglebench.test`);
+  await page.getByLabel('Password').fill('anglebench');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((u) => u.pathname + u.search === next || u.pathname === next);
 }

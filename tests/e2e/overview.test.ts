@@ -1,6 +1,6 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, startApp, type RunningApp } from './harness';
+import { launchBrowser, signInAs, startApp, type RunningApp } from './harness';
 
 let app: RunningApp;
 let browser: Browser;
@@ -24,6 +24,22 @@ describe('the overview page in a real browser', () => {
     expect(version).toBe(health.version);
     expect(await page.getByTestId('health-db').textContent()).toContain('sqlite');
     expect(await page.title()).toBe('Anglebench');
+  });
+
+  it('shows a signed-in reviewer what needs attention: the seeded regression, failing builds and the latest sessions', async () => {
+    const page = await browser.newPage();
+    await signInAs(page, app, 'reviewer');
+    const attention = page.getByRole('region', { name: 'Needs attention' });
+    await expect.poll(() => attention.getByRole('link', { name: /^Session \d+$/ }).count()).toBe(1);
+    expect(await attention.getByText('ref16-r3').isVisible()).toBe(true);
+    expect(await attention.getByTestId('build-status').first().textContent()).toMatch(/fail/i);
+    const latest = page.getByRole('region', { name: 'Latest sessions' });
+    expect(await latest.getByRole('row').count()).toBe(9); // a header and eight sessions
+    expect(await latest.getByTestId('verdict').first().textContent()).toMatch(/^(Pass|Fail)$/);
+    // The reviewer is not offered the bench.
+    expect(await page.getByRole('link', { name: 'Open the bench' }).count()).toBe(0);
+    await attention.getByRole('link', { name: /^Session \d+$/ }).click();
+    await page.waitForURL(/\/sessions\/\d+$/);
   });
 
   it('shows a not-found page for an unknown address, inside the layout', async () => {
