@@ -41,7 +41,7 @@ export function modelSamples(n: number): Uint8Array {
 }
 
 /** The JSON part of a session upload, for the core, build and board given. */
-export function sessionPart(ids: { coreId: number; buildId: number; boardId: number }, notes = ''): string {
+export function sessionPart(ids: { coreId: number; buildId: number | null; boardId: number | null }, notes = ''): string {
   return JSON.stringify({
     ...ids,
     startedAt: '2026-03-02T10:00:00.000Z',

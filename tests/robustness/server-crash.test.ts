@@ -1,0 +1,129 @@
+// The server killed with SIGKILL in the middle of uploads, then started again on the same SQLite
+// file: the database opens, passes its integrity check, and holds exactly the sessions whose
+// upload was answered (nothing from the upload cut off half-way).
+import { request } from 'node:http';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { openDatabase } from '../../server/db/connection';
+import { tempDatabase } from '../support/temp-db';
+import { modelSamples, sessionForm, sessionPart, signInOverHttp, type HttpSession } from './support/http-session';
+import { startServerProcess, type ServerProcess } from './support/server-process';
+
+const tmp = tempDatabase();
+let server: ServerProcess | null = null;
+
+afterAll(async () => {
+  await server?.stop();
+  tmp.cleanup();
+});
+
+/** What the file holds, read with the server down: integrity check and session rows. */
+async function inspectDatabase() {
+  const db = openDatabase(tmp.url);
+  try {
+    const [check] = (await db.query('PRAGMA integrity_check')) as [Array<{ integrity_check: string }>, unknown];
+    const [rows] = (await db.query('SELECT id, notes, sampleCount, length(samples) AS bytes FROM sessions ORDER BY id')) as [
+      Array<{ id: number; notes: string; sampleCount: number; bytes: number }>,
+      unknown,
+    ];
+    return { integrity: check.map((r) => r.integrity_check), rows };
+  } finally {
+    await db.close();
+  }
+}
+
+const sessionCount = async (s: HttpSession) => ((await (await s.fetch('/api/sessions?pageSize=1')).json()) as { total: number }).total;
+
+let ids: { coreId: number; buildId: number | null; boardId: number | null };
+
+beforeAll(async () => {
+  server = await startServerProcess(tmp.url);
+});
+
+describe('the server killed during uploads', () => {
+  it('loses nothing but the upload it was receiving, and restarts on an intact database', async () => {
+    const engineer = await signInOverHttp(server!.url, 'engineer@anglebench.test', 'anglebench');
+    const first = ((await (await engineer.fetch('/api/sessions?pageSize=1')).json()) as { items: Array<{ coreId: number; buildId: number | null; boardId: number | null }> }).items[0];
+    ids = { coreId: first.coreId, buildId: first.buildId, boardId: first.boardId };
+    // One whole upload first, so the route is known to work in this process.
+    const ok = await engineer.fetch('/api/sessions', { method: 'POST', body: sessionForm(sessionPart(ids, 'before the crash'), modelSamples(4096)) });
+    expect(ok.status).toBe(201);
+    const before = await sessionCount(engineer);
+
+    // A 40 MB upload, of which 8 MB is sent before the server is killed.
+    const boundary = 'robustness-boundary-7f3a';
+    const head = Buffer.from(
+      `--${boundary}\r\nContent-Disposition: form-data; name="session"\r\n\r\n${sessionPart(ids, 'half an upload')}\r\n` +
+        `--${boundary}\r\nContent-Disposition: form-data; name="samples"; filename="samples.bin"\r\nContent-Type: application/octet-stream\r\n\r\n`,
+    );
+    const fileBytes = 40 * 1024 * 1024;
+    const tail = Buffer.from(`\r\n--${boundary}--\r\n`);
+    const req = request(`${server!.url}/api/sessions`, {
+      method: 'POST',
+      headers: {
+        cookie: engineer.cookie,
+        'x-csrf-token': engineer.csrf,
+        'content-type': `multipart/form-data; boundary=${boundary}`,
+        'content-length': head.length + fileBytes + tail.length,
+      },
+    });
+    const ended = new Promise<string>((resolve) => {
+      req.on('error', (e) => resolve(`error: ${e.message}`));
+      req.on('response', (res) => resolve(`answered ${res.statusCode}`));
+    });
+    req.write(head);
+    const chunk = Buffer.alloc(1024 * 1024, 0x5a);
+    for (let sent = 0; sent < 8; sent++) if (!req.write(chunk)) await new Promise((r) => req.once('drain', r));
+    await new Promise((r) => setTimeout(r, 300));
+    await server!.kill();
+    expect(await ended).toMatch(/^error: /); // the connection died with the server: no answer
+
+    const afterKill = await inspectDatabase();
+    expect(afterKill.integrity).toEqual(['ok']);
+    expect(afterKill.rows).toHaveLength(before);
+    expect(afterKill.rows.some((r) => r.notes === 'half an upload')).toBe(false);
+
+    server = await startServerProcess(tmp.url);
+    const again = await signInOverHttp(server.url, 'engineer@anglebench.test', 'anglebench');
+    expect(await sessionCount(again)).toBe(before);
+    const next = await again.fetch('/api/sessions', { method: 'POST', body: sessionForm(sessionPart(ids, 'after the restart'), modelSamples(4096)) });
+    expect(next.status).toBe(201);
+    expect(await sessionCount(again)).toBe(before + 1);
+  });
+
+  it('killed during a burst of 12 whole uploads: after restart every answered upload is there, whole, and nothing else is half there', async () => {
+    const engineer = await signInOverHttp(server!.url, 'engineer@anglebench.test', 'anglebench');
+    const before = await sessionCount(engineer);
+    const samples = modelSamples(16_384);
+    let answered = 0;
+    const uploads = Array.from({ length: 12 }, (_, i) =>
+      engineer.fetch('/api/sessions', { method: 'POST', body: sessionForm(sessionPart(ids, `burst ${i}`), samples) }).then(
+        (r) => {
+          if (r.status === 201) answered++;
+          return r.status;
+        },
+        () => 'cut off',
+      ),
+    );
+    // Kill once the first answers are back, while the rest are still in flight.
+    const deadline = Date.now() + 30_000;
+    while (answered < 3 && Date.now() < deadline) await new Promise((r) => setTimeout(r, 5));
+    await server!.kill();
+    const outcomes = await Promise.all(uploads);
+    const acknowledged = answered;
+    expect(acknowledged).toBeGreaterThanOrEqual(3);
+
+    const db = await inspectDatabase();
+    expect(db.integrity).toEqual(['ok']);
+    const burst = db.rows.filter((r) => r.notes.startsWith('burst '));
+    // Every answered upload survived; an unanswered one may have committed just before the kill.
+    expect(burst.length).toBeGreaterThanOrEqual(acknowledged);
+    expect(db.rows.length).toBe(before + burst.length);
+    // Whole rows only: every stored burst session has all its samples.
+    expect(burst.every((r) => r.sampleCount === 16_384 && r.bytes === samples.length)).toBe(true);
+    console.info(`[crash] burst of 12: ${acknowledged} answered 201 before the kill, ${burst.length} stored, outcomes ${JSON.stringify(outcomes)}`);
+
+    server = await startServerProcess(tmp.url);
+    const again = await signInOverHttp(server.url, 'engineer@anglebench.test', 'anglebench');
+    expect(await sessionCount(again)).toBe(before + burst.length);
+  });
+});
