@@ -22,11 +22,11 @@ export function BoardForm({ board, onDone, onCancel }: { board: BoardRecord | nu
   const submit = (v: BoardInput) => save.mutate({ id: board?.id ?? null, input: v }, { onSuccess: onDone });
   return (
     <form noValidate onSubmit={handleSubmit(submit)} aria-label={board ? 'Edit board' : 'New board'} className="grid gap-3">
-      <fieldset disabled={save.isPending} className="grid gap-3 sm:grid-cols-2 lg:grid-cols-5">
+      <fieldset disabled={save.isPending} className="grid items-start gap-3 sm:grid-cols-2 lg:grid-cols-5">
         {FIELDS.map((f) => {
           const error = formState.errors[f.key]?.message;
           return (
-            <label key={f.key} className={label}>
+            <label key={f.key} className={`${label} content-start`}>
               <span className="font-bold">{f.label}</span>
               <input className={input} placeholder={f.placeholder} aria-invalid={error ? true : undefined} {...register(f.key)} />
               {error && <span className={fieldError}>{error}</span>}

@@ -48,7 +48,7 @@ export function CoreFields({ form }: { form: UseFormReturn<CoreFormValues> }) {
       <fieldset className={panel}>
         <legend className="sr-only">Reference model</legend>
         <h2 className={panelTitle}>Reference model</h2>
-        <div className="grid gap-3 sm:grid-cols-2">
+        <div className="grid items-start gap-3 sm:grid-cols-2">
           {choice('angleFormat', ['turn', 'rad'])}
           {NUMERIC_MODEL_KEYS.filter((k) => k !== 'angleFrac' || rad).map((k) => {
             const id = `core-${k}`;

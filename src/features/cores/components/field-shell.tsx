@@ -7,7 +7,7 @@ import { fieldError, label as labelClass } from '../../../components/ui';
  */
 export function FieldShell({ id, label, unit, hint, error, children }: { id: string; label: string; unit?: string; hint: string; error?: string; children: ReactNode }) {
   return (
-    <div className="grid gap-1">
+    <div className="grid content-start gap-1">
       <label htmlFor={id} className={`${labelClass} font-bold`}>
         <span>
           {label}

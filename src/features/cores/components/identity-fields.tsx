@@ -8,7 +8,7 @@ export function IdentityFields({ form }: { form: UseFormReturn<CoreFormValues> }
   const { register, formState } = form;
   const e = formState.errors;
   return (
-    <div className="grid gap-3 sm:grid-cols-2">
+    <div className="grid items-start gap-3 sm:grid-cols-2">
       <FieldShell id="core-name" label="Name" hint="How people refer to the core on every page." error={e.name?.message}>
         <input className={input} {...describedBy('core-name', e.name?.message)} {...register('name')} />
       </FieldShell>

@@ -21,7 +21,7 @@ export function InvitationsPanel({ users }: { users: TeamUser[] }) {
   return (
     <div className="grid gap-4">
       <form noValidate onSubmit={handleSubmit(submit)} aria-label="Invite someone" className="grid gap-3 sm:grid-cols-[2fr_2fr_1fr_auto] sm:items-start">
-        <label className={label}>
+        <label className={`${label} content-start`}>
           <span className="font-bold">E-mail</span>
           <input type="email" className={input} autoComplete="off" aria-invalid={e.email ? true : undefined} {...register('email')} />
           {e.email && <span className={fieldError}>{e.email.message}</span>}

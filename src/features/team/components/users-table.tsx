@@ -14,7 +14,7 @@ function RoleCell({ user, isMe }: { user: TeamUser; isMe: boolean }) {
   return (
     <div className="grid gap-1">
       <div className="flex items-center gap-2">
-        <select className={`${input} w-32`} aria-label={`Role of ${user.name}`} value={role} onChange={(e) => setRole(e.target.value as Role)}>
+        <select className={`${input} max-w-36`} aria-label={`Role of ${user.name}`} value={role} onChange={(e) => setRole(e.target.value as Role)}>
           {ROLES.map((r) => (
             <option key={r}>{r}</option>
           ))}
