@@ -34,12 +34,15 @@ function sinCosOfTurns(turns: number): void {
   }
 }
 
-function sinCosOfCode(f: AngleFormat, code: number, min: number, max: number): void {
+/** Turns (`turn`) or radians (`rad`) per code: a power of two, so multiplying by it is exact. */
+const perCode = (f: AngleFormat) => (f.angleFormat === 'turn' ? 2 ** -f.angleBits : 2 ** -f.angleFrac);
+
+function sinCosOfCode(f: AngleFormat, code: number, min: number, max: number, unit: number): void {
   if (!(Number.isInteger(code) && code >= min && code <= max)) assertAngleCode(f, code);
   if (f.angleFormat === 'turn') {
-    sinCosOfTurns(code / 2 ** f.angleBits);
+    sinCosOfTurns(code * unit);
   } else {
-    const radians = code / 2 ** f.angleFrac;
+    const radians = code * unit;
     outCos = Math.cos(radians);
     outSin = Math.sin(radians);
   }
@@ -54,15 +57,16 @@ export function exactSinCosOfTurns(turns: number): CosSin {
 /** sin and cos of the angle an angle code stands for. @throws AngleCodeError */
 export function exactSinCos(f: AngleFormat, code: number): CosSin {
   const r = angleCodeRange(f);
-  sinCosOfCode(f, code, r.min, r.max);
+  sinCosOfCode(f, code, r.min, r.max, perCode(f));
   return { cos: outCos, sin: outSin };
 }
 
 /** Exact sin and cos for many codes, into caller-owned arrays. @throws AngleCodeError */
 export function exactSinCosInto(f: AngleFormat, codes: ArrayLike<number>, cosOut: Float64Array, sinOut: Float64Array): void {
   const r = angleCodeRange(f);
+  const unit = perCode(f);
   for (let k = 0; k < codes.length; k++) {
-    sinCosOfCode(f, codes[k], r.min, r.max);
+    sinCosOfCode(f, codes[k], r.min, r.max, unit);
     cosOut[k] = outCos;
     sinOut[k] = outSin;
   }
