@@ -134,6 +134,41 @@ describe('the core page for a reviewer', () => {
   });
 });
 
+describe('the board pages', () => {
+  it('list the sessions run on a board with their verdict in words, and keep an engineer’s edit', async () => {
+    const page = await signIn('engineer');
+    await page.goto(`${app.url}/boards`);
+    await page.getByRole('link', { name: 'Bay 3 / bench A' }).click();
+    await poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Bay 3 / bench A');
+    const boardId = Number(new URL(page.url()).pathname.split('/').pop());
+    const listed = await page.evaluate(async (id) => (await (await fetch(`/api/sessions?boardId=${id}&pageSize=100`)).json()) as { total: number; items: Array<{ id: number; passed: boolean }> }, boardId);
+    const table = page.getByRole('table', { name: 'Sessions on this board' });
+    await poll(() => table.getByRole('row').count()).toBe(Math.min(listed.total, 20) + 1);
+    const first = listed.items[0];
+    const firstRow = table.getByRole('row').nth(1);
+    expect(await firstRow.getByRole('link').getAttribute('href')).toBe(`/sessions/${first.id}`);
+    expect(await firstRow.getByTestId('board-session-verdict').textContent()).toMatch(first.passed ? /^Pass$/ : /^Fail/);
+
+    await page.getByRole('button', { name: 'Edit board' }).click();
+    await page.getByRole('form', { name: 'Edit board' }).getByLabel('Location').fill('Signal lab, bay 4');
+    await page.getByRole('button', { name: 'Save board' }).click();
+    await poll(() => page.getByRole('form', { name: 'Edit board' }).count()).toBe(0);
+    await page.reload();
+    await poll(() => page.getByText('Signal lab, bay 4').count()).toBe(1);
+  });
+
+  it('offer a reviewer no way to add or edit a board', async () => {
+    const page = await signIn('reviewer');
+    await page.goto(`${app.url}/boards`);
+    await page.getByRole('link', { name: 'Bay 3 / bench A' }).click();
+    await poll(() => page.getByRole('heading', { name: 'Sessions on this board' }).isVisible()).toBe(true);
+    expect(await page.getByRole('button', { name: 'Edit board' }).count()).toBe(0);
+    await page.goto(`${app.url}/boards`);
+    await poll(() => page.getByRole('link', { name: 'Bay 3 / bench A' }).count()).toBe(1);
+    expect(await page.getByRole('button', { name: 'New board' }).count()).toBe(0);
+  });
+});
+
 describe('the team page for an admin', () => {
   it('invites someone, and the invitation mail is readable in the outbox', async () => {
     const page = await signIn('admin');
