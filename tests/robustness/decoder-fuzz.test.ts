@@ -51,7 +51,7 @@ function audit(stream: FuzzStream, out: Decoded) {
     lastEnd = f.offset + onWire.length;
     const headerOk = onWire[0] === SYNC && onWire[1] === f.kind && onWire[2] === f.tag && onWire[3] === len;
     // CRC-8/SMBUS from the `crc` package (poly 0x07, init 0), not the project's own table.
-    const checkOk = onWire[4 + len] === f.check && referenceCrc8(onWire.subarray(1, 4 + len)) === f.check;
+    const checkOk = onWire[4 + len] === f.check && referenceCrc8(Buffer.from(onWire.subarray(1, 4 + len))) === f.check;
     if (!headerOk || !checkOk || !sameBytes(onWire.subarray(4, 4 + len), f.payload)) problems.push(`frame at ${f.offset} is not what the stream holds there`);
     while (d < stream.damaged.length && stream.damaged[d].offset + stream.damaged[d].span <= f.offset) d++;
     const seg = stream.damaged[d];

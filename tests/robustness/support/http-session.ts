@@ -56,6 +56,6 @@ export function sessionPart(ids: { coreId: number; buildId: number | null; board
 export function sessionForm(part: string, samples: Uint8Array): FormData {
   const form = new FormData();
   form.set('session', part);
-  form.set('samples', new Blob([samples]), 'samples.bin');
+  form.set('samples', new Blob([Buffer.from(samples)]), 'samples.bin');
   return form;
 }
