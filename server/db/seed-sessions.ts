@@ -10,7 +10,7 @@ import { packColumns } from '../../shared/bench/sample-pack';
 import { Kind, encodeMessage, maxListCodes, maxResultPairs, RecordedDecoder, Recorder, type DeviceInfo, type WireProfile } from '../../shared/link';
 import { parseModelConfig, planCodes, planSchema, type Plan } from '../../shared/numeric';
 import { storeSession } from '../services/session-store';
-import { Core, type Board, type Build } from './models';
+import { Core, GoldenVectorSet, type Board, type Build } from './models';
 
 interface DemoSession {
   core: Core;
@@ -142,4 +142,20 @@ export async function seedDemoSessions(
   const stored = [];
   for (const s of sessions) stored.push(await storeDemo(transaction, operatorId, s, now));
   return stored;
+}
+
+/**
+ * reference-16's golden vectors as its RTL simulation would give them: the edge set and every
+ * 64th code, answered by the bit-accurate model (the demo RTL agrees with it).
+ */
+export async function seedGoldenVectors(core: Core, transaction: Transaction) {
+  const config = parseModelConfig(core.modelConfig);
+  const edges = planCodes({ kind: 'edges' }, config);
+  const sweep = planCodes({ kind: 'sweep', start: 0, step: 64, count: 1024 }, config);
+  const codes = Float64Array.from([...edges, ...sweep]);
+  const sim = createSimCore(config);
+  const cos = new Int32Array(codes.length);
+  const sin = new Int32Array(codes.length);
+  for (let i = 0; i < codes.length; i++) ({ cos: cos[i], sin: sin[i] } = sim.evaluate(codes[i]));
+  await GoldenVectorSet.create({ coreId: core.id, name: 'RTL simulation: edges and every 64th code', count: codes.length, codes: Buffer.from(packColumns({ codes, cos, sin }).buffer) }, { transaction });
 }

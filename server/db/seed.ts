@@ -5,7 +5,7 @@ import { DEFAULT_BCRYPT_COST, hashPassword } from '../auth/passwords';
 import { limitsSchema, linkProfileSchema, modelConfigSchema } from '../schemas/core';
 import { recordAudit } from '../services/audit';
 import { Board, Build, Core, CoreWatcher, initModels, Review, User, type Role } from './models';
-import { seedDemoSessions } from './seed-sessions';
+import { seedDemoSessions, seedGoldenVectors } from './seed-sessions';
 
 export const DEMO_ACCOUNTS: ReadonlyArray<{ email: string; name: string; role: Role }> = [
   { email: 'admin@anglebench.test', name: 'Ines Okafor', role: 'admin' },
@@ -68,6 +68,7 @@ export async function seedIfEmpty(db: Sequelize, password: string, bcryptCost = 
     );
     const sessions = await seedDemoSessions(transaction, engineer.id, { reference, mixer, builds, boards });
     await Review.create({ buildId: builds[1].id, reviewerId: reviewer.id, decision: 'approve', note: 'Sweep and edge set within limits on both benches.' }, opts);
+    await seedGoldenVectors(reference, transaction);
     // The reviewer hears of reference-16's regressions.
     await CoreWatcher.create({ coreId: reference.id, userId: reviewer.id }, opts);
     await recordAudit(transaction, admin.id, 'seed', 'demo', null, { cores: 2, boards: 3, builds: builds.length, sessions: sessions.length });
