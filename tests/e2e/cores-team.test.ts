@@ -134,6 +134,27 @@ describe('the core page for a reviewer', () => {
   });
 });
 
+describe('watching a core', () => {
+  it('lets a reviewer stop and start watching, and the watcher list follows', async () => {
+    const page = await signIn('reviewer');
+    await openReferenceCore(page);
+    const watchers = page.getByTestId('watchers');
+    const stop = page.getByRole('button', { name: 'Stop watching' });
+    const start = page.getByRole('button', { name: 'Watch this core' });
+    // The seeded reviewer starts as a watcher; either way, toggle twice and check both states.
+    if ((await start.count()) === 1) await start.click();
+    await poll(() => watchers.textContent()).toContain('Mei Lindqvist');
+    expect(await stop.getAttribute('aria-pressed')).toBe('true');
+    await stop.click();
+    await poll(() => watchers.textContent()).not.toContain('Mei Lindqvist');
+    expect(await start.getAttribute('aria-pressed')).toBe('false');
+    await page.reload();
+    await poll(() => start.count()).toBe(1);
+    await start.click();
+    await poll(() => watchers.textContent()).toContain('Mei Lindqvist');
+  });
+});
+
 describe('the board pages', () => {
   it('list the sessions run on a board with their verdict in words, and keep an engineer’s edit', async () => {
     const page = await signIn('engineer');
