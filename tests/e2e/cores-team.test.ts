@@ -99,6 +99,28 @@ describe('golden vectors on the core page', () => {
   });
 });
 
+describe('the baseline on the core page', () => {
+  it('links the baseline session with its verdict, and an engineer can clear it', async () => {
+    const page = await signIn('engineer');
+    await page.goto(`${app.url}/cores`);
+    await page.getByRole('link', { name: 'Receiver mixer NCO, 18-bit' }).click();
+    await page.waitForURL(/\/cores\/\d+$/);
+    const coreId = Number(new URL(page.url()).pathname.split('/').pop());
+    const before = await page.evaluate(async (id) => (await (await fetch(`/api/cores/${id}`)).json()) as { core: { baselineSessionId: number | null } }, coreId);
+    expect(before.core.baselineSessionId).not.toBeNull();
+    const link = page.getByRole('link', { name: `Session #${before.core.baselineSessionId}` });
+    await poll(() => link.getAttribute('href')).toBe(`/sessions/${before.core.baselineSessionId}`);
+    await poll(() => page.getByRole('list', { name: 'Baseline verdict' }).count()).toBe(1);
+
+    await page.getByRole('button', { name: 'Clear baseline' }).click();
+    await poll(() => page.getByText('No baseline.').count()).toBe(1);
+    await page.reload();
+    await poll(() => page.getByText('No baseline.').count()).toBe(1);
+    const after = await page.evaluate(async (id) => (await (await fetch(`/api/cores/${id}`)).json()) as { core: { baselineSessionId: number | null } }, coreId);
+    expect(after.core.baselineSessionId).toBeNull();
+  });
+});
+
 describe('a new core', () => {
   it('is created from the list page with the default model and opens on its own page', async () => {
     const page = await signIn('engineer');
