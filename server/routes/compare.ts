@@ -50,6 +50,8 @@ function keyStats(stats: unknown) {
   };
 }
 
+const EMPTY: DecodedSamples = { codes: new Float64Array(0), cos: new Int32Array(0), sin: new Int32Array(0) };
+
 /** The stored error histogram, cos and sin counts added together (null when the score has none). */
 function histogramOf(stats: unknown) {
   const h = (stats as StoredStats | null)?.histogram;
@@ -57,7 +59,7 @@ function histogramOf(stats: unknown) {
   return { binsPerLsb: h.binsPerLsb, edgesLsb: h.edgesLsb, counts: h.cos.map((c, i) => c + (h.sin[i] ?? 0)), below: h.below, above: h.above };
 }
 
-/** /api/compare: sessions side by side, the first against each other bit for bit. */
+/** /api/compare: sessions side by side, the first against each other of its core bit for bit. */
 export function compareRouter(_deps: RouteDeps) {
   const router = Router();
 
@@ -96,10 +98,12 @@ export function compareRouter(_deps: RouteDeps) {
           errorEnvelope: errorEnvelope(modelOf(s), decoded[k]),
         };
       }),
+      // Codes of another core stand for other angles and values: such a pair is not diffed.
       pairs: sessions.slice(1).map((s, k) => {
+        if (s.coreId !== sessions[0].coreId) return { a: sessions[0].id, b: s.id, sameCore: false, ...diffSessions(EMPTY, EMPTY, undefined, binner) };
         const diff = diffSessions(decoded[0], decoded[k + 1], undefined, binner);
         const firstDiffering = diff.firstDiffering.map((d) => ({ ...d, degrees: binner.degreesOf(d.code) }));
-        return { a: sessions[0].id, b: s.id, ...diff, firstDiffering };
+        return { a: sessions[0].id, b: s.id, sameCore: true, ...diff, firstDiffering };
       }),
     });
   });

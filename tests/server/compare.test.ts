@@ -116,6 +116,16 @@ describe('GET /api/compare, what the compare page draws', () => {
     expect(res.body.sessions[1].stats.count).toBe(4096);
   });
 
+  it('does not diff a session of another core: its codes stand for other angles', async () => {
+    const other = await Core.create({ name: 'Other core', slug: 'other-core', linkProfile: {}, modelConfig: config, limits: {}, baselineSessionId: null });
+    const session = { coreId: other.id, startedAt: '2026-03-01T09:00:00.000Z', plan: { kind: 'sweep' }, transport: { kind: 'serial' } };
+    const posted = await engineer.post('/api/sessions').field('session', JSON.stringify(session)).attach('samples', Buffer.from(base.packed), 's.bin').expect(201);
+    const res = await reviewer.get(`/api/compare?ids=${ids.base},${posted.body.id},${ids.faulty}`).expect(200);
+    expect(res.body.pairs[0]).toMatchObject({ b: posted.body.id, sameCore: false, common: 0, differing: 0, firstDiffering: [] });
+    expect(res.body.pairs[1]).toMatchObject({ b: ids.faulty, sameCore: true, common: 4096, differing: 3 });
+    expect(res.body.sessions[1].core).toMatchObject({ slug: 'other-core' });
+  });
+
   it('gives each session an error envelope that matches errors computed here with Math.cos and Math.sin', async () => {
     const res = await reviewer.get(`/api/compare?ids=${ids.faulty},${ids.half}`).expect(200);
     const [faulty, half] = res.body.sessions;

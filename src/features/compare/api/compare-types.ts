@@ -47,6 +47,8 @@ export interface DifferingCode {
 export interface ComparedPair {
   a: number;
   b: number;
+  /** False for a session of another core: its codes mean other angles, so it is not diffed. */
+  sameCore: boolean;
   common: number;
   differing: number;
   maxAbsDiffLsb: number;

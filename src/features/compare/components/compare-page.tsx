@@ -36,10 +36,8 @@ export function ComparePage() {
         <>
           <VerdictsPanel sessions={data.sessions} />
           <OverlayCharts sessions={data.sessions} />
-          <div className="grid gap-4 xl:grid-cols-2">
-            <StatsTable sessions={data.sessions} />
-            <DiffPanel sessions={data.sessions} pairs={data.pairs} />
-          </div>
+          <StatsTable sessions={data.sessions} />
+          <DiffPanel sessions={data.sessions} pairs={data.pairs} />
         </>
       )}
     </div>

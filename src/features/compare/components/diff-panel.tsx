@@ -14,7 +14,12 @@ function PairSummary({ pair, a, b }: { pair: ComparedPair; a: ComparedSession; b
   return (
     <div className="grid gap-2" data-testid={`diff-${pair.b}`}>
       <h3 className="font-bold">{title}</h3>
-      {pair.common === 0 ? (
+      {!pair.sameCore ? (
+        <p className="text-sm" data-testid={`diff-summary-${pair.b}`}>
+          Not compared bit for bit: this session is of {b.core.name ?? 'another core'}, whose codes stand for other angles and values than those of{' '}
+          {a.core.name ?? 'the reference’s core'}.
+        </p>
+      ) : pair.common === 0 ? (
         <p className="text-sm" data-testid={`diff-summary-${pair.b}`}>
           No code in common: these sessions answered different angle codes, so nothing can be compared bit for bit.
         </p>

@@ -20,8 +20,9 @@ export function OverlayCharts({ sessions }: { sessions: ComparedSession[] }) {
       series: [
         { label: 'angle, °' },
         ...labels.flatMap((label, i): uPlot.Series[] => [
-          { label: `${label} highest`, stroke: colourOf(i), width: 1 },
-          { label: `${label} lowest`, stroke: colourOf(i), width: 1 },
+          // Sessions of other cores put their bins at slightly other angles: bridge those gaps.
+          { label: `${label} highest`, stroke: colourOf(i), width: 1, spanGaps: true },
+          { label: `${label} lowest`, stroke: colourOf(i), width: 1, spanGaps: true },
         ]),
       ],
       // Each session's band, translucent so the others show through it.

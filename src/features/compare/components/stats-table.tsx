@@ -13,7 +13,7 @@ function Delta({ row, first, value }: { row: StatRow; first: number | null; valu
   const arrow = c.delta > 0 ? '▲' : '▼';
   const amount = `${c.delta > 0 ? '+' : '−'}${Math.abs(c.delta).toLocaleString('en-US', { maximumFractionDigits: row.digits })}`;
   return (
-    <span className={`block text-xs font-bold ${LOOK[c.verdict]}`}>
+    <span className={`block whitespace-nowrap text-xs font-bold ${LOOK[c.verdict]}`}>
       {arrow} {amount} {c.verdict === 'different' ? '' : c.verdict}
     </span>
   );
@@ -33,7 +33,7 @@ export function StatsTable({ sessions }: { sessions: ComparedSession[] }) {
             <tr>
               <th scope="col" className="py-1 pr-4 uppercase tracking-wider">Figure</th>
               {sessions.map((s, i) => (
-                <th key={s.id} scope="col" className="py-1 pr-4 text-right">
+                <th key={s.id} scope="col" className="whitespace-nowrap py-1 pr-4 text-right">
                   <span className="mr-1 inline-block h-2 w-4 rounded-sm align-middle" style={{ background: colourOf(i) }} aria-hidden />
                   <span className="font-bold text-ink">{sessionName(s)}</span>
                   {i === 0 && <span className="block font-normal">the reference for changes</span>}
