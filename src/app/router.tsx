@@ -69,6 +69,14 @@ export const router = createBrowserRouter([
         lazy: async () => ({ Component: (await import('./routes/board')).BoardRoute, loader: requireUser(queryClient) }),
       },
       {
+        path: 'account',
+        lazy: async () => ({ Component: (await import('./routes/account')).AccountRoute, loader: requireUser(queryClient) }),
+      },
+      {
+        path: 'invite/:token',
+        lazy: async () => ({ Component: (await import('./routes/accept-invitation')).AcceptInvitationRoute }),
+      },
+      {
         path: 'team',
         lazy: async () => ({ Component: (await import('./routes/team')).TeamRoute, loader: requireUser(queryClient) }),
       },

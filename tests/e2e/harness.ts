@@ -52,7 +52,8 @@ export async function startApp(env: Record<string, string> = {}): Promise<Runnin
     db.cleanup();
   };
 
-  const deadline = Date.now() + 30_000;
+  // Generous: first start migrates and seeds the demo (a few seconds alone), and CI machines are busy.
+  const deadline = Date.now() + 90_000;
   for (;;) {
     if (child.exitCode !== null) throw new Error(`server exited early:\n${log}`);
     try {
@@ -62,7 +63,7 @@ export async function startApp(env: Record<string, string> = {}): Promise<Runnin
     }
     if (Date.now() > deadline) {
       await stop();
-      throw new Error(`server did not come up in 30 s:\n${log}`);
+      throw new Error(`server did not come up in 90 s:\n${log}`);
     }
     await new Promise((r) => setTimeout(r, 200));
   }

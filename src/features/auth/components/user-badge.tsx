@@ -16,9 +16,9 @@ export function UserBadge() {
     );
   return (
     <div className="flex items-center gap-3 text-sm">
-      <span data-testid="signed-in-as">
+      <Link to="/account" data-testid="signed-in-as" title="Your account and runner tokens" className="rounded px-2 py-1 hover:bg-white/10">
         <span className="text-paper">{me.data.name}</span> <span className="text-paper/60">· {me.data.role}</span>
-      </span>
+      </Link>
       <button
         type="button"
         disabled={logout.isPending}
