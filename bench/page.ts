@@ -5,9 +5,8 @@
 // the run, half-way and at the end.
 import { writeFileSync } from 'node:fs';
 import { chromium, type CDPSession, type Page } from 'playwright-core';
-import { buildClientIfStale } from '../scripts/client-build';
-import { startApp } from '../tests/e2e/harness';
 import { startBoardProcess } from './board-process';
+import { startPageApp } from './page-app';
 import type { BenchResult } from './report';
 
 const BAUD = 12_000_000;
@@ -51,7 +50,7 @@ async function fpsOver(page: Page, ms: number): Promise<number> {
 }
 
 /** One sweep run on the connected page: frames/s over `ms` (two halves), heap after GC, results/s. */
-async function measureRun(page: Page, heapMb: () => Promise<number>, ms: number, cdp?: CDPSession) {
+async function measureRun(page: Page, heapMb: () => Promise<number>, ms: number, cdp: CDPSession, label: string) {
   await page.getByLabel('What to ask').selectOption('sweep');
   await page.getByLabel('Start').fill('0');
   await page.getByLabel('Step, codes').fill('1');
@@ -61,8 +60,9 @@ async function measureRun(page: Page, heapMb: () => Promise<number>, ms: number,
   await page.getByTestId('run-state').filter({ hasText: 'Running' }).waitFor({ timeout: 10_000 });
   const done0 = await answered(page);
   const t0 = performance.now();
-  // BENCH_PAGE_PROFILE=file.cpuprofile: the page's main thread profiled over the first half.
-  const profileTo = cdp && process.env.BENCH_PAGE_PROFILE;
+  // BENCH_PAGE_PROFILE=/tmp/page: the page's main thread profiled over the first half of each
+  // run, into /tmp/page-<label>.cpuprofile.
+  const profileTo = process.env.BENCH_PAGE_PROFILE && `${process.env.BENCH_PAGE_PROFILE}-${label}.cpuprofile`;
   if (profileTo) await cdp.send('Profiler.enable').then(() => cdp.send('Profiler.start'));
   const fpsFirst = await fpsOver(page, ms / 2);
   if (profileTo) writeFileSync(profileTo, JSON.stringify((await cdp.send('Profiler.stop')).profile));
@@ -78,9 +78,8 @@ async function measureRun(page: Page, heapMb: () => Promise<number>, ms: number,
 }
 
 export async function pageBench(): Promise<BenchResult[]> {
-  await buildClientIfStale();
+  const app = await startPageApp();
   const board = await startBoardProcess(BAUD);
-  const app = await startApp();
   const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     headless: true,
@@ -99,13 +98,13 @@ export async function pageBench(): Promise<BenchResult[]> {
     await page.evaluate('window.benchFrames = 0; (function tick() { window.benchFrames++; requestAnimationFrame(tick); })();');
     const idleFps = await fpsOver(page, IDLE_MS);
 
-    const main = await measureRun(page, heapMb, RUN_MS, cdp);
+    const main = await measureRun(page, heapMb, RUN_MS, cdp, 'traffic-shown');
     // Diagnosis beside it: the same run with the traffic pane paused (no xterm rows redrawn).
     // A fresh connection first, so nothing the aborted run left in the socket's buffers is counted.
     await page.getByRole('button', { name: 'Disconnect' }).click();
     await connect(page, board.url);
     await page.getByRole('region', { name: 'Line traffic' }).getByRole('button', { name: 'Pause' }).click();
-    const quiet = await measureRun(page, heapMb, RUN_MS / 2);
+    const quiet = await measureRun(page, heapMb, RUN_MS / 2, cdp, 'traffic-paused');
     const fps = main.fps;
     const { heapStart, heapMid, heapEnd, rate } = main;
     console.log(`  idle ${idleFps.toFixed(1)} fps; running ${main.fpsFirst.toFixed(1)} / ${main.fpsSecond.toFixed(1)} fps (first / second half); ${Math.round(rate).toLocaleString('en-US')} results/s reached the page`);
