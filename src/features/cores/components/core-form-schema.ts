@@ -42,7 +42,7 @@ export interface CorePayload {
   limits: Limits;
 }
 
-interface Issue {
+export interface Issue {
   path: (string | number)[];
   message: string;
 }
@@ -55,13 +55,20 @@ function plain(issue: z.core.$ZodIssue): string {
   return issue.message.charAt(0).toUpperCase() + issue.message.slice(1);
 }
 
+// "3,000,000" or "3 000 000" is grouped thousands; "0,5" is not read as 5 but refused.
+const GROUPED = /^[+-]?[1-9]\d{0,2}([,_ ]\d{3})+(\.\d+)?$/;
+const PLAIN = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
+
 /** Text to number; blank is `undefined`, anything else not a number is an issue. */
-function readNumber(text: string, path: Issue['path'], issues: Issue[]): number | undefined {
+export function readNumber(text: string, path: Issue['path'], issues: Issue[]): number | undefined {
   const t = text.trim();
   if (t === '') return undefined;
-  const n = Number(t.replace(/[_,\s]/g, ''));
-  if (!Number.isFinite(n)) issues.push({ path, message: 'Enter a number' });
-  return Number.isFinite(n) ? n : undefined;
+  const plain = GROUPED.test(t) ? t.replace(/[,_ ]/g, '') : t;
+  if (!PLAIN.test(plain)) {
+    issues.push({ path, message: t.includes(',') ? 'Enter a number, with a point for decimals' : 'Enter a number' });
+    return undefined;
+  }
+  return Number(plain);
 }
 
 /** The form's text as the API's JSON, with every problem found, each at its field. */
