@@ -105,41 +105,6 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
         <h2 id="traffic-title" className={`${panelTitle} mb-0 mr-auto`}>
           Line traffic
         </h2>
-        <form
-          role="search"
-          aria-label="Traffic search"
-          className="flex items-center gap-1"
-          onSubmit={(e) => {
-            e.preventDefault();
-            find(1);
-          }}
-        >
-          <input
-            aria-label="Find in traffic"
-            className={`${input} w-36 py-1 font-mono text-xs`}
-            value={query}
-            placeholder="a5 90, RESULTS…"
-            onChange={(e) => {
-              setQuery(e.target.value);
-              setHit(null);
-            }}
-            onKeyDown={(e) => {
-              if (e.key === 'Enter' && e.shiftKey) {
-                e.preventDefault();
-                find(-1);
-              }
-            }}
-          />
-          <button type="button" className={btn} disabled={!query} onClick={() => find(-1)} aria-label="Previous match">
-            ↑
-          </button>
-          <button type="submit" className={btn} disabled={!query} aria-label="Next match">
-            ↓
-          </button>
-          <span className="min-w-16 text-xs text-ink-soft" aria-live="polite" data-testid="traffic-find-status">
-            {hit === 'none' ? 'Not found' : hit ? `${hit.index} of ${hit.total}` : ''}
-          </span>
-        </form>
         <button
           type="button"
           className={btn}
@@ -171,6 +136,41 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
           Copy all
         </button>
       </div>
+      <form
+        role="search"
+        aria-label="Traffic search"
+        className="mb-2 flex items-center gap-1"
+        onSubmit={(e) => {
+          e.preventDefault();
+          find(1);
+        }}
+      >
+        <input
+          aria-label="Find in traffic"
+          className={`${input} min-w-0 flex-1 py-1 font-mono text-xs`}
+          value={query}
+          placeholder="bytes (a5 90) or words (RESULTS, tag 12)"
+          onChange={(e) => {
+            setQuery(e.target.value);
+            setHit(null);
+          }}
+          onKeyDown={(e) => {
+            if (e.key === 'Enter' && e.shiftKey) {
+              e.preventDefault();
+              find(-1);
+            }
+          }}
+        />
+        <button type="button" className={btn} disabled={!query} onClick={() => find(-1)} aria-label="Previous match">
+          ↑
+        </button>
+        <button type="submit" className={btn} disabled={!query} aria-label="Next match">
+          ↓
+        </button>
+        <span className="min-w-16 text-xs text-ink-soft" aria-live="polite" data-testid="traffic-find-status">
+          {hit === 'none' ? 'Not found' : hit ? `${hit.index} of ${hit.total}` : ''}
+        </span>
+      </form>
       <div ref={box} className="h-64 min-w-0 overflow-hidden rounded bg-ink p-1" />
       <p className="mt-1 min-h-4 text-xs text-ink-soft" aria-live="polite">
         {copyNote}

@@ -52,6 +52,12 @@ const clock = {
 
 /** Progress reaches React at most this often; the engine reports every 100 ms. */
 const PROGRESS_EVERY_MS = 250;
+/**
+ * Silence that counts as loss. A page's main thread can stall for several hundred ms (GC, layout,
+ * a busy machine) while replies wait in its queue; at the engine's 300 ms default such a stall
+ * re-requests everything in flight. Overtaken requests are still detected at once.
+ */
+const LOSS_SILENCE_MS = 1000;
 
 export class BenchController {
   readonly traffic = new TrafficLog();
@@ -105,6 +111,7 @@ export class BenchController {
         link,
         clock,
         baud,
+        timeoutMs: LOSS_SILENCE_MS,
         onTraffic: (direction, bytes, atMs) => {
           recording.traffic(direction, bytes, atMs);
           this.traffic.push({ type: 'bytes', direction, bytes: bytes.slice(), atMs });
@@ -166,7 +173,9 @@ export class BenchController {
     this.record = record;
     const scorer = this.startScoring(record);
     this.set({ restorable: null, run: { state: 'running', progress: null, result: null, summary: null, tone: null, figures: null, error: null, plan, restoredFrom: null } });
-    const handle = this.engine.run(req, {
+    const engine = this.engine;
+    const rxAtStart = engine.figures.bytesReceived;
+    const handle = engine.run(req, {
       onResults: (b) => {
         for (let k = 0; k < b.indexes.length; k++) {
           const i = b.indexes[k];
@@ -180,7 +189,10 @@ export class BenchController {
         const now = clock.now();
         if (now - this.lastProgressAt < PROGRESS_EVERY_MS) return;
         this.lastProgressAt = now;
-        this.setRun({ progress: p, figures: { ...this.engine!.figures } });
+        // The engine fills in line use at the end; meanwhile it is worked out here the same way.
+        const rxBytes = engine.figures.bytesReceived - rxAtStart;
+        const lineShare = p.elapsedMs > 0 ? (rxBytes * 1000) / p.elapsedMs / (this.baud / 10) : 0;
+        this.setRun({ progress: p, figures: { ...engine.figures, naks: { ...engine.figures.naks }, lineShare, resultsPerS: p.ratePerS } });
       },
     });
     this.handle = handle;
