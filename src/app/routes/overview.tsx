@@ -3,8 +3,8 @@ import { Link } from 'react-router-dom';
 import { useMe } from '../../features/auth/api/get-me';
 import { healthQueryOptions, useHealth } from '../../features/health/api/get-health';
 import { HealthPanel } from '../../features/health/components/health-panel';
-import { AttentionPanel } from '../../features/overview/components/attention-panel';
-import { LatestSessions } from '../../features/overview/components/latest-sessions';
+import { AttentionPanel } from '../overview/attention-panel';
+import { LatestSessions } from '../overview/latest-sessions';
 
 export const overviewLoader = (qc: QueryClient) => async () => {
   // Warm the cache, but let the page render its own error state if the server is down.

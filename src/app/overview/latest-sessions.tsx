@@ -1,8 +1,8 @@
 import { Link } from 'react-router-dom';
-import { panel, panelTitle } from '../../../components/ui';
-import { useSessions } from '../../sessions/api/get-sessions';
-import { RegressionBadge, VerdictBadge } from '../../sessions/components/verdict-badges';
-import { DEFAULT_FILTERS } from '../../sessions/list/session-filters';
+import { panel, panelTitle } from '../../components/ui';
+import { useSessions } from '../../features/sessions/api/get-sessions';
+import { RegressionBadge, VerdictBadge } from '../../features/sessions/components/verdict-badges';
+import { DEFAULT_FILTERS } from '../../features/sessions/list/session-filters';
 
 const LATEST = { ...DEFAULT_FILTERS, pageSize: 8 };
 

@@ -1,10 +1,10 @@
 import { Link } from 'react-router-dom';
-import { panel, panelTitle } from '../../../components/ui';
-import { useBuildList } from '../../builds/api/get-builds';
-import type { BuildRecord } from '../../builds/api/build-types';
-import { StatusBadge } from '../../builds/components/status-badge';
-import { useSessions } from '../../sessions/api/get-sessions';
-import { DEFAULT_FILTERS } from '../../sessions/list/session-filters';
+import { panel, panelTitle } from '../../components/ui';
+import { useBuildList } from '../../features/builds/api/get-builds';
+import type { BuildRecord } from '../../features/builds/api/build-types';
+import { StatusBadge } from '../../features/builds/components/status-badge';
+import { useSessions } from '../../features/sessions/api/get-sessions';
+import { DEFAULT_FILTERS } from '../../features/sessions/list/session-filters';
 
 const REGRESSIONS = { ...DEFAULT_FILTERS, regression: true, pageSize: 5 };
 
