@@ -79,8 +79,10 @@ function PairSummary({ pair, a, b }: { pair: ComparedPair; a: ComparedSession; b
 export function DiffPanel({ sessions, pairs }: { sessions: ComparedSession[]; pairs: ComparedPair[] }) {
   const byId = new Map(sessions.map((s, i) => [s.id, { s, i }]));
   const first = sessions[0];
-  const names = pairs.map((p) => sessionName(byId.get(p.b)!.s)).join('|');
-  const colours = pairs.map((p) => colourOf(byId.get(p.b)!.i)).join('|');
+  // Only pairs of the same core were diffed: the plot shows those.
+  const diffed = pairs.filter((p) => p.sameCore);
+  const names = diffed.map((p) => sessionName(byId.get(p.b)!.s)).join('|');
+  const colours = diffed.map((p) => colourOf(byId.get(p.b)!.i)).join('|');
   const options = useMemo(() => {
     const cs = colours.split('|');
     return {
@@ -94,7 +96,7 @@ export function DiffPanel({ sessions, pairs }: { sessions: ComparedSession[]; pa
       ],
     };
   }, [names, colours]);
-  const data = useMemo(() => alignSeries(pairs.map((p) => diffSeries(p, first))), [pairs, first]);
+  const data = useMemo(() => alignSeries(pairs.filter((p) => p.sameCore).map((p) => diffSeries(p, first))), [pairs, first]);
   const anyDiffer = pairs.some((p) => p.differing > 0);
 
   return (
@@ -111,7 +113,7 @@ export function DiffPanel({ sessions, pairs }: { sessions: ComparedSession[]; pa
             <h3 className="mb-1 text-sm font-bold">Where the codes differ</h3>
             <p className="mb-2 text-xs text-ink-soft">A point per half-degree band holding a differing code, at the largest difference in it.</p>
             <UplotChart options={options} data={data} height={200} testId="compare-diff-chart" />
-            <SessionLegend names={pairs.map((p) => sessionName(byId.get(p.b)!.s))} colours={pairs.map((p) => colourOf(byId.get(p.b)!.i))} />
+            <SessionLegend names={diffed.map((p) => sessionName(byId.get(p.b)!.s))} colours={diffed.map((p) => colourOf(byId.get(p.b)!.i))} />
           </div>
         )}
       </div>
