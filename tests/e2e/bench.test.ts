@@ -210,11 +210,13 @@ describe('the Bench page against the simulated board', () => {
     await page.reload();
     const restore = page.getByRole('button', { name: /^Restore unsaved run from / });
     await restore.waitFor({ timeout: 10_000 });
+    await page.screenshot({ path: '/tmp/bench-1280-restore-offer.png', fullPage: true });
     await restore.click();
     await expect.poll(() => page.getByTestId('stat-scored').textContent()).toContain('4,096');
     expect(await page.getByTestId('stat-mismatches').textContent()).toBe('0');
     await expect.poll(() => page.getByTestId('tone-sfdr-cos').textContent()).toBe(`${sfdr.toFixed(1)} dB`);
     expect(await page.getByRole('button', { name: 'Save session' }).isVisible()).toBe(true);
+    await page.screenshot({ path: '/tmp/bench-1280-restored.png', fullPage: true });
 
     // Discarded, it is not offered again.
     await page.reload();

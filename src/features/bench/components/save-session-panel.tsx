@@ -159,7 +159,8 @@ export function SaveSessionPanel({ controller, snap }: { controller: BenchContro
       {!open && !saved && (
         <div className="grid gap-2">
           <p className="text-sm text-ink-soft">
-            {count.toLocaleString('en-US')} results {run.result?.status === 'complete' ? 'from a complete run' : 'from an ended run'}. Save them so the server can judge them against the core’s limits.
+            {count.toLocaleString('en-US')} results {run.result?.status === 'complete' ? 'from a complete run' : 'from an ended run'}
+            {run.restoredFrom ? `, restored from this browser (kept ${new Date(run.restoredFrom).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' })})` : ''}. Save them so the server can judge them against the core’s limits; until then this browser keeps them.
           </p>
           <button type="button" className={btnPrimary} onClick={() => setOpen(true)}>
             Save session
