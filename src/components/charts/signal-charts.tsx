@@ -53,7 +53,8 @@ export function SignalCharts({ charts, feed, heightPx = 220, className = 'grid g
           const data = fresh[id];
           if (!data) return;
           if (id === 'xy') extents[i] = xyExtent(data);
-          plots[i].setData(data, true);
+          // One commit per chart rather than one per changed option.
+          plots[i].batch(() => plots[i].setData(data, true));
         });
       }
       raf = requestAnimationFrame(tick);

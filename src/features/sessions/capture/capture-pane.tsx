@@ -46,7 +46,9 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
   const [which, setWhich] = useState<Which>('both');
   const [page, setPage] = useState(0);
   const [speed, setSpeed] = useState<number>(1);
-  const [replaying, setReplaying] = useState(false);
+  // 'replayed': a replay ended or was stopped and its output stays until the next browse.
+  const [mode, setMode] = useState<'browse' | 'replaying' | 'replayed'>('browse');
+  const replaying = mode === 'replaying';
   const box = useRef<HTMLDivElement>(null);
   const term = useRef<Terminal | null>(null);
 
@@ -56,6 +58,11 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
   const shown = useMemo(() => all.map((r, i) => [r, i] as const).filter(([r]) => which === 'both' || r.direction === which), [all, which]);
   const pages = Math.max(1, Math.ceil(shown.length / PAGE_RECORDS));
   const linesOf = (r: ArchiveRecord, i: number) => recordLines(r, t0, profiles[i]);
+  const browse = (w: Which, p: number) => {
+    setWhich(w);
+    setPage(p);
+    setMode('browse');
+  };
 
   useEffect(() => {
     const t = new Terminal({ scrollback: 20_000, fontFamily: '"JetBrains Mono", monospace', fontSize: 12, disableStdin: true, convertEol: true, theme: { background: '#1f2a2e', foreground: '#f6f3ec', cursor: '#1f2a2e' } });
@@ -64,7 +71,8 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
     t.open(box.current!);
     fit.fit();
     term.current = t;
-    const ro = new ResizeObserver(() => fit.fit());
+    // Fitting needs a rendered terminal: skip a resize that lands after disposal.
+    const ro = new ResizeObserver(() => term.current === t && fit.fit());
     ro.observe(box.current!);
     return () => {
       ro.disconnect();
@@ -76,14 +84,14 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
   // Browsing: one page of records.
   useEffect(() => {
     const t = term.current;
-    if (!t || replaying) return;
+    if (!t || mode !== 'browse') return;
     t.reset();
     const slice = shown.slice(page * PAGE_RECORDS, (page + 1) * PAGE_RECORDS);
     // Writes are asynchronous: scroll once this page has landed.
-    t.write(slice.flatMap(([r, i]) => linesOf(r, i)).join('\r\n') + '\r\n', () => t.scrollToTop());
+    t.write(slice.flatMap(([r, i]) => linesOf(r, i)).join('\r\n') + '\r\n', () => term.current === t && t.scrollToTop());
     // linesOf depends only on what is listed here.
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [shown, page, replaying, profiles]);
+  }, [shown, page, mode, profiles]);
 
   // Replay: records appear when their recorded time (scaled by speed) comes round.
   useEffect(() => {
@@ -107,7 +115,7 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
       if (lines.length) t.write(lines.join('\r\n') + '\r\n');
       if (next >= shown.length) {
         t.write(`${C.dim}End of the capture.${C.off}\r\n`);
-        setReplaying(false);
+        setMode('replayed');
         return;
       }
       raf = requestAnimationFrame(tick);
@@ -115,7 +123,7 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
     raf = requestAnimationFrame(tick);
     return () => cancelAnimationFrame(raf);
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [replaying]);
+  }, [mode]);
 
   const matches = capture.replayedFrames === capture.recordedFrames;
   const durationS = all.length ? (all[all.length - 1].timeMs - t0) / 1000 : 0;
@@ -133,20 +141,20 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
       <div className="flex flex-wrap items-end gap-2">
         <label className={label}>
           Direction
-          <select className={input} value={which} disabled={replaying} onChange={(e) => (setWhich(e.target.value as Which), setPage(0))}>
+          <select className={input} value={which} disabled={replaying} onChange={(e) => browse(e.target.value as Which, 0)}>
             <option value="both">Both</option>
             <option value="to-device">To the device (TX)</option>
             <option value="to-host">From the device (RX)</option>
           </select>
         </label>
         <div className="flex items-center gap-1" role="group" aria-label="Pages of records">
-          <button type="button" className={btn} disabled={replaying || page === 0} onClick={() => setPage(page - 1)}>
+          <button type="button" className={btn} disabled={replaying || page === 0} onClick={() => browse(which, page - 1)}>
             Earlier
           </button>
           <span className="px-2 text-sm tabular-nums" aria-live="polite">
             {shown.length ? `${(page * PAGE_RECORDS + 1).toLocaleString('en-US')}–${Math.min(shown.length, (page + 1) * PAGE_RECORDS).toLocaleString('en-US')} of ${shown.length.toLocaleString('en-US')}` : 'no records'}
           </span>
-          <button type="button" className={btn} disabled={replaying || page >= pages - 1} onClick={() => setPage(page + 1)}>
+          <button type="button" className={btn} disabled={replaying || page >= pages - 1} onClick={() => browse(which, page + 1)}>
             Later
           </button>
         </div>
@@ -160,12 +168,17 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
             ))}
           </select>
         </label>
+        {mode === 'replayed' && (
+          <button type="button" className={btn} onClick={() => setMode('browse')}>
+            Back to the records
+          </button>
+        )}
         {replaying ? (
-          <button type="button" className={btn} onClick={() => setReplaying(false)}>
+          <button type="button" className={btn} onClick={() => setMode('replayed')}>
             Stop
           </button>
         ) : (
-          <button type="button" className={btn} disabled={!shown.length} onClick={() => setReplaying(true)}>
+          <button type="button" className={btn} disabled={!shown.length} onClick={() => setMode('replaying')}>
             Replay
           </button>
         )}
