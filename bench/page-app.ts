@@ -2,6 +2,7 @@
 // `npm start` builds it) into bench/results/client, served by createApp in production mode over
 // a temporary seeded database. dist/ is not used: a test run (NODE_ENV=test) may have left a
 // development React build there, which would measure React's development checks instead.
+import fs from 'node:fs';
 import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
@@ -25,16 +26,31 @@ export interface PageApp {
   stop(): Promise<void>;
 }
 
-/** Builds the production client and serves it with the API; sign in with the demo accounts. */
-export async function startPageApp(): Promise<PageApp> {
+/**
+ * Builds the production client beside the last good one and swaps it in. Others edit the checkout
+ * while the suite runs: when the build fails, the last good build is used, and the log says so.
+ */
+async function buildClient(): Promise<void> {
+  const next = `${BENCH_CLIENT_DIR}-next`;
   const previous = process.env.NODE_ENV;
   process.env.NODE_ENV = 'production'; // read by Vite and the React plugin while building
   try {
-    await build({ root, logLevel: 'error', build: { outDir: BENCH_CLIENT_DIR, emptyOutDir: true } });
+    await build({ root, logLevel: 'error', build: { outDir: next, emptyOutDir: true } });
+    fs.rmSync(BENCH_CLIENT_DIR, { recursive: true, force: true });
+    fs.renameSync(next, BENCH_CLIENT_DIR);
+  } catch (e) {
+    const built = fs.statSync(path.join(BENCH_CLIENT_DIR, 'index.html'), { throwIfNoEntry: false });
+    if (!built) throw e;
+    console.log(`  the client does not build now (${(e as Error).message.split('\n')[0]}); using the build of ${built.mtime.toISOString()}`);
   } finally {
     if (previous === undefined) delete process.env.NODE_ENV;
     else process.env.NODE_ENV = previous;
   }
+}
+
+/** Builds the production client and serves it with the API; sign in with the demo accounts. */
+export async function startPageApp(): Promise<PageApp> {
+  await buildClient();
   const tmp = tempDatabase();
   const config = loadConfig({ NODE_ENV: 'production', DATABASE_URL: tmp.url, SESSION_SECRET: 'bench-secret-0123456789abcdef' }, path.join(tmp.dir, 'session-secret'));
   const db = openDatabase(config.databaseUrl);
