@@ -1,8 +1,8 @@
 import type { UseFormReturn } from 'react-hook-form';
-import { input, panel, panelTitle } from '../../../components/ui';
+import { panel, panelTitle } from '../../../components/ui';
 import { CRC_VARIANTS, type CoreFormValues } from './core-form-schema';
 import { LIMIT_KEYS, LIMITS, LINK, MODEL, type ModelKey } from './core-meanings';
-import { describedBy, FieldShell } from './field-shell';
+import { control, describedBy, FieldShell } from './field-shell';
 
 const NUMERIC_MODEL_KEYS = ['angleBits', 'angleFrac', 'outBits', 'outFrac', 'iterations', 'guardBits', 'zGuardBits'] as const;
 
@@ -16,7 +16,7 @@ export function CoreFields({ form }: { form: UseFormReturn<CoreFormValues> }) {
     const error = errors[key]?.message;
     return (
       <FieldShell key={key} id={id} label={MODEL[key].label} hint={MODEL[key].explain} error={error}>
-        <select className={input} {...describedBy(id, error)} {...register(key as 'angleFormat')}>
+        <select className={control} {...describedBy(id, error)} {...register(key as 'angleFormat')}>
           {options.map((o) => (
             <option key={o} value={o}>
               {o}
@@ -33,10 +33,10 @@ export function CoreFields({ form }: { form: UseFormReturn<CoreFormValues> }) {
         <h2 className={panelTitle}>Link profile</h2>
         <div className="grid gap-3">
           <FieldShell id="core-baud" label={LINK.baud.label} unit="bit/s" hint={LINK.baud.explain} error={errors.baud?.message}>
-            <input className={input} inputMode="numeric" {...describedBy('core-baud', errors.baud?.message)} {...register('baud')} />
+            <input className={control} inputMode="numeric" {...describedBy('core-baud', errors.baud?.message)} {...register('baud')} />
           </FieldShell>
           <FieldShell id="core-crc" label={LINK.crc.label} hint={LINK.crc.explain} error={errors.crc?.message}>
-            <select className={input} {...describedBy('core-crc', errors.crc?.message)} {...register('crc')}>
+            <select className={control} {...describedBy('core-crc', errors.crc?.message)} {...register('crc')}>
               {CRC_VARIANTS.map((c) => (
                 <option key={c}>{c}</option>
               ))}
@@ -55,7 +55,7 @@ export function CoreFields({ form }: { form: UseFormReturn<CoreFormValues> }) {
             const error = errors[k]?.message;
             return (
               <FieldShell key={k} id={id} label={MODEL[k].label} hint={MODEL[k].explain} error={error}>
-                <input className={input} inputMode="numeric" {...describedBy(id, error)} {...register(k)} />
+                <input className={control} inputMode="numeric" {...describedBy(id, error)} {...register(k)} />
               </FieldShell>
             );
           })}
@@ -84,7 +84,7 @@ export function CoreFields({ form }: { form: UseFormReturn<CoreFormValues> }) {
             const m = LIMITS[k];
             return (
               <FieldShell key={k} id={id} label={m.label} unit={`${m.unit}, ${m.bound}`} hint={m.explain} error={error}>
-                <input className={input} inputMode="decimal" placeholder="not checked" {...describedBy(id, error)} {...register(`limits.${k}`)} />
+                <input className={control} inputMode="decimal" placeholder="not checked" {...describedBy(id, error)} {...register(`limits.${k}`)} />
               </FieldShell>
             );
           })}

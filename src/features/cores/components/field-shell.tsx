@@ -1,5 +1,8 @@
 import type { ReactNode } from 'react';
-import { fieldError, label as labelClass } from '../../../components/ui';
+import { fieldError, input, label as labelClass } from '../../../components/ui';
+
+/** The shared input look, with a red edge while the field is refused. */
+export const control = `${input} aria-[invalid=true]:border-fail`;
 
 /**
  * One labelled field: the control (given as children, so react-hook-form's register stays on the

@@ -1,10 +1,10 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
-import { btn, btnPrimary, fieldError, input } from '../../../components/ui';
+import { btn, btnPrimary, fieldError } from '../../../components/ui';
 import { useDeleteGoldenVectors } from '../api/delete-golden-vectors';
 import { useGoldenVectors, type GoldenVectorSet } from '../api/get-golden-vectors';
 import { uploadGoldenVectorsSchema, useUploadGoldenVectors, type UploadGoldenVectorsForm } from '../api/upload-golden-vectors';
-import { describedBy, FieldShell } from './field-shell';
+import { control, describedBy, FieldShell } from './field-shell';
 
 const pct = (share: number) => `${(share * 100).toLocaleString('en-US', { maximumFractionDigits: share < 0.001 ? 4 : 1 })} %`;
 
@@ -56,10 +56,10 @@ function UploadForm({ coreId }: { coreId: number }) {
   return (
     <form noValidate onSubmit={handleSubmit(submit)} aria-label="Upload golden vectors" className="grid gap-3 sm:grid-cols-[1fr_1fr_auto] sm:items-start">
       <FieldShell id="gv-name" label="Set name" hint="Where the vectors came from, e.g. the RTL simulation run." error={e.name?.message}>
-        <input className={input} {...describedBy('gv-name', e.name?.message)} {...register('name')} />
+        <input className={control} {...describedBy('gv-name', e.name?.message)} {...register('name')} />
       </FieldShell>
       <FieldShell id="gv-file" label="CSV file" hint="Header angle_code,cos_code,sin_code; one row per vector." error={e.files?.message as string | undefined}>
-        <input type="file" accept=".csv,text/csv" className={input} {...describedBy('gv-file', e.files?.message as string | undefined)} {...register('files')} />
+        <input type="file" accept=".csv,text/csv" className={control} {...describedBy('gv-file', e.files?.message as string | undefined)} {...register('files')} />
       </FieldShell>
       <button type="submit" className={`${btnPrimary} sm:mt-6`} disabled={upload.isPending}>
         {upload.isPending ? 'Uploading…' : 'Upload'}
