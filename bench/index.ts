@@ -2,7 +2,7 @@
 // with its side-by-side ratio, and writes bench/results/latest.json. Exit 1 if any target is
 // missed, 2 for an unknown name or a benchmark that failed to run.
 import { loadavg } from 'node:os';
-import { printResult, writeResults, type BenchResult } from './report';
+import { markdownTable, printResult, writeResults, type BenchResult } from './report';
 
 type Bench = () => Promise<BenchResult[]>;
 
@@ -40,7 +40,7 @@ async function main(): Promise<number> {
     }
     console.log(`(${name}: ${((performance.now() - t0) / 1000).toFixed(1)} s)`);
   }
-  console.log(`\nwrote ${writeResults(results)}`);
+  console.log(`\n${markdownTable(results)}\n\nwrote ${writeResults(results)}`);
   if (failed) return 2;
   return results.some((r) => r.met === false) ? 1 : 0;
 }

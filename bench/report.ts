@@ -35,3 +35,9 @@ export function writeResults(results: BenchResult[], file = RESULTS_FILE): strin
   writeFileSync(file, JSON.stringify(results, null, 2) + '\n');
   return file;
 }
+
+/** The figures as a Markdown table, the one docs/performance.md carries. */
+export function markdownTable(results: BenchResult[]): string {
+  const rows = results.map((r) => `| ${r.name} | ${figure(r.value)} | ${r.unit} | ${r.ratio === null ? '—' : `${r.ratio.toFixed(3)} (${r.ratioOf})`} | ${r.target ?? '—'} | ${r.met === null ? '—' : r.met ? 'yes' : 'no'} |`);
+  return ['| name | value | unit | ratio | target | met |', '|---|---|---|---|---|---|', ...rows].join('\n');
+}
