@@ -31,6 +31,31 @@ export interface DiffBinning {
 
 export const KEEP_DIFFERING = 50;
 
+const INDEX_BITS = 21;
+const INDEX_SPAN = 2 ** INDEX_BITS;
+
+/**
+ * Sort `order` (0..n−1) by code, then by index. Where each code fits in 32 bits above the lowest
+ * and n ≤ 2^21, code and index are packed into one exact double (< 2^53) and sorted natively,
+ * several times faster than a comparator; otherwise the comparator sort is used.
+ */
+function sortByCode(codes: Float64Array, order: Uint32Array): void {
+  let min = Infinity;
+  let max = -Infinity;
+  for (let i = 0; i < codes.length; i++) {
+    if (codes[i] < min) min = codes[i];
+    if (codes[i] > max) max = codes[i];
+  }
+  if (codes.length > INDEX_SPAN || max - min >= 2 ** 32) {
+    order.sort((x, y) => codes[x] - codes[y] || x - y);
+    return;
+  }
+  const keys = new Float64Array(codes.length);
+  for (let i = 0; i < codes.length; i++) keys[i] = (codes[i] - min) * INDEX_SPAN + i;
+  keys.sort();
+  for (let k = 0; k < keys.length; k++) order[k] = keys[k] % INDEX_SPAN;
+}
+
 /**
  * Sample indices in ascending code order, each code once: where a code was answered more than
  * once its first answer stands.
@@ -41,7 +66,7 @@ export function uniqueCodeOrder(codes: Float64Array): Uint32Array {
   // Sweeps and exhaustive runs arrive in code order already; sorting them again is the slow part.
   let ascending = true;
   for (let i = 1; i < codes.length && ascending; i++) ascending = codes[i - 1] <= codes[i];
-  if (!ascending) order.sort((x, y) => codes[x] - codes[y] || x - y);
+  if (!ascending) sortByCode(codes, order);
   let kept = 0;
   for (let k = 0; k < order.length; k++) {
     if (kept > 0 && codes[order[kept - 1]] === codes[order[k]]) continue;
