@@ -1,6 +1,7 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { packSamples } from '../../shared/bench/sample-pack';
+import { encodeMessage, Kind, RecordedDecoder, Recorder } from '../../shared/link';
 import { createCordicModel, parseModelConfig } from '../../shared/numeric';
 import { launchBrowser, startApp, type RunningApp } from './harness';
 
@@ -30,19 +31,34 @@ function samples(faulty: number): number[] {
   return Array.from(packSamples(codes, cos, sin, new Uint8Array(n).fill(1)));
 }
 
+/** A small capture: HELLO at 0 ms, ONE at 1 s, ONE at 3 s (so a 1× replay takes 3 s). */
+function captureBytes(): number[] {
+  const p = { angleFormat: 'turn' as const, angleBits: 16, outBits: 16 };
+  const times = [0, 1000, 3000];
+  let k = 0;
+  const recorder = new Recorder({ label: 'e2e capture' });
+  const device = new RecordedDecoder({ recorder, direction: 'to-device', nowMs: () => times[Math.min(k, times.length - 1)], onFrame: () => undefined });
+  for (const m of [encodeMessage({ kind: Kind.Hello }, 1, p), encodeMessage({ kind: Kind.One, angleCode: 4096 }, 2, p), encodeMessage({ kind: Kind.One, angleCode: 8192 }, 3, p)]) {
+    device.push(m);
+    k++;
+  }
+  return Array.from(recorder.toArchive());
+}
+
 /** POST /api/sessions from the page, with its cookie and CSRF token, as the Bench page does. */
-async function upload(page: Page, bytes: number[], notes: string) {
+async function upload(page: Page, bytes: number[], notes: string, archive: number[] | null = null) {
   const session = { coreSlug: 'reference-16', startedAt: new Date().toISOString(), plan: { kind: 'sweep', first: 0, step: 16, count: 4096 }, transport: { kind: 'test' }, notes, tags: [tag] };
   return page.evaluate(
-    async ({ session, bytes }) => {
+    async ({ session, bytes, archive }) => {
       const { token } = (await (await fetch('/api/auth/csrf')).json()) as { token: string };
       const form = new FormData();
       form.set('session', JSON.stringify(session));
       form.set('samples', new Blob([new Uint8Array(bytes)]), 'samples.bin');
+      if (archive) form.set('archive', new Blob([new Uint8Array(archive)]), 'capture.abrc');
       const res = await fetch('/api/sessions', { method: 'POST', body: form, headers: { 'x-csrf-token': token } });
       return { status: res.status, body: (await res.json()) as { id: number; passed: boolean } };
     },
-    { session, bytes },
+    { session, bytes, archive },
   );
 }
 
@@ -53,7 +69,7 @@ beforeAll(async () => {
   browser = await launchBrowser();
   const page = await browser.newPage();
   await signIn(page, 'engineer@anglebench.test');
-  const good = await upload(page, samples(0), 'healthy sweep');
+  const good = await upload(page, samples(0), 'healthy sweep', captureBytes());
   const bad = await upload(page, samples(10), 'ten answers off by 40 LSB');
   expect([good.status, bad.status]).toEqual([201, 201]);
   expect([good.body.passed, bad.body.passed]).toEqual([true, false]);
@@ -116,6 +132,28 @@ describe('the Session page for an engineer', () => {
     const over = await page.getByTestId('chart-xy').locator('.u-over').boundingBox();
     expect(over!.width).toBeGreaterThan(100);
     expect(Math.abs(over!.width - over!.height)).toBeLessThanOrEqual(1);
+  });
+
+  it('browses the recorded capture, replays it at its recorded pace and stops', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signIn(page, 'engineer@anglebench.test', `/sessions/${passingId}`);
+    await page.getByRole('button', { name: 'Open capture' }).click();
+    await expect.poll(() => page.getByTestId('capture-recheck').textContent()).toContain('3 frames and 0 skips, the same frames as recorded');
+    const pane = page.getByTestId('capture-terminal');
+    await pane.getByText('HELLO tag 1').waitFor();
+    expect(await pane.textContent()).toContain('ONE tag 3: angle code 8192');
+    // As recorded, the last frame comes 3 s in: stopped after about 1 s, it has not appeared.
+    await page.getByRole('button', { name: 'Replay' }).click();
+    await pane.getByText(/Replaying 6 records at 1× recorded pace/).waitFor();
+    await pane.getByText('ONE tag 2: angle code 4096').waitFor({ timeout: 5000 });
+    await page.getByRole('button', { name: 'Stop' }).click();
+    await page.waitForTimeout(2500);
+    expect(await pane.textContent()).not.toContain('angle code 8192');
+    // Sixteen times faster, it runs to the end.
+    await page.getByLabel('Replay speed').selectOption('16');
+    await page.getByRole('button', { name: 'Replay' }).click();
+    await pane.getByText('End of the capture.').waitFor({ timeout: 5000 });
+    expect(await pane.textContent()).toContain('angle code 8192');
   });
 
   it('edits the notes and keeps them after a reload', async () => {
