@@ -79,6 +79,7 @@ describe('builds in a real browser', () => {
     const warning = page.getByTestId('duplicate-warning');
     await expect.poll(() => warning.textContent(), { timeout: 15_000 }).toContain('ref16-e2e');
     expect(await warning.getByRole('link', { name: 'ref16-e2e' }).getAttribute('href')).toBe(`/builds/${buildId}`);
+    await page.screenshot({ path: '/tmp/build-page-duplicate.png', fullPage: true });
 
     // The engineer asks for a review; the seeded team has one reviewer.
     await page.goto(buildUrl);
