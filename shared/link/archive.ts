@@ -221,6 +221,8 @@ export function readArchive(bytes: Uint8Array): Archive {
     if (e instanceof EndOfBytesError) {
       throw new ArchiveTruncatedError(`archive is truncated: it ends at byte ${bytes.length} inside a record or before its END record`);
     }
+    // The byte cursor's only RangeError: a varint longer than any this format writes.
+    if (e instanceof RangeError) throw new ArchiveError('corrupt', `archive is corrupt: ${e.message}`);
     throw e;
   }
 }

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { BenchSession, Build, Core, type OutboxMessage } from '../../server/db/models';
 import { modelConfigSchema } from '../../server/schemas/core';
 import { packColumns } from '../../shared/bench/sample-pack';
+import { Recorder } from '../../shared/link/recorder';
 import { createCordicModel, errorProfile, PROFILE_BINS } from '../../shared/numeric';
 import { ScoreAccumulator } from '../../shared/numeric/score';
 import { listCapture } from '../support/capture';
@@ -23,6 +24,13 @@ function answers(cosDelta = 0) {
 }
 const toCsv = (a: ReturnType<typeof answers>) => ['angle_code,cos_code,sin_code', ...Array.from(a.codes, (c, i) => `${c},${a.cos[i]},${a.sin[i]}`)].join('\n') + '\n';
 const expectedStats = (a: ReturnType<typeof answers>) => JSON.parse(JSON.stringify(new ScoreAccumulator(config).add(a.codes, a.cos, a.sin).summary())) as unknown;
+
+/** An empty capture's header, then a CHUNK record whose length is ten 0xFF bytes. */
+function overlongVarintArchive() {
+  const empty = new Recorder().toArchive();
+  const headerEnd = 7 + (empty[5] | (empty[6] << 8));
+  return Buffer.from([...empty.subarray(0, headerEnd), 0x01, ...new Array<number>(8).fill(0), ...new Array<number>(10).fill(0xff), 0x01]);
+}
 
 let t: TestApp;
 let engineer: Agent;
@@ -73,6 +81,7 @@ describe('POST /api/sessions/import', () => {
     ['a CSV with a bad row, naming its line', () => toCsv(answers()).replace('256,', '256;'), 'bad.csv', /^file: line 4: expected 3 values/],
     ['a CSV without the header', () => '0,1,2\n', 'bad.csv', /^file: line 1: the header/],
     ['a truncated archive', () => Buffer.from(listCapture(CODES)).subarray(0, 300), 'cut.abrc', /^file: not a readable recorder archive/],
+    ['an archive with an over-long varint', () => overlongVarintArchive(), 'crafted.abrc', /^file: not a readable recorder archive \(archive is corrupt/],
     ['binary that is neither', () => Buffer.from([0x7f, 0x45, 0x4c, 0x46, 0, 1, 2]), 'tool.bin', /neither a recorder archive nor CSV/],
   ])('refuses %s with 400 and stores nothing', async (_what, bytes, name, message) => {
     const before = await BenchSession.count();
