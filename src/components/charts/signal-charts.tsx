@@ -21,9 +21,11 @@ export interface SignalChartsProps {
   /** Canvas height in CSS px (the XY chart is as wide as its plotting area is high). */
   heightPx?: number;
   className?: string;
+  /** Off where the page already titles the chart (the printed report); still read by screen readers. */
+  showTitles?: boolean;
 }
 
-export function SignalCharts({ charts, feed, heightPx = 220, className = 'grid gap-4 xl:grid-cols-2' }: SignalChartsProps) {
+export function SignalCharts({ charts, feed, heightPx = 220, className = 'grid gap-4 xl:grid-cols-2', showTitles = true }: SignalChartsProps) {
   const boxes = useRef<(HTMLDivElement | null)[]>([]);
   const key = charts.join(',');
 
@@ -71,7 +73,7 @@ export function SignalCharts({ charts, feed, heightPx = 220, className = 'grid g
     <div className={className}>
       {charts.map((id, i) => (
         <section key={id} aria-label={CHART_SPECS[id].title} className={`${panel} min-w-0 break-inside-avoid`}>
-          <h3 className={panelTitle}>{CHART_SPECS[id].title}</h3>
+          <h3 className={showTitles ? panelTitle : 'sr-only'}>{CHART_SPECS[id].title}</h3>
           <div data-testid={CHART_SPECS[id].testId} ref={(el) => void (boxes.current[i] = el)} className={id === 'xy' ? 'flex min-w-0 justify-center' : 'min-w-0'} />
         </section>
       ))}

@@ -80,7 +80,7 @@ export function SessionReport({ id }: { id: number }) {
       </section>
       <section aria-labelledby="r-plot" className="break-inside-avoid">
         <h2 id="r-plot" className={h2}>
-          Error against angle
+          Error against angle, LSB
         </h2>
         {session.sampleCount === 0 ? (
           <p className="text-sm text-ink-soft">No samples to plot.</p>
@@ -89,7 +89,7 @@ export function SessionReport({ id }: { id: number }) {
             The plot could not be drawn: {plots.error.message}
           </p>
         ) : feed ? (
-          <SignalCharts charts={['error']} feed={feed} heightPx={240} className="grid" />
+          <SignalCharts charts={['error']} feed={feed} heightPx={240} className="grid" showTitles={false} />
         ) : (
           <p className="text-sm text-ink-soft">Scoring the stored samples for the plot…</p>
         )}
