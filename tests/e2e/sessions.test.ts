@@ -1,5 +1,5 @@
 import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { packSamples } from '../../shared/bench/sample-pack';
 import { encodeMessage, Kind, RecordedDecoder, Recorder } from '../../shared/link';
 import { createCordicModel, parseModelConfig } from '../../shared/numeric';
@@ -64,6 +64,17 @@ async function upload(page: Page, bytes: number[], notes: string, archive: numbe
 
 const rowsOf = (page: Page) => page.getByTestId('session-row');
 
+// Each test gets its own page (its own cookies), closed afterwards so no page keeps drawing.
+const opened: Page[] = [];
+async function newPage() {
+  const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+  opened.push(page);
+  return page;
+}
+afterEach(async () => {
+  await Promise.all(opened.splice(0).map((p) => p.close()));
+});
+
 beforeAll(async () => {
   app = await startApp();
   browser = await launchBrowser();
@@ -84,7 +95,7 @@ afterAll(async () => {
 
 describe('the Sessions list and Session page for a reviewer', () => {
   it('lists sessions with their verdict in words, and filters to failing ones through the address bar', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    const page = await newPage();
     await signIn(page, 'reviewer@anglebench.test');
     await expect.poll(() => rowsOf(page).count()).toBeGreaterThanOrEqual(2);
     const words = await rowsOf(page).getByTestId('verdict').allTextContents();
@@ -105,8 +116,21 @@ describe('the Sessions list and Session page for a reviewer', () => {
     expect(await rowsOf(page).first().textContent()).toContain(`#${failingId}`);
   });
 
+  it('picks two sessions and takes them to the compare page', async () => {
+    const page = await newPage();
+    await signIn(page, 'reviewer@anglebench.test', '/sessions');
+    const compare = page.getByRole('button', { name: 'Compare selected' });
+    await page.getByLabel(`Pick session #${failingId} for comparison`).check();
+    expect(await compare.isDisabled()).toBe(true);
+    await page.getByLabel(`Pick session #${passingId} for comparison`).check();
+    expect(await compare.isDisabled()).toBe(false);
+    await compare.click();
+    await page.waitForURL((u) => u.pathname === '/compare');
+    expect(new URL(page.url()).searchParams.get('ids')).toBe(`${passingId},${failingId}`);
+  });
+
   it('shows the verdict per limit and leaves out the engineer-only actions', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    const page = await newPage();
     await signIn(page, 'reviewer@anglebench.test');
     await page.getByRole('link', { name: `#${failingId}`, exact: true }).click();
     await page.waitForURL(new RegExp(`/sessions/${failingId}$`));
@@ -126,7 +150,7 @@ describe('the Sessions list and Session page for a reviewer', () => {
 
 describe('the Session page for an engineer', () => {
   it('re-scores the stored samples in the browser and draws the XY circle with a square plotting area', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    const page = await newPage();
     await signIn(page, 'engineer@anglebench.test', `/sessions/${passingId}`);
     await expect.poll(() => page.getByTestId('browser-recheck').textContent(), { timeout: 20_000 }).toContain('the same figures as the server');
     const over = await page.getByTestId('chart-xy').locator('.u-over').boundingBox();
@@ -135,7 +159,7 @@ describe('the Session page for an engineer', () => {
   });
 
   it('browses the recorded capture, replays it at its recorded pace and stops', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    const page = await newPage();
     await signIn(page, 'engineer@anglebench.test', `/sessions/${passingId}`);
     await page.getByRole('button', { name: 'Open capture' }).click();
     await expect.poll(() => page.getByTestId('capture-recheck').textContent()).toContain('3 frames and 0 skips, the same frames as recorded');
@@ -145,19 +169,19 @@ describe('the Session page for an engineer', () => {
     // As recorded, the last frame comes 3 s in: stopped after about 1 s, it has not appeared.
     await page.getByRole('button', { name: 'Replay' }).click();
     await pane.getByText(/Replaying 6 records at 1× recorded pace/).waitFor();
-    await pane.getByText('ONE tag 2: angle code 4096').waitFor({ timeout: 5000 });
+    await pane.getByText('ONE tag 2: angle code 4096').waitFor({ timeout: 10_000 });
     await page.getByRole('button', { name: 'Stop' }).click();
     await page.waitForTimeout(2500);
     expect(await pane.textContent()).not.toContain('angle code 8192');
     // Sixteen times faster, it runs to the end.
     await page.getByLabel('Replay speed').selectOption('16');
     await page.getByRole('button', { name: 'Replay' }).click();
-    await pane.getByText('End of the capture.').waitFor({ timeout: 5000 });
+    await pane.getByText('End of the capture.').waitFor({ timeout: 10_000 });
     expect(await pane.textContent()).toContain('angle code 8192');
   });
 
   it('edits the notes and keeps them after a reload', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    const page = await newPage();
     await signIn(page, 'engineer@anglebench.test', `/sessions/${passingId}`);
     await page.getByRole('button', { name: 'Edit notes and tags' }).click();
     const form = page.getByRole('form', { name: 'Edit notes and tags' });
@@ -168,6 +192,7 @@ describe('the Session page for an engineer', () => {
     await page.reload();
     await expect.poll(() => page.getByTestId('session-notes').textContent()).toBe('Re-run after the clock fix: <b>clean</b>.');
     expect(await page.getByRole('list', { name: 'Tags' }).textContent()).toContain('rerun');
-    expect(await page.getByRole('button', { name: 'Set as baseline' }).count()).toBe(1);
+    // The button waits for the core (its baseline) to load.
+    await expect.poll(() => page.getByRole('button', { name: 'Set as baseline' }).count()).toBe(1);
   });
 });
