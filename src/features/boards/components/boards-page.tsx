@@ -1,12 +1,11 @@
-import { tableFeatures, useTable, type ColumnDef } from '@tanstack/react-table';
+import { DataTable, type PlainColumn } from '../../../components/data-table';
 import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { btnPrimary, fieldError, panel, panelTitle } from '../../../components/ui';
 import { useBoardList, type BoardRecord } from '../api/get-boards';
 import { BoardForm } from './board-form';
 
-const features = tableFeatures({});
-const columns: ColumnDef<typeof features, BoardRecord>[] = [
+const columns: PlainColumn<BoardRecord>[] = [
   {
     id: 'name',
     header: 'Board',
@@ -24,35 +23,7 @@ const columns: ColumnDef<typeof features, BoardRecord>[] = [
 ];
 
 function BoardsTable({ boards }: { boards: BoardRecord[] }) {
-  const table = useTable({ features, columns, data: boards });
-  return (
-    <div className="overflow-x-auto rounded-lg border border-rule bg-panel">
-      <table className="w-full text-sm">
-        <thead className="border-b border-rule text-left text-xs uppercase tracking-wider text-ink-soft">
-          {table.getHeaderGroups().map((g) => (
-            <tr key={g.id}>
-              {g.headers.map((h) => (
-                <th key={h.id} scope="col" className="px-3 py-2 font-bold">
-                  <table.FlexRender header={h} />
-                </th>
-              ))}
-            </tr>
-          ))}
-        </thead>
-        <tbody>
-          {table.getRowModel().rows.map((row) => (
-            <tr key={row.id} className="border-b border-rule/60 last:border-0">
-              {row.getAllCells().map((cell) => (
-                <td key={cell.id} className="px-3 py-2 align-top">
-                  <table.FlexRender cell={cell} />
-                </td>
-              ))}
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
-  );
+  return <DataTable columns={columns} data={boards} />;
 }
 
 /** /boards: the register of bench boards; engineers add to it. */

@@ -1,13 +1,12 @@
-import { tableFeatures, useTable, type ColumnDef } from '@tanstack/react-table';
+import { DataTable, type PlainColumn } from '../../../components/data-table';
 import { Link } from 'react-router-dom';
 import type { BuildRecord } from '../api/build-types';
 import { formatBytes, formatMHz, formatWhen, shortSha } from './build-format';
 import { StatusBadge } from './status-badge';
 
-const features = tableFeatures({});
 const mono = 'font-mono text-xs';
 
-const columns: ColumnDef<typeof features, BuildRecord>[] = [
+const columns: PlainColumn<BuildRecord>[] = [
   {
     id: 'label',
     header: 'Build',
@@ -66,33 +65,5 @@ const columns: ColumnDef<typeof features, BuildRecord>[] = [
 
 /** The builds, newest first, one row each. */
 export function BuildsTable({ builds }: { builds: BuildRecord[] }) {
-  const table = useTable({ features, columns, data: builds });
-  return (
-    <div className="overflow-x-auto rounded-lg border border-rule bg-panel">
-      <table className="w-full text-sm" aria-label="Builds">
-        <thead className="border-b border-rule text-left text-xs uppercase tracking-wider text-ink-soft">
-          {table.getHeaderGroups().map((g) => (
-            <tr key={g.id}>
-              {g.headers.map((h) => (
-                <th key={h.id} scope="col" className="px-3 py-2 font-bold">
-                  <table.FlexRender header={h} />
-                </th>
-              ))}
-            </tr>
-          ))}
-        </thead>
-        <tbody>
-          {table.getRowModel().rows.map((row) => (
-            <tr key={row.id} data-testid={`build-row-${row.original.id}`} className="border-b border-rule/60 last:border-0">
-              {row.getAllCells().map((cell) => (
-                <td key={cell.id} className="px-3 py-2 align-top">
-                  <table.FlexRender cell={cell} />
-                </td>
-              ))}
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
-  );
+  return <DataTable columns={columns} data={builds} label="Builds" rowTestId={(b) => `build-row-${b.id}`} />;
 }

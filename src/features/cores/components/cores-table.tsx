@@ -1,9 +1,7 @@
-import { tableFeatures, useTable, type ColumnDef } from '@tanstack/react-table';
+import { DataTable, type PlainColumn } from '../../../components/data-table';
 import { Link } from 'react-router-dom';
 import type { CoreRecord } from '../api/get-cores';
 import { LIMIT_KEYS } from './core-meanings';
-
-const features = tableFeatures({});
 
 /** "16-bit turn angle → 16-bit output, 14 fraction bits, 16 iterations". */
 export function modelSummary(c: CoreRecord): string {
@@ -12,7 +10,7 @@ export function modelSummary(c: CoreRecord): string {
   return `${angle} → ${m.outBits}-bit output, ${m.outFrac} fraction bits, ${m.iterations} iterations`;
 }
 
-const columns: ColumnDef<typeof features, CoreRecord>[] = [
+const columns: PlainColumn<CoreRecord>[] = [
   {
     id: 'name',
     header: 'Core',
@@ -47,33 +45,5 @@ const columns: ColumnDef<typeof features, CoreRecord>[] = [
 
 /** Every core the team tests, by name. */
 export function CoresTable({ cores }: { cores: CoreRecord[] }) {
-  const table = useTable({ features, columns, data: cores });
-  return (
-    <div className="overflow-x-auto rounded-lg border border-rule bg-panel">
-      <table className="w-full text-sm">
-        <thead className="border-b border-rule text-left text-xs uppercase tracking-wider text-ink-soft">
-          {table.getHeaderGroups().map((g) => (
-            <tr key={g.id}>
-              {g.headers.map((h) => (
-                <th key={h.id} scope="col" className="px-3 py-2 font-bold">
-                  <table.FlexRender header={h} />
-                </th>
-              ))}
-            </tr>
-          ))}
-        </thead>
-        <tbody>
-          {table.getRowModel().rows.map((row) => (
-            <tr key={row.id} className="border-b border-rule/60 last:border-0">
-              {row.getAllCells().map((cell) => (
-                <td key={cell.id} className="px-3 py-2 align-top">
-                  <table.FlexRender cell={cell} />
-                </td>
-              ))}
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
-  );
+  return <DataTable columns={columns} data={cores} />;
 }

@@ -1,10 +1,8 @@
-import { tableFeatures, useTable, type ColumnDef } from '@tanstack/react-table';
+import { DataTable, type PlainColumn } from '../../../components/data-table';
 import { useMemo, useState } from 'react';
 import { btn, fieldError, input } from '../../../components/ui';
 import { ROLES, type Role, type TeamUser } from '../api/get-users';
 import { useUpdateUser } from '../api/update-user';
-
-const features = tableFeatures({});
 
 function RoleCell({ user, isMe }: { user: TeamUser; isMe: boolean }) {
   const update = useUpdateUser();
@@ -55,40 +53,12 @@ function AccessCell({ user, isMe }: { user: TeamUser; isMe: boolean }) {
 
 /** Every account, with role and access controls for everyone but yourself. */
 export function UsersTable({ users, meId }: { users: TeamUser[]; meId: number }) {
-  const columns = useMemo<ColumnDef<typeof features, TeamUser>[]>(() => [
+  const columns = useMemo<PlainColumn<TeamUser>[]>(() => [
     { id: 'name', header: 'Name', accessorFn: (u) => u.name, cell: ({ getValue }) => <span className="font-bold">{String(getValue())}</span> },
     { id: 'email', header: 'E-mail', accessorFn: (u) => u.email, cell: ({ getValue }) => <span className="font-mono text-xs">{String(getValue())}</span> },
     { id: 'role', header: 'Role', accessorFn: (u) => u.role, cell: ({ row }) => <RoleCell key={row.original.role} user={row.original} isMe={row.original.id === meId} /> },
     { id: 'access', header: 'Access', accessorFn: (u) => u.disabled, cell: ({ row }) => <AccessCell user={row.original} isMe={row.original.id === meId} /> },
     { id: 'since', header: 'Since', accessorFn: (u) => new Date(u.createdAt).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' }) },
   ], [meId]);
-  const table = useTable({ features, columns, data: users });
-  return (
-    <div className="overflow-x-auto">
-      <table className="w-full text-sm" aria-label="Users">
-        <thead className="border-b border-rule text-left text-xs uppercase tracking-wider text-ink-soft">
-          {table.getHeaderGroups().map((g) => (
-            <tr key={g.id}>
-              {g.headers.map((h) => (
-                <th key={h.id} scope="col" className="px-3 py-2 font-bold">
-                  <table.FlexRender header={h} />
-                </th>
-              ))}
-            </tr>
-          ))}
-        </thead>
-        <tbody>
-          {table.getRowModel().rows.map((row) => (
-            <tr key={row.id} className="border-b border-rule/60 last:border-0" data-testid={`user-${row.original.email}`}>
-              {row.getAllCells().map((cell) => (
-                <td key={cell.id} className="px-3 py-2 align-middle">
-                  <table.FlexRender cell={cell} />
-                </td>
-              ))}
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
-  );
+  return <DataTable columns={columns} data={users} label="Users" rowTestId={(u) => `user-${u.email}`} bare align="middle" />;
 }
