@@ -11,8 +11,8 @@ import { C, copyOrDownload, formatTraffic } from './traffic-format';
 import { btn, input, panel, panelTitle } from '../../../components/ui';
 
 const SCROLLBACK_LINES = 5000;
-const WRITE_EVERY_MS = 100;
-const LINES_PER_WRITE = 300;
+const WRITE_EVERY_MS = 200;
+const LINES_PER_WRITE = 200;
 
 export function TrafficPane({ log }: { log: TrafficLog }) {
   const box = useRef<HTMLDivElement>(null);

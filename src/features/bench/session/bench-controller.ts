@@ -9,6 +9,7 @@ import type { RunRequest } from '../../../../shared/bench/run-request';
 import type { DeviceInfo } from '../../../../shared/link';
 import { angleCodeRange, parseModelConfig, planCodes, type ModelConfig, type Plan, type ScoreSummary } from '../../../../shared/numeric';
 import { ConnectionRecording } from './connection-recording';
+import { LOSS_SILENCE_MS, sweepSegmentFor } from './link-settings';
 import { LiveSamples } from './live-samples';
 import { ScoreClient } from './score-client';
 import type { ToneResult } from './score-protocol';
@@ -52,12 +53,6 @@ const clock = {
 
 /** Progress reaches React at most this often; the engine reports every 100 ms. */
 const PROGRESS_EVERY_MS = 250;
-/**
- * Silence that counts as loss. A page's main thread can stall for several hundred ms (GC, layout,
- * a busy machine) while replies wait in its queue; at the engine's 300 ms default such a stall
- * re-requests everything in flight. Overtaken requests are still detected at once.
- */
-const LOSS_SILENCE_MS = 1000;
 
 export class BenchController {
   readonly traffic = new TrafficLog();
@@ -112,6 +107,7 @@ export class BenchController {
         clock,
         baud,
         timeoutMs: LOSS_SILENCE_MS,
+        sweepSegment: sweepSegmentFor(baud),
         onTraffic: (direction, bytes, atMs) => {
           recording.traffic(direction, bytes, atMs);
           this.traffic.push({ type: 'bytes', direction, bytes: bytes.slice(), atMs });

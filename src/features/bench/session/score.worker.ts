@@ -10,7 +10,7 @@ import { contiguousRuns } from './index-runs';
 import { ScoredBuffer } from './scored-buffer';
 
 const SUMMARY_EVERY_MS = 250;
-const SCORED_EVERY_MS = 100;
+const SCORED_EVERY_MS = 200;
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 
 let acc: ScoreAccumulator | null = null;
