@@ -137,7 +137,7 @@ describe('the Sessions list and Session page for a reviewer', () => {
     const table = page.getByRole('table', { name: 'Verdict per limit' });
     await table.waitFor();
     expect(await page.getByTestId('verdict-maxAbsErrorLsb').textContent()).toContain('Fail');
-    expect(await page.getByTestId('verdict-maxModelMismatches').textContent()).toMatch(/at most 0\s*10.*Fail/);
+    expect(await page.getByTestId('verdict-maxModelMismatches').textContent()).toMatch(/at most 0.*10.*Fail/);
     expect(await page.getByTestId('verdict-minSfdrDb').textContent()).toContain('Not measured');
     await page.getByRole('heading', { name: 'Notes and tags' }).waitFor();
     expect(await page.getByTestId('session-notes').textContent()).toBe('ten answers off by 40 LSB');
@@ -192,7 +192,20 @@ describe('the Session page for an engineer', () => {
     await page.reload();
     await expect.poll(() => page.getByTestId('session-notes').textContent()).toBe('Re-run after the clock fix: <b>clean</b>.');
     expect(await page.getByRole('list', { name: 'Tags' }).textContent()).toContain('rerun');
+  });
+
+  it('makes a passing session its core’s baseline', async () => {
+    const page = await newPage();
+    await signIn(page, 'engineer@anglebench.test', `/sessions/${passingId}`);
     // The button waits for the core (its baseline) to load.
     await expect.poll(() => page.getByRole('button', { name: 'Set as baseline' }).count()).toBe(1);
+    await page.getByRole('button', { name: 'Set as baseline' }).click();
+    await expect.poll(() => page.getByTestId('baseline-state').textContent()).toContain('This session is its core’s baseline');
+    expect(await page.getByRole('button', { name: 'Set as baseline' }).count()).toBe(0);
+    expect(await page.getByRole('link', { name: 'Compare with baseline' }).count()).toBe(0);
+    // The failing session now compares against it.
+    await page.goto(`${app.url}/sessions/${failingId}`);
+    await expect.poll(() => page.getByRole('link', { name: 'Compare with baseline' }).getAttribute('href')).toBe(`/compare?ids=${passingId},${failingId}`);
+    expect(await page.getByRole('button', { name: 'Set as baseline' }).count()).toBe(0);
   });
 });

@@ -1,6 +1,6 @@
 import { Link } from 'react-router-dom';
 import { btn, fieldError, panel, panelTitle } from '../../../components/ui';
-import type { CoreRecord } from '../api/get-lookups';
+import type { CoreRecord } from '../api/lookup-types';
 import type { SessionRecord } from '../api/session-types';
 import { useUpdateSession } from '../api/update-session';
 

@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { panel, panelTitle } from '../../../components/ui';
 import { useMe } from '../../auth/api/get-me';
-import { useCore } from '../api/get-lookups';
+import { useCore } from '../api/get-core';
 import { useSession } from '../api/get-session';
 import { CapturePane } from '../capture/capture-pane';
 import { LocalBoundary } from '../components/local-boundary';

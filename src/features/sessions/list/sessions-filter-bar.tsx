@@ -1,6 +1,8 @@
 import { useState } from 'react';
 import { btn, input, label } from '../../../components/ui';
-import { useBoardList, useBuildList, useCoreList } from '../api/get-lookups';
+import { useBoardList } from '../api/get-boards';
+import { useBuildList } from '../api/get-builds';
+import { useCoreList } from '../api/get-cores';
 import type { Named } from '../api/session-types';
 import { activeFilterCount, DEFAULT_FILTERS, type SessionFilters } from './session-filters';
 

@@ -2,7 +2,7 @@ import type { RowSelectionState } from '@tanstack/react-table';
 import { useCallback, useMemo, useState } from 'react';
 import { useNavigate, useSearchParams } from 'react-router-dom';
 import { btn, btnPrimary } from '../../../components/ui';
-import { useCoreList } from '../api/get-lookups';
+import { useCoreList } from '../api/get-cores';
 import { useSessions } from '../api/get-sessions';
 import type { Named } from '../api/session-types';
 import { MAX_COMPARE } from './session-columns';
