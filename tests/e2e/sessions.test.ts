@@ -143,8 +143,15 @@ describe('the Sessions list and Session page for a reviewer', () => {
     expect(await page.getByTestId('session-notes').textContent()).toBe('ten answers off by 40 LSB');
     expect(await page.getByRole('button', { name: 'Edit notes and tags' }).count()).toBe(0);
     expect(await page.getByRole('button', { name: 'Set as baseline' }).count()).toBe(0);
-    // Reviewers may still comment.
-    expect(await page.getByRole('button', { name: 'Post comment' }).count()).toBe(1);
+    // Reviewers comment; markup in a comment is shown as the text it is.
+    await page.getByLabel('Your comment').fill('Seen: <b>ten</b> codes off, <img src=x onerror=alert(1)>');
+    await page.getByRole('button', { name: 'Post comment' }).click();
+    const thread = page.getByRole('list', { name: 'Comments on this session' });
+    await expect.poll(() => thread.textContent()).toContain('Seen: <b>ten</b> codes off, <img src=x onerror=alert(1)>');
+    expect(await thread.locator('b, img').count()).toBe(0);
+    expect(await thread.textContent()).toContain('Mei Lindqvist');
+    await thread.getByRole('button', { name: 'Delete this comment' }).click();
+    await expect.poll(() => page.getByText('No comments yet.').isVisible()).toBe(true);
   });
 });
 
