@@ -78,8 +78,8 @@ describe('the Compare page in a real browser', () => {
     expect(await listed.locator('tbody tr td:first-child').allTextContents()).toEqual(ALTERED.map(String));
 
     const failing = page.getByTestId(`verdict-${ids.altered}-maxModelMismatches`);
-    expect(await failing.textContent()).toMatch(/Model mismatches\s*at most 0\s*5\s*FAIL/);
-    expect(await page.getByTestId(`verdict-${ids.good}-maxModelMismatches`).textContent()).toMatch(/0\s*PASS$/);
+    expect(await failing.textContent()).toMatch(/Model mismatches\s*at most 0 results\s*5 results\s*FAIL/);
+    expect(await page.getByTestId(`verdict-${ids.good}-maxModelMismatches`).textContent()).toMatch(/0 results\s*PASS$/);
     expect(await page.getByTestId(`verdict-${ids.good}`).textContent()).not.toContain('FAIL');
     // The statistics say the mismatches got worse, in words as well as colour.
     expect(await page.getByTestId('stat-row-modelMismatches').textContent()).toContain('▲ +5 worse');

@@ -39,14 +39,14 @@ describe('the core page for an engineer', () => {
   it('keeps a changed limit after a reload, as the server stored it', async () => {
     const page = await signIn('engineer');
     await openReferenceCore(page);
-    const largest = page.getByLabel('Largest error');
+    const largest = page.getByLabel('Largest |error|');
     expect(await largest.inputValue()).toBe('4'); // the seeded limit
     await largest.fill('5.5');
     await page.getByRole('button', { name: 'Save changes' }).click();
     await poll(() => page.getByRole('status').filter({ hasText: 'Saved at' }).count()).toBe(1);
 
     await page.reload();
-    await poll(() => page.getByLabel('Largest error').inputValue()).toBe('5.5');
+    await poll(() => page.getByLabel('Largest |error|').inputValue()).toBe('5.5');
     const coreId = Number(new URL(page.url()).pathname.split('/').pop());
     const stored = await page.evaluate(async (id) => (await (await fetch(`/api/cores/${id}`)).json()) as { core: { limits: Record<string, number> } }, coreId);
     expect(stored.core.limits.maxAbsErrorLsb).toBe(5.5);
@@ -146,7 +146,7 @@ describe('the core page for a reviewer', () => {
     await poll(() => page.getByRole('heading', { name: 'Acceptance limits' }).isVisible()).toBe(true);
     const coreId = Number(new URL(page.url()).pathname.split('/').pop());
     const stored = await page.evaluate(async (id) => (await (await fetch(`/api/cores/${id}`)).json()) as { core: { limits: Record<string, number> } }, coreId);
-    expect(await page.getByTestId('value-Largest error').textContent()).toBe(`at most ${stored.core.limits.maxAbsErrorLsb} LSB`);
+    expect(await page.getByTestId('value-Largest |error|').textContent()).toBe(`at most ${stored.core.limits.maxAbsErrorLsb} LSB`);
     expect(await page.locator('main input, main select, main textarea').count()).toBe(0);
     for (const name of ['Save changes', 'Clear baseline', 'Upload', 'New core']) {
       expect(await page.getByRole('button', { name }).count()).toBe(0);

@@ -1,17 +1,10 @@
+import { LIMIT_MEANINGS } from '../../../../shared/bench/limits';
 import { panel, panelTitle } from '../../../components/ui';
 import type { ComparedSession, LimitOutcome } from '../api/compare-types';
 import { sessionName } from './chart-data';
 
 // Limit names as the rest of the app words them.
-const LIMITS: Record<string, { name: string; unit: string; atMost: boolean }> = {
-  maxAbsErrorLsb: { name: 'Largest |error|', unit: 'LSB', atMost: true },
-  maxRmsErrorLsb: { name: 'RMS error', unit: 'LSB', atMost: true },
-  maxAbsBiasLsb: { name: 'Mean error (bias)', unit: 'LSB', atMost: true },
-  minSfdrDb: { name: 'SFDR', unit: 'dB', atMost: false },
-  maxModelMismatches: { name: 'Model mismatches', unit: '', atMost: true },
-  maxLinkErrors: { name: 'Link errors', unit: '', atMost: true },
-  minCoveragePct: { name: 'Code coverage', unit: '%', atMost: false },
-};
+const LIMITS: Record<string, { name: string; unit: string; atMost: boolean }> = LIMIT_MEANINGS;
 const ORDER = Object.keys(LIMITS);
 const num = (v: number) => v.toLocaleString('en-US', { maximumFractionDigits: 4 });
 

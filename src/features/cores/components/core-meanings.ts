@@ -1,6 +1,6 @@
 // Plain words for every key of a core: the form labels them, the read-only view explains them.
 // Meanings follow docs/model.md (model keys) and server/services/session-scoring.ts (limits).
-import type { LimitKey } from '../../../../shared/bench/limits';
+import { LIMIT_KEYS, LIMIT_MEANINGS, type LimitKey } from '../../../../shared/bench/limits';
 
 export interface LimitMeaning {
   label: string;
@@ -10,19 +10,14 @@ export interface LimitMeaning {
   explain: string;
 }
 
-export const LIMIT_KEYS: readonly LimitKey[] = [
-  'maxAbsErrorLsb', 'maxRmsErrorLsb', 'maxAbsBiasLsb', 'minSfdrDb', 'maxModelMismatches', 'maxLinkErrors', 'minCoveragePct',
-];
+export { LIMIT_KEYS };
 
-export const LIMITS: Record<LimitKey, LimitMeaning> = {
-  maxAbsErrorLsb: { label: 'Largest error', unit: 'LSB', bound: 'at most', explain: 'Largest |error| of any cos or sin code against the exact value, in LSB.' },
-  maxRmsErrorLsb: { label: 'RMS error', unit: 'LSB', bound: 'at most', explain: 'Root-mean-square error of all cos and sin codes against the exact values, in LSB.' },
-  maxAbsBiasLsb: { label: 'Bias', unit: 'LSB', bound: 'at most', explain: 'Mean error of the cos codes or of the sin codes, whichever is further from zero, in LSB.' },
-  minSfdrDb: { label: 'SFDR', unit: 'dB', bound: 'at least', explain: 'Spurious-free dynamic range of a coherent-tone run, in dB; other runs leave it unchecked.' },
-  maxModelMismatches: { label: 'Model mismatches', unit: 'results', bound: 'at most', explain: 'Results whose cos or sin code differs from the bit-accurate model’s answer.' },
-  maxLinkErrors: { label: 'Link errors', unit: 'frames', bound: 'at most', explain: 'Frames that failed their check on the link during the run, as the bench or runner counted them.' },
-  minCoveragePct: { label: 'Coverage', unit: '%', bound: 'at least', explain: 'Share of the core’s angle codes the session asked about, in percent.' },
-};
+export const LIMITS = Object.fromEntries(
+  LIMIT_KEYS.map((k) => {
+    const m = LIMIT_MEANINGS[k];
+    return [k, { label: m.name, unit: m.unit, bound: m.atMost ? 'at most' : 'at least', explain: m.explain }];
+  }),
+) as Record<LimitKey, LimitMeaning>;
 
 export type ModelKey = 'angleFormat' | 'angleBits' | 'angleFrac' | 'outBits' | 'outFrac' | 'iterations' | 'guardBits' | 'zGuardBits' | 'shiftRounding' | 'outputRounding' | 'fold';
 

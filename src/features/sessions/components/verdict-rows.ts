@@ -1,23 +1,9 @@
 // A session's verdict per limit, in words: what each limit is, what was measured, and by how
 // much it was met or missed (margin > 0: met with room; < 0: missed by that much).
+import { LIMIT_MEANINGS } from '../../../../shared/bench/limits';
 import type { LimitOutcome, Verdict } from '../api/session-types';
 
-interface LimitMeta {
-  name: string;
-  unit: string;
-  /** True when the measured value must stay at or below the limit. */
-  atMost: boolean;
-}
-
-export const LIMIT_META: Record<string, LimitMeta> = {
-  maxAbsErrorLsb: { name: 'Largest |error|', unit: 'LSB', atMost: true },
-  maxRmsErrorLsb: { name: 'RMS error', unit: 'LSB', atMost: true },
-  maxAbsBiasLsb: { name: 'Mean error (bias)', unit: 'LSB', atMost: true },
-  minSfdrDb: { name: 'SFDR', unit: 'dB', atMost: false },
-  maxModelMismatches: { name: 'Model mismatches', unit: '', atMost: true },
-  maxLinkErrors: { name: 'Link errors', unit: '', atMost: true },
-  minCoveragePct: { name: 'Code coverage', unit: '%', atMost: false },
-};
+export const LIMIT_META: Record<string, { name: string; unit: string; atMost: boolean }> = LIMIT_MEANINGS;
 const ORDER = Object.keys(LIMIT_META);
 
 export type Outcome = 'pass' | 'fail' | 'not measured';
