@@ -214,6 +214,7 @@ describe('the Bench page against the simulated board', () => {
     await restore.click();
     await expect.poll(() => page.getByTestId('stat-scored').textContent()).toContain('4,096');
     expect(await page.getByTestId('stat-mismatches').textContent()).toBe('0');
+    expect(await page.getByTestId('run-progress').textContent()).toBe('4,096 / 4,096');
     await expect.poll(() => page.getByTestId('tone-sfdr-cos').textContent()).toBe(`${sfdr.toFixed(1)} dB`);
     expect(await page.getByRole('button', { name: 'Save session' }).isVisible()).toBe(true);
     await page.screenshot({ path: '/tmp/bench-1280-restored.png', fullPage: true });

@@ -1,3 +1,4 @@
+import { Fragment } from 'react';
 import type { ToneResult } from '../session/score-protocol';
 
 const db = (v: number) => (Number.isFinite(v) ? `${v.toFixed(1)} dB` : v > 0 ? '∞ dB' : '—');
@@ -34,18 +35,24 @@ export function ToneFigures({ tone }: { tone: ToneResult }) {
           </thead>
           <tbody>
             {ROWS.map((r) => (
-              <tr key={r.key} className="align-top">
-                <th scope="row" className="pr-2 font-normal">
-                  {r.name}
-                  <span className="block text-xs text-ink-soft">{r.says}</span>
-                </th>
-                <td className="pr-2 font-mono whitespace-nowrap" data-testid={`tone-${r.key}-cos`}>
-                  {r.show(tone.cos)}
-                </td>
-                <td className="font-mono whitespace-nowrap" data-testid={`tone-${r.key}-sin`}>
-                  {r.show(tone.sin)}
-                </td>
-              </tr>
+              <Fragment key={r.key}>
+                <tr>
+                  <th scope="row" className="pr-2 font-normal">
+                    {r.name}
+                  </th>
+                  <td className="pr-2 font-mono whitespace-nowrap" data-testid={`tone-${r.key}-cos`}>
+                    {r.show(tone.cos)}
+                  </td>
+                  <td className="font-mono whitespace-nowrap" data-testid={`tone-${r.key}-sin`}>
+                    {r.show(tone.sin)}
+                  </td>
+                </tr>
+                <tr>
+                  <td colSpan={3} className="pb-1 text-xs text-ink-soft">
+                    {r.says}
+                  </td>
+                </tr>
+              </Fragment>
             ))}
           </tbody>
         </table>

@@ -54,6 +54,14 @@ const clock = {
 /** Progress reaches React at most this often; the engine reports every 100 ms. */
 const PROGRESS_EVERY_MS = 250;
 
+/** Where a restored run ended, as the progress bar shows it. */
+function restoredProgress(r: RunRecord): RunProgress {
+  let answered = 0;
+  for (let i = 0; i < r.answered.length; i++) answered += r.answered[i] ? 1 : 0;
+  const missing = r.outcome?.missing ?? r.codes.length - answered;
+  return { done: answered + missing, answered, missing, total: r.codes.length, ratePerS: r.figures?.resultsPerS ?? 0, etaS: null, elapsedMs: r.outcome?.elapsedMs ?? 0, paused: false };
+}
+
 export class BenchController {
   readonly traffic = new TrafficLog();
   samples: LiveSamples | null = null;
@@ -242,7 +250,7 @@ export class BenchController {
       this.set({
         restorable: null,
         storeMessage: null,
-        run: { state: 'finished', progress: null, result: record.outcome, summary: null, tone: null, figures: record.figures, error: null, plan: record.plan, restoredFrom: storedAt },
+        run: { state: 'finished', progress: restoredProgress(record), result: record.outcome, summary: null, tone: null, figures: record.figures, error: null, plan: record.plan, restoredFrom: storedAt },
       });
       const indexes: number[] = [];
       for (let i = 0; i < record.codes.length; i++) if (record.answered[i]) indexes.push(i);
