@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fromStoredRun, StoredRunError, toStoredRun, UNSAVED_RUN_VERSION, type RunRecord } from '../../../src/features/bench/session/unsaved-run';
+import { fromStoredRun, restoredProgress, StoredRunError, toStoredRun, UNSAVED_RUN_VERSION, type RunRecord } from '../../../src/features/bench/session/unsaved-run';
 import { parseModelConfig, planCodes, type Plan } from '../../../shared/numeric';
 
 function record(plan: Plan = { kind: 'tone', cycles: 3, samples: 16 }): RunRecord {
@@ -56,5 +56,12 @@ describe('an unsaved run kept in the browser', () => {
     expect(() => fromStoredRun({ ...stored, cos: stored.cos.subarray(0, 8) })).toThrow(/8 entries for a plan of 16/);
     expect(() => fromStoredRun({ ...stored, answered: Array.from(stored.answered) })).toThrow(/typed arrays/);
     expect(() => fromStoredRun({ ...stored, plan: { kind: 'tone', cycles: 4, samples: 16 } })).toThrow(/plan or core profile no longer reads: .*coprime/);
+  });
+});
+
+describe('where a restored run ended', () => {
+  it('counts answered and missing results against the plan, with the run’s time and rate', () => {
+    const r = { ...record(), figures: { resultsPerS: 2048 } as RunRecord['figures'] };
+    expect(restoredProgress(r)).toEqual({ done: 16, answered: 15, missing: 1, total: 16, ratePerS: 2048, etaS: null, elapsedMs: 2000, paused: false });
   });
 });

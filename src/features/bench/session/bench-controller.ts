@@ -14,7 +14,7 @@ import { LiveSamples } from './live-samples';
 import { ScoreClient } from './score-client';
 import type { ToneResult } from './score-protocol';
 import { TrafficLog } from './traffic-log';
-import { fromStoredRun, toStoredRun, type RunOutcome, type RunRecord } from './unsaved-run';
+import { fromStoredRun, restoredProgress, toStoredRun, type RunOutcome, type RunRecord } from './unsaved-run';
 import { unsavedRunStore, type UnsavedRunStore } from './unsaved-run-store';
 
 export type { RunRecord } from './unsaved-run';
@@ -53,14 +53,6 @@ const clock = {
 
 /** Progress reaches React at most this often; the engine reports every 100 ms. */
 const PROGRESS_EVERY_MS = 250;
-
-/** Where a restored run ended, as the progress bar shows it. */
-function restoredProgress(r: RunRecord): RunProgress {
-  let answered = 0;
-  for (let i = 0; i < r.answered.length; i++) answered += r.answered[i] ? 1 : 0;
-  const missing = r.outcome?.missing ?? r.codes.length - answered;
-  return { done: answered + missing, answered, missing, total: r.codes.length, ratePerS: r.figures?.resultsPerS ?? 0, etaS: null, elapsedMs: r.outcome?.elapsedMs ?? 0, paused: false };
-}
 
 export class BenchController {
   readonly traffic = new TrafficLog();

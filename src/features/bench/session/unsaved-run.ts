@@ -1,6 +1,6 @@
 // The latest run's results as kept in the browser until they are saved or discarded: plain,
 // structured-clone-safe data. The codes are not kept: the plan and model make them again.
-import type { LinkFigures } from '../../../../shared/bench/link-figures';
+import type { LinkFigures, RunProgress } from '../../../../shared/bench/link-figures';
 import type { DeviceInfo } from '../../../../shared/link';
 import { parseModelConfig, planCodes, planSchema, type ModelConfig, type Plan } from '../../../../shared/numeric';
 
@@ -117,4 +117,12 @@ export function fromStoredRun(raw: unknown): RunRecord {
     outcome: s.outcome ?? null,
     figures: s.figures ?? null,
   };
+}
+
+/** Where a restored run ended, as the progress bar shows it. */
+export function restoredProgress(r: RunRecord): RunProgress {
+  let answered = 0;
+  for (let i = 0; i < r.answered.length; i++) answered += r.answered[i] ? 1 : 0;
+  const missing = r.outcome?.missing ?? r.codes.length - answered;
+  return { done: answered + missing, answered, missing, total: r.codes.length, ratePerS: r.figures?.resultsPerS ?? 0, etaS: null, elapsedMs: r.outcome?.elapsedMs ?? 0, paused: false };
 }
