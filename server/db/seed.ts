@@ -7,6 +7,9 @@ import { recordAudit } from '../services/audit';
 import { Board, Build, Core, CoreWatcher, initModels, Review, User, type Role } from './models';
 import { seedDemoSessions, seedGoldenVectors } from './seed-sessions';
 
+// Builds are dated before the sessions that ran on them (server/db/seed-sessions.ts).
+const daysAgo = (days: number) => new Date(Date.now() - days * 86_400_000);
+
 export const DEMO_ACCOUNTS: ReadonlyArray<{ email: string; name: string; role: Role }> = [
   { email: 'admin@anglebench.test', name: 'Ines Okafor', role: 'admin' },
   { email: 'engineer@anglebench.test', name: 'Tomas Brandvold', role: 'engineer' },
@@ -59,10 +62,10 @@ export async function seedIfEmpty(db: Sequelize, password: string, bcryptCost = 
 
     const builds = await Build.bulkCreate(
       [
-        { coreId: reference.id, label: 'ref16-r1', sourceRevision: 'a41c9e0', toolVersion: 'synth 2024.2', clockMHz: 150, notes: 'First silicon-ready netlist.', createdById: engineer.id },
-        { coreId: reference.id, label: 'ref16-r2', sourceRevision: 'c07d5b2', toolVersion: 'synth 2024.2', clockMHz: 200, notes: 'Pipelined the last four stages for timing.', createdById: engineer.id },
-        { coreId: reference.id, label: 'ref16-r3', sourceRevision: 'e9f3310', toolVersion: 'synth 2025.1', clockMHz: 200, notes: 'Tool upgrade; no RTL change.', createdById: engineer.id },
-        { coreId: mixer.id, label: 'nco18-r1', sourceRevision: '5b8a2fd', toolVersion: 'synth 2025.1', clockMHz: 245.76, notes: 'Rounded shifts, three guard bits.', createdById: engineer.id },
+        { coreId: reference.id, label: 'ref16-r1', createdAt: daysAgo(31), sourceRevision: 'a41c9e0', toolVersion: 'synth 2024.2', clockMHz: 150, notes: 'First silicon-ready netlist.', createdById: engineer.id },
+        { coreId: reference.id, label: 'ref16-r2', createdAt: daysAgo(22), sourceRevision: 'c07d5b2', toolVersion: 'synth 2024.2', clockMHz: 200, notes: 'Pipelined the last four stages for timing.', createdById: engineer.id },
+        { coreId: reference.id, label: 'ref16-r3', createdAt: daysAgo(3), sourceRevision: 'e9f3310', toolVersion: 'synth 2025.1', clockMHz: 200, notes: 'Tool upgrade; no RTL change.', createdById: engineer.id },
+        { coreId: mixer.id, label: 'nco18-r1', createdAt: daysAgo(27), sourceRevision: '5b8a2fd', toolVersion: 'synth 2025.1', clockMHz: 245.76, notes: 'Rounded shifts, three guard bits.', createdById: engineer.id },
       ],
       opts,
     );
