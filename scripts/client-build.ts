@@ -51,6 +51,15 @@ export async function buildClientIfStale(log: (msg: string) => void = console.lo
   await withBuildLock(async () => {
     if (!clientIsStale()) return; // another run built it while this one waited
     log('Building the client…');
-    await build({ root: projectRoot, logLevel: 'warn' });
+    // Always the production build: under vitest NODE_ENV is "test", and Vite would bundle React's
+    // development build, which `npm start` would then serve.
+    const nodeEnv = process.env.NODE_ENV;
+    process.env.NODE_ENV = 'production';
+    try {
+      await build({ root: projectRoot, mode: 'production', logLevel: 'warn' });
+    } finally {
+      if (nodeEnv === undefined) delete process.env.NODE_ENV;
+      else process.env.NODE_ENV = nodeEnv;
+    }
   });
 }
