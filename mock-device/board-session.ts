@@ -3,7 +3,7 @@
 import { createSimCore, type CoreFault } from './faulty-core';
 import { LineFaults, noLineFaults, type LineFaultSettings } from './line-faults';
 import { LinePacer, realClock, type PacerClock } from './line-pacer';
-import { SimulatedBoard } from './simulated-board';
+import { DEFAULT_LINE_LOW_MARK, SimulatedBoard } from './simulated-board';
 import type { ModelConfigInput } from '../shared/numeric';
 
 export interface BoardSettings {
@@ -63,6 +63,7 @@ export function openBoardSession(settings: BoardSettings, deliver: (bytes: Uint8
     buildId: settings.buildId,
     clockKHz: settings.clockKHz,
     name: settings.name,
+    lineLowMark: lineLowMark(settings.baud),
     send: (bytes) => {
       pacer.write(bytes);
       return pacer.queuedBytes;
@@ -76,4 +77,12 @@ export function openBoardSession(settings: BoardSettings, deliver: (bytes: Uint8
       pacer.stop();
     },
   };
+}
+
+/**
+ * 10 ms of line at the board's rate (1 KiB at the least): enough that a late timer does not leave
+ * the line idle, little enough that a PAUSE still stops the results within about 10 ms.
+ */
+export function lineLowMark(baud: number): number {
+  return Math.max(DEFAULT_LINE_LOW_MARK, Math.round(baud / 10 / 100));
 }

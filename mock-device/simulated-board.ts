@@ -17,14 +17,20 @@ export interface BoardOptions {
   crc?: Crc8Name;
   /** Bytes for the line; returns how many bytes wait on it (the board fills up to a low mark). */
   send: (bytes: Uint8Array) => number;
+  /** Bytes a sweep keeps queued on the line (default DEFAULT_LINE_LOW_MARK). */
+  lineLowMark?: number;
 }
 
 type Job =
   | { kind: 'list'; tag: number; codes: number[]; next: number }
   | { kind: 'sweep'; tag: number; start: number; step: number; count: number; next: number };
 
-/** Keep only this much queued on the line, so PAUSE and ABORT take effect quickly. */
-const LINE_LOW_MARK = 1024;
+/**
+ * How much a sweep keeps queued on the line by default. Little, so PAUSE and ABORT take effect
+ * quickly; but a queue shorter than a few timer ticks of line time runs dry whenever the event
+ * loop is late, and the line idles (board-session.ts sizes it to the baud rate).
+ */
+export const DEFAULT_LINE_LOW_MARK = 1024;
 
 export class SimulatedBoard {
   private readonly decoder: FrameDecoder;
@@ -58,7 +64,7 @@ export class SimulatedBoard {
   /** The line has room again: produce more results. `queued` is what still waits on it. */
   fill(queued: number) {
     let waiting = queued;
-    while (!this.paused && waiting < LINE_LOW_MARK && this.jobs.length > 0) waiting = this.produce();
+    while (!this.paused && waiting < (this.o.lineLowMark ?? DEFAULT_LINE_LOW_MARK) && this.jobs.length > 0) waiting = this.produce();
   }
 
   private reply(m: Message, tag: number): number {
