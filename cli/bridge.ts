@@ -8,6 +8,8 @@ import { parseArgs } from 'node:util';
 import { WebSocketServer, type WebSocket } from 'ws';
 import type { CliIo } from './io';
 import { SerialLink } from './transport/serial-link';
+import { ChunkCoalescer } from '../shared/bench/chunk-coalescer';
+import { realClock } from './clock';
 
 const HELP = `usage: npm run --silent cli -- bridge --device <serial path> --ws-port N --token T [options]
 
@@ -70,7 +72,7 @@ export async function startBridge(o: BridgeOptions, deps: BridgeDeps = {}): Prom
   const log = deps.log ?? ((line: string) => console.log(line));
   const link = await SerialLink.open({ path: o.device, baud: o.baud, binding: deps.serialBinding });
   const wss = new WebSocketServer({ port: o.port, host: o.host, maxPayload: MAX_MESSAGE_BYTES });
-  let active: { ws: WebSocket; touch: () => void; count: (dir: 'in' | 'out', n: number) => void } | null = null;
+  let active: { ws: WebSocket; outgoing: ChunkCoalescer; touch: () => void; count: (dir: 'in' | 'out', n: number) => void } | null = null;
   let connections = 0;
   let endedWith: (reason: string | null) => void = () => {};
   const ended = new Promise<string | null>((r) => (endedWith = r));
@@ -79,7 +81,7 @@ export async function startBridge(o: BridgeOptions, deps: BridgeDeps = {}): Prom
     if (!active || active.ws.readyState !== active.ws.OPEN) return; // nobody listening: the line's bytes fall away
     active.count('out', bytes.length);
     active.touch();
-    active.ws.send(bytes, { binary: true });
+    active.outgoing.push(bytes);
   });
   link.onWarning((m) => log(`[bridge] ${o.device}: ${m}`));
   link.onClose((r) => {
@@ -114,7 +116,9 @@ export async function startBridge(o: BridgeOptions, deps: BridgeDeps = {}): Prom
         ws.close(IDLE, closeNote);
       }, o.idleTimeoutS * 1000);
     };
-    active = { ws, touch, count: (dir, n) => (dir === 'in' ? (toBoard += n) : (toClient += n)) };
+    // The port's small reads, merged: a message per USB packet costs a browser more than the bytes.
+    const outgoing = new ChunkCoalescer({ clock: realClock, emit: (bytes) => ws.readyState === ws.OPEN && ws.send(bytes, { binary: true }) });
+    active = { ws, outgoing, touch, count: (dir, n) => (dir === 'in' ? (toBoard += n) : (toClient += n)) };
     touch();
     ws.on('message', (data, isBinary) => {
       if (!isBinary) return; // text has no place on a byte line: ignored
@@ -126,6 +130,7 @@ export async function startBridge(o: BridgeOptions, deps: BridgeDeps = {}): Prom
     ws.on('error', () => undefined); // oversized or broken frames: 'close' follows
     ws.on('close', (code, reason) => {
       clearTimeout(idleTimer);
+      outgoing.close();
       if (active?.ws === ws) active = null;
       const why = closeNote || reason.toString() || `code ${code}`;
       log(`[bridge] connection ${id} from ${peer}: ${((Date.now() - started) / 1000).toFixed(1)} s, ${toBoard} B to the board, ${toClient} B to the client, closed (${why})`);

@@ -3,7 +3,7 @@
 // capture archive and the session upload. Exit 0 pass, 1 a limit fails, 2 any error.
 import { writeFileSync } from 'node:fs';
 import type { ByteLink } from '../shared/bench/byte-link';
-import { LinkEngine, type EngineClock, type RunResult } from '../shared/bench/link-engine';
+import { LinkEngine, type RunResult } from '../shared/bench/link-engine';
 import { DEFAULT_CRC8, type DeviceInfo } from '../shared/link';
 import { parseModelConfig, type ModelConfig } from '../shared/numeric';
 import { openDevice, type DeviceDeps } from './device';
@@ -16,6 +16,7 @@ import { humanReport, jsonSummary, type RunReport } from './run-report';
 import { scoreRun } from './run-score';
 import { fetchCore, packSamples, ServerError, uploadSession, type Fetch, type ServerCore } from './run-server';
 import { judge, type Limits } from './run-verdict';
+import { realClock } from './clock';
 
 /** What `run` touches besides the CLI streams, so tests can swap it. */
 export interface RunDeps extends DeviceDeps {
@@ -28,13 +29,7 @@ export interface RunDeps extends DeviceDeps {
 /** Something went wrong that is not the core's fault: exit status 2 with this one line. */
 class RunError extends Error {}
 
-const clock: EngineClock = {
-  now: () => performance.now(),
-  after: (ms, fn) => {
-    const t = setTimeout(fn, ms);
-    return () => clearTimeout(t);
-  },
-};
+const clock = realClock;
 
 const oneLine = (text: string) => text.replace(/\s*\n\s*/g, ' ').trim();
 

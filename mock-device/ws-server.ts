@@ -3,6 +3,8 @@
 import type { AddressInfo } from 'node:net';
 import { WebSocketServer, type WebSocket } from 'ws';
 import { openBoardSession, type BoardSettings } from './board-session';
+import { ChunkCoalescer } from '../shared/bench/chunk-coalescer';
+import { realClock } from './line-pacer';
 
 /** Host messages above this are refused (a UART host never sends megabytes at once). */
 const MAX_MESSAGE_BYTES = 64 * 1024;
@@ -32,9 +34,11 @@ export function startMockServer(settings: BoardSettings, port: number, host = '1
     const started = Date.now();
     let rx = 0;
     let tx = 0;
+    // The pacer's 1 ms chunks, merged: a message per chunk costs a browser more than the bytes.
+    const outgoing = new ChunkCoalescer({ clock: realClock, emit: (bytes) => ws.readyState === ws.OPEN && ws.send(bytes) });
     const session = openBoardSession(settings, (bytes) => {
       tx += bytes.length;
-      if (ws.readyState === ws.OPEN) ws.send(bytes);
+      outgoing.push(bytes);
     });
     ws.on('message', (data, isBinary) => {
       if (!isBinary) return; // text has no place on a byte line: ignored
@@ -44,6 +48,7 @@ export function startMockServer(settings: BoardSettings, port: number, host = '1
     });
     ws.on('error', () => undefined); // oversized or broken frames: 'close' follows
     ws.on('close', (code) => {
+      outgoing.close();
       session.close();
       if (active === ws) active = null;
       const f = session.faults.counts;
