@@ -4,7 +4,7 @@
 import { SamplePackError, unpackSamples, type UnpackedSamples } from '../../shared/bench/sample-pack';
 import { HttpError } from '../http-error';
 import { modelConfigSchema, limitsSchema } from '../schemas/core';
-import { planCodes, planSchema, SpectralError, toneFigures, type ToneFigures } from '../../shared/numeric';
+import { planCodes, planSchema, PROFILE_BINS, SpectralError, toneFigures, type ToneFigures } from '../../shared/numeric';
 import { ScoreAccumulator, type ScoreSummary } from '../../shared/numeric/score';
 import type { z } from 'zod';
 
@@ -23,11 +23,15 @@ export function decodeSamples(bytes: Uint8Array, angleFormat: 'turn' | 'rad'): D
   }
 }
 
-/** Score decoded samples with the core's model. @throws HttpError 400 for codes the model refuses. */
-export function scoreSamples(modelConfig: unknown, samples: DecodedSamples): ScoreSummary {
+/**
+ * Score decoded samples with the core's model, with the 64-bin error profile the session list draws.
+ * @throws HttpError 400 for codes the model refuses.
+ */
+export function scoreSamples(modelConfig: unknown, samples: DecodedSamples): { stats: ScoreSummary; profile: number[] } {
   const config = modelConfigSchema.parse(modelConfig);
   try {
-    return new ScoreAccumulator(config).add(samples.codes, samples.cos, samples.sin).summary();
+    const acc = new ScoreAccumulator(config, { profileBins: PROFILE_BINS }).add(samples.codes, samples.cos, samples.sin);
+    return { stats: acc.summary(), profile: acc.profile()! };
   } catch (err) {
     throw new HttpError(400, 'bad_samples', `samples: ${(err as Error).message}`);
   }

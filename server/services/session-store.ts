@@ -2,7 +2,6 @@
 // imported archive or CSV, the demo seed). The samples are scored here with the core's model and
 // judged against its limits, all in the caller's transaction, so a failure leaves nothing behind.
 import type { Transaction } from 'sequelize';
-import { errorProfile } from '../../shared/numeric';
 import { BenchSession, Board, Build, Core } from '../db/models';
 import { HttpError } from '../http-error';
 import { recordAudit } from './audit';
@@ -87,7 +86,7 @@ export async function storeSession(
 
   const model = core.modelConfig as { angleFormat?: 'turn' | 'rad' };
   const decoded = decodeSamples(samples, model.angleFormat ?? 'turn');
-  const stats = scoreSamples(core.modelConfig, decoded);
+  const { stats, profile } = scoreSamples(core.modelConfig, decoded);
   const checkFailures = typeof draft.link?.checkFailures === 'number' ? draft.link.checkFailures : undefined;
   const spectrum = sessionSpectrum(draft.plan, core.modelConfig, decoded);
   const sfdrDb = spectrum ? Math.min(spectrum.cos.sfdrDbc, spectrum.sin.sfdrDbc) : undefined;
@@ -109,7 +108,7 @@ export async function storeSession(
       deviceInfo: draft.deviceInfo ?? null,
       stats: stored as unknown as Json,
       verdict: verdict as Json,
-      profile: errorProfile(core.modelConfig, decoded.codes, decoded.cos, decoded.sin),
+      profile,
       passed,
       regression: failedLimits.length > 0,
       sampleCount: decoded.codes.length,

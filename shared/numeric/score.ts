@@ -5,7 +5,7 @@ import { CodeCoverage, type CoverageSummary } from './coverage';
 import { ErrorHistogram, ErrorMoments, DEFAULT_HISTOGRAM, type HistogramOptions } from './error-stats';
 import { ScoringError } from './errors';
 import { exactSinCosInto } from './exact-reference';
-import { angleCodeToDegrees, assertOutputCode, outputCodeRange } from './formats';
+import { angleCodeRange, angleCodeToDegrees, assertOutputCode, outputCodeRange } from './formats';
 import type { ModelConfig, ModelConfigInput } from './model-config';
 
 /** Error statistics of one channel (or both together), in LSB and in output units. */
@@ -52,7 +52,12 @@ export interface ScoreOptions {
   histogram?: HistogramOptions;
   /** How many mismatches to keep, lowest request index first (default 10). */
   keepMismatches?: number;
+  /** Also keep the largest |error| per this many equal bins of the code range (see profile()). */
+  profileBins?: number;
 }
+
+/** Marks a profile bin no answer fell in. */
+export const PROFILE_EMPTY = -1;
 
 const TWO_PI = 2 * Math.PI;
 
@@ -69,6 +74,9 @@ export class ScoreAccumulator {
   private readonly sinHist: ErrorHistogram;
   private readonly coverage: CodeCoverage;
   private readonly keep: number;
+  private readonly profileMax: Float64Array | null;
+  private readonly profileMin: number;
+  private readonly profileScale: number;
   private mismatchCount = 0;
   private maxDiff = 0;
   private first: Mismatch[] = [];
@@ -86,6 +94,11 @@ export class ScoreAccumulator {
     this.sinHist = new ErrorHistogram(options.histogram ?? DEFAULT_HISTOGRAM);
     this.coverage = new CodeCoverage(this.config);
     this.keep = options.keepMismatches ?? 10;
+    const bins = options.profileBins ?? 0;
+    const range = angleCodeRange(this.config);
+    this.profileMax = bins > 0 ? new Float64Array(bins).fill(PROFILE_EMPTY) : null;
+    this.profileMin = range.min;
+    this.profileScale = bins / (range.max - range.min + 1);
   }
 
   /**
@@ -123,6 +136,11 @@ export class ScoreAccumulator {
       this.allErr.add(es, code);
       this.cosHist.add(ec);
       this.sinHist.add(es);
+      if (this.profileMax) {
+        const bin = Math.min(this.profileMax.length - 1, Math.floor((code - this.profileMin) * this.profileScale));
+        const worst = Math.max(Math.abs(ec), Math.abs(es));
+        if (worst > this.profileMax[bin]) this.profileMax[bin] = worst;
+      }
       const vc = oc / scale;
       const vs = os / scale;
       this.magErr.add(Math.sqrt(vc * vc + vs * vs) - 1, code);
@@ -161,11 +179,22 @@ export class ScoreAccumulator {
     this.cosHist.merge(o.cosHist);
     this.sinHist.merge(o.sinHist);
     this.coverage.merge(o.coverage);
+    if (this.profileMax && o.profileMax && o.profileMax.length === this.profileMax.length) {
+      for (let b = 0; b < this.profileMax.length; b++) this.profileMax[b] = Math.max(this.profileMax[b], o.profileMax[b]);
+    }
     this.mismatchCount += o.mismatchCount;
     this.maxDiff = Math.max(this.maxDiff, o.maxDiff);
     for (const m of o.first) this.keepMismatch(m);
     this.nextIndex = Math.max(this.nextIndex, o.nextIndex);
     return this;
+  }
+
+  /**
+   * Error against angle, coarsely: per bin of the code range the largest |error| (cos or sin, in
+   * LSB), PROFILE_EMPTY where no answer fell; null unless `profileBins` was given.
+   */
+  profile(): number[] | null {
+    return this.profileMax ? Array.from(this.profileMax) : null;
   }
 
   /** The statistics so far, as plain data. */
