@@ -175,15 +175,17 @@ describe('the Session page for an engineer', () => {
     expect(await pane.textContent()).toContain('ONE tag 3: angle code 8192');
     // As recorded, the last frame comes 3 s in: stopped after about 1 s, it has not appeared.
     await page.getByRole('button', { name: 'Replay' }).click();
-    await pane.getByText(/Replaying 6 records at 1× recorded pace/).waitFor();
-    await pane.getByText('ONE tag 2: angle code 4096').waitFor({ timeout: 10_000 });
+    // The pane's text as a whole: a row that wraps splits a line over two elements.
+    const paneText = () => pane.textContent();
+    await expect.poll(paneText, { timeout: 20_000 }).toMatch(/Replaying 6 records at 1× recorded pace/);
+    await expect.poll(paneText, { timeout: 10_000 }).toContain('ONE tag 2: angle code 4096');
     await page.getByRole('button', { name: 'Stop' }).click();
     await page.waitForTimeout(2500);
     expect(await pane.textContent()).not.toContain('angle code 8192');
     // Sixteen times faster, it runs to the end.
     await page.getByLabel('Replay speed').selectOption('16');
     await page.getByRole('button', { name: 'Replay' }).click();
-    await pane.getByText('End of the capture.').waitFor({ timeout: 10_000 });
+    await expect.poll(paneText, { timeout: 20_000 }).toContain('End of the capture.');
     expect(await pane.textContent()).toContain('angle code 8192');
   });
 
