@@ -1,6 +1,6 @@
 // The run's capture: both directions through the shared Recorder, with a label that says what
 // was asked (plan, model configuration), so an archive alone scores again to the same figures.
-import { Kind, RecordedDecoder, Recorder, decodePayload, profileFromInfo, readArchive, type Crc8Name, type MessageOf } from '../shared/link';
+import { Kind, RecordedDecoder, Recorder, decodePayload, profileFromInfo, type Crc8Name, type MessageOf } from '../shared/link';
 import { samplesFromArchive } from '../shared/bench/archive-samples';
 import { expandRequest } from '../shared/bench/run-request';
 import { parseModelConfig, planSchema, type ModelConfig, type Plan } from '../shared/numeric';
@@ -94,17 +94,17 @@ export class NotARunArchiveError extends Error {}
  * engine matches them, and the first answer of each code fills the plan's slots in order.
  */
 export function scoreArchive(bytes: Uint8Array): { label: RunLabel; score: RunScore } {
-  const { header } = readArchive(bytes);
+  // The answers in request order (one read of the archive), then the label's plan to place them.
+  const found = samplesFromArchive(bytes);
   let label: RunLabel;
   try {
-    const raw = JSON.parse(header.label) as RunLabel;
+    const raw = JSON.parse(found.label) as RunLabel;
     if (raw.recordedBy !== 'anglebench run') throw new Error('not a runner label');
     label = { ...raw, plan: planSchema.parse(raw.plan), model: parseModelConfig(raw.model) };
   } catch {
     throw new NotARunArchiveError('This archive was not written by `run --out`: its label holds no plan');
   }
-  // The answers in request order, then each code's answers handed out to the plan's slots in turn.
-  const found = samplesFromArchive(bytes);
+  // Each code's answers handed out to the plan's slots in turn.
   const answers = new Map<number, Array<[number, number]>>();
   for (let i = 0; i < found.codes.length; i++) {
     const list = answers.get(found.codes[i]) ?? [];

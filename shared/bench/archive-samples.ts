@@ -6,7 +6,6 @@ import {
   Kind,
   PayloadError,
   profileFromInfo,
-  readArchive,
   replayArchive,
   sweepAngleCode,
   type DeviceInfo,
@@ -36,8 +35,7 @@ interface PendingRequest {
 
 /** @throws ArchiveError for a file that is not a readable archive. */
 export function samplesFromArchive(bytes: Uint8Array): ArchiveSamples {
-  const archive = readArchive(bytes); // validates; replay reads it again for the frames
-  const { frames, skips } = replayArchive(bytes);
+  const { archive, frames, skips } = replayArchive(bytes);
   const checkFailures = skips.filter((s) => s.direction === 'to-host' && s.event.reason === 'bad-check').length;
   let profile: WireProfile = archive.header.profile;
   let info: DeviceInfo | null = null;

@@ -16,15 +16,13 @@ export class SampleCsvError extends Error {
   }
 }
 
-export type SampleColumns = UnpackedSamples;
-
 const INTEGER = /^[+-]?\d+$/;
 
 /**
  * Parse sample CSV text. Blank lines are skipped; CRLF and a UTF-8 byte-order mark are accepted.
  * @throws SampleCsvError naming the first bad line.
  */
-export function parseSampleCsv(text: string, maxRows = 1 << 24): SampleColumns {
+export function parseSampleCsv(text: string, maxRows = 1 << 24): UnpackedSamples {
   const lines = text.replace(/^\uFEFF/, '').split(/\r?\n/);
   const header = (lines[0] ?? '').trim().toLowerCase().replace(/\s+/g, '');
   if (header !== SAMPLE_CSV_HEADER) throw new SampleCsvError(1, `the header must be "${SAMPLE_CSV_HEADER}"`);
@@ -32,7 +30,7 @@ export function parseSampleCsv(text: string, maxRows = 1 << 24): SampleColumns {
   for (let i = 1; i < lines.length; i++) if (lines[i].trim() !== '') rows++;
   if (rows === 0) throw new SampleCsvError(2, 'no samples after the header');
   if (rows > maxRows) throw new SampleCsvError(maxRows + 2, `more than ${maxRows} samples`);
-  const out: SampleColumns = { codes: new Float64Array(rows), cos: new Int32Array(rows), sin: new Int32Array(rows) };
+  const out: UnpackedSamples = { codes: new Float64Array(rows), cos: new Int32Array(rows), sin: new Int32Array(rows) };
   let at = 0;
   for (let i = 1; i < lines.length; i++) {
     const line = lines[i].trim();

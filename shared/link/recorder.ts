@@ -5,7 +5,7 @@ import { DEFAULT_CRC8, type Crc8Name } from './crc8';
 import { FrameDecoder, type AcceptedKinds, type DecodedFrame, type FrameDecoderOptions, type SkipEvent } from './decoder';
 import { FRAME_OVERHEAD } from './frame';
 import { DEFAULT_PROFILE, validateProfile, type WireProfile } from './wire-profile';
-import { readArchive, RecordType, writeHeader, writeProfileBody, writeRecordStart, writeSkipBody, type ArchiveHeader, type Direction } from './archive';
+import { readArchive, RecordType, writeHeader, writeProfileBody, writeRecordStart, writeSkipBody, type Archive, type ArchiveHeader, type Direction } from './archive';
 
 /** Archive header fields; each has a default (default profile, CRC-8/SMBUS, all KINDs, no label). */
 export interface RecorderOptions {
@@ -163,6 +163,8 @@ export class RecordedDecoder {
 
 /** What a replay produced, in order, for comparison with the recorded frames and events. */
 export interface ReplayResult {
+  /** The archive as read, so a caller need not read it a second time. */
+  archive: Archive;
   frames: Array<{ direction: Direction; frame: DecodedFrame }>;
   skips: Array<{ direction: Direction; event: SkipEvent }>;
 }
@@ -173,7 +175,7 @@ export interface ReplayResult {
  */
 export function replayArchive(bytes: Uint8Array): ReplayResult {
   const archive = readArchive(bytes);
-  const out: ReplayResult = { frames: [], skips: [] };
+  const out: ReplayResult = { archive, frames: [], skips: [] };
   const make = (direction: Direction) => {
     const changes = archive.records.flatMap((r) => (r.type === 'profile' && r.direction === direction ? [r] : []));
     let next = 0;

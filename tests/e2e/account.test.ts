@@ -1,18 +1,8 @@
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, signInAs, startApp, type RunningApp } from './harness';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import { appAndBrowser, signInAs } from './harness';
 
-let app: RunningApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+const env = appAndBrowser();
 
 /** A JSON write from the page, with its session cookie and CSRF token, as the client sends it. */
 function pageWrite(page: Page, path: string, body: unknown) {
@@ -28,13 +18,13 @@ function pageWrite(page: Page, path: string, body: unknown) {
 
 describe('the account page', () => {
   it('makes a runner token shown once, which the API accepts as Bearer until it is revoked', async () => {
-    const page = await browser.newPage();
-    await signInAs(page, app, 'engineer', '/account');
+    const page = await env.browser.newPage();
+    await signInAs(page, env.app, 'engineer', '/account');
     await page.getByLabel('Token name').fill('CI runner, lab 3');
     await page.getByRole('button', { name: 'Make token' }).click();
     const secret = await page.getByTestId('new-token').inputValue();
     expect(secret).toMatch(/^ab_/);
-    const asRunner = () => fetch(`${app.url}/api/sessions?pageSize=1`, { headers: { authorization: `Bearer ${secret}` } });
+    const asRunner = () => fetch(`${env.app.url}/api/sessions?pageSize=1`, { headers: { authorization: `Bearer ${secret}` } });
     expect((await asRunner()).status).toBe(200);
 
     await page.getByRole('button', { name: 'Done' }).click();
@@ -48,8 +38,8 @@ describe('the account page', () => {
   });
 
   it('tells a reviewer that tokens take the engineer role, with no token form', async () => {
-    const page = await browser.newPage();
-    await signInAs(page, app, 'reviewer', '/account');
+    const page = await env.browser.newPage();
+    await signInAs(page, env.app, 'reviewer', '/account');
     await expect.poll(() => page.getByText('which takes the engineer role').isVisible()).toBe(true);
     expect(await page.getByLabel('Token name').count()).toBe(0);
   });
@@ -61,16 +51,16 @@ const passwords = (page: Page) => page.locator('input[autocomplete="new-password
 
 describe('an invitation link', () => {
   it('lets the invited person choose a name and password, signs them in, and works once', async () => {
-    const admin = await browser.newPage();
-    await signInAs(admin, app, 'admin', '/team');
+    const admin = await env.browser.newPage();
+    await signInAs(admin, env.app, 'admin', '/team');
     const invited = await pageWrite(admin, '/api/invitations', { email: 'new.hire@anglebench.test', role: 'reviewer' });
     expect(invited.status).toBe(201);
     const outbox = (await admin.evaluate(async () => (await fetch('/api/outbox')).json())) as { messages: Array<{ to: string; text: string }> };
     const link = /https?:\/\/\S+\/invite\/\S+/.exec(outbox.messages.find((m) => m.to.includes('new.hire@anglebench.test'))!.text)![0];
 
-    const context = await browser.newContext();
+    const context = await env.browser.newContext();
     const page = await context.newPage();
-    await page.goto(new URL(new URL(link).pathname, app.url).href);
+    await page.goto(new URL(new URL(link).pathname, env.app.url).href);
     await page.getByLabel('Your name').fill('Noor Haddad');
     await passwords(page).nth(0).fill('short');
     await passwords(page).nth(1).fill('different');
@@ -85,7 +75,7 @@ describe('an invitation link', () => {
     await expect.poll(() => page.getByTestId('signed-in-as').textContent()).toContain('Noor Haddad');
 
     // The link is spent.
-    const again = await (await browser.newContext()).newPage();
+    const again = await (await env.browser.newContext()).newPage();
     await again.goto(page.url().replace(/\/$/, '') + new URL(link).pathname);
     await again.getByLabel('Your name').fill('Someone else');
     await passwords(again).nth(0).fill('another long password');

@@ -1,27 +1,17 @@
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { createCordicModel } from '../../shared/numeric';
-import { launchBrowser, startApp, type RunningApp } from './harness';
+import { appAndBrowser } from './harness';
 
-let app: RunningApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+const env = appAndBrowser();
 
 // The machine is shared: give the page and the server time (vitest's default poll is 1 s).
 const poll = <T>(read: () => Promise<T>) => expect.poll(read, { timeout: 10_000 });
 
 /** A fresh browser context signed in as one of the seeded accounts. */
 async function signIn(who: 'engineer' | 'reviewer' | 'admin'): Promise<Page> {
-  const page = await (await browser.newContext({ viewport: { width: 1280, height: 800 } })).newPage();
-  await page.goto(`${app.url}/sign-in`);
+  const page = await (await env.browser.newContext({ viewport: { width: 1280, height: 800 } })).newPage();
+  await page.goto(`${env.app.url}/sign-in`);
   await page.getByLabel('E-mail').fill(`${who}@anglebench.test`);
   await page.getByLabel('Password').fill('anglebench');
   await page.getByRole('button', { name: 'Sign in' }).click();
@@ -30,7 +20,7 @@ async function signIn(who: 'engineer' | 'reviewer' | 'admin'): Promise<Page> {
 }
 
 async function openReferenceCore(page: Page) {
-  await page.goto(`${app.url}/cores`);
+  await page.goto(`${env.app.url}/cores`);
   await page.getByRole('link', { name: 'Reference rotator, 16-bit' }).click();
   await poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Reference rotator, 16-bit');
 }
@@ -102,7 +92,7 @@ describe('golden vectors on the core page', () => {
 describe('the baseline on the core page', () => {
   it('links the baseline session with its verdict, and an engineer can clear it', async () => {
     const page = await signIn('engineer');
-    await page.goto(`${app.url}/cores`);
+    await page.goto(`${env.app.url}/cores`);
     await page.getByRole('link', { name: 'Receiver mixer NCO, 18-bit' }).click();
     await page.waitForURL(/\/cores\/\d+$/);
     const coreId = Number(new URL(page.url()).pathname.split('/').pop());
@@ -124,7 +114,7 @@ describe('the baseline on the core page', () => {
 describe('a new core', () => {
   it('is created from the list page with the default model and opens on its own page', async () => {
     const page = await signIn('engineer');
-    await page.goto(`${app.url}/cores`);
+    await page.goto(`${env.app.url}/cores`);
     await page.getByRole('button', { name: 'New core' }).click();
     const form = page.getByRole('form', { name: 'New core' });
     await form.getByLabel('Name').fill('Bring-up rotator, 12-bit');
@@ -180,7 +170,7 @@ describe('watching a core', () => {
 describe('the board pages', () => {
   it('list the sessions run on a board with their verdict in words, and keep an engineer’s edit', async () => {
     const page = await signIn('engineer');
-    await page.goto(`${app.url}/boards`);
+    await page.goto(`${env.app.url}/boards`);
     await page.getByRole('link', { name: 'Bay 3 / bench A' }).click();
     await poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Bay 3 / bench A');
     const boardId = Number(new URL(page.url()).pathname.split('/').pop());
@@ -202,11 +192,11 @@ describe('the board pages', () => {
 
   it('offer a reviewer no way to add or edit a board', async () => {
     const page = await signIn('reviewer');
-    await page.goto(`${app.url}/boards`);
+    await page.goto(`${env.app.url}/boards`);
     await page.getByRole('link', { name: 'Bay 3 / bench A' }).click();
     await poll(() => page.getByRole('heading', { name: 'Sessions on this board' }).isVisible()).toBe(true);
     expect(await page.getByRole('button', { name: 'Edit board' }).count()).toBe(0);
-    await page.goto(`${app.url}/boards`);
+    await page.goto(`${env.app.url}/boards`);
     await poll(() => page.getByRole('link', { name: 'Bay 3 / bench A' }).count()).toBe(1);
     expect(await page.getByRole('button', { name: 'New board' }).count()).toBe(0);
   });
@@ -215,7 +205,7 @@ describe('the board pages', () => {
 describe('the team page for an admin', () => {
   it('invites someone, and the invitation mail is readable in the outbox', async () => {
     const page = await signIn('admin');
-    await page.goto(`${app.url}/team`);
+    await page.goto(`${env.app.url}/team`);
     const form = page.getByRole('form', { name: 'Invite someone' });
     await form.getByLabel('E-mail').fill('lab.newcomer@lab.test');
     await form.getByLabel('Name').fill('Lab Newcomer');
@@ -234,14 +224,14 @@ describe('the team page for an admin', () => {
 
   it('disables a user, who then cannot sign in, and offers no way to disable themselves', async () => {
     const page = await signIn('admin');
-    await page.goto(`${app.url}/team`);
+    await page.goto(`${env.app.url}/team`);
     const row = page.getByTestId('user-reviewer@anglebench.test');
     await row.getByRole('button', { name: 'Disable Mei Lindqvist' }).click();
     await poll(() => row.textContent()).toContain('Disabled');
     expect(await page.getByTestId('user-admin@anglebench.test').getByRole('button').count()).toBe(0);
 
-    const other = await (await browser.newContext()).newPage();
-    await other.goto(`${app.url}/sign-in`);
+    const other = await (await env.browser.newContext()).newPage();
+    await other.goto(`${env.app.url}/sign-in`);
     await other.getByLabel('E-mail').fill('reviewer@anglebench.test');
     await other.getByLabel('Password').fill('anglebench');
     await other.getByRole('button', { name: 'Sign in' }).click();
@@ -251,7 +241,7 @@ describe('the team page for an admin', () => {
 
   it('shows an engineer a plain admins-only notice', async () => {
     const page = await signIn('engineer');
-    await page.goto(`${app.url}/team`);
+    await page.goto(`${env.app.url}/team`);
     await poll(() => page.getByRole('heading', { name: 'Admins only' }).isVisible()).toBe(true);
     expect(await page.getByRole('table').count()).toBe(0);
   });

@@ -2,6 +2,7 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:net';
 import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
+import { afterAll, beforeAll } from 'vitest';
 import { projectRoot } from '../../server/paths';
 import { tempDatabase } from '../support/temp-db';
 
@@ -97,4 +98,29 @@ export async function signInAs(page: Page, app: RunningApp, who: DemoRole, next 
   await page.getByLabel('Password').fill('anglebench');
   await page.getByRole('button', { name: 'Sign in' }).click();
   await page.waitForURL((u) => u.pathname + u.search === next || u.pathname === next);
+}
+
+/**
+ * The production server and a browser for one test file: started before its tests, stopped after
+ * them. Read `app` and `browser` inside tests (they exist once the hooks have run).
+ */
+export function appAndBrowser(env: Record<string, string> = {}): { readonly app: RunningApp; readonly browser: Browser } {
+  let app: RunningApp | undefined;
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    app = await startApp(env);
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await app?.stop();
+  });
+  return {
+    get app() {
+      return app!;
+    },
+    get browser() {
+      return browser!;
+    },
+  };
 }

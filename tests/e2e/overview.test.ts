@@ -1,34 +1,23 @@
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, signInAs, startApp, type RunningApp } from './harness';
+import { describe, expect, it } from 'vitest';
+import { appAndBrowser, signInAs } from './harness';
 
-let app: RunningApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+const env = appAndBrowser();
 
 describe('the overview page in a real browser', () => {
   it('shows the server health read from /api/health', async () => {
-    const page = await browser.newPage();
-    await page.goto(app.url);
+    const page = await env.browser.newPage();
+    await page.goto(env.app.url);
     await expect.poll(() => page.getByTestId('health-status').textContent()).toBe('OK');
     const version = await page.getByTestId('health-version').textContent();
-    const health = (await (await fetch(`${app.url}/api/health`)).json()) as { version: string };
+    const health = (await (await fetch(`${env.app.url}/api/health`)).json()) as { version: string };
     expect(version).toBe(health.version);
     expect(await page.getByTestId('health-db').textContent()).toContain('sqlite');
     expect(await page.title()).toBe('Anglebench');
   });
 
   it('shows a signed-in reviewer what needs attention: the seeded regression, failing builds and the latest sessions', async () => {
-    const page = await browser.newPage();
-    await signInAs(page, app, 'reviewer');
+    const page = await env.browser.newPage();
+    await signInAs(page, env.app, 'reviewer');
     const attention = page.getByRole('region', { name: 'Needs attention' });
     await expect.poll(() => attention.getByRole('link', { name: /^Session \d+$/ }).count()).toBe(1);
     // The builds arrive by their own query, after the regressions perhaps.
@@ -44,8 +33,8 @@ describe('the overview page in a real browser', () => {
   });
 
   it('shows a not-found page for an unknown address, inside the layout', async () => {
-    const page = await browser.newPage();
-    await page.goto(`${app.url}/no/such/page`);
+    const page = await env.browser.newPage();
+    await page.goto(`${env.app.url}/no/such/page`);
     await expect.poll(() => page.getByRole('heading', { name: 'No such page' }).isVisible()).toBe(true);
     expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(true);
   });

@@ -1,26 +1,15 @@
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, signInAs, startApp, type RunningApp } from './harness';
+import { describe, expect, it } from 'vitest';
+import { appAndBrowser, signInAs } from './harness';
 
 // The sign-off path on the demo data, page by page as a reviewer walks it: the seeded regression
 // (build ref16-r3, one output bit stuck), its comparison with reference-16's baseline, the
 // rejection, and the mail it sends, read by an admin on the Team page.
-let app: RunningApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+const env = appAndBrowser();
 
 describe('a reviewer signs off the seeded regression', () => {
   it('opens it, compares it with the baseline, sees the differing codes and the failing limit, and rejects the build; the admin reads the mail', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
-    await signInAs(page, app, 'reviewer', '/sessions?regression=true');
+    const page = await env.browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signInAs(page, env.app, 'reviewer', '/sessions?regression=true');
     const rows = page.getByRole('row').filter({ hasText: 'ref16-r3' });
     await expect.poll(() => rows.count()).toBe(1);
     expect(await rows.first().getByText('Regression').isVisible()).toBe(true);
@@ -47,7 +36,7 @@ describe('a reviewer signs off the seeded regression', () => {
     expect(await mismatchRows.nth(1).textContent()).toMatch(/fail/i);
 
     // Back to the session, on to its build, and reject it with a note.
-    await page.goto(`${app.url}/sessions/${regressionId}`);
+    await page.goto(`${env.app.url}/sessions/${regressionId}`);
     await page.getByRole('link', { name: 'ref16-r3' }).first().click();
     await page.waitForURL(/\/builds\/\d+$/);
     const note = 'Half the codes are one LSB off after the tool upgrade: rejected until the netlist is rebuilt.';
@@ -57,8 +46,8 @@ describe('a reviewer signs off the seeded regression', () => {
     await expect.poll(() => page.getByRole('list', { name: 'Review trail' }).textContent()).toContain(note);
 
     // The build's author (the demo engineer) was mailed; the admin reads it in the outbox.
-    const admin = await browser.newPage({ viewport: { width: 1280, height: 800 } });
-    await signInAs(admin, app, 'admin', '/team');
+    const admin = await env.browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signInAs(admin, env.app, 'admin', '/team');
     const message = admin.getByRole('list', { name: 'Messages' }).getByRole('button', { name: /ref16-r3.*rejected/i });
     await expect.poll(() => message.count()).toBe(1);
     await message.click();

@@ -174,6 +174,8 @@ describe('the Session page for an engineer', () => {
     await pane.getByText('HELLO tag 1').waitFor();
     expect(await pane.textContent()).toContain('ONE tag 3: angle code 8192');
     // As recorded, the last frame comes 3 s in: stopped after about 1 s, it has not appeared.
+    // Replay draws on animation frames, which Chromium holds back for a page not in front.
+    await page.bringToFront();
     await page.getByRole('button', { name: 'Replay' }).click();
     // The pane's text as a whole: a row that wraps splits a line over two elements.
     const paneText = () => pane.textContent();

@@ -33,43 +33,18 @@ export interface RunRecord {
   figures: LinkFigures | null;
 }
 
-export interface StoredRun {
+/** A RunRecord as IndexedDB keeps it: without the codes, dates as ISO text. */
+export interface StoredRun extends Omit<RunRecord, 'codes' | 'startedAt' | 'endedAt'> {
   version: typeof UNSAVED_RUN_VERSION;
   /** When it was put away, ms since 1970. */
   storedAt: number;
-  plan: Plan;
-  config: ModelConfig;
-  cos: Int32Array;
-  sin: Int32Array;
-  answered: Uint8Array;
   startedAt: string;
   endedAt: string | null;
-  transportLabel: string | null;
-  baud: number;
-  info: DeviceInfo | null;
-  archive: Uint8Array | null;
-  outcome: RunOutcome | null;
-  figures: LinkFigures | null;
 }
 
 export function toStoredRun(r: RunRecord, storedAt: number): StoredRun {
-  return {
-    version: UNSAVED_RUN_VERSION,
-    storedAt,
-    plan: r.plan,
-    config: r.config,
-    cos: r.cos,
-    sin: r.sin,
-    answered: r.answered,
-    startedAt: r.startedAt.toISOString(),
-    endedAt: r.endedAt?.toISOString() ?? null,
-    transportLabel: r.transportLabel,
-    baud: r.baud,
-    info: r.info,
-    archive: r.archive,
-    outcome: r.outcome,
-    figures: r.figures,
-  };
+  const { codes: _codes, ...rest } = r;
+  return { ...rest, version: UNSAVED_RUN_VERSION, storedAt, startedAt: r.startedAt.toISOString(), endedAt: r.endedAt?.toISOString() ?? null };
 }
 
 export class StoredRunError extends Error {

@@ -1,7 +1,7 @@
 // The recorder's capture of a session, read back, and replayed once through fresh decoders to
 // say whether it decodes to the frames that were recorded.
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { readArchive, replayArchive, type Archive } from '../../../../shared/link';
+import { replayArchive, type Archive } from '../../../../shared/link';
 import { fetchBytes } from './fetch-bytes';
 import { sessionKeys } from './session-keys';
 
@@ -15,8 +15,8 @@ export interface SessionCapture {
 
 export async function getSessionCapture(id: number, signal?: AbortSignal): Promise<SessionCapture> {
   const buf = new Uint8Array(await fetchBytes(`/api/sessions/${id}/archive`, signal));
-  const archive = readArchive(buf);
   const replay = replayArchive(buf);
+  const { archive } = replay;
   return {
     archive,
     bytes: buf.length,
