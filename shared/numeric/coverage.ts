@@ -82,6 +82,11 @@ export class CodeCoverage {
     this.perOctant[this.octantOf(code)]++;
   }
 
+  /** Marks codes[0..n) as seen. */
+  addAll(codes: ArrayLike<number>, n: number): void {
+    for (let k = 0; k < n; k++) this.add(codes[k]);
+  }
+
   /** True when the code has been seen. */
   has(code: number): boolean {
     if (this.bits) {

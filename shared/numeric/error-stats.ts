@@ -23,6 +23,29 @@ export class ErrorMoments {
     }
   }
 
+  /** Adds values[0..n) observed at codes[0..n): add() per value, in one tight loop. */
+  addAll(values: Float64Array, codes: ArrayLike<number>, n: number): void {
+    let { sum, sumSq, maxAbs, maxAbsCode } = this;
+    for (let k = 0; k < n; k++) {
+      const v = values[k];
+      sum += v;
+      sumSq += v * v;
+      const a = Math.abs(v);
+      if (a >= maxAbs) {
+        const code = codes[k];
+        if (maxAbsCode === null || a > maxAbs || code < maxAbsCode) {
+          maxAbs = a;
+          maxAbsCode = code;
+        }
+      }
+    }
+    this.count += n;
+    this.sum = sum;
+    this.sumSq = sumSq;
+    this.maxAbs = maxAbs;
+    this.maxAbsCode = maxAbsCode;
+  }
+
   /** Folds another summary into this one. */
   merge(o: ErrorMoments): this {
     this.count += o.count;
@@ -75,6 +98,18 @@ export class ErrorHistogram {
     if (bin < 0) this.below++;
     else if (bin >= this.counts.length) this.above++;
     else this.counts[bin]++;
+  }
+
+  /** Adds errors[0..n) in LSB. */
+  addAll(errLsb: Float64Array, n: number): void {
+    const { limitLsb, binsPerLsb } = this.options;
+    const counts = this.counts;
+    for (let k = 0; k < n; k++) {
+      const bin = Math.floor((errLsb[k] + limitLsb) * binsPerLsb);
+      if (bin < 0) this.below++;
+      else if (bin >= counts.length) this.above++;
+      else counts[bin]++;
+    }
   }
 
   /** Folds another histogram with the same bins into this one. */

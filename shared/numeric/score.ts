@@ -60,6 +60,41 @@ export interface ScoreOptions {
 export const PROFILE_EMPTY = -1;
 
 const TWO_PI = 2 * Math.PI;
+/** Below this |tan δ| the series for atan is exact to double precision (next term < 1e−27 of δ). */
+const SMALL_TAN = 2 ** -10;
+
+/**
+ * Phase errors into out[0..n): the angle from the exact vector to each answer, in [−π, π).
+ * A working core is off by far less than a degree: there δ = atan(cross / dot) by its series,
+ * which also avoids the cancellation in atan2(sin, cos) − angle. Anything else (a broken core,
+ * a zero answer, half a turn off) goes the general way.
+ */
+function phaseErrorsInto(
+  c: Readonly<ModelConfig>,
+  codes: ArrayLike<number>,
+  cos: ArrayLike<number>,
+  sin: ArrayLike<number>,
+  exactCos: Float64Array,
+  exactSin: Float64Array,
+  out: Float64Array,
+  n: number,
+): void {
+  const radPerCode = c.angleFormat === 'turn' ? TWO_PI / 2 ** c.angleBits : 2 ** -c.angleFrac;
+  for (let k = 0; k < n; k++) {
+    const vc = cos[k];
+    const vs = sin[k];
+    const cross = exactCos[k] * vs - exactSin[k] * vc;
+    const dot = exactCos[k] * vc + exactSin[k] * vs;
+    if (dot > 0 && Math.abs(cross) < SMALL_TAN * dot) {
+      const t = cross / dot;
+      const t2 = t * t;
+      out[k] = t * (1 - t2 * (1 / 3 - t2 * (1 / 5 - t2 / 7)));
+    } else {
+      const dp = Math.atan2(vs, vc) - codes[k] * radPerCode;
+      out[k] = dp - TWO_PI * Math.floor((dp + Math.PI) / TWO_PI);
+    }
+  }
+}
 
 /** Streaming, mergeable scorer for one core configuration. */
 export class ScoreAccumulator {
@@ -86,6 +121,10 @@ export class ScoreAccumulator {
   private exactSin = new Float64Array(0);
   private modelCos = new Int32Array(0);
   private modelSin = new Int32Array(0);
+  private errCos = new Float64Array(0);
+  private errSin = new Float64Array(0);
+  private errMag = new Float64Array(0);
+  private errPhase = new Float64Array(0);
 
   constructor(config: ModelConfigInput | ModelConfig = {}, options: ScoreOptions = {}) {
     this.model = createCordicModel(config);
@@ -109,55 +148,67 @@ export class ScoreAccumulator {
   add(codes: ArrayLike<number>, cos: ArrayLike<number>, sin: ArrayLike<number>, firstIndex = this.nextIndex): this {
     const n = codes.length;
     if (cos.length !== n || sin.length !== n) throw new ScoringError(`codes, cos and sin differ in length (${n}, ${cos.length}, ${sin.length})`);
-    if (this.exactCos.length < n) {
-      this.exactCos = new Float64Array(n);
-      this.exactSin = new Float64Array(n);
-      this.modelCos = new Int32Array(n);
-      this.modelSin = new Int32Array(n);
-    }
+    if (this.exactCos.length < n) this.grow(n);
     const c = this.config;
-    this.model.evaluateInto(codes, this.modelCos, this.modelSin); // validates the codes
-    exactSinCosInto(c, codes, this.exactCos, this.exactSin);
+    const { exactCos, exactSin, modelCos, modelSin, errCos, errSin, errMag, errPhase } = this;
+    this.model.evaluateInto(codes, modelCos, modelSin); // validates the codes
+    exactSinCosInto(c, codes, exactCos, exactSin);
     const scale = 2 ** c.outFrac;
     // Range checked inline; assertOutputCode only runs to build the error message.
     const { min: outMin, max: outMax } = outputCodeRange(c);
-    const radPerCode = c.angleFormat === 'turn' ? TWO_PI / 2 ** c.angleBits : 2 ** -c.angleFrac;
+    // Per-answer errors first, then each statistic in its own short loop: V8 optimises small
+    // loops fully, where one loop doing everything outgrows its inlining budget.
     for (let k = 0; k < n; k++) {
-      const code = codes[k];
       const oc = cos[k];
       const os = sin[k];
       if (!(Number.isInteger(oc) && oc >= outMin && oc <= outMax)) assertOutputCode(c, oc);
       if (!(Number.isInteger(os) && os >= outMin && os <= outMax)) assertOutputCode(c, os);
-      const ec = oc - this.exactCos[k] * scale;
-      const es = os - this.exactSin[k] * scale;
-      this.cosErr.add(ec, code);
-      this.sinErr.add(es, code);
-      this.allErr.add(ec, code);
-      this.allErr.add(es, code);
-      this.cosHist.add(ec);
-      this.sinHist.add(es);
-      if (this.profileMax) {
-        const bin = Math.min(this.profileMax.length - 1, Math.floor((code - this.profileMin) * this.profileScale));
-        const worst = Math.max(Math.abs(ec), Math.abs(es));
-        if (worst > this.profileMax[bin]) this.profileMax[bin] = worst;
-      }
+      errCos[k] = oc - exactCos[k] * scale;
+      errSin[k] = os - exactSin[k] * scale;
       const vc = oc / scale;
       const vs = os / scale;
-      this.magErr.add(Math.sqrt(vc * vc + vs * vs) - 1, code);
-      let dp = Math.atan2(vs, vc) - code * radPerCode;
-      dp -= TWO_PI * Math.floor((dp + Math.PI) / TWO_PI);
-      this.phaseErr.add(dp, code);
-      this.coverage.add(code);
-      const dc = oc - this.modelCos[k];
-      const ds = os - this.modelSin[k];
-      if (dc !== 0 || ds !== 0) {
-        this.mismatchCount++;
-        this.maxDiff = Math.max(this.maxDiff, Math.abs(dc), Math.abs(ds));
-        this.keepMismatch({ index: firstIndex + k, code, cos: oc, sin: os, modelCos: this.modelCos[k], modelSin: this.modelSin[k] });
-      }
+      errMag[k] = Math.sqrt(vc * vc + vs * vs) - 1;
+      if (oc !== modelCos[k] || os !== modelSin[k]) this.mismatch(firstIndex + k, codes[k], oc, os, modelCos[k], modelSin[k]);
     }
+    phaseErrorsInto(c, codes, cos, sin, exactCos, exactSin, errPhase, n);
+    this.cosErr.addAll(errCos, codes, n);
+    this.sinErr.addAll(errSin, codes, n);
+    this.allErr.addAll(errCos, codes, n);
+    this.allErr.addAll(errSin, codes, n);
+    this.magErr.addAll(errMag, codes, n);
+    this.phaseErr.addAll(errPhase, codes, n);
+    this.cosHist.addAll(errCos, n);
+    this.sinHist.addAll(errSin, n);
+    if (this.profileMax) this.addProfile(codes, n);
+    this.coverage.addAll(codes, n);
     this.nextIndex = Math.max(this.nextIndex, firstIndex + n);
     return this;
+  }
+
+  private grow(n: number): void {
+    this.exactCos = new Float64Array(n);
+    this.exactSin = new Float64Array(n);
+    this.modelCos = new Int32Array(n);
+    this.modelSin = new Int32Array(n);
+    this.errCos = new Float64Array(n);
+    this.errSin = new Float64Array(n);
+    this.errMag = new Float64Array(n);
+    this.errPhase = new Float64Array(n);
+  }
+
+  private mismatch(index: number, code: number, cos: number, sin: number, modelCos: number, modelSin: number): void {
+    this.mismatchCount++;
+    this.maxDiff = Math.max(this.maxDiff, Math.abs(cos - modelCos), Math.abs(sin - modelSin));
+    this.keepMismatch({ index, code, cos, sin, modelCos, modelSin });
+  }
+
+  private addProfile(codes: ArrayLike<number>, n: number): void {
+    const max = this.profileMax!;
+    for (let k = 0; k < n; k++) {
+      const bin = Math.min(max.length - 1, Math.floor((codes[k] - this.profileMin) * this.profileScale));
+      const worst = Math.max(Math.abs(this.errCos[k]), Math.abs(this.errSin[k]));
+      if (worst > max[bin]) max[bin] = worst;
+    }
   }
 
   private keepMismatch(m: Mismatch): void {

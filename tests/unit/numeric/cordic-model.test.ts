@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { createCordicModel, type CordicModel } from '../../../shared/numeric/cordic-model';
+import { createCordicModel, fitsInt32, type CordicModel } from '../../../shared/numeric/cordic-model';
 import { traceCordic } from '../../../shared/numeric/cordic-trace';
 import { cordicGain } from '../../../shared/numeric/cordic-tables';
 import { AngleCodeError, ModelConfigError } from '../../../shared/numeric/errors';
@@ -133,6 +133,44 @@ describe('the CORDIC reference model', () => {
       }),
       { numRuns: 3000 },
     );
+  });
+
+  it('gives the same answers in 32-bit integers as in the general arithmetic, whenever the datapath fits', () => {
+    let fitting = 0;
+    fc.assert(
+      fc.property(configArb, (input) => {
+        const m = createCordicModel(input);
+        if (!fitsInt32(m.config, m.tables)) return;
+        fitting++;
+        const general = createCordicModel(input, 'float');
+        const codes = Float64Array.from(spreadCodes(m, 256));
+        const got = [new Int32Array(256), new Int32Array(256)] as const;
+        const want = [new Int32Array(256), new Int32Array(256)] as const;
+        m.evaluateInto(codes, got[0], got[1]);
+        general.evaluateInto(codes, want[0], want[1]);
+        expect(got).toEqual(want);
+      }),
+      { numRuns: 1500 },
+    );
+    expect(fitting).toBeGreaterThan(100); // the random configurations do reach the 32-bit path
+  });
+
+  it('is exact at the widest datapath the 32-bit path takes, and on every code of the default core', () => {
+    // F = outFrac + guardBits = 28, 30 iterations, 2^29 z units per turn: each at its bound.
+    const widest = createCordicModel({ angleBits: 27, zGuardBits: 2, outBits: 24, outFrac: 23, guardBits: 5, iterations: 30, shiftRounding: 'nearest' });
+    expect(fitsInt32(widest.config, widest.tables)).toBe(true);
+    for (const code of spreadCodes(widest, 2000)) expect(widest.evaluate(code)).toEqual(bigIntModel(widest.config, code));
+    const wider = createCordicModel({ ...widest.config, guardBits: 6 });
+    expect(fitsInt32(wider.config, wider.tables)).toBe(false);
+    const m = createCordicModel();
+    expect(fitsInt32(m.config, m.tables)).toBe(true);
+    for (const code of allCodes(m)) expect(m.evaluate(code)).toEqual(bigIntModel(m.config, code));
+  });
+
+  it('shares one model per configuration', () => {
+    expect(createCordicModel({ iterations: 12 })).toBe(createCordicModel({ iterations: 12, angleFormat: 'turn' }));
+    expect(createCordicModel({ iterations: 12 })).not.toBe(createCordicModel({ iterations: 13 }));
+    expect(createCordicModel({ iterations: 12 }, 'float')).not.toBe(createCordicModel({ iterations: 12 }));
   });
 
   it('computes exactly what the definition says at the ends of a 32-bit angle range', () => {

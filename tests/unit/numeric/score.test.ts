@@ -66,6 +66,42 @@ describe('scoring', () => {
     expect(Math.abs(phase.magnitude.mean)).toBeLessThan(1e-5);
   });
 
+  it('measures phase as atan2(sin, cos) − angle wrapped to [−π, π), small or large', () => {
+    // The direct definition, computed here without the scorer's small-angle series.
+    const f = { angleFormat: 'turn' as const, angleBits: 12, angleFrac: 0, outBits: 16, outFrac: 14 };
+    const codes = planCodes({ kind: 'exhaustive' }, f);
+    const direct = (cos: number[], sin: number[]) => {
+      let sum = 0;
+      let sumSq = 0;
+      let maxAbs = 0;
+      codes.forEach((code, k) => {
+        let d = Math.atan2(sin[k], cos[k]) - (2 * Math.PI * code) / 4096;
+        d -= 2 * Math.PI * Math.floor((d + Math.PI) / (2 * Math.PI));
+        sum += d;
+        sumSq += d * d;
+        maxAbs = Math.max(maxAbs, Math.abs(d));
+      });
+      return { meanRad: sum / codes.length, rmsRad: Math.sqrt(sumSq / codes.length), maxAbsRad: maxAbs };
+    };
+    const faults: Record<string, (code: number) => { cos: number; sin: number }> = {
+      healthy: (c) => createCordicModel(f).evaluate(c),
+      'turned by 3 codes': (c) => idealOutputCodes(f, (c + 3) % 4096),
+      'sign of sin flipped': (c) => ({ ...idealOutputCodes(f, c), sin: -idealOutputCodes(f, c).sin }),
+      'stuck at zero': () => ({ cos: 0, sin: 0 }),
+    };
+    for (const [name, answer] of Object.entries(faults)) {
+      const a = Array.from(codes, answer);
+      const cos = a.map((r) => r.cos);
+      const sin = a.map((r) => r.sin);
+      const got = new ScoreAccumulator(f).add(codes, cos, sin).summary().phase;
+      const want = direct(cos, sin);
+      // atan2(…) − angle cancels to about 1e−16 rad absolute; the series is more accurate still.
+      expect(Math.abs(got.meanRad - want.meanRad), name).toBeLessThan(1e-12);
+      expect(Math.abs(got.rmsRad - want.rmsRad), name).toBeLessThan(1e-12);
+      expect(Math.abs(got.maxAbsRad - want.maxAbsRad), name).toBeLessThan(1e-12);
+    }
+  });
+
   it('reports coverage of all codes and of each octant', () => {
     const f = { angleFormat: 'turn' as const, angleBits: 10, angleFrac: 0 };
     const even = Array.from(planCodes({ kind: 'exhaustive' }, f)).filter((c) => c % 2 === 0 || c < 128);
