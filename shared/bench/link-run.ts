@@ -274,9 +274,14 @@ export class Run implements RunHandle {
 
   private scheduleTick() {
     const { clock, timeoutMs } = this.engine.options;
-    this.cancelTick = clock.after(Math.min(PROGRESS_EVERY_MS, timeoutMs / 3), () => {
+    const everyMs = Math.min(PROGRESS_EVERY_MS, timeoutMs / 3);
+    const dueAt = clock.now() + everyMs;
+    this.cancelTick = clock.after(everyMs, () => {
       if (this.finished) return;
       const now = clock.now();
+      // A tick this late means the host itself stalled (a busy event loop or machine): replies
+      // that arrived meanwhile are still waiting to be read, so silence cannot be judged yet.
+      const hostStalled = now - dueAt > timeoutMs / 2;
       const dt = now - this.rateMark.t;
       if (dt >= 500) {
         const done = this.answeredCount + this.missing.length;
@@ -284,7 +289,7 @@ export class Run implements RunHandle {
       }
       // A silent line with requests in flight: they are lost (not while paused on purpose).
       const quietMs = now - Math.max(this.engine.lastReplyAt, this.lastSendAt());
-      if (!this.paused && this.inFlight.size > 0 && quietMs > timeoutMs) {
+      if (!this.paused && !hostStalled && this.inFlight.size > 0 && quietMs > timeoutMs) {
         for (const req of [...this.inFlight.values()]) this.close(req, true);
         this.pump();
       }

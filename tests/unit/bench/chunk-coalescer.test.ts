@@ -1,28 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { ChunkCoalescer } from '../../../shared/bench/chunk-coalescer';
-import type { EngineClock } from '../../../shared/bench/link-engine';
-
-/** A clock whose timers fire only when the test advances it. */
-function manualClock() {
-  let now = 0;
-  let timers: Array<{ at: number; fn: () => void }> = [];
-  const clock: EngineClock = {
-    now: () => now,
-    after: (ms, fn) => {
-      const t = { at: now + ms, fn };
-      timers.push(t);
-      return () => (timers = timers.filter((x) => x !== t));
-    },
-  };
-  const advance = (ms: number) => {
-    now += ms;
-    for (const t of timers.filter((x) => x.at <= now)) {
-      timers = timers.filter((x) => x !== t);
-      t.fn();
-    }
-  };
-  return { clock, advance, pending: () => timers.length };
-}
+import { manualClock } from '../../support/manual-clock';
 
 const bytes = (...v: number[]) => Uint8Array.from(v);
 

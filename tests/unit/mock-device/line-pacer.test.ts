@@ -1,33 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { LinePacer, type PacerClock } from '../../../mock-device/line-pacer';
+import { LinePacer } from '../../../mock-device/line-pacer';
 import { LineFaults, parseLineFaults } from '../../../mock-device/line-faults';
-
-/** A manual clock: timers fire only when the test advances time. */
-function manualClock() {
-  let now = 0;
-  let timers: Array<{ at: number; fn: () => void }> = [];
-  const clock: PacerClock = {
-    now: () => now,
-    after: (ms, fn) => {
-      const t = { at: now + ms, fn };
-      timers.push(t);
-      return () => (timers = timers.filter((x) => x !== t));
-    },
-  };
-  const advance = (ms: number) => {
-    const end = now + ms;
-    for (;;) {
-      timers.sort((a, b) => a.at - b.at);
-      const next = timers[0];
-      if (!next || next.at > end) break;
-      timers.shift();
-      now = next.at;
-      next.fn();
-    }
-    now = end;
-  };
-  return { clock, advance };
-}
+import { manualClock } from '../../support/manual-clock';
 
 describe('the line pacer', () => {
   // 8N1 is 10 bit-times a byte: 3,000,000 baud carries 300,000 bytes/s (common practice, no source).
