@@ -21,6 +21,7 @@ const envSchema = z.object({
   MOCK_WS_PORT: port.default(5175),
   SESSION_SECRET: z.string().min(16, 'must be at least 16 characters').optional(),
   UPLOAD_LIMIT_BYTES: z.coerce.number().int().min(1).default(64 * 1024 * 1024),
+  UPLOAD_DIR: z.string().default(path.join(dataDir, 'uploads')),
   DEMO_PASSWORD: z.string().min(8, 'must be at least 8 characters').optional(),
 });
 
@@ -34,6 +35,8 @@ export interface Config {
   sessionSecret: string;
   /** Largest bitstream upload accepted, in bytes (413 beyond). */
   uploadLimitBytes: number;
+  /** Where bitstreams are kept; it belongs to one database, as build ids name the files. */
+  uploadDir: string;
   /** The demo accounts' password (`anglebench` when unset). */
   demoPassword: string;
 }
@@ -64,6 +67,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, secretFile = pa
     mockWsPort: e.MOCK_WS_PORT,
     sessionSecret: e.SESSION_SECRET ?? readOrCreateSecret(secretFile),
     uploadLimitBytes: e.UPLOAD_LIMIT_BYTES,
+    uploadDir: path.resolve(e.UPLOAD_DIR),
     demoPassword: e.DEMO_PASSWORD ?? 'anglebench',
   };
 }

@@ -7,6 +7,7 @@ import { migrate } from './db/migrator';
 import { demoAccountsPresent, seedIfEmpty } from './db/seed';
 import { startMailCatcher, type MailCatcher } from './mail/catcher';
 import { createSmtpMailer } from './mail/mailer';
+import { removeAbandonedUploads } from './uploads/bitstream-storage';
 
 export interface RunningServer {
   url: string;
@@ -29,7 +30,9 @@ export async function startServer(config: Config): Promise<RunningServer> {
   let catcher: MailCatcher | undefined;
   if (!config.smtpUrl) catcher = await startMailCatcher(db);
   const mailer = createSmtpMailer(config.smtpUrl ?? catcher!.url);
-  const app = createApp({ config, db, mailer });
+  const abandoned = removeAbandonedUploads(config.uploadDir);
+  if (abandoned > 0) console.log(`Removed ${abandoned} unfinished bitstream upload${abandoned === 1 ? '' : 's'} left by an earlier stop.`);
+  const app = createApp({ config, db, mailer, uploadDir: config.uploadDir });
   const server = createServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);

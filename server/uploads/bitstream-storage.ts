@@ -17,12 +17,14 @@ export interface HashedFile extends Express.Multer.File {
  * its SHA-256, so a bitstream of any size is hashed without being held in memory. The caller
  * renames the temporary file into place once the database agrees; multer removes it on failure.
  */
+const INCOMING = '.incoming-';
+
 class HashingDiskStorage implements multer.StorageEngine {
   constructor(private readonly dir: string) {}
 
   _handleFile(_req: Request, file: Express.Multer.File, cb: (error?: unknown, info?: Partial<HashedFile>) => void): void {
     fs.mkdirSync(this.dir, { recursive: true });
-    const tmp = path.join(this.dir, `.incoming-${randomUUID()}`);
+    const tmp = path.join(this.dir, `${INCOMING}${randomUUID()}`);
     const hash = createHash('sha256');
     let size = 0;
     const hasher = new Transform({
@@ -41,6 +43,22 @@ class HashingDiskStorage implements multer.StorageEngine {
   _removeFile(_req: Request, file: Express.Multer.File, cb: (error: Error | null) => void): void {
     fs.rm(file.path, { force: true }, (err) => cb(err));
   }
+}
+
+/**
+ * Removes the temporary files of uploads a killed server never finished; run at start, before
+ * the server takes uploads (one server owns its upload folder). Returns how many it removed.
+ */
+export function removeAbandonedUploads(dir: string): number {
+  let names: string[];
+  try {
+    names = fs.readdirSync(dir);
+  } catch {
+    return 0; // no folder yet: nothing was ever uploaded
+  }
+  const abandoned = names.filter((n) => n.startsWith(INCOMING));
+  for (const n of abandoned) fs.rmSync(path.join(dir, n), { force: true });
+  return abandoned.length;
 }
 
 /**

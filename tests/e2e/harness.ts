@@ -33,7 +33,7 @@ export async function startApp(env: Record<string, string> = {}): Promise<Runnin
   const db = tempDatabase();
   const child: ChildProcess = spawn(process.execPath, [path.join(projectRoot, 'node_modules/tsx/dist/cli.mjs'), 'server/index.ts'], {
     cwd: projectRoot,
-    env: { ...process.env, NODE_ENV: 'production', PORT: String(port), DATABASE_URL: db.url, SESSION_SECRET: 'e2e-secret-0123456789abcdef', ...env },
+    env: { ...process.env, NODE_ENV: 'production', PORT: String(port), DATABASE_URL: db.url, UPLOAD_DIR: path.join(db.dir, 'uploads'), SESSION_SECRET: 'e2e-secret-0123456789abcdef', ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
     detached: true, // its own process group, so stop() reaches grandchildren too
   });

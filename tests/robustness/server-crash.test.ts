@@ -1,12 +1,14 @@
 // The server killed with SIGKILL in the middle of uploads, then started again on the same SQLite
 // file: the database opens, passes its integrity check, and holds exactly the sessions whose
-// upload was answered (nothing from the upload cut off half-way).
+// upload was answered (nothing from the upload cut off half-way), and a bitstream cut off
+// half-way leaves no temporary file once the server is back.
+import fs from 'node:fs';
 import { request } from 'node:http';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openDatabase } from '../../server/db/connection';
 import { tempDatabase } from '../support/temp-db';
 import { modelSamples, sessionForm, sessionPart, signInOverHttp, type HttpSession } from './support/http-session';
-import { startServerProcess, type ServerProcess } from './support/server-process';
+import { startServerProcess, uploadDirOf, type ServerProcess } from './support/server-process';
 
 const tmp = tempDatabase();
 let server: ServerProcess | null = null;
@@ -125,5 +127,37 @@ describe('the server killed during uploads', () => {
     server = await startServerProcess(tmp.url);
     const again = await signInOverHttp(server.url, 'engineer@anglebench.test', 'anglebench');
     expect(await sessionCount(again)).toBe(before + burst.length);
+  });
+
+  it('killed during a bitstream upload: the restarted server removes the half file and keeps the build as it was', async () => {
+    const engineer = await signInOverHttp(server!.url, 'engineer@anglebench.test', 'anglebench');
+    const build = ((await (await engineer.fetch('/api/builds')).json()) as { builds: Array<{ id: number; sha256: string | null }> }).builds[0];
+    const boundary = 'robustness-bitstream-2c9e';
+    const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="top.bit"\r\nContent-Type: application/octet-stream\r\n\r\n`);
+    const req = request(`${server!.url}/api/builds/${build.id}/file`, {
+      method: 'POST',
+      headers: { cookie: engineer.cookie, 'x-csrf-token': engineer.csrf, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': head.length + 32 * 1024 * 1024 },
+    });
+    const ended = new Promise<string>((resolve) => {
+      req.on('error', (e) => resolve(`error: ${e.message}`));
+      req.on('response', (res) => resolve(`answered ${res.statusCode}`));
+    });
+    req.write(head);
+    const chunk = Buffer.alloc(1024 * 1024, 0xa5);
+    for (let sent = 0; sent < 4; sent++) if (!req.write(chunk)) await new Promise((r) => req.once('drain', r));
+    const dir = uploadDirOf(tmp.url);
+    const incoming = () => (fs.existsSync(dir) ? fs.readdirSync(dir).filter((n) => n.startsWith('.incoming-')) : []);
+    const deadline = Date.now() + 10_000;
+    while (incoming().length === 0 && Date.now() < deadline) await new Promise((r) => setTimeout(r, 20));
+    await server!.kill();
+    expect(await ended).toMatch(/^error: /);
+    expect(incoming()).toHaveLength(1); // what the kill left behind
+
+    server = await startServerProcess(tmp.url);
+    expect(incoming()).toEqual([]);
+    expect(server.output()).toMatch(/Removed 1 unfinished bitstream upload/);
+    const again = await signInOverHttp(server.url, 'engineer@anglebench.test', 'anglebench');
+    const after = ((await (await again.fetch(`/api/builds/${build.id}`)).json()) as { build: { sha256: string | null } }).build;
+    expect(after.sha256).toBe(build.sha256);
   });
 });

@@ -15,11 +15,14 @@ export interface ServerProcess {
   stop(): Promise<void>;
 }
 
+/** Bitstreams go beside the database file, so each test's server has its own folder. */
+export const uploadDirOf = (databaseUrl: string) => path.join(path.dirname(databaseUrl.replace(/^sqlite:/, '')), 'uploads');
+
 export async function startServerProcess(databaseUrl: string): Promise<ServerProcess> {
   const port = await freePort();
   const child = spawn(process.execPath, [path.join(projectRoot, 'node_modules/tsx/dist/cli.mjs'), 'server/index.ts'], {
     cwd: projectRoot,
-    env: { ...process.env, NODE_ENV: 'production', PORT: String(port), DATABASE_URL: databaseUrl, SESSION_SECRET: 'robustness-secret-0123456789' },
+    env: { ...process.env, NODE_ENV: 'production', PORT: String(port), DATABASE_URL: databaseUrl, UPLOAD_DIR: uploadDirOf(databaseUrl), SESSION_SECRET: 'robustness-secret-0123456789' },
     stdio: ['ignore', 'pipe', 'pipe'],
     detached: true,
   });
