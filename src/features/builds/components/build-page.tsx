@@ -22,7 +22,6 @@ export function BuildPage({ id }: { id: number }) {
   }
   const b = build.data;
   const engineer = role === 'engineer' || role === 'admin';
-  const reviewer = role === 'reviewer' || role === 'admin';
   const facts: Array<[string, string]> = [
     ['Source revision', b.sourceRevision],
     ['Tool version', b.toolVersion],
@@ -60,7 +59,7 @@ export function BuildPage({ id }: { id: number }) {
           {b.notes && <p className="mt-3 whitespace-pre-wrap text-sm">{b.notes}</p>}
         </section>
         <BitstreamPanel build={b} canUpload={engineer} />
-        <ReviewPanel buildId={b.id} canRequest={engineer} canDecide={reviewer} />
+        <ReviewPanel buildId={b.id} canRequest={engineer} />
         <BuildSessions buildId={b.id} />
       </div>
     </div>

@@ -66,8 +66,8 @@ function DecisionForm({ buildId }: { buildId: number }) {
   );
 }
 
-/** Asking for a review (engineers), deciding (reviewers), and every decision so far. */
-export function ReviewPanel({ buildId, canRequest, canDecide }: { buildId: number; canRequest: boolean; canDecide: boolean }) {
+/** Asking for a review (engineers), deciding (every role may sign a build off), and every decision so far. */
+export function ReviewPanel({ buildId, canRequest }: { buildId: number; canRequest: boolean }) {
   const reviews = useBuildReviews(buildId);
   return (
     <section aria-labelledby="reviews-title" className={panel}>
@@ -76,7 +76,7 @@ export function ReviewPanel({ buildId, canRequest, canDecide }: { buildId: numbe
       </h2>
       <div className="grid gap-4">
         {canRequest && <RequestReview buildId={buildId} />}
-        {canDecide && <DecisionForm buildId={buildId} />}
+        <DecisionForm buildId={buildId} />
         <div>
           <h3 className="mb-1 text-sm font-bold">Trail</h3>
           {reviews.isPending && <p className="text-sm text-ink-soft">Loading reviews…</p>}
