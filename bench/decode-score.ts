@@ -9,7 +9,7 @@ import { FrameDecoder } from '../shared/link/decoder';
 import { Kind } from '../shared/link/kinds';
 import { decodePayload, encodeMessage } from '../shared/link/payloads';
 import { DEFAULT_PROFILE } from '../shared/link/wire-profile';
-import { ScoreAccumulator, type ScoreSummary } from '../shared/numeric';
+import { createCordicModel, exactSinCosInto, ScoreAccumulator, type ScoreSummary } from '../shared/numeric';
 import type { BenchResult } from './report';
 import { timeMs } from './timing';
 
@@ -42,6 +42,21 @@ export function recordSweepReply(): Uint8Array {
     at += p.length;
   }
   return out;
+}
+
+/** The stream's RESULTS frames decoded, nothing scored: the codec's share of the pipeline. */
+function decodeOnly(stream: Uint8Array): number {
+  let pairs = 0;
+  const decoder = new FrameDecoder({
+    accept: 'replies',
+    onFrame: (f) => {
+      const m = decodePayload(f.kind, f.payload, DEFAULT_PROFILE);
+      if (m.kind === Kind.Results) pairs += m.cos.length;
+    },
+  });
+  for (let at = 0; at < stream.length; at += CHUNK_BYTES) decoder.push(stream.subarray(at, at + CHUNK_BYTES));
+  decoder.finish();
+  return pairs;
 }
 
 function decodeAndScore(stream: Uint8Array, codes: Float64Array): ScoreSummary {
@@ -79,6 +94,12 @@ export async function decodeScoreBench(): Promise<BenchResult[]> {
   const pipeline: number[] = [];
   const pipelineCpu: number[] = [];
   const bare: number[] = [];
+  const stage = { decode: [] as number[], model: [] as number[], exact: [] as number[] };
+  const model = createCordicModel({});
+  const cos = new Int32Array(CODES);
+  const sin = new Int32Array(CODES);
+  const exactCos = new Float64Array(CODES);
+  const exactSin = new Float64Array(CODES);
   // Interleaved, so a slow moment on the shared machine hits both sides alike.
   for (let pass = 0; pass < PASSES; pass++) {
     const cpu0 = process.cpuUsage();
@@ -86,9 +107,18 @@ export async function decodeScoreBench(): Promise<BenchResult[]> {
     const cpu = process.cpuUsage(cpu0);
     pipelineCpu.push((cpu.user + cpu.system) / 1000);
     bare.push(await timeMs(bareSinCos));
+    // Where the pipeline's time goes: each stage alone over the same 65,536 codes.
+    stage.decode.push(await timeMs(() => decodeOnly(stream)));
+    stage.model.push(await timeMs(() => model.evaluateInto(codes, cos, sin)));
+    stage.exact.push(await timeMs(() => exactSinCosInto(model.config, codes, exactCos, exactSin)));
   }
   if (!Number.isFinite(sink)) throw new Error('bare loop produced no number');
   const best = (xs: number[]) => Math.min(...xs);
+  const ns = (ms: number) => `${((ms * 1e6) / CODES).toFixed(1)} ns`;
+  const rest = best(pipeline) - best(stage.decode) - best(stage.model) - best(stage.exact);
+  console.log(
+    `  per result: decode ${ns(best(stage.decode))}, model ${ns(best(stage.model))}, exact ${ns(best(stage.exact))}, statistics and the rest ${ns(rest)}; bare sin+cos ${ns(best(bare))}`,
+  );
   const rate = (CODES * 1000) / best(pipeline);
   const bareRate = (CODES * 1000) / best(bare);
   const ratio = rate / bareRate;
