@@ -1,0 +1,166 @@
+// The ledger of one run: the requests in flight and, per code, its answer, how often it was
+// asked and whether it is settled (answered, or listed missing with a reason). The run decides
+// what to send and when; the ledger guarantees that every code ends answered exactly once or
+// missing, never both.
+import { Kind } from '../link/kinds';
+import type { MessageOf } from '../link/payloads';
+import type { MissingCode, ResultBatch } from './link-engine';
+
+/** One request on the line. */
+export interface InFlight {
+  tag: number;
+  kind: typeof Kind.One | typeof Kind.List | typeof Kind.Sweep;
+  /** Order of sending: a reply to a later request means an earlier one has lost what it lacks. */
+  seq: number;
+  /** For ONE/LIST: the run indexes asked for. For SWEEP: [first run index, count]. */
+  indexes: Uint32Array;
+  count: number;
+  received: number;
+}
+
+const OPEN = 0;
+const ANSWERED = 1;
+const GIVEN_UP = 2;
+
+export class RunLedger {
+  readonly cos: Int32Array;
+  readonly sin: Int32Array;
+  readonly missing: MissingCode[] = [];
+  /** Run indexes to ask for again, oldest first. */
+  readonly retry: number[] = [];
+  answeredCount = 0;
+  /** Answers asked for by ONE/LIST requests still open: what the device's queue holds. */
+  pairsInFlight = 0;
+  sweepsInFlight = 0;
+  private readonly state: Uint8Array;
+  private readonly attempts: Uint8Array;
+  private readonly inFlight = new Map<number, InFlight>();
+  private seq = 0;
+
+  constructor(
+    readonly codes: Float64Array,
+    private readonly maxRetries: number,
+  ) {
+    const n = codes.length;
+    this.cos = new Int32Array(n);
+    this.sin = new Int32Array(n);
+    this.state = new Uint8Array(n);
+    this.attempts = new Uint8Array(n);
+  }
+
+  // ---- requests ---------------------------------------------------------------------------
+
+  /** Puts a request on the books, numbered in sending order. */
+  open(tag: number, kind: InFlight['kind'], indexes: Uint32Array, count: number): void {
+    this.inFlight.set(tag, { tag, kind, seq: this.seq++, indexes, count, received: 0 });
+    if (kind === Kind.Sweep) this.sweepsInFlight++;
+    else this.pairsInFlight += count;
+  }
+
+  request(tag: number): InFlight | undefined {
+    return this.inFlight.get(tag);
+  }
+
+  /** The requests still open, in sending order. */
+  openRequests(): InFlight[] {
+    return [...this.inFlight.values()];
+  }
+
+  /**
+   * Takes a request off the books; returns the codes it asked for that are still open (none
+   * when `settled`), or null when it was not open.
+   */
+  close(req: InFlight, settled = false): number[] | null {
+    if (!this.inFlight.delete(req.tag)) return null;
+    if (req.kind === Kind.Sweep) this.sweepsInFlight--;
+    else this.pairsInFlight -= req.count;
+    return settled ? [] : this.unanswered(req);
+  }
+
+  /** The codes a request asked for that have no answer yet. */
+  unanswered(req: InFlight): number[] {
+    const out: number[] = [];
+    if (req.kind === Kind.Sweep) {
+      for (let i = req.indexes[0], end = i + req.count; i < end; i++) if (this.isOpen(i)) out.push(i);
+    } else for (const i of req.indexes) if (this.isOpen(i)) out.push(i);
+    return out;
+  }
+
+  /**
+   * Books a RESULTS frame against its request: the new answers (null when none), and how many
+   * answered a code that had its answer already (ignored).
+   */
+  results(req: InFlight, m: MessageOf<typeof Kind.Results>): { batch: ResultBatch | null; duplicates: number } {
+    const n = m.cos.length;
+    const indexes = new Uint32Array(n);
+    let kept = 0;
+    let duplicates = 0;
+    for (let j = 0; j < n; j++) {
+      const pos = m.firstIndex + j;
+      if (pos >= req.count) continue; // an index the request never had: corrupt, ignore
+      const idx = req.kind === Kind.Sweep ? req.indexes[0] + pos : req.indexes[pos];
+      req.received++;
+      if (this.answer(idx, m.cos[j], m.sin[j])) indexes[kept++] = idx;
+      else duplicates++;
+    }
+    if (kept === 0) return { batch: null, duplicates };
+    const sel = indexes.subarray(0, kept);
+    return { batch: { indexes: sel, cos: Int32Array.from(sel, (i) => this.cos[i]), sin: Int32Array.from(sel, (i) => this.sin[i]) }, duplicates };
+  }
+
+  // ---- codes ------------------------------------------------------------------------------
+
+  /** Codes answered or given up. */
+  get settled(): number {
+    return this.answeredCount + this.missing.length;
+  }
+
+  get complete(): boolean {
+    return this.settled === this.codes.length;
+  }
+
+  isOpen(index: number): boolean {
+    return this.state[index] === OPEN;
+  }
+
+  /** Takes an answer; false for a code already settled (a duplicate). */
+  answer(index: number, cos: number, sin: number): boolean {
+    if (this.state[index] !== OPEN) return false;
+    this.state[index] = ANSWERED;
+    this.answeredCount++;
+    this.cos[index] = cos;
+    this.sin[index] = sin;
+    return true;
+  }
+
+  /** Queues an open code for another try; past maxRetries it is listed missing instead. */
+  requeue(index: number): boolean {
+    if (++this.attempts[index] > this.maxRetries) {
+      this.giveUp(index, 'no answer');
+      return false;
+    }
+    this.retry.push(index);
+    return true;
+  }
+
+  giveUp(index: number, reason: MissingCode['reason']): void {
+    if (this.state[index] !== OPEN) return;
+    this.state[index] = GIVEN_UP;
+    this.missing.push({ index, code: this.codes[index], reason });
+  }
+
+  /** Settles every open code as missing and forgets the open requests (the run is ending). */
+  closeAll(reason: MissingCode['reason']): InFlight[] {
+    for (let i = 0; i < this.codes.length; i++) this.giveUp(i, reason);
+    const open = this.openRequests();
+    this.inFlight.clear();
+    return open;
+  }
+
+  /** 1 where a code was answered, 0 elsewhere. */
+  answeredMask(): Uint8Array {
+    const mask = new Uint8Array(this.codes.length);
+    for (let i = 0; i < mask.length; i++) mask[i] = this.state[i] === ANSWERED ? 1 : 0;
+    return mask;
+  }
+}
