@@ -77,6 +77,12 @@ export interface RunHandle {
 export interface RunHandlers {
   onResults?: (batch: ResultBatch) => void;
   onProgress?: (p: RunProgress) => void;
+  /**
+   * True for an answer worth confirming before it is taken: the runner and the Bench page say so
+   * for answers that differ from the reference model. While the line has shown damage in the
+   * last CONFIRM_WINDOW_MS, such an answer is asked for again and taken once two agree.
+   */
+  confirm?: (code: number, cos: number, sin: number) => boolean;
 }
 
 export class LinkError extends Error {
@@ -97,6 +103,7 @@ export class LinkEngine {
   private readonly tagBusy = new Uint8Array(256);
   private replyListeners = new Set<(f: DecodedFrame) => void>();
   private lastRxAt = 0;
+  private lastSkipAt = -Infinity;
 
   constructor(options: LinkEngineOptions) {
     this.o = { crc: DEFAULT_CRC8, baud: 3_000_000, timeoutMs: 300, maxRetries: 8, sweepSegment: 8192, ...options };
@@ -106,6 +113,7 @@ export class LinkEngine {
       onFrame: (f) => this.onFrame(f),
       onSkip: (e) => {
         this.figures.skippedBytes += e.bytes;
+        this.lastSkipAt = this.o.clock.now();
         if (e.reason === 'bad-check') this.figures.checkFailures++;
         this.o.onSkip?.(e, this.o.clock.now());
       },
@@ -146,6 +154,10 @@ export class LinkEngine {
   }
   /** @internal */ get lastReplyAt() {
     return this.lastRxAt;
+  }
+  /** @internal When the decoder last skipped bytes (damage, or noise before a frame). */
+  get lastDamageAt() {
+    return this.lastSkipAt;
   }
 
   /** @internal A free TAG, or -1 when all 256 are busy or cooling down after a loss. */

@@ -18,6 +18,13 @@ export interface LinkFigures {
   duplicates: number;
   /** Replies whose TAG matched no request in flight. */
   strayReplies: number;
+  /**
+   * Answers asked for again to confirm them: they differed from the reference while the line had
+   * just shown damage, and an 8-bit CHECK lets about 1 in 256 damaged frames through.
+   */
+  confirmations: number;
+  /** Of those, answers accepted after every retry without two that agreed. */
+  unconfirmed: number;
   /** Results per second over the whole run. */
   resultsPerS: number;
   /** Reply-direction bytes per second as a share of the line's baud/10 (0..1). */
@@ -35,6 +42,8 @@ export const emptyFigures = (): LinkFigures => ({
   retries: 0,
   duplicates: 0,
   strayReplies: 0,
+  confirmations: 0,
+  unconfirmed: 0,
   resultsPerS: 0,
   lineShare: 0,
 });

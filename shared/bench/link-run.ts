@@ -9,6 +9,8 @@ import type { RunProgress } from './link-figures';
 import { RunLedger, type InFlight } from './run-ledger';
 
 const PROGRESS_EVERY_MS = 100;
+/** How long after the decoder last skipped damaged bytes answers are confirmed (RunHandlers.confirm). */
+export const CONFIRM_WINDOW_MS = 1000;
 
 export class Run implements RunHandle {
   readonly done: Promise<RunResult>;
@@ -176,8 +178,13 @@ export class Run implements RunHandle {
   }
 
   private onResults(req: InFlight, m: MessageOf<typeof Kind.Results>) {
-    const { batch, duplicates } = this.ledger.results(req, m);
+    // Confirming costs a second request per doubtful answer, so only while the line is damaging frames.
+    const confirm = this.handlers.confirm;
+    const damaged = this.engine.options.clock.now() - this.engine.lastDamageAt < CONFIRM_WINDOW_MS;
+    const needsConfirming = confirm && damaged ? (i: number, cos: number, sin: number) => confirm(this.codes[i], cos, sin) : null;
+    const { batch, duplicates, held } = this.ledger.results(req, m, needsConfirming);
     this.engine.figures.duplicates += duplicates;
+    this.engine.figures.confirmations += held;
     if (batch) this.handlers.onResults?.(batch);
     if (req.kind !== Kind.Sweep && req.received >= req.count) this.close(req, false);
   }
@@ -192,7 +199,16 @@ export class Run implements RunHandle {
     const open = this.ledger.close(req, settled);
     if (open === null) return;
     this.engine.releaseTag(req.tag, lost || open.length > 0);
-    for (const i of open) if (this.ledger.requeue(i)) this.engine.figures.retries++;
+    const taken: number[] = [];
+    for (const i of open) {
+      const r = this.ledger.requeue(i);
+      if (r === 'retry') this.engine.figures.retries++;
+      else if (r === 'taken unconfirmed') taken.push(i);
+    }
+    if (taken.length > 0) {
+      this.engine.figures.unconfirmed += taken.length;
+      this.handlers.onResults?.(this.ledger.batchOf(Uint32Array.from(taken)));
+    }
   }
 
   // ---- time -------------------------------------------------------------------------------

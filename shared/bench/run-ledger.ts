@@ -22,6 +22,12 @@ const OPEN = 0;
 const ANSWERED = 1;
 const GIVEN_UP = 2;
 
+/** Says whether an answer must be confirmed by a second, equal one before it is taken. */
+export type NeedsConfirming = (index: number, cos: number, sin: number) => boolean;
+
+/** What became of a code whose request ended without its answer. */
+export type Requeued = 'retry' | 'missing' | 'taken unconfirmed';
+
 export class RunLedger {
   readonly cos: Int32Array;
   readonly sin: Int32Array;
@@ -36,6 +42,8 @@ export class RunLedger {
   private readonly attempts: Uint8Array;
   private readonly inFlight = new Map<number, InFlight>();
   private seq = 0;
+  /** Answers waiting for a second, equal one, by run index: cos and sin. */
+  private readonly held = new Map<number, [number, number]>();
 
   constructor(
     readonly codes: Float64Array,
@@ -87,25 +95,43 @@ export class RunLedger {
   }
 
   /**
-   * Books a RESULTS frame against its request: the new answers (null when none), and how many
-   * answered a code that had its answer already (ignored).
+   * Books a RESULTS frame against its request: the new answers (null when none), how many
+   * answered a code that had its answer already (ignored), and how many were held back to be
+   * confirmed (the code stays open, so it is asked for again when its request ends).
    */
-  results(req: InFlight, m: MessageOf<typeof Kind.Results>): { batch: ResultBatch | null; duplicates: number } {
+  results(req: InFlight, m: MessageOf<typeof Kind.Results>, needsConfirming: NeedsConfirming | null): { batch: ResultBatch | null; duplicates: number; held: number } {
     const n = m.cos.length;
     const indexes = new Uint32Array(n);
     let kept = 0;
     let duplicates = 0;
+    let held = 0;
     for (let j = 0; j < n; j++) {
       const pos = m.firstIndex + j;
       if (pos >= req.count) continue; // an index the request never had: corrupt, ignore
       const idx = req.kind === Kind.Sweep ? req.indexes[0] + pos : req.indexes[pos];
       req.received++;
-      if (this.answer(idx, m.cos[j], m.sin[j])) indexes[kept++] = idx;
-      else duplicates++;
+      const cos = m.cos[j];
+      const sin = m.sin[j];
+      if (!this.isOpen(idx)) duplicates++;
+      else if (needsConfirming?.(idx, cos, sin) && !this.agreesWithHeld(idx, cos, sin)) {
+        this.held.set(idx, [cos, sin]);
+        held++;
+      } else {
+        this.answer(idx, cos, sin);
+        indexes[kept++] = idx;
+      }
     }
-    if (kept === 0) return { batch: null, duplicates };
-    const sel = indexes.subarray(0, kept);
-    return { batch: { indexes: sel, cos: Int32Array.from(sel, (i) => this.cos[i]), sin: Int32Array.from(sel, (i) => this.sin[i]) }, duplicates };
+    return { batch: kept === 0 ? null : this.batchOf(indexes.subarray(0, kept)), duplicates, held };
+  }
+
+  /** The answers of the given (answered) indexes, as a batch for the run's listener. */
+  batchOf(indexes: Uint32Array): ResultBatch {
+    return { indexes, cos: Int32Array.from(indexes, (i) => this.cos[i]), sin: Int32Array.from(indexes, (i) => this.sin[i]) };
+  }
+
+  private agreesWithHeld(index: number, cos: number, sin: number): boolean {
+    const h = this.held.get(index);
+    return h !== undefined && h[0] === cos && h[1] === sin;
   }
 
   // ---- codes ------------------------------------------------------------------------------
@@ -126,6 +152,7 @@ export class RunLedger {
   /** Takes an answer; false for a code already settled (a duplicate). */
   answer(index: number, cos: number, sin: number): boolean {
     if (this.state[index] !== OPEN) return false;
+    this.held.delete(index);
     this.state[index] = ANSWERED;
     this.answeredCount++;
     this.cos[index] = cos;
@@ -133,18 +160,27 @@ export class RunLedger {
     return true;
   }
 
-  /** Queues an open code for another try; past maxRetries it is listed missing instead. */
-  requeue(index: number): boolean {
-    if (++this.attempts[index] > this.maxRetries) {
-      this.giveUp(index, 'no answer');
-      return false;
+  /**
+   * Queues an open code for another try. Past maxRetries it is listed missing, or, when an
+   * answer of it is held for confirming, that answer is taken (the device did answer).
+   */
+  requeue(index: number): Requeued {
+    if (++this.attempts[index] <= this.maxRetries) {
+      this.retry.push(index);
+      return 'retry';
     }
-    this.retry.push(index);
-    return true;
+    const h = this.held.get(index);
+    if (h) {
+      this.answer(index, h[0], h[1]);
+      return 'taken unconfirmed';
+    }
+    this.giveUp(index, 'no answer');
+    return 'missing';
   }
 
   giveUp(index: number, reason: MissingCode['reason']): void {
     if (this.state[index] !== OPEN) return;
+    this.held.delete(index);
     this.state[index] = GIVEN_UP;
     this.missing.push({ index, code: this.codes[index], reason });
   }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { coreFormSchema, formValuesOf, readNumber, toPayload, type CoreFormValues, type Issue } from '../../../src/features/cores/components/core-form-schema';
-import type { CoreRecord } from '../../../src/features/cores/api/get-cores';
+import type { CoreRecord } from '../../../src/lib/resources/cores';
 
 const defaults = (): CoreFormValues => ({ ...formValuesOf(null), name: 'Bring-up core', slug: 'bring-up' });
 const messages = (v: CoreFormValues) => Object.fromEntries(toPayload(v).issues.map((i) => [i.path.join('.'), i.message]));

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api';
-import { boardKeys, type BoardRecord } from './get-boards';
+import { boardKeys, type BoardRecord } from '../../../lib/resources/boards';
 
 export const getBoard = async (id: number, signal?: AbortSignal) => (await api<{ board: BoardRecord }>(`/api/boards/${id}`, { signal })).board;
 

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { api } from '../../../lib/api';
-import { boardKeys, type BoardRecord } from './get-boards';
+import { boardKeys, type BoardRecord } from '../../../lib/resources/boards';
 
 const text = (max: number) => z.string().trim().max(max, `At most ${max} characters`);
 

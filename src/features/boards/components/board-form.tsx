@@ -1,7 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
 import { btn, btnPrimary, fieldError, input, label } from '../../../components/ui';
-import type { BoardRecord } from '../api/get-boards';
+import type { BoardRecord } from '../../../lib/resources/boards';
 import { boardInputSchema, useSaveBoard, type BoardInput } from '../api/save-board';
 
 const FIELDS: Array<{ key: keyof BoardInput; label: string; placeholder: string }> = [

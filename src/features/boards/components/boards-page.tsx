@@ -2,7 +2,7 @@ import { DataTable, type PlainColumn } from '../../../components/data-table';
 import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { btnPrimary, fieldError, panel, panelTitle } from '../../../components/ui';
-import { useBoardList, type BoardRecord } from '../api/get-boards';
+import { useBoards, type BoardRecord } from '../../../lib/resources/boards';
 import { BoardForm } from './board-form';
 
 const columns: PlainColumn<BoardRecord>[] = [
@@ -28,7 +28,7 @@ function BoardsTable({ boards }: { boards: BoardRecord[] }) {
 
 /** /boards: the register of bench boards; engineers add to it. */
 export function BoardsPage({ canEdit }: { canEdit: boolean }) {
-  const boards = useBoardList();
+  const boards = useBoards();
   const navigate = useNavigate();
   const [adding, setAdding] = useState(false);
   return (

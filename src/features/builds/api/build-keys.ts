@@ -9,5 +9,4 @@ export const buildKeys = {
   detail: (id: number) => [...buildKeys.details(), id] as const,
   reviews: (id: number) => [...buildKeys.detail(id), 'reviews'] as const,
   sessions: (id: number) => ['sessions', 'of-build', id] as const,
-  cores: () => ['build-lookups', 'cores'] as const,
 };

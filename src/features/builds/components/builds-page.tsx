@@ -3,7 +3,7 @@ import { useSearchParams } from 'react-router-dom';
 import { btnPrimary, input, label } from '../../../components/ui';
 import { useMe } from '../../auth/api/get-me';
 import { useBuildList } from '../api/get-builds';
-import { useCoreChoices } from '../api/get-cores';
+import { useCores } from '../../../lib/resources/cores';
 import { BuildsTable } from './builds-table';
 import { NewBuildForm } from './new-build-form';
 
@@ -14,7 +14,7 @@ export function BuildsPage() {
   const [params, setParams] = useSearchParams();
   const coreParam = Number(params.get('core'));
   const coreId = Number.isInteger(coreParam) && coreParam > 0 ? coreParam : null;
-  const cores = useCoreChoices();
+  const cores = useCores();
   const builds = useBuildList(coreId);
   const [creating, setCreating] = useState(false);
 

@@ -5,7 +5,7 @@ import { useNavigate } from 'react-router-dom';
 import { ApiError } from '../../../lib/api';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 import { newBuildSchema, useCreateBuild, type NewBuildForm } from '../api/create-build';
-import { useCoreChoices } from '../api/get-cores';
+import { useCores } from '../../../lib/resources/cores';
 
 const FIELDS: Array<{ name: Exclude<keyof NewBuildForm, 'coreId' | 'notes'>; label: string; placeholder: string; mono?: boolean }> = [
   { name: 'label', label: 'Label', placeholder: 'ref16-r4' },
@@ -16,7 +16,7 @@ const FIELDS: Array<{ name: Exclude<keyof NewBuildForm, 'coreId' | 'notes'>; lab
 
 /** An engineer's form for a new build of a core; opens the build once it is made. */
 export function NewBuildForm({ coreId, onCancel }: { coreId: number | null; onCancel: () => void }) {
-  const cores = useCoreChoices();
+  const cores = useCores();
   const create = useCreateBuild();
   const navigate = useNavigate();
   const { register, handleSubmit, formState, setValue } = useForm<NewBuildForm>({

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api';
 import type { CorePayload } from '../components/core-form-schema';
-import { coreKeys, type CoreRecord } from './get-cores';
+import { coreKeys, type CoreRecord } from '../../../lib/resources/cores';
 
 export const createCore = async (body: CorePayload) => (await api<{ core: CoreRecord }>('/api/cores', { method: 'POST', body })).core;
 

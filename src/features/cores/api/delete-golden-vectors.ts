@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api';
-import { coreKeys } from './get-cores';
+import { coreKeys } from '../../../lib/resources/cores';
 
 export const deleteGoldenVectors = (coreId: number, setId: number) =>
   api<void>(`/api/cores/${coreId}/golden-vectors/${setId}`, { method: 'DELETE' });

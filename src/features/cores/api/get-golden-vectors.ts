@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api';
-import { coreKeys } from './get-cores';
+import { coreKeys } from '../../../lib/resources/cores';
 
 /** A golden-vector set as the server summarises it against the core's model. */
 export interface GoldenVectorSet {

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api';
 import type { CorePayload } from '../components/core-form-schema';
-import { coreKeys, type CoreRecord } from './get-cores';
+import { coreKeys, type CoreRecord } from '../../../lib/resources/cores';
 
 /** What PATCH /api/cores/:id takes: any of the form's parts, or a baseline change. */
 export type CorePatch = Partial<CorePayload> & { baselineSessionId?: number | null };

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { api } from '../../../lib/api';
-import { coreKeys } from './get-cores';
+import { coreKeys } from '../../../lib/resources/cores';
 import type { GoldenVectorSet } from './get-golden-vectors';
 
 /** The upload form: a name and one chosen file (a file input's value is a FileList). */

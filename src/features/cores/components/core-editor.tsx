@@ -2,7 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { btn, btnPrimary, fieldError, panel } from '../../../components/ui';
-import type { CoreRecord } from '../api/get-cores';
+import type { CoreRecord } from '../../../lib/resources/cores';
 import { useUpdateCore } from '../api/update-core';
 import { CoreFields } from './core-fields';
 import { coreFormSchema, formValuesOf, toPayload, type CoreFormValues } from './core-form-schema';

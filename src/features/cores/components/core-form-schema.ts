@@ -3,7 +3,7 @@
 import { z } from 'zod';
 import { limitsSchema, type LimitKey, type Limits } from '../../../../shared/bench/limits';
 import { modelConfigSchema, type ModelConfigInput } from '../../../../shared/numeric/model-config';
-import type { CoreRecord, LinkProfile } from '../api/get-cores';
+import type { CoreRecord, LinkProfile } from '../../../lib/resources/cores';
 import { LIMIT_KEYS } from './core-meanings';
 
 // As linkProfileSchema in server/schemas/core.ts (the server checks them again).

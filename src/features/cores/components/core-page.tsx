@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { fieldError, panel, panelTitle } from '../../../components/ui';
 import { ApiError } from '../../../lib/api';
-import { useCore } from '../api/get-core';
+import { useCore } from '../../../lib/resources/core-detail';
 import { BaselinePanel } from './baseline-panel';
 import { CoreEditor } from './core-editor';
 import { CoreValues } from './core-values';

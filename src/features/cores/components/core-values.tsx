@@ -1,5 +1,5 @@
 import { panel, panelTitle } from '../../../components/ui';
-import type { CoreRecord } from '../api/get-cores';
+import type { CoreRecord } from '../../../lib/resources/cores';
 import { LIMIT_KEYS, LIMITS, LINK, MODEL, type ModelKey } from './core-meanings';
 
 const num = (v: number) => v.toLocaleString('en-US', { maximumFractionDigits: 6 });

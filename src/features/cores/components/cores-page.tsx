@@ -1,12 +1,12 @@
 import { useState } from 'react';
 import { btnPrimary, fieldError } from '../../../components/ui';
-import { useCoreList } from '../api/get-cores';
+import { useCores } from '../../../lib/resources/cores';
 import { CoresTable } from './cores-table';
 import { NewCoreForm } from './new-core-form';
 
 /** /cores: the list, and for engineers (`canEdit`) a form for a new core. */
 export function CoresPage({ canEdit }: { canEdit: boolean }) {
-  const cores = useCoreList();
+  const cores = useCores();
   const [adding, setAdding] = useState(false);
   return (
     <div className="grid gap-4">

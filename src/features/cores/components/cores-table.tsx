@@ -1,6 +1,6 @@
 import { DataTable, type PlainColumn } from '../../../components/data-table';
 import { Link } from 'react-router-dom';
-import type { CoreRecord } from '../api/get-cores';
+import type { CoreRecord } from '../../../lib/resources/cores';
 import { LIMIT_KEYS } from './core-meanings';
 
 /** "16-bit turn angle → 16-bit output, 14 fraction bits, 16 iterations". */

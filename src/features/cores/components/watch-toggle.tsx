@@ -1,5 +1,5 @@
 import { btn, fieldError } from '../../../components/ui';
-import type { Watcher } from '../api/get-core';
+import type { Watcher } from '../../../lib/resources/core-detail';
 import { useSetWatching } from '../api/watch-core';
 
 /** Who is mailed when a session of this core regresses, and a toggle for the signed-in user. */

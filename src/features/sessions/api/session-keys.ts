@@ -14,12 +14,10 @@ export const sessionKeys = {
   capture: (id: number) => ['session-capture', id] as const,
 };
 
-/** Cores, builds and boards as this feature reads them (its own keys: its own reply shapes). */
+/** Builds as this feature reads them (its own keys: its own reply shapes). Cores and boards use
+ * the shared keys of src/lib/resources. */
 export const lookupKeys = {
   all: ['session-lookups'] as const,
-  cores: () => [...lookupKeys.all, 'cores'] as const,
-  core: (id: number) => [...lookupKeys.all, 'core', id] as const,
   builds: (coreId: number | null) => [...lookupKeys.all, 'builds', coreId] as const,
   build: (id: number) => [...lookupKeys.all, 'build', id] as const,
-  boards: () => [...lookupKeys.all, 'boards'] as const,
 };

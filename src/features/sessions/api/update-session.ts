@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { api } from '../../../lib/api';
-import { lookupKeys, sessionKeys } from './session-keys';
+import { coreKeys } from '../../../lib/resources/cores';
+import { sessionKeys } from './session-keys';
 import type { SessionRecord } from './session-types';
 
 /** What an engineer may change (server/routes/sessions.ts patchBody). */
@@ -20,8 +21,8 @@ export function useUpdateSession(id: number, coreId: number) {
   return useMutation({
     mutationFn: (body: UpdateSessionInput) => updateSession(id, body),
     onSuccess: async (_s, body) => {
-      // A new baseline changes the core (and whatever other pages show of it).
-      if (body.baseline) await Promise.all([qc.invalidateQueries({ queryKey: lookupKeys.core(coreId) }), qc.invalidateQueries({ queryKey: ['cores'] })]);
+      // A new baseline changes the core: its list row and its detail, wherever they are shown.
+      if (body.baseline) await Promise.all([qc.invalidateQueries({ queryKey: coreKeys.detail(coreId) }), qc.invalidateQueries({ queryKey: coreKeys.lists() })]);
       await Promise.all([qc.invalidateQueries({ queryKey: sessionKeys.detail(id) }), qc.invalidateQueries({ queryKey: sessionKeys.lists() })]);
     },
   });

@@ -1,5 +1,6 @@
 // The session's capture in an xterm: browsed a page of records at a time, or replayed at the
-// pace it was recorded (faster if asked), with a Stop.
+// pace it was recorded (faster if asked), with a Stop. A status line outside the terminal says
+// in words what it shows, for screen readers and for anyone waiting on a replay.
 import { FitAddon } from '@xterm/addon-fit';
 import { Terminal } from '@xterm/xterm';
 import '@xterm/xterm/css/xterm.css';
@@ -9,10 +10,12 @@ import { btn, input, label, panel, panelTitle } from '../../../components/ui';
 import { useSessionCapture, type SessionCapture } from '../api/get-session-capture';
 import { C, profilesByRecord, recordLines } from './capture-lines';
 import { dueUntil, REPLAY_SPEEDS } from './replay-clock';
+import { framesBefore, STATUS_EVERY_MS, statusText } from './replay-status';
 
 const PAGE_RECORDS = 300;
 const LINES_PER_FRAME = 200;
 type Which = 'both' | Direction;
+const DIRECTION_WORDS: Record<Direction, string> = { 'to-device': 'to the device', 'to-host': 'from the device' };
 
 export function CapturePane({ sessionId, hasArchive }: { sessionId: number; hasArchive: boolean }) {
   const [open, setOpen] = useState(false);
@@ -46,9 +49,12 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
   const [which, setWhich] = useState<Which>('both');
   const [page, setPage] = useState(0);
   const [speed, setSpeed] = useState<number>(1);
-  // 'replayed': a replay ended or was stopped and its output stays until the next browse.
-  const [mode, setMode] = useState<'browse' | 'replaying' | 'replayed'>('browse');
+  // 'stopped' / 'finished': a replay's output stays until the next browse.
+  const [mode, setMode] = useState<'browse' | 'replaying' | 'stopped' | 'finished'>('browse');
   const replaying = mode === 'replaying';
+  // How far a replay has come: `live` every tick, `progress` (the status line) now and then.
+  const live = useRef({ framesShown: 0, elapsedS: 0 });
+  const [progress, setProgress] = useState(live.current);
   const box = useRef<HTMLDivElement>(null);
   const term = useRef<Terminal | null>(null);
 
@@ -57,6 +63,8 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
   const t0 = all[0]?.timeMs ?? 0;
   const shown = useMemo(() => all.map((r, i) => [r, i] as const).filter(([r]) => which === 'both' || r.direction === which), [all, which]);
   const pages = Math.max(1, Math.ceil(shown.length / PAGE_RECORDS));
+  const frameCounts = useMemo(() => framesBefore(shown.map(([r]) => r)), [shown]);
+  const shownDurationS = shown.length ? (shown[shown.length - 1][0].timeMs - t0) / 1000 : 0;
   const linesOf = (r: ArchiveRecord, i: number) => recordLines(r, t0, profiles[i]);
   const browse = (w: Which, p: number) => {
     setWhich(w);
@@ -103,8 +111,10 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
     const start = performance.now();
     let next = 0;
     let raf = 0;
+    let statusAt = -Infinity;
     const tick = () => {
-      const due = dueUntil(times, next, t0, performance.now() - start, speed);
+      const now = performance.now();
+      const due = dueUntil(times, next, t0, now - start, speed);
       const lines: string[] = [];
       let skipped = 0;
       for (; next < due; next++) {
@@ -113,10 +123,16 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
       }
       if (skipped) lines.push(`${C.dim}… ${skipped.toLocaleString('en-US')} records not shown (faster than the pane at this speed)${C.off}`);
       if (lines.length) t.write(lines.join('\r\n') + '\r\n');
+      live.current = { framesShown: frameCounts[next], elapsedS: ((now - start) * speed) / 1000 };
       if (next >= shown.length) {
         t.write(`${C.dim}End of the capture.${C.off}\r\n`);
-        setMode('replayed');
+        setProgress(live.current);
+        setMode('finished');
         return;
+      }
+      if (now - statusAt >= STATUS_EVERY_MS) {
+        statusAt = now;
+        setProgress(live.current);
       }
       raf = requestAnimationFrame(tick);
     };
@@ -124,6 +140,18 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
     return () => cancelAnimationFrame(raf);
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [mode]);
+
+  const startReplay = () => {
+    live.current = { framesShown: 0, elapsedS: 0 };
+    setProgress(live.current);
+    setMode('replaying');
+  };
+  const stopReplay = () => {
+    setProgress(live.current);
+    setMode('stopped');
+  };
+  const phase = mode === 'browse' ? 'idle' : mode;
+  const status = statusText({ phase, ...progress, framesTotal: frameCounts[shown.length], records: shown.length, durationS: shownDurationS, speed, direction: which === 'both' ? undefined : DIRECTION_WORDS[which] });
 
   const matches = capture.replayedFrames === capture.recordedFrames;
   const durationS = all.length ? (all[all.length - 1].timeMs - t0) / 1000 : 0;
@@ -168,21 +196,24 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
             ))}
           </select>
         </label>
-        {mode === 'replayed' && (
+        {(mode === 'stopped' || mode === 'finished') && (
           <button type="button" className={btn} onClick={() => setMode('browse')}>
             Back to the records
           </button>
         )}
         {replaying ? (
-          <button type="button" className={btn} onClick={() => setMode('replayed')}>
+          <button type="button" className={btn} onClick={stopReplay}>
             Stop
           </button>
         ) : (
-          <button type="button" className={btn} disabled={!shown.length} onClick={() => setMode('replaying')}>
+          <button type="button" className={btn} disabled={!shown.length} onClick={startReplay}>
             Replay
           </button>
         )}
       </div>
+      <p role="status" aria-atomic="true" className={`text-sm tabular-nums ${replaying ? 'font-bold text-ink' : 'text-ink-soft'}`}>
+        {status}
+      </p>
       <div ref={box} data-testid="capture-terminal" className="h-72 min-w-0 overflow-hidden rounded bg-ink p-1" />
     </div>
   );

@@ -1,6 +1,6 @@
 import { Link } from 'react-router-dom';
 import { btn, fieldError, panel, panelTitle } from '../../../components/ui';
-import type { CoreRecord } from '../api/lookup-types';
+import type { CoreRecord } from '../../../lib/resources/cores';
 import type { SessionRecord } from '../api/session-types';
 import { useUpdateSession } from '../api/update-session';
 

@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { panel, panelTitle } from '../../../components/ui';
 import { useMe } from '../../auth/api/get-me';
-import { useCore } from '../api/get-core';
+import { useCore } from '../../../lib/resources/core-detail';
 import { useSession } from '../api/get-session';
 import { CapturePane } from '../capture/capture-pane';
 import { LocalBoundary } from '../components/local-boundary';
@@ -65,7 +65,7 @@ export function SessionPage({ id }: { id: number }) {
             <VerdictTable verdict={s.verdict} />
           </section>
           <LocalBoundary what="plots">
-            <SessionCharts session={s} config={core.data?.modelConfig} />
+            <SessionCharts session={s} config={core.data?.core.modelConfig} />
           </LocalBoundary>
           {core.isError && (
             <p role="alert" className="text-sm font-bold text-fail">
@@ -84,7 +84,7 @@ export function SessionPage({ id }: { id: number }) {
             </h2>
             <SessionStats stats={s.stats} />
           </section>
-          <SessionActions session={s} core={core.data} canEdit={canEdit} />
+          <SessionActions session={s} core={core.data?.core} canEdit={canEdit} />
           <NotesPanel key={s.updatedAt} session={s} canEdit={canEdit} />
           {me && (
             <LocalBoundary what="comments">

@@ -1,8 +1,8 @@
 import { useState } from 'react';
 import { btn, input, label } from '../../../components/ui';
-import { useBoardList } from '../api/get-boards';
+import { useBoards } from '../../../lib/resources/boards';
 import { useBuildList } from '../api/get-builds';
-import { useCoreList } from '../api/get-cores';
+import { useCores } from '../../../lib/resources/cores';
 import type { Named } from '../api/session-types';
 import { activeFilterCount, DEFAULT_FILTERS, type SessionFilters } from './session-filters';
 
@@ -18,9 +18,9 @@ interface Props {
 
 /** Every filter applies at once and lands in the address bar; the tag on Enter or leaving it. */
 export function SessionsFilterBar({ filters, onFilters, operators }: Props) {
-  const cores = useCoreList();
+  const cores = useCores();
   const builds = useBuildList(filters.coreId);
-  const boards = useBoardList();
+  const boards = useBoards();
   const [tag, setTag] = useState(filters.tag ?? '');
   const [seenTag, setSeenTag] = useState(filters.tag);
   if (filters.tag !== seenTag) {

@@ -2,7 +2,7 @@ import type { RowSelectionState } from '@tanstack/react-table';
 import { useCallback, useMemo, useState } from 'react';
 import { useNavigate, useSearchParams } from 'react-router-dom';
 import { btn, btnPrimary } from '../../../components/ui';
-import { useCoreList } from '../api/get-cores';
+import { useCores } from '../../../lib/resources/cores';
 import { useSessions } from '../api/get-sessions';
 import type { Named } from '../api/session-types';
 import { MAX_COMPARE } from './session-columns';
@@ -17,7 +17,7 @@ export function SessionsPage() {
   const filters = useMemo(() => filtersFromSearch(params), [params]);
   const setFilters = useCallback((patch: Partial<SessionFilters>) => setParams(filtersToSearch(withFilters(filters, patch))), [filters, setParams]);
   const sessions = useSessions(filters);
-  const cores = useCoreList();
+  const cores = useCores();
   const [selection, setSelection] = useState<RowSelectionState>({});
 
   // Operators met on any page so far (GET /api/users is for admins only).

@@ -5,7 +5,7 @@ import { Link } from 'react-router-dom';
 import { SignalCharts, staticFeed } from '../../../components/charts/signal-charts';
 import { btnPrimary } from '../../../components/ui';
 import { useBuild } from '../api/get-build';
-import { useCore } from '../api/get-core';
+import { useCore } from '../../../lib/resources/core-detail';
 import { useSession } from '../api/get-session';
 import { useSessionPlots } from '../api/get-session-plots';
 import { SessionFacts } from '../components/session-facts';
@@ -20,7 +20,7 @@ export function SessionReport({ id }: { id: number }) {
   const s = query.data;
   const core = useCore(s?.coreId ?? null);
   const build = useBuild(s?.buildId ?? null);
-  const plots = useSessionPlots(id, core.data?.modelConfig);
+  const plots = useSessionPlots(id, core.data?.core.modelConfig);
   const feed = useMemo(() => (plots.data ? staticFeed({ error: plots.data.charts.error }) : null), [plots.data]);
 
   if (query.isPending) return <p className="text-ink-soft">Preparing the report of session #{id}…</p>;
