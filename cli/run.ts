@@ -3,6 +3,7 @@
 // capture archive and the session upload. Exit 0 pass, 1 a limit fails, 2 any error.
 import { writeFileSync } from 'node:fs';
 import type { ByteLink } from '../shared/bench/byte-link';
+import { confirmOffModel } from '../shared/bench/confirm-off-model';
 import { LinkEngine, type RunResult } from '../shared/bench/link-engine';
 import { DEFAULT_CRC8, type DeviceInfo } from '../shared/link';
 import { parseModelConfig, type ModelConfig } from '../shared/numeric';
@@ -91,7 +92,7 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
     const startedAt = new Date();
     let result: RunResult;
     try {
-      result = await engine.run(request, { onProgress: (p) => progress.update(p) }).done;
+      result = await engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) }).done;
     } finally {
       progress.end(null);
     }

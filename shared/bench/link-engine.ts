@@ -106,7 +106,9 @@ export class LinkEngine {
   private lastSkipAt = -Infinity;
 
   constructor(options: LinkEngineOptions) {
-    this.o = { crc: DEFAULT_CRC8, baud: 3_000_000, timeoutMs: 300, maxRetries: 8, sweepSegment: 8192, ...options };
+    // An option given as undefined takes its default, as one left out does.
+    const given = Object.fromEntries(Object.entries(options).filter(([, v]) => v !== undefined)) as LinkEngineOptions;
+    this.o = { crc: DEFAULT_CRC8, baud: 3_000_000, timeoutMs: 300, maxRetries: 8, sweepSegment: 8192, ...given };
     this.decoder = new FrameDecoder({
       crc: this.o.crc,
       accept: 'replies',
