@@ -89,7 +89,7 @@ export function humanReport(r: RunReport): string {
   }
   const f = r.figures;
   const naks = Object.entries(f.naks).filter(([, n]) => n > 0).map(([k, n]) => `${n}×${k}`).join(' ') || 'none';
-  out.push(`  link: ${f.framesSent} frames out, ${f.framesReceived} in, ${f.checkFailures} bad CHECK, ${f.skippedBytes} bytes skipped, ${f.retries} retries, NAKs ${naks}, ${Math.round(f.resultsPerS).toLocaleString('en-US')} results/s, ${(f.lineShare * 100).toFixed(1)}% of the line`);
+  out.push(`  link: ${f.framesSent} frames out, ${f.framesReceived} in, ${f.checkFailures} bad CHECK, ${f.skippedBytes} bytes skipped, ${f.retries} retries, NAKs ${naks}, ${f.confirmations} answers confirmed${f.unconfirmed ? ` (${f.unconfirmed} unconfirmed)` : ''}, ${Math.round(f.resultsPerS).toLocaleString('en-US')} results/s, ${(f.lineShare * 100).toFixed(1)}% of the line`);
   out.push('');
   if (r.verdict.checks.length === 0) out.push('verdict: PASS (no limits given: nothing to fail)');
   else {
