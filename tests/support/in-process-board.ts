@@ -1,15 +1,24 @@
 import { LinkEvents, type ByteLink } from '../../shared/bench/byte-link';
+import type { EngineClock } from '../../shared/bench/link-engine';
 import { realClock } from '../../mock-device/line-pacer';
 import { defaultBoardSettings, openBoardSession, type BoardSettings } from '../../mock-device/board-session';
 
 /** Real time for the engine, the same clock the simulated board paces with. */
 export { realClock as realEngineClock };
 
-/** The simulated board in this process, behind a ByteLink, paced by real time. */
-export function inProcessBoard(overrides: Partial<BoardSettings> = {}) {
+/**
+ * The simulated board in this process, behind a ByteLink, paced by real time or by `clock`.
+ * `toHost`, when given, carries each chunk of the board's bytes to the host (`emit`), so a test
+ * can hold bytes back.
+ */
+export function inProcessBoard(
+  overrides: Partial<BoardSettings> = {},
+  { clock = realClock, toHost }: { clock?: EngineClock; toHost?: (bytes: Uint8Array, emit: (bytes: Uint8Array) => void) => void } = {},
+) {
   const settings = { ...defaultBoardSettings(), ...overrides };
   const events = new LinkEvents();
-  const session = openBoardSession(settings, (bytes) => events.emitBytes(bytes));
+  const emit = (bytes: Uint8Array) => events.emitBytes(bytes);
+  const session = openBoardSession(settings, toHost ? (bytes) => toHost(bytes, emit) : emit, clock);
   const written: Uint8Array[] = [];
   const link: ByteLink & { written: Uint8Array[] } = {
     written,
@@ -19,7 +28,7 @@ export function inProcessBoard(overrides: Partial<BoardSettings> = {}) {
     write: async (bytes) => {
       written.push(bytes);
       // Asynchronous like hardware: the board sees the bytes after the write returns.
-      setTimeout(() => session.receive(bytes), 0);
+      clock.after(0, () => session.receive(bytes));
     },
     onBytes: (l) => events.onBytes(l),
     onWarning: (l) => events.onWarning(l),

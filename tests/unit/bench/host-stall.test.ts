@@ -1,7 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { LinkEvents, type ByteLink } from '../../../shared/bench/byte-link';
 import { LinkEngine, type RunResult } from '../../../shared/bench/link-engine';
-import { defaultBoardSettings, openBoardSession } from '../../../mock-device/board-session';
+import { inProcessBoard } from '../../support/in-process-board';
 import { manualClock } from '../../support/manual-clock';
 
 const TIMEOUT_MS = 100;
@@ -12,43 +11,48 @@ const TIMEOUT_MS = 100;
  */
 function bench() {
   const time = manualClock();
-  const events = new LinkEvents();
   const held: Uint8Array[] = [];
   let holding = false;
-  const session = openBoardSession({ ...defaultBoardSettings(), baud: 3_000_000 }, (b) => (holding ? held.push(b) : events.emitBytes(b)), time.clock);
-  const link: ByteLink = {
-    get closed() {
-      return events.closed;
+  let emitToHost: (bytes: Uint8Array) => void = () => {};
+  const { link } = inProcessBoard(
+    { baud: 3_000_000 },
+    {
+      clock: time.clock,
+      toHost: (bytes, emit) => {
+        emitToHost = emit;
+        if (holding) held.push(bytes);
+        else emit(bytes);
+      },
     },
-    write: async (bytes) => {
-      time.clock.after(0, () => session.receive(bytes));
-    },
-    onBytes: (l) => events.onBytes(l),
-    onWarning: (l) => events.onWarning(l),
-    onClose: (l) => events.onClose(l),
-    close: async () => {
-      session.close();
-      events.emitClose({ requested: true, message: 'closed' });
-    },
-  };
+  );
   const engine = new LinkEngine({ link, clock: time.clock, baud: 3_000_000, timeoutMs: TIMEOUT_MS });
   const settle = () => new Promise((r) => setImmediate(r));
+  /** Moves time on 1 ms at a time, letting promises settle between steps. */
+  const run = async (ms: number) => {
+    for (let t = 0; t < ms; t++) {
+      time.advance(1);
+      await settle();
+    }
+  };
   return {
     engine,
     time,
+    run,
+    settle,
     hold: () => (holding = true),
     release: () => {
       holding = false;
-      for (const b of held.splice(0)) events.emitBytes(b);
+      for (const b of held.splice(0)) emitToHost(b);
     },
-    /** Moves time on 1 ms at a time, letting promises settle between steps. */
-    async run(ms: number) {
-      for (let t = 0; t < ms; t++) {
-        time.advance(1);
-        await settle();
-      }
+    /** HELLO, then a LIST run of `codes` a few milliseconds under way. */
+    async startRun(codes: number[]) {
+      const hello = engine.hello();
+      await run(20);
+      await hello;
+      const handle = engine.run({ kind: 'codes', codes });
+      await run(5);
+      return handle;
     },
-    settle,
   };
 }
 
@@ -65,11 +69,7 @@ describe('a run when the host stalls', () => {
 
   it('does not take a blocked event loop for a silent line: no request is retried', async () => {
     const b = bench();
-    const hello = b.engine.hello();
-    await b.run(20);
-    await hello;
-    const run = b.engine.run({ kind: 'codes', codes });
-    await b.run(5);
+    const run = await b.startRun(codes);
     // The host freezes for ten timeouts; the board goes on answering into the socket.
     b.hold();
     b.time.stall(10 * TIMEOUT_MS);
@@ -83,11 +83,7 @@ describe('a run when the host stalls', () => {
 
   it('still declares requests lost when the line really is silent, and asks again', async () => {
     const b = bench();
-    const hello = b.engine.hello();
-    await b.run(20);
-    await hello;
-    const run = b.engine.run({ kind: 'codes', codes });
-    await b.run(5);
+    const run = await b.startRun(codes);
     // The host keeps running on time, but nothing arrives for three timeouts.
     b.hold();
     await b.run(3 * TIMEOUT_MS);
