@@ -31,10 +31,13 @@ function samples(faulty: number): number[] {
   return Array.from(packSamples(codes, cos, sin, new Uint8Array(n).fill(1)));
 }
 
-/** A small capture: HELLO at 0 ms, ONE at 1 s, ONE at 3 s (so a 1× replay takes 3 s). */
+/**
+ * A small capture: HELLO at 0 ms, ONE at 1 s, ONE at 20 s. The long gap gives a 1× replay
+ * stopped after the second frame plenty of room on a busy machine; at 16× it ends in 1.25 s.
+ */
 function captureBytes(): number[] {
   const p = { angleFormat: 'turn' as const, angleBits: 16, outBits: 16 };
-  const times = [0, 1000, 3000];
+  const times = [0, 1000, 20_000];
   let k = 0;
   const recorder = new Recorder({ label: 'e2e capture' });
   const device = new RecordedDecoder({ recorder, direction: 'to-device', nowMs: () => times[Math.min(k, times.length - 1)], onFrame: () => undefined });
@@ -165,30 +168,65 @@ describe('the Session page for an engineer', () => {
     expect(Math.abs(over!.width - over!.height)).toBeLessThanOrEqual(1);
   });
 
-  it('browses the recorded capture, replays it at its recorded pace and stops', async () => {
+  it('browses the recorded capture, replays it at its recorded pace and stops, and says so in its status line', async () => {
     const page = await newPage();
     await signIn(page, 'engineer@anglebench.test', `/sessions/${passingId}`);
     await page.getByRole('button', { name: 'Open capture' }).click();
     await expect.poll(() => page.getByTestId('capture-recheck').textContent()).toContain('3 frames and 0 skips, the same frames as recorded');
+    const region = page.getByRole('region', { name: 'Recorded capture' });
+    const status = region.getByRole('status');
+    await status.getByText('3 frames in 6 records, 20.0 s of traffic').waitFor();
     const pane = page.getByTestId('capture-terminal');
     await pane.getByText('HELLO tag 1').waitFor();
     expect(await pane.textContent()).toContain('ONE tag 3: angle code 8192');
-    // As recorded, the last frame comes 3 s in: stopped after about 1 s, it has not appeared.
-    // Replay draws on animation frames, which Chromium holds back for a page not in front.
-    await page.bringToFront();
-    await page.getByRole('button', { name: 'Replay' }).click();
-    // The pane's text as a whole: a row that wraps splits a line over two elements.
-    const paneText = () => pane.textContent();
-    await expect.poll(paneText, { timeout: 20_000 }).toMatch(/Replaying 6 records at 1× recorded pace/);
-    await expect.poll(paneText, { timeout: 10_000 }).toContain('ONE tag 2: angle code 4096');
-    await page.getByRole('button', { name: 'Stop' }).click();
-    await page.waitForTimeout(2500);
+
+    // Every text the status line takes, kept by the page itself so none is missed between polls.
+    await status.evaluate((el) => {
+      const seen: string[] = [];
+      (window as unknown as { statusSeen: string[] }).statusSeen = seen;
+      new MutationObserver(() => seen.at(-1) !== el.textContent && seen.push(el.textContent ?? '')).observe(el, { childList: true, characterData: true, subtree: true });
+    });
+    const seen = () => page.evaluate(() => (window as unknown as { statusSeen: string[] }).statusSeen.slice());
+
+    // As recorded, the second frame comes 1 s in and the last 20 s in: stopped after the second.
+    await region.getByRole('button', { name: 'Replay', exact: true }).click();
+    await status.getByText(/^Replaying: frame 2 of 3, /).waitFor({ timeout: 20_000 });
+    await region.getByRole('button', { name: 'Stop' }).click();
+    await status.getByText(/^Stopped at frame 2 of 3, /).waitFor();
+    const stoppedAt = await status.textContent();
+    await expect.poll(() => pane.textContent()).toContain('ONE tag 2: angle code 4096');
+    await page.waitForTimeout(1500);
+    expect(await status.textContent()).toBe(stoppedAt);
     expect(await pane.textContent()).not.toContain('angle code 8192');
+
     // Sixteen times faster, it runs to the end.
-    await page.getByLabel('Replay speed').selectOption('16');
-    await page.getByRole('button', { name: 'Replay' }).click();
-    await expect.poll(paneText, { timeout: 20_000 }).toContain('End of the capture.');
+    await region.getByLabel('Replay speed').selectOption('16');
+    await region.getByRole('button', { name: 'Replay', exact: true }).click();
+    await status.getByText('Replay finished: 3 frames, 20.0 s of traffic').waitFor({ timeout: 20_000 });
+    await expect.poll(() => pane.textContent()).toContain('End of the capture.');
     expect(await pane.textContent()).toContain('angle code 8192');
+
+    // The status went idle → replaying → stopped, then replaying faster → finished, counting up.
+    const texts = await seen();
+    const runs = [texts.slice(0, texts.findIndex((t) => t.startsWith('Stopped'))), texts.slice(texts.findIndex((t) => t.startsWith('Stopped')) + 1, -1)];
+    expect(texts.filter((t) => t.startsWith('Stopped'))).toEqual([stoppedAt]);
+    expect(texts.at(-1)).toBe('Replay finished: 3 frames, 20.0 s of traffic');
+    for (const [run, prefix] of [[runs[0], 'Replaying: '], [runs[1], 'Replaying 16× faster: ']] as const) {
+      expect(run.length).toBeGreaterThan(0);
+      const steps = run.map((t) => {
+        expect(t.startsWith(prefix)).toBe(true);
+        const m = /frame (\d) of 3, ([\d.]+) s of 20\.0 s$/.exec(t);
+        expect(m, t).not.toBeNull();
+        return [Number(m![1]), Number(m![2])];
+      });
+      // Frames and seconds never go back, and never run past the capture.
+      steps.slice(1).forEach(([f, s], i) => expect(f >= steps[i][0] && s >= steps[i][1], run.join(' | ')).toBe(true));
+      expect(steps.every(([f, s]) => f <= 3 && s <= 20)).toBe(true);
+    }
+    // Stopped 1 s to 20 s in: two frames shown, the third not yet due.
+    const stoppedS = Number(/, ([\d.]+) s of/.exec(stoppedAt!)![1]);
+    expect(stoppedS).toBeGreaterThanOrEqual(1);
+    expect(stoppedS).toBeLessThan(20);
   });
 
   it('edits the notes and keeps them after a reload', async () => {
