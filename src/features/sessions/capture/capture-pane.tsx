@@ -186,30 +186,33 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
             Later
           </button>
         </div>
-        <label className={`${label} ml-auto`}>
-          Replay speed
-          <select className={input} value={speed} disabled={replaying} onChange={(e) => setSpeed(Number(e.target.value))}>
-            {REPLAY_SPEEDS.map((s) => (
-              <option key={s} value={s}>
-                {s === 1 ? 'as recorded' : `${s}× faster`}
-              </option>
-            ))}
-          </select>
-        </label>
-        {(mode === 'stopped' || mode === 'finished') && (
-          <button type="button" className={btn} onClick={() => setMode('browse')}>
-            Back to the records
-          </button>
-        )}
-        {replaying ? (
-          <button type="button" className={btn} onClick={stopReplay}>
-            Stop
-          </button>
-        ) : (
-          <button type="button" className={btn} disabled={!shown.length} onClick={startReplay}>
-            Replay
-          </button>
-        )}
+        {/* Speed and the replay buttons wrap as one group, so Replay never lands alone on a line. */}
+        <div className="ml-auto flex flex-wrap items-end gap-2">
+          <label className={label}>
+            Replay speed
+            <select className={input} value={speed} disabled={replaying} onChange={(e) => setSpeed(Number(e.target.value))}>
+              {REPLAY_SPEEDS.map((s) => (
+                <option key={s} value={s}>
+                  {s === 1 ? 'as recorded' : `${s}× faster`}
+                </option>
+              ))}
+            </select>
+          </label>
+          {(mode === 'stopped' || mode === 'finished') && (
+            <button type="button" className={btn} onClick={() => setMode('browse')}>
+              Back to the records
+            </button>
+          )}
+          {replaying ? (
+            <button type="button" className={btn} onClick={stopReplay}>
+              Stop
+            </button>
+          ) : (
+            <button type="button" className={btn} disabled={!shown.length} onClick={startReplay}>
+              Replay
+            </button>
+          )}
+        </div>
       </div>
       <p role="status" aria-atomic="true" className={`text-sm tabular-nums ${replaying ? 'font-bold text-ink' : 'text-ink-soft'}`}>
         {status}
