@@ -15,6 +15,12 @@ export interface RecorderOptions {
   label?: string;
 }
 
+/** Where a recorder stood: records written and bytes each way so far. */
+export interface RecorderMark {
+  readonly records: number;
+  readonly streamBytes: Readonly<Record<Direction, number>>;
+}
+
 /**
  * Appends records to a block-grown log. Times are the caller's (ms, any origin); nothing here
  * reads a clock. `toArchive()` may be called at any time and recording may go on afterwards.
@@ -86,6 +92,40 @@ export class Recorder {
   finish(direction: Direction, timeMs: number): void {
     writeRecordStart(this.log, RecordType.Finish, direction, timeMs);
     this.count++;
+  }
+
+  /** Where the recording stands now, for `excerpt`. */
+  mark(): RecorderMark {
+    return { records: this.count, streamBytes: { ...this.streamBytes } };
+  }
+
+  /**
+   * A complete archive, same header, of the records before `preambleEnd` and those from `from`
+   * on: what came between is left out and stream positions after `from` move back by its bytes.
+   * Take `from` between frames; a frame or skip that began before it is dropped (its bytes stay,
+   * and replay reads them as a skip).
+   */
+  excerpt(preambleEnd: RecorderMark, from: RecorderMark): Uint8Array {
+    if (preambleEnd.records > from.records || from.records > this.count) throw new RangeError('excerpt marks must be in recording order');
+    const { records } = readArchive(this.toArchive());
+    const out = new Recorder(this.header);
+    const cut = from.streamBytes;
+    const shift = (d: Direction, offset: number) => offset - (cut[d] - preambleEnd.streamBytes[d]);
+    const copy = (r: (typeof records)[number], moved: boolean) => {
+      const at = (offset: number) => (moved ? shift(r.direction, offset) : offset);
+      if (r.type === 'chunk') out.chunk(r.direction, r.timeMs, r.bytes);
+      else if (r.type === 'frame') out.frame(r.direction, r.timeMs, { ...r.frame, offset: at(r.frame.offset) });
+      else if (r.type === 'skip') out.skip(r.direction, r.timeMs, { ...r.event, offset: at(r.event.offset) });
+      else if (r.type === 'profile') out.profile(r.direction, r.timeMs, at(Math.max(r.offset, moved ? cut[r.direction] : 0)), r.profile);
+      else out.finish(r.direction, r.timeMs);
+    };
+    for (let i = 0; i < preambleEnd.records; i++) copy(records[i], false);
+    for (let i = from.records; i < records.length; i++) {
+      const r = records[i];
+      const begins = r.type === 'frame' ? r.frame.offset : r.type === 'skip' ? r.event.offset : Infinity;
+      if (begins >= cut[r.direction]) copy(r, true);
+    }
+    return out.toArchive();
   }
 
   /** The archive so far, closed with an END record. */

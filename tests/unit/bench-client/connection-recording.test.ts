@@ -53,6 +53,18 @@ describe('the capture of a bench connection', () => {
     expect(found.sin).toEqual(result.sin);
   });
 
+  it('gives a run the preamble and its own traffic only, the earlier run left out', async () => {
+    const { board, rec, engine } = await recordedRun(512);
+    rec.markRun();
+    const second = await engine.run({ kind: 'codes', codes: Float64Array.of(7, 9000, 41) }).done;
+    await board.link.close();
+    const run = samplesFromArchive(rec.runArchive());
+    expect(run.info?.name).toBe(engine.info?.name);
+    expect(Array.from(run.codes)).toEqual([7, 9000, 41]);
+    expect(run.cos).toEqual(second.cos);
+    expect(samplesFromArchive(rec.toArchive()).codes.length).toBe(512 + 3);
+  });
+
   it('records nothing after the link has closed', async () => {
     const { board, rec, now } = await recordedRun(256);
     await board.link.close();

@@ -1,16 +1,17 @@
 // One bench connection and its runs, outside React: the page reads a small snapshot through
 // useSyncExternalStore (status, INFO, progress, summary); live samples and traffic bypass React.
-// The connection is recorded from open to close; the latest run is kept in IndexedDB until it is
-// saved or discarded, so a reload does not lose it.
-import { LinkEngine, type RunHandle } from '../../../../shared/bench/link-engine';
-import type { ByteLink } from '../../../../shared/bench/byte-link';
+// The connection is recorded from open to close; a run keeps the HELLO → INFO preamble and its
+// own traffic. The latest run is kept in IndexedDB until it is saved or discarded, so a reload
+// does not lose it.
+import type { LinkEngine, RunHandle } from '../../../../shared/bench/link-engine';
+import type { ByteLink, LinkCloseReason } from '../../../../shared/bench/byte-link';
 import type { RunProgress, LinkFigures } from '../../../../shared/bench/link-figures';
-import type { RunRequest } from '../../../../shared/bench/run-request';
 import type { DeviceInfo } from '../../../../shared/link';
-import { angleCodeRange, parseModelConfig, planCodes, type ModelConfig, type Plan, type ScoreSummary } from '../../../../shared/numeric';
-import { ConnectionRecording } from './connection-recording';
-import { LOSS_SILENCE_MS, sweepSegmentFor } from './link-settings';
+import type { Plan, ScoreSummary } from '../../../../shared/numeric';
+import type { ConnectionRecording } from './connection-recording';
 import { LiveSamples } from './live-samples';
+import { newRun, takeResults } from './new-run';
+import { recordedLink } from './recorded-link';
 import { ScoreClient } from './score-client';
 import type { ToneResult } from './score-protocol';
 import { TrafficLog } from './traffic-log';
@@ -90,38 +91,15 @@ export class BenchController {
     this.baud = baud;
     this.set({ status: 'connecting', transportLabel: label, linkMessage: null, info: null });
     try {
-      const link = await open();
-      const recording = new ConnectionRecording({ transport: label, baud, openedAt: new Date().toISOString() });
-      this.link = link;
-      this.recording = recording;
-      link.onWarning((m) => this.traffic.push({ type: 'note', text: m, atMs: clock.now() }));
-      link.onClose((r) => {
-        recording.finish(clock.now());
+      const onClose = (link: ByteLink, r: LinkCloseReason) => {
         if (this.link !== link) return;
         this.link = null;
         this.engine = null;
         this.set({ status: 'closed', linkMessage: r.requested ? null : r.message });
-      });
-      this.engine = new LinkEngine({
-        link,
-        clock,
-        baud,
-        timeoutMs: LOSS_SILENCE_MS,
-        sweepSegment: sweepSegmentFor(baud),
-        onTraffic: (direction, bytes, atMs) => {
-          recording.traffic(direction, bytes, atMs);
-          this.traffic.push({ type: 'bytes', direction, bytes: bytes.slice(), atMs });
-        },
-        onFrame: (frame, atMs) => {
-          recording.frame(frame, atMs);
-          this.traffic.push({ type: 'frame', frame, atMs });
-        },
-        onSkip: (event, atMs) => {
-          recording.skip(event, atMs);
-          this.traffic.push({ type: 'skip', event, atMs });
-        },
-      });
-      const info = await this.engine.hello();
+      };
+      const { link, engine, recording } = recordedLink(await open(), { label, baud, clock, traffic: this.traffic, onClose });
+      [this.link, this.engine, this.recording] = [link, engine, recording];
+      const info = await engine.hello();
       recording.info(info, clock.now());
       this.set({ status: 'connected', info });
     } catch (err) {
@@ -140,45 +118,17 @@ export class BenchController {
   /** Start a plan, scored against `configInput` (prefilled from INFO). Throws for a bad plan or profile. */
   startRun(plan: Plan, configInput: unknown) {
     if (!this.engine) throw new Error('Connect to a board first');
-    const config: ModelConfig = parseModelConfig(configInput);
-    const codes = planCodes(plan, config);
-    const r = angleCodeRange(config);
-    const req: RunRequest =
-      plan.kind === 'exhaustive'
-        ? { kind: 'sweep', start: r.min, step: 1, count: r.count }
-        : plan.kind === 'sweep'
-          ? { kind: 'sweep', start: plan.start, step: plan.step, count: plan.count }
-          : { kind: 'codes', codes };
-    const n = codes.length;
-    const record: RunRecord = {
-      codes,
-      cos: new Int32Array(n),
-      sin: new Int32Array(n),
-      answered: new Uint8Array(n),
-      plan,
-      config,
-      startedAt: new Date(),
-      endedAt: null,
-      transportLabel: this.snap.transportLabel,
-      baud: this.baud,
-      info: this.snap.info,
-      archive: null,
-      outcome: null,
-      figures: null,
-    };
+    const { request, record } = newRun(plan, configInput, { transportLabel: this.snap.transportLabel, baud: this.baud, info: this.snap.info });
+    const codes = record.codes;
     this.record = record;
     const scorer = this.startScoring(record);
     this.set({ restorable: null, run: { state: 'running', progress: null, result: null, summary: null, tone: null, figures: null, error: null, plan, restoredFrom: null } });
     const engine = this.engine;
     const rxAtStart = engine.figures.bytesReceived;
-    const handle = engine.run(req, {
+    this.recording?.markRun();
+    const handle = engine.run(request, {
       onResults: (b) => {
-        for (let k = 0; k < b.indexes.length; k++) {
-          const i = b.indexes[k];
-          record.cos[i] = b.cos[k];
-          record.sin[i] = b.sin[k];
-          record.answered[i] = 1;
-        }
+        takeResults(record, b);
         scorer.queue(codes, b.indexes, b.cos, b.sin);
       },
       onProgress: (p) => {
@@ -284,7 +234,7 @@ export class BenchController {
   /** The run is over: score what is left, keep the capture and put the run away until saved. */
   private endRun(record: RunRecord, scorer: ScoreClient) {
     record.endedAt = new Date();
-    record.archive = this.recording?.toArchive() ?? null;
+    record.archive = this.recording?.runArchive() ?? null;
     scorer.finish();
     this.set({ restorable: null });
     this.store.put(toStoredRun(record, Date.now())).then(

@@ -1,8 +1,10 @@
 // The capture of one bench connection: every chunk each way with its time, the frames and decoder
 // events of the host's own decoder, and the profile switch at INFO, from the moment the link opens
-// until it closes. It uses the engine's decoder events rather than a second decoder, so recording
+// until it closes. A run's archive is cut from it: the HELLO → INFO preamble, so it still says what
+// device and profile it came from, then that run's own traffic only. It uses the engine's decoder events rather than a second decoder, so recording
 // costs the page almost nothing; docs/archive.md has the byte layout.
 import { profileFromInfo, Recorder, type DecodedFrame, type DeviceInfo, type SkipEvent } from '../../../../shared/link';
+import type { RecorderMark } from '../../../../shared/link/recorder';
 
 /** What the archive label says about where the capture came from (JSON). */
 export interface BenchLabel {
@@ -16,9 +18,13 @@ export class ConnectionRecording {
   private readonly recorder: Recorder;
   private bytes = { 'to-device': 0, 'to-host': 0 };
   private finished = false;
+  /** The end of the HELLO → INFO exchange (the start, until INFO is in). */
+  private preambleEnd: RecorderMark;
+  private runStart: RecorderMark | null = null;
 
   constructor(label: Omit<BenchLabel, 'recordedBy'>) {
     this.recorder = new Recorder({ accept: { 'to-device': 'requests', 'to-host': 'replies' }, label: JSON.stringify({ recordedBy: 'anglebench bench', ...label } satisfies BenchLabel) });
+    this.preambleEnd = this.recorder.mark();
   }
 
   /** Bytes as they crossed the line ('tx': host to device). */
@@ -44,6 +50,17 @@ export class ConnectionRecording {
     const p = profileFromInfo(info);
     this.recorder.profile('to-host', atMs, this.bytes['to-host'], p);
     this.recorder.profile('to-device', atMs, this.bytes['to-device'], p);
+    this.preambleEnd = this.recorder.mark();
+  }
+
+  /** A run starts here, before its first request: its archive leaves out what came before. */
+  markRun() {
+    this.runStart = this.recorder.mark();
+  }
+
+  /** The preamble and the latest run's traffic so far (the whole capture before any run). */
+  runArchive(): Uint8Array {
+    return this.runStart ? this.recorder.excerpt(this.preambleEnd, this.runStart) : this.recorder.toArchive();
   }
 
   /** The link closed: both streams end here. */
@@ -54,7 +71,7 @@ export class ConnectionRecording {
     this.recorder.finish('to-host', atMs);
   }
 
-  /** The archive so far (recording may go on). */
+  /** The whole connection's archive so far (recording may go on). */
   toArchive(): Uint8Array {
     return this.recorder.toArchive();
   }

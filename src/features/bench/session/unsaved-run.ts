@@ -27,7 +27,7 @@ export interface RunRecord {
   transportLabel: string | null;
   baud: number;
   info: DeviceInfo | null;
-  /** The connection's capture up to the end of the run. */
+  /** The run's capture: the connection's HELLO → INFO preamble, then the run's own traffic. */
   archive: Uint8Array | null;
   outcome: RunOutcome | null;
   figures: LinkFigures | null;
