@@ -127,7 +127,7 @@ describe('the Bench page against the simulated board', () => {
     const row = list.items.find((s) => s.id === id);
     expect(row).toMatchObject({ passed: true, sampleCount: 65_536, tags: ['e2e', 'exhaustive'], notes: 'exhaustive sweep from the browser test' });
 
-    // Its archive is the connection's capture: HELLO to the last RESULTS, every code answered once.
+    // Its archive is the HELLO → INFO preamble and this run's traffic, every code answered.
     const archive = Uint8Array.from(
       await page.evaluate(async (sid) => Array.from(new Uint8Array(await (await fetch(`/api/sessions/${sid}/archive`)).arrayBuffer())), id),
     );

@@ -1,0 +1,86 @@
+import type { Browser } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startMockServer, type MockServer } from '../../mock-device/ws-server';
+import { defaultBoardSettings } from '../../mock-device/board-session';
+import { samplesFromArchive } from '../../shared/bench/archive-samples';
+import { readArchive } from '../../shared/link';
+import { launchBrowser, startApp, type RunningApp } from './harness';
+
+let app: RunningApp;
+let browser: Browser;
+let board: MockServer;
+
+beforeAll(async () => {
+  app = await startApp();
+  browser = await launchBrowser();
+  board = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
+});
+afterAll(async () => {
+  await board?.close();
+  await browser?.close();
+  await app?.stop();
+});
+
+describe('two runs on one bench connection', () => {
+  it('saves the second with its own traffic only, plus the HELLO → INFO preamble', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await page.goto(`${app.url}/bench`);
+    await page.waitForURL(/\/sign-in/);
+    await page.getByLabel('E-mail').fill('engineer@anglebench.test');
+    await page.getByLabel('Password').fill('anglebench');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL(/\/bench$/);
+    await page.getByLabel('Board address').fill(board.url);
+    await page.getByRole('button', { name: 'Connect' }).click();
+    await expect.poll(() => page.getByTestId('device-info').textContent(), { timeout: 10_000 }).toContain('simulated board');
+
+    // First run: 300 codes of a sweep from 0.
+    await page.getByLabel('What to ask').selectOption('sweep');
+    await page.getByLabel('Count').fill('300');
+    await page.getByRole('button', { name: 'Run', exact: true }).click();
+    await expect.poll(() => page.getByTestId('run-progress').textContent(), { timeout: 30_000 }).toBe('300 / 300');
+    await expect.poll(() => page.getByTestId('run-state').textContent()).toBe('Complete');
+
+    // Second run on the same connection: three raw codes.
+    await page.getByLabel('What to ask').selectOption('list');
+    await page.getByLabel('Angles in').selectOption('code');
+    await page.getByLabel('Angles (commas, spaces or lines between)').fill('7, 9000, 41');
+    await page.getByRole('button', { name: 'Run', exact: true }).click();
+    await expect.poll(() => page.getByTestId('run-progress').textContent(), { timeout: 30_000 }).toBe('3 / 3');
+    await expect.poll(() => page.getByTestId('run-state').textContent()).toBe('Complete');
+    await expect.poll(() => page.getByTestId('stat-scored').textContent()).toContain('3');
+    await page.screenshot({ path: '/tmp/bench-runs-second-done.png', fullPage: true });
+
+    await page.getByRole('button', { name: 'Save session' }).click();
+    const form = page.getByRole('form', { name: 'Save session' });
+    await expect.poll(() => form.getByLabel('Core').inputValue()).not.toBe('');
+    await form.getByRole('button', { name: 'Save', exact: true }).click();
+    await page.waitForURL(/\/sessions\/\d+$/, { timeout: 20_000 });
+    const id = Number(new URL(page.url()).pathname.split('/').pop());
+    await page.waitForTimeout(500);
+    await page.screenshot({ path: '/tmp/bench-runs-saved.png', fullPage: true });
+
+    const archive = Uint8Array.from(
+      await page.evaluate(async (sid) => Array.from(new Uint8Array(await (await fetch(`/api/sessions/${sid}/archive`)).arrayBuffer())), id),
+    );
+    expect(JSON.parse(readArchive(archive).header.label)).toMatchObject({ recordedBy: 'anglebench bench' });
+    const found = samplesFromArchive(archive);
+    expect(found.info?.name).toContain('simulated board');
+    expect(Array.from(found.codes)).toEqual([7, 9000, 41]);
+    expect(found.incompleteRequests).toBe(0);
+
+    // The server rebuilt the session's samples from the same archive.
+    const row = await page.evaluate(async (sid) => {
+      const res = await fetch('/api/sessions', { headers: { accept: 'application/json' } });
+      const body = (await res.json()) as { items: { id: number; sampleCount: number }[] };
+      return body.items.find((s) => s.id === sid);
+    }, id);
+    expect(row?.sampleCount).toBe(3);
+
+    // Back on the bench afterwards, for a look at the page once the run is saved.
+    await page.goto(`${app.url}/bench`);
+    await page.getByRole('heading', { name: 'Bench' }).waitFor();
+    await page.waitForTimeout(500);
+    await page.screenshot({ path: '/tmp/bench-runs-bench-after-save.png', fullPage: true });
+  }, 120_000);
+});
