@@ -77,6 +77,12 @@ describe('two runs on one bench connection', () => {
     }, id);
     expect(row?.sampleCount).toBe(3);
 
+    // The session page's capture pane reads the same archive and decodes it again.
+    // (Its frame comparison also counts host-to-board frames, which the bench does not record.)
+    await page.getByRole('button', { name: 'Open capture' }).click();
+    await expect.poll(() => page.getByTestId('capture-recheck').textContent(), { timeout: 10_000 }).toContain('Decoded again');
+    await page.screenshot({ path: '/tmp/bench-runs-capture.png', fullPage: true });
+
     // Back on the bench afterwards, for a look at the page once the run is saved.
     await page.goto(`${app.url}/bench`);
     await page.getByRole('heading', { name: 'Bench' }).waitFor();
