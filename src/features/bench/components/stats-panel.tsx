@@ -95,6 +95,13 @@ export function StatsPanel({ run }: { run: BenchSnapshot['run'] }) {
           <dd className="font-mono">
             {int(naks)} / {int(f.retries)}
           </dd>
+          <dt className="text-ink-soft" title="Answers off the model that arrived on a damaged line, asked for again before they were taken">
+            Confirmed again
+          </dt>
+          <dd className="font-mono">
+            {int(f.confirmations ?? 0)}
+            {(f.unconfirmed ?? 0) > 0 && <span className="text-fail"> ({int(f.unconfirmed)} not)</span>}
+          </dd>
         </dl>
       )}
     </section>

@@ -6,6 +6,7 @@
 import type { LinkEngine, RunHandle } from '../../../../shared/bench/link-engine';
 import type { ByteLink, LinkCloseReason } from '../../../../shared/bench/byte-link';
 import type { RunProgress, LinkFigures } from '../../../../shared/bench/link-figures';
+import { confirmOffModel } from '../../../../shared/bench/confirm-off-model';
 import type { DeviceInfo } from '../../../../shared/link';
 import type { Plan, ScoreSummary } from '../../../../shared/numeric';
 import type { ConnectionRecording } from './connection-recording';
@@ -127,6 +128,8 @@ export class BenchController {
     const rxAtStart = engine.figures.bytesReceived;
     this.recording?.markRun();
     const handle = engine.run(request, {
+      // On a damaged line, an answer off the model is asked for again before it is taken.
+      confirm: confirmOffModel(record.config),
       onResults: (b) => {
         takeResults(record, b);
         scorer.queue(codes, b.indexes, b.cos, b.sin);

@@ -1,13 +1,16 @@
 // The recorder's capture of a session, read back, and replayed once through fresh decoders to
 // say whether it decodes to the frames that were recorded.
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { replayArchive, type Archive } from '../../../../shared/link';
+import { replayArchive, type Archive, type Direction } from '../../../../shared/link';
 import { fetchBytes } from './fetch-bytes';
 import { sessionKeys } from './session-keys';
 
 export interface SessionCapture {
   archive: Archive;
   bytes: number;
+  /** Directions whose decoded frames the recorder kept (the Bench page keeps the device's). */
+  checked: Direction[];
+  /** Frames in the checked directions: as recorded, and as decoded again from the bytes. */
   recordedFrames: number;
   replayedFrames: number;
   replayedSkips: number;
@@ -17,12 +20,16 @@ export async function getSessionCapture(id: number, signal?: AbortSignal): Promi
   const buf = new Uint8Array(await fetchBytes(`/api/sessions/${id}/archive`, signal));
   const replay = replayArchive(buf);
   const { archive } = replay;
+  // A direction whose frames were not recorded has nothing to compare its bytes with.
+  const recorded = archive.records.filter((r) => r.type === 'frame');
+  const checked = (['to-host', 'to-device'] as const).filter((d) => recorded.some((r) => r.direction === d));
   return {
     archive,
     bytes: buf.length,
-    recordedFrames: archive.records.filter((r) => r.type === 'frame').length,
-    replayedFrames: replay.frames.length,
-    replayedSkips: replay.skips.length,
+    checked,
+    recordedFrames: recorded.length,
+    replayedFrames: replay.frames.filter((f) => checked.includes(f.direction)).length,
+    replayedSkips: replay.skips.filter((s) => checked.includes(s.direction)).length,
   };
 }
 

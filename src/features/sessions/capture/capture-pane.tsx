@@ -10,12 +10,12 @@ import { btn, input, label, panel, panelTitle } from '../../../components/ui';
 import { useSessionCapture, type SessionCapture } from '../api/get-session-capture';
 import { C, profilesByRecord, recordLines } from './capture-lines';
 import { dueUntil, REPLAY_SPEEDS } from './replay-clock';
+import { DIRECTION_WORDS, recheckMatches, recheckText } from './capture-recheck';
 import { framesBefore, STATUS_EVERY_MS, statusText } from './replay-status';
 
 const PAGE_RECORDS = 300;
 const LINES_PER_FRAME = 200;
 type Which = 'both' | Direction;
-const DIRECTION_WORDS: Record<Direction, string> = { 'to-device': 'to the device', 'to-host': 'from the device' };
 
 export function CapturePane({ sessionId, hasArchive }: { sessionId: number; hasArchive: boolean }) {
   const [open, setOpen] = useState(false);
@@ -153,7 +153,7 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
   const phase = mode === 'browse' ? 'idle' : mode;
   const status = statusText({ phase, ...progress, framesTotal: frameCounts[shown.length], records: shown.length, durationS: shownDurationS, speed, direction: which === 'both' ? undefined : DIRECTION_WORDS[which] });
 
-  const matches = capture.replayedFrames === capture.recordedFrames;
+  const matches = recheckMatches(capture);
   const durationS = all.length ? (all[all.length - 1].timeMs - t0) / 1000 : 0;
   return (
     <div className="grid gap-2">
@@ -162,9 +162,7 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
         {archive.header.label && <> — “{archive.header.label}”</>}.
       </p>
       <p data-testid="capture-recheck" className={`text-sm ${matches ? 'text-pass' : 'font-bold text-fail'}`}>
-        {matches
-          ? `Decoded again: ${capture.replayedFrames.toLocaleString('en-US')} frames and ${capture.replayedSkips} skips, the same frames as recorded.`
-          : `Decoded again: ${capture.replayedFrames} frames, but ${capture.recordedFrames} were recorded. The capture may be damaged.`}
+        {recheckText(capture)}
       </p>
       <div className="flex flex-wrap items-end gap-2">
         <label className={label}>
