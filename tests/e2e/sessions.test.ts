@@ -172,7 +172,7 @@ describe('the Session page for an engineer', () => {
     const page = await newPage();
     await signIn(page, 'engineer@anglebench.test', `/sessions/${passingId}`);
     await page.getByRole('button', { name: 'Open capture' }).click();
-    await expect.poll(() => page.getByTestId('capture-recheck').textContent()).toContain('3 frames and 0 skips, the same frames as recorded');
+    await expect.poll(() => page.getByTestId('capture-recheck').textContent()).toContain('3 frames to the device and 0 skips, the same frames as recorded');
     const region = page.getByRole('region', { name: 'Recorded capture' });
     const status = region.getByRole('status');
     await status.getByText('3 frames in 6 records, 20.0 s of traffic').waitFor();
