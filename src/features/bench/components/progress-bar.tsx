@@ -1,6 +1,6 @@
 import type { BenchSnapshot } from '../session/bench-controller';
 
-const fmtS = (s: number) => (s < 60 ? `${s.toFixed(s < 10 ? 1 : 0)} s` : `${Math.floor(s / 60)} min ${Math.round(s % 60)} s`);
+const fmtS = (s: number) => (s < 1 ? `${Math.round(s * 1000)} ms` : s < 60 ? `${s.toFixed(s < 10 ? 1 : 0)} s` : `${Math.floor(s / 60)} min ${Math.round(s % 60)} s`);
 
 /** How far the run is: done of total, results per second and time left. */
 export function ProgressBar({ run }: { run: NonNullable<BenchSnapshot['run']> }) {
@@ -9,6 +9,8 @@ export function ProgressBar({ run }: { run: NonNullable<BenchSnapshot['run']> })
   const total = p?.total ?? 0;
   const share = total ? done / total : 0;
   const r = run.result;
+  // A finished run's rate is over the whole run (the rolling rate needs half a second to form).
+  const rate = r ? (r.elapsedMs > 0 ? (done * 1000) / r.elapsedMs : null) : p && p.ratePerS > 0 ? p.ratePerS : null;
   const state = r ? (r.status === 'complete' ? 'Complete' : r.status === 'aborted' ? 'Aborted' : 'Failed') : run.state === 'paused' ? 'Paused' : 'Running';
   return (
     <div className="grid gap-1.5">
@@ -19,7 +21,7 @@ export function ProgressBar({ run }: { run: NonNullable<BenchSnapshot['run']> })
         <span className="font-mono text-base" data-testid="run-progress">
           {done.toLocaleString('en-US')} / {total.toLocaleString('en-US')}
         </span>
-        <span className="font-mono text-ink-soft">{p ? `${Math.round(p.ratePerS).toLocaleString('en-US')} results/s` : '—'}</span>
+        <span className="font-mono text-ink-soft">{rate === null ? '— results/s' : `${Math.round(rate).toLocaleString('en-US')} results/s`}</span>
         <span className="font-mono text-ink-soft">{r ? `took ${fmtS(r.elapsedMs / 1000)}` : p?.etaS != null ? `${fmtS(p.etaS)} left` : ''}</span>
         {(p?.missing ?? 0) > 0 && <span className="font-mono text-fail">{p!.missing.toLocaleString('en-US')} missing</span>}
       </div>
