@@ -1,7 +1,6 @@
 import { Link } from 'react-router-dom';
 import { panel, panelTitle } from '../../components/ui';
-import { useBuildList } from '../../features/builds/api/get-builds';
-import type { BuildRecord } from '../../features/builds/api/build-types';
+import { useBuildList, type BuildRecord } from '../../lib/resources/builds';
 import { StatusBadge } from '../../features/builds/components/status-badge';
 import { useSessions } from '../../features/sessions/api/get-sessions';
 import { DEFAULT_FILTERS } from '../../features/sessions/list/session-filters';

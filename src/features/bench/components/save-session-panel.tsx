@@ -5,7 +5,7 @@ import { useNavigate } from 'react-router-dom';
 import { z } from 'zod';
 import { ApiError } from '../../../lib/api';
 import { useBoards } from '../../../lib/resources/boards';
-import { useBuilds } from '../api/get-builds';
+import { useCoreBuilds } from '../../../lib/resources/builds';
 import { useCores } from '../../../lib/resources/cores';
 import { useSaveSession, type LimitOutcome, type SavedSession } from '../api/save-session';
 import type { BenchController, BenchSnapshot } from '../session/bench-controller';
@@ -102,7 +102,7 @@ export function SaveSessionPanel({ controller, snap }: { controller: BenchContro
     defaultValues: { coreId: '', buildId: '', boardId: '', notes: '', tags: '' },
   });
   const coreId = watch('coreId');
-  const builds = useBuilds(coreId ? Number(coreId) : null);
+  const builds = useCoreBuilds(coreId ? Number(coreId) : null);
 
   // A new run starts a new save.
   const resetSave = save.reset;

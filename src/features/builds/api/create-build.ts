@@ -1,8 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { api } from '../../../lib/api';
-import { buildKeys } from './build-keys';
-import type { BuildRecord } from './build-types';
+import { buildKeys, type BuildRecord } from '../../../lib/resources/builds';
 
 const text = (max: number, what: string) => z.string().trim().max(max, `${what} is limited to ${max} characters`);
 
@@ -30,6 +29,9 @@ export function useCreateBuild() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: createBuild,
-    onSuccess: () => qc.invalidateQueries({ queryKey: buildKeys.all }),
+    // Awaited, so the form opens the new build only once every builds list holds it.
+    onSuccess: async () => {
+      await qc.invalidateQueries({ queryKey: buildKeys.all });
+    },
   });
 }

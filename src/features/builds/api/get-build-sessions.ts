@@ -1,6 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api';
-import { buildKeys } from './build-keys';
+
+// Under the sessions root, which the Bench page's save invalidates, so a new run shows here.
+const buildSessionsKey = (buildId: number) => ['sessions', 'of-build', buildId] as const;
 
 /** The few fields of a session the build page lists. */
 export interface BuildSessionItem {
@@ -22,6 +24,6 @@ export async function getBuildSessions(buildId: number, signal?: AbortSignal) {
 }
 
 export const buildSessionsQueryOptions = (buildId: number) =>
-  queryOptions({ queryKey: buildKeys.sessions(buildId), queryFn: ({ signal }) => getBuildSessions(buildId, signal) });
+  queryOptions({ queryKey: buildSessionsKey(buildId), queryFn: ({ signal }) => getBuildSessions(buildId, signal) });
 
 export const useBuildSessions = (buildId: number) => useQuery(buildSessionsQueryOptions(buildId));

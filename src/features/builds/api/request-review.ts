@@ -1,6 +1,8 @@
 import { useMutation } from '@tanstack/react-query';
 import { api } from '../../../lib/api';
 
+// Nothing cached to refresh: the server only mails the reviewers and records it in the audit log.
+
 /** Ask every reviewer to look at a build; `reviewers` is how many were asked, `mailed` whether the mail went. */
 export const requestReview = (buildId: number) => api<{ reviewers: number; mailed: boolean }>(`/api/builds/${buildId}/request-review`, { method: 'POST' });
 

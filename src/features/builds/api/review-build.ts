@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { api } from '../../../lib/api';
-import { buildKeys } from './build-keys';
-import type { ReviewRecord } from './build-types';
+import { buildKeys } from '../../../lib/resources/builds';
+import type { ReviewRecord } from './get-build-reviews';
 
 export const reviewSchema = z.object({
   decision: z.enum(['approve', 'reject']),
@@ -18,6 +18,9 @@ export function useReviewBuild(buildId: number) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (body: ReviewInput) => reviewBuild(buildId, body),
-    onSuccess: () => qc.invalidateQueries({ queryKey: buildKeys.all }),
+    // A decision changes the build's status in every list and its review trail: all of builds.
+    onSuccess: async () => {
+      await qc.invalidateQueries({ queryKey: buildKeys.all });
+    },
   });
 }

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { ApiError, csrfTokenForWrites } from '../../../lib/api';
-import { buildKeys } from './build-keys';
-import type { BuildRecord, BuildRef } from './build-types';
+import type { BuildRef } from '../../../lib/resources/build-detail';
+import { buildKeys, type BuildRecord } from '../../../lib/resources/builds';
 
 export interface UploadReply {
   build: BuildRecord;
@@ -48,6 +48,9 @@ export function useUploadBitstream() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: uploadBitstream,
-    onSuccess: () => qc.invalidateQueries({ queryKey: buildKeys.all }),
+    // The file changes this build and the duplicates shown on the other builds with the same hash.
+    onSuccess: async () => {
+      await qc.invalidateQueries({ queryKey: buildKeys.all });
+    },
   });
 }

@@ -1,7 +1,7 @@
 import { useState, type DragEvent } from 'react';
 import { Link } from 'react-router-dom';
 import { fieldError, panel, panelTitle } from '../../../components/ui';
-import type { BuildDetail, BuildRef } from '../api/build-types';
+import type { BuildDetail, BuildRef } from '../../../lib/resources/build-detail';
 import { useUploadBitstream } from '../api/upload-bitstream';
 import { formatBytes } from './build-format';
 

@@ -1,5 +1,5 @@
 // Words and looks for build figures, one way each across the builds pages.
-import type { BuildStatus } from '../api/build-types';
+import type { BuildStatus } from '../../../lib/resources/builds';
 
 export const STATUS_LOOK: Record<BuildStatus, { words: string; hint: string; className: string }> = {
   untested: { words: 'untested', hint: 'No session has run on this build yet.', className: 'border-rule bg-paper text-ink-soft' },

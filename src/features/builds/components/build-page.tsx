@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { panel, panelTitle } from '../../../components/ui';
 import { useMe } from '../../auth/api/get-me';
-import { useBuild } from '../api/get-build';
+import { useBuild } from '../../../lib/resources/build-detail';
 import { BitstreamPanel } from './bitstream-panel';
 import { formatMHz, formatWhen, STATUS_LOOK } from './build-format';
 import { BuildSessions } from './build-sessions';

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { btnPrimary, input, label } from '../../../components/ui';
 import { useMe } from '../../auth/api/get-me';
-import { useBuildList } from '../api/get-builds';
+import { useBuildList } from '../../../lib/resources/builds';
 import { useCores } from '../../../lib/resources/cores';
 import { BuildsTable } from './builds-table';
 import { NewBuildForm } from './new-build-form';

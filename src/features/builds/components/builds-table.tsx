@@ -1,6 +1,6 @@
 import { DataTable, type PlainColumn } from '../../../components/data-table';
 import { Link } from 'react-router-dom';
-import type { BuildRecord } from '../api/build-types';
+import type { BuildRecord } from '../../../lib/resources/builds';
 import { formatBytes, formatMHz, formatWhen, shortSha } from './build-format';
 import { StatusBadge } from './status-badge';
 

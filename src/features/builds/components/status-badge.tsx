@@ -1,4 +1,4 @@
-import type { BuildStatus } from '../api/build-types';
+import type { BuildStatus } from '../../../lib/resources/builds';
 import { STATUS_LOOK } from './build-format';
 
 /** A build's status in words on its colour; `large` for the build page's heading. */

@@ -13,11 +13,3 @@ export const sessionKeys = {
   plots: (id: number) => ['session-plots', id] as const,
   capture: (id: number) => ['session-capture', id] as const,
 };
-
-/** Builds as this feature reads them (its own keys: its own reply shapes). Cores and boards use
- * the shared keys of src/lib/resources. */
-export const lookupKeys = {
-  all: ['session-lookups'] as const,
-  builds: (coreId: number | null) => [...lookupKeys.all, 'builds', coreId] as const,
-  build: (id: number) => [...lookupKeys.all, 'build', id] as const,
-};

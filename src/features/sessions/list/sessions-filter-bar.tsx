@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { btn, input, label } from '../../../components/ui';
 import { useBoards } from '../../../lib/resources/boards';
-import { useBuildList } from '../api/get-builds';
+import { useBuildList } from '../../../lib/resources/builds';
 import { useCores } from '../../../lib/resources/cores';
 import type { Named } from '../api/session-types';
 import { activeFilterCount, DEFAULT_FILTERS, type SessionFilters } from './session-filters';

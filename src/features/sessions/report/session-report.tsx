@@ -4,7 +4,7 @@ import { useMemo } from 'react';
 import { Link } from 'react-router-dom';
 import { SignalCharts, staticFeed } from '../../../components/charts/signal-charts';
 import { btnPrimary } from '../../../components/ui';
-import { useBuild } from '../api/get-build';
+import { useBuild } from '../../../lib/resources/build-detail';
 import { useCore } from '../../../lib/resources/core-detail';
 import { useSession } from '../api/get-session';
 import { useSessionPlots } from '../api/get-session-plots';
