@@ -32,8 +32,9 @@ function samples(faulty: number): number[] {
 }
 
 /**
- * A small capture: HELLO at 0 ms, ONE at 1 s, ONE at 20 s. The long gap gives a 1× replay
- * stopped after the second frame plenty of room on a busy machine; at 16× it ends in 1.25 s.
+ * A small capture: HELLO at 0 ms, ONE at 1 s, ONE at 20 s. The long gap gives a 1× replay, with
+ * silences kept, stopped after the second frame plenty of room on a busy machine; at 16× it ends
+ * in 1.25 s; skipping silences (gaps over 2 s shortened to 2 s), a 1× replay ends in 3 s.
  */
 function captureBytes(): number[] {
   const p = { angleFormat: 'turn' as const, angleBits: 16, outBits: 16 };
@@ -168,7 +169,7 @@ describe('the Session page for an engineer', () => {
     expect(Math.abs(over!.width - over!.height)).toBeLessThanOrEqual(1);
   });
 
-  it('browses the recorded capture, replays it at its recorded pace and stops, and says so in its status line', async () => {
+  it('browses the recorded capture, replays it at its recorded pace and stops, skips its silence, and says so in its status line', async () => {
     const page = await newPage();
     await signIn(page, 'engineer@anglebench.test', `/sessions/${passingId}`);
     await page.getByRole('button', { name: 'Open capture' }).click();
@@ -188,8 +189,12 @@ describe('the Session page for an engineer', () => {
     });
     const seen = () => page.evaluate(() => (window as unknown as { statusSeen: string[] }).statusSeen.slice());
 
-    // As recorded, the second frame comes 1 s in and the last 20 s in: stopped after the second.
+    // As recorded, silences kept, the second frame comes 1 s in and the last 20 s in: stopped after the second.
+    const skip = region.getByLabel('Skip silences');
+    expect(await skip.isChecked()).toBe(true);
+    await skip.uncheck();
     await region.getByRole('button', { name: 'Replay', exact: true }).click();
+    expect(await skip.isDisabled()).toBe(true);
     await status.getByText(/^Replaying: frame 2 of 3, /).waitFor({ timeout: 20_000 });
     await region.getByRole('button', { name: 'Stop' }).click();
     await status.getByText(/^Stopped at frame 2 of 3, /).waitFor();
@@ -205,13 +210,37 @@ describe('the Session page for an engineer', () => {
     await status.getByText('Replay finished: 3 frames, 20.0 s of traffic').waitFor({ timeout: 20_000 });
     await expect.poll(() => pane.textContent()).toContain('End of the capture.');
     expect(await pane.textContent()).toContain('angle code 8192');
+    expect(await pane.textContent()).not.toContain('without traffic');
 
-    // The status went idle → replaying → stopped, then replaying faster → finished, counting up.
+    // Skipping silences, the 19 s gap lasts 2 s: as recorded, the replay ends about 3 s in, and
+    // the terminal says where the silence was left out.
+    await region.getByLabel('Replay speed').selectOption('1');
+    await skip.check();
+    const skipStart = Date.now();
+    await region.getByRole('button', { name: 'Replay', exact: true }).click();
+    await status.getByText('Replay finished: 3 frames, 20.0 s of traffic').waitFor({ timeout: 20_000 });
+    const skipWallMs = Date.now() - skipStart;
+    expect(skipWallMs).toBeGreaterThanOrEqual(2_900);
+    expect(skipWallMs).toBeLessThan(12_000);
+    await expect.poll(() => pane.textContent()).toContain('End of the capture.');
+    const replayed = (await pane.textContent())!;
+    expect(replayed).toContain('… 19.0 s without traffic, skipped …');
+    // The skip line stands between the second frame and the third.
+    expect(replayed.indexOf('angle code 4096')).toBeLessThan(replayed.indexOf('19.0 s without traffic'));
+    expect(replayed.indexOf('19.0 s without traffic')).toBeLessThan(replayed.indexOf('angle code 8192'));
+
+    // The status went replaying → stopped, replaying faster → finished, then replaying with the
+    // silence skipped → finished, counting up in recorded time each time.
     const texts = await seen();
-    const runs = [texts.slice(0, texts.findIndex((t) => t.startsWith('Stopped'))), texts.slice(texts.findIndex((t) => t.startsWith('Stopped')) + 1, -1)];
-    expect(texts.filter((t) => t.startsWith('Stopped'))).toEqual([stoppedAt]);
-    expect(texts.at(-1)).toBe('Replay finished: 3 frames, 20.0 s of traffic');
-    for (const [run, prefix] of [[runs[0], 'Replaying: '], [runs[1], 'Replaying 16× faster: ']] as const) {
+    const ends = texts.flatMap((t, i) => (t.startsWith('Stopped') || t.startsWith('Replay finished') ? [i] : []));
+    expect(ends.map((i) => texts[i])).toEqual([stoppedAt, 'Replay finished: 3 frames, 20.0 s of traffic', 'Replay finished: 3 frames, 20.0 s of traffic']);
+    expect(ends.at(-1)).toBe(texts.length - 1);
+    const runs = ends.map((end, k) => texts.slice(k === 0 ? 0 : ends[k - 1] + 1, end));
+    for (const [run, prefix] of [
+      [runs[0], 'Replaying: '],
+      [runs[1], 'Replaying 16× faster: '],
+      [runs[2], 'Replaying, skipping silences: '],
+    ] as const) {
       expect(run.length).toBeGreaterThan(0);
       const steps = run.map((t) => {
         expect(t.startsWith(prefix)).toBe(true);

@@ -15,6 +15,13 @@ describe('the capture pane status line', () => {
     expect(statusText({ ...base, phase: 'replaying', framesShown: 1000, elapsedS: 5.96, speed: 16 })).toBe('Replaying 16× faster: frame 1,000 of 1,057, 6.0 s of 6.4 s');
   });
 
+  it('says when silences are being skipped, while its seconds stay in recorded time', () => {
+    const run = { ...base, phase: 'replaying' as const, framesTotal: 60, framesShown: 5, durationS: 151, elapsedS: 150.34, skipSilences: true };
+    expect(statusText(run)).toBe('Replaying, skipping silences: frame 5 of 60, 150.3 s of 151.0 s');
+    expect(statusText({ ...run, speed: 4 })).toBe('Replaying 4× faster, skipping silences: frame 5 of 60, 150.3 s of 151.0 s');
+    expect(statusText({ ...run, phase: 'stopped' })).toBe('Stopped at frame 5 of 60, 150.3 s of 151.0 s');
+  });
+
   it('never says more time has passed than the capture lasts', () => {
     // The last tick lands after the last record, by up to a frame of wall time times the speed.
     expect(statusText({ ...base, phase: 'replaying', framesShown: 1057, elapsedS: 7.3, speed: 64 })).toContain('6.4 s of 6.4 s');

@@ -10,10 +10,12 @@ import { btn, input, label, panel, panelTitle } from '../../../components/ui';
 import { useSessionCapture, type SessionCapture } from '../api/get-session-capture';
 import { C, profilesByRecord, recordLines } from './capture-lines';
 import { dueUntil, REPLAY_SPEEDS } from './replay-clock';
+import { recordedAt, replayTimeline, SILENCE_MS } from './replay-timeline';
 import { DIRECTION_WORDS, recheckMatches, recheckText } from './capture-recheck';
 import { framesBefore, STATUS_EVERY_MS, statusText } from './replay-status';
 
 const PAGE_RECORDS = 300;
+const seconds = (ms: number) => `${(ms / 1000).toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 })} s`;
 const LINES_PER_FRAME = 200;
 type Which = 'both' | Direction;
 
@@ -49,6 +51,8 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
   const [which, setWhich] = useState<Which>('both');
   const [page, setPage] = useState(0);
   const [speed, setSpeed] = useState<number>(1);
+  // Captures from the Bench page can sit silent for minutes between INFO and the run.
+  const [skipSilences, setSkipSilences] = useState(true);
   // 'stopped' / 'finished': a replay's output stays until the next browse.
   const [mode, setMode] = useState<'browse' | 'replaying' | 'stopped' | 'finished'>('browse');
   const replaying = mode === 'replaying';
@@ -106,24 +110,33 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
     const t = term.current;
     if (!t || !replaying) return;
     t.reset();
-    t.write(`${C.dim}Replaying ${shown.length.toLocaleString('en-US')} records at ${speed}× recorded pace…${C.off}\r\n`);
-    const times = shown.map(([r]) => r.timeMs);
+    t.write(`${C.dim}Replaying ${shown.length.toLocaleString('en-US')} records at ${speed}× recorded pace${skipSilences ? `, silences over ${SILENCE_MS / 1000} s shortened to ${SILENCE_MS / 1000} s` : ''}…${C.off}\r\n`);
+    const line = replayTimeline(
+      shown.map(([r]) => r.timeMs),
+      t0,
+      skipSilences ? SILENCE_MS : Infinity,
+    );
     const start = performance.now();
     let next = 0;
     let raf = 0;
     let statusAt = -Infinity;
     const tick = () => {
       const now = performance.now();
-      const due = dueUntil(times, next, t0, now - start, speed);
+      const playMs = (now - start) * speed;
+      const due = dueUntil(line.play, next, 0, now - start, speed);
       const lines: string[] = [];
       let skipped = 0;
       for (; next < due; next++) {
         if (lines.length >= LINES_PER_FRAME) skipped++;
-        else lines.push(...linesOf(...shown[next]));
+        else {
+          if (line.skippedBefore[next]) lines.push(`${C.dim}… ${seconds(line.skippedBefore[next])} without traffic, skipped …${C.off}`);
+          lines.push(...linesOf(...shown[next]));
+        }
       }
       if (skipped) lines.push(`${C.dim}… ${skipped.toLocaleString('en-US')} records not shown (faster than the pane at this speed)${C.off}`);
       if (lines.length) t.write(lines.join('\r\n') + '\r\n');
-      live.current = { framesShown: frameCounts[next], elapsedS: ((now - start) * speed) / 1000 };
+      // The status line counts recorded time, skipped silences included.
+      live.current = { framesShown: frameCounts[next], elapsedS: recordedAt(line, next, playMs) / 1000 };
       if (next >= shown.length) {
         t.write(`${C.dim}End of the capture.${C.off}\r\n`);
         setProgress(live.current);
@@ -151,7 +164,7 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
     setMode('stopped');
   };
   const phase = mode === 'browse' ? 'idle' : mode;
-  const status = statusText({ phase, ...progress, framesTotal: frameCounts[shown.length], records: shown.length, durationS: shownDurationS, speed, direction: which === 'both' ? undefined : DIRECTION_WORDS[which] });
+  const status = statusText({ phase, ...progress, skipSilences, framesTotal: frameCounts[shown.length], records: shown.length, durationS: shownDurationS, speed, direction: which === 'both' ? undefined : DIRECTION_WORDS[which] });
 
   const matches = recheckMatches(capture);
   const durationS = all.length ? (all[all.length - 1].timeMs - t0) / 1000 : 0;
@@ -195,6 +208,10 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
                 </option>
               ))}
             </select>
+          </label>
+          <label className="flex items-center gap-1 py-1.5 text-sm">
+            <input type="checkbox" checked={skipSilences} disabled={replaying} onChange={(e) => setSkipSilences(e.target.checked)} />
+            Skip silences
           </label>
           {(mode === 'stopped' || mode === 'finished') && (
             <button type="button" className={btn} onClick={() => setMode('browse')}>

@@ -14,6 +14,8 @@ export interface ReplayStatus {
   durationS: number;
   elapsedS: number;
   speed: number;
+  /** Long silences are shortened in this replay (its seconds are still recorded time). */
+  skipSilences?: boolean;
   /** Set when only one direction is listed, e.g. "to the device". */
   direction?: string;
 }
@@ -31,7 +33,7 @@ export function statusText(s: ReplayStatus): string {
     case 'idle':
       return `${frames(s.framesTotal)} in ${n(s.records)} ${s.records === 1 ? 'record' : 'records'}${s.direction ? ` ${s.direction}` : ''}, ${seconds(s.durationS)} of traffic`;
     case 'replaying':
-      return `Replaying${s.speed === 1 ? '' : ` ${s.speed}× faster`}: ${at}`;
+      return `Replaying${s.speed === 1 ? '' : ` ${s.speed}× faster`}${s.skipSilences ? ', skipping silences' : ''}: ${at}`;
     case 'stopped':
       return `Stopped at ${at}`;
     case 'finished':
