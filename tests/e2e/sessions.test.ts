@@ -1,5 +1,6 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { emptyFigures } from '../../shared/bench/link-figures';
 import { packSamples } from '../../shared/bench/sample-pack';
 import { encodeMessage, Kind, RecordedDecoder, Recorder } from '../../shared/link';
 import { createCordicModel, parseModelConfig } from '../../shared/numeric';
@@ -50,8 +51,8 @@ function captureBytes(): number[] {
 }
 
 /** POST /api/sessions from the page, with its cookie and CSRF token, as the Bench page does. */
-async function upload(page: Page, bytes: number[], notes: string, archive: number[] | null = null) {
-  const session = { coreSlug: 'reference-16', startedAt: new Date().toISOString(), plan: { kind: 'sweep', first: 0, step: 16, count: 4096 }, transport: { kind: 'test' }, notes, tags: [tag] };
+async function upload(page: Page, bytes: number[], notes: string, archive: number[] | null = null, link?: Record<string, unknown>) {
+  const session = { coreSlug: 'reference-16', startedAt: new Date().toISOString(), plan: { kind: 'sweep', first: 0, step: 16, count: 4096 }, transport: { kind: 'test' }, link, notes, tags: [tag] };
   return page.evaluate(
     async ({ session, bytes, archive }) => {
       const { token } = (await (await fetch('/api/auth/csrf')).json()) as { token: string };
@@ -65,6 +66,9 @@ async function upload(page: Page, bytes: number[], notes: string, archive: numbe
     { session, bytes, archive },
   );
 }
+
+/** The passing session's link figures, as the Bench page sends them, plus one this page does not know. */
+const figures = { ...emptyFigures(), framesSent: 4097, framesReceived: 4097, bytesSent: 36_873, bytesReceived: 1_069_317, naks: { ...emptyFigures().naks, 4: 2 }, retries: 2, resultsPerS: 1_843.25, lineShare: 0.9278, warmupMs: 250 };
 
 const rowsOf = (page: Page) => page.getByTestId('session-row');
 
@@ -84,7 +88,7 @@ beforeAll(async () => {
   browser = await launchBrowser();
   const page = await browser.newPage();
   await signIn(page, 'engineer@anglebench.test');
-  const good = await upload(page, samples(0), 'healthy sweep', captureBytes());
+  const good = await upload(page, samples(0), 'healthy sweep', captureBytes(), figures);
   const bad = await upload(page, samples(10), 'ten answers off by 40 LSB');
   expect([good.status, bad.status]).toEqual([201, 201]);
   expect([good.body.passed, bad.body.passed]).toEqual([true, false]);
@@ -156,6 +160,18 @@ describe('the Sessions list and Session page for a reviewer', () => {
     expect(await thread.textContent()).toContain('Mei Lindqvist');
     await thread.getByRole('button', { name: 'Delete this comment' }).click();
     await expect.poll(() => page.getByText('No comments yet.').isVisible()).toBe(true);
+  });
+
+  it('lists the link figures readably, apart from the transport settings', async () => {
+    const page = await newPage();
+    await signIn(page, 'reviewer@anglebench.test', `/sessions/${passingId}`);
+    const list = page.getByLabel('Link figures', { exact: true });
+    await list.waitFor();
+    const text = await list.textContent();
+    for (const line of ['Frames out / in4,097 / 4,097', 'Bytes out / in36,873 B / 1,069,317 B', 'NAKs by reason2 (paused 2)', 'Retries2', 'Results per second1,843.3 /s', 'Line use (replies)92.8 %', 'warmupMs250']) expect(text).toContain(line);
+    const transport = await page.getByLabel('Transport', { exact: true }).textContent();
+    expect(transport).toBe('kindtest');
+    expect(await page.getByText(/"framesSent"/).count()).toBe(0);
   });
 });
 
