@@ -16,7 +16,7 @@ export interface BuildDetail extends BuildRecord {
 
 export const getBuild = async (id: number, signal?: AbortSignal) => (await api<{ build: BuildDetail }>(`/api/builds/${id}`, { signal })).build;
 
-// No stale time, for the same reason as the list (builds.ts): its status follows new sessions.
+// The app's default stale time, as the list (builds.ts): its status follows new sessions.
 export const buildQueryOptions = (id: number) => queryOptions({ queryKey: buildKeys.detail(id), queryFn: ({ signal }) => getBuild(id, signal) });
 
 /** Idle while `id` is null (a session page before the session says which build, or one without). */

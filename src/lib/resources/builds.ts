@@ -54,9 +54,9 @@ export async function getBuilds(coreId: number | null, signal?: AbortSignal): Pr
   return (await api<{ builds: BuildRecord[] }>(`/api/builds${query}`, { signal })).builds;
 }
 
-// No stale time, unlike cores and boards: a build's status and session count follow every
-// session saved (on the Bench page, which invalidates the sessions, not the builds) or imported
-// through the API, so a page asks again whenever it mounts (and shows the cached list meanwhile).
+// The app's default stale time (src/lib/query-client.ts), not the minute of cores and boards: a
+// build's status and session count follow every session saved (the Bench page's save invalidates
+// the sessions, not the builds) or imported through the API, so a page opened later asks again.
 export const buildsQueryOptions = (coreId: number | null) => queryOptions({ queryKey: buildKeys.list(coreId), queryFn: ({ signal }) => getBuilds(coreId, signal) });
 
 /** The builds of one core, or of every core when `coreId` is null. */

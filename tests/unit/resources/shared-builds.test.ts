@@ -26,6 +26,7 @@ beforeEach(() => {
 afterEach(() => {
   qc.clear();
   vi.unstubAllGlobals();
+  vi.useRealTimers();
 });
 
 describe('shared build queries', () => {
@@ -45,11 +46,20 @@ describe('shared build queries', () => {
     expect(pathsAsked(fetchMock)).toEqual(['/api/builds?coreId=7']);
   });
 
-  it('asks again for a list read earlier, since a build’s status follows sessions saved since', async () => {
+  it('keeps a list only for the client’s default stale time, since a build’s status follows sessions saved since', async () => {
+    vi.useFakeTimers({ toFake: ['Date'] });
+    vi.setSystemTime(new Date('2026-01-01T00:00:00Z'));
+    // The app's client holds reads for 10 s by default (src/lib/query-client.ts).
+    const app = new QueryClient({ defaultOptions: { queries: { retry: false, staleTime: 10_000 } } });
     const fetchMock = serve({ '/api/builds?coreId=7': { builds: [build] } });
-    await qc.fetchQuery(buildsQueryOptions(7));
-    await qc.fetchQuery(buildsQueryOptions(7));
+    await app.fetchQuery(buildsQueryOptions(7));
+    vi.setSystemTime(new Date('2026-01-01T00:00:05Z'));
+    await app.fetchQuery(buildsQueryOptions(7));
+    expect(pathsAsked(fetchMock)).toEqual(['/api/builds?coreId=7']);
+    vi.setSystemTime(new Date('2026-01-01T00:00:11Z'));
+    await app.fetchQuery(buildsQueryOptions(7));
     expect(pathsAsked(fetchMock)).toEqual(['/api/builds?coreId=7', '/api/builds?coreId=7']);
+    app.clear();
   });
 
   it('keeps the build with its duplicates under the build’s detail key, unwrapped from its reply', async () => {
