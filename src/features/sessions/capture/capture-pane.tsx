@@ -125,15 +125,21 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
       const playMs = (now - start) * speed;
       const due = dueUntil(line.play, next, 0, now - start, speed);
       const lines: string[] = [];
-      let skipped = 0;
+      let hidden = 0;
+      const sayHidden = () => {
+        if (hidden) lines.push(`${C.dim}… ${hidden.toLocaleString('en-US')} records not shown (faster than the pane at this speed)${C.off}`);
+        hidden = 0;
+      };
       for (; next < due; next++) {
-        if (lines.length >= LINES_PER_FRAME) skipped++;
-        else {
-          if (line.skippedBefore[next]) lines.push(`${C.dim}… ${seconds(line.skippedBefore[next])} without traffic, skipped …${C.off}`);
-          lines.push(...linesOf(...shown[next]));
+        // A skipped silence is always said, even in a tick with more records than the pane shows.
+        if (line.skippedBefore[next]) {
+          sayHidden();
+          lines.push(`${C.dim}… ${seconds(line.skippedBefore[next])} without traffic, skipped …${C.off}`);
         }
+        if (lines.length >= LINES_PER_FRAME) hidden++;
+        else lines.push(...linesOf(...shown[next]));
       }
-      if (skipped) lines.push(`${C.dim}… ${skipped.toLocaleString('en-US')} records not shown (faster than the pane at this speed)${C.off}`);
+      sayHidden();
       if (lines.length) t.write(lines.join('\r\n') + '\r\n');
       // The status line counts recorded time, skipped silences included.
       live.current = { framesShown: frameCounts[next], elapsedS: recordedAt(line, next, playMs) / 1000 };

@@ -7,14 +7,18 @@ function KeyValues({ title, data, empty }: { title: string; data: Record<string,
   return <Rows title={title} rows={Object.entries(data ?? {}).map(([k, v]) => ({ label: k, value: value(v) }))} empty={empty} />;
 }
 
-function Rows({ title, rows, empty }: { title: string; rows: FigureRow[]; empty: string }) {
+// A wide list puts two label/value pairs on a line where there is room.
+const NARROW = 'grid-cols-[auto_minmax(0,1fr)]';
+const WIDE = 'grid-cols-[auto_minmax(0,1fr)] sm:grid-cols-[auto_minmax(0,1fr)_auto_minmax(0,1fr)]';
+
+function Rows({ title, rows, empty, wide = false, className = '' }: { title: string; rows: FigureRow[]; empty: string; wide?: boolean; className?: string }) {
   return (
-    <div className="min-w-0">
+    <div className={`min-w-0 ${className}`}>
       <h3 className="mb-1 text-sm font-bold">{title}</h3>
       {rows.length === 0 ? (
         <p className="text-sm text-ink-soft">{empty}</p>
       ) : (
-        <dl aria-label={title} className="grid grid-cols-[auto_minmax(0,1fr)] gap-x-3 gap-y-0.5 text-sm">
+        <dl aria-label={title} className={`grid ${wide ? WIDE : NARROW} gap-x-3 gap-y-0.5 text-sm`}>
           {rows.map(({ label, value }) => (
             <div key={label} className="contents">
               <dt className="text-ink-soft">{label}</dt>
@@ -42,10 +46,8 @@ export function SettingsPanel({ deviceInfo, plan, transport }: { deviceInfo: Rec
       <div className="grid gap-4 md:grid-cols-3">
         <KeyValues title="Device INFO" data={deviceInfo} empty="The device's INFO was not recorded." />
         <KeyValues title="Plan" data={plan} empty="No plan was recorded." />
-        <div className="grid content-start gap-4">
-          <KeyValues title="Transport" data={link} empty="No link settings were recorded." />
-          {isRecord(linkFigures) && <Rows title="Link figures" rows={linkFigureRows(linkFigures)} empty="No link figures were recorded." />}
-        </div>
+        <KeyValues title="Transport" data={link} empty="No link settings were recorded." />
+        {isRecord(linkFigures) && <Rows title="Link figures" rows={linkFigureRows(linkFigures)} empty="No link figures were recorded." wide className="md:col-span-3" />}
       </div>
     </section>
   );
