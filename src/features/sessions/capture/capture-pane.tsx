@@ -11,6 +11,7 @@ import { useSessionCapture, type SessionCapture } from '../api/get-session-captu
 import { C, profilesByRecord, recordLines } from './capture-lines';
 import { dueUntil, REPLAY_SPEEDS } from './replay-clock';
 import { recordedAt, replayTimeline, SILENCE_MS } from './replay-timeline';
+import { captureLabelText } from './capture-label';
 import { DIRECTION_WORDS, recheckMatches, recheckText } from './capture-recheck';
 import { framesBefore, STATUS_EVERY_MS, statusText } from './replay-status';
 
@@ -178,7 +179,7 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
     <div className="grid gap-2">
       <p className="text-sm">
         <span className="font-mono">{capture.bytes.toLocaleString('en-US')} B</span>, {all.length.toLocaleString('en-US')} records over {durationS.toFixed(3)} s; {archive.header.crc}, {archive.header.profile.angleFormat} {archive.header.profile.angleBits}-bit angles, {archive.header.profile.outBits}-bit outputs
-        {archive.header.label && <> — “{archive.header.label}”</>}.
+        {archive.header.label && <> — {captureLabelText(archive.header.label)}</>}.
       </p>
       <p data-testid="capture-recheck" className={`text-sm ${matches ? 'text-pass' : 'font-bold text-fail'}`}>
         {recheckText(capture)}
