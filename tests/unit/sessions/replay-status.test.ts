@@ -22,6 +22,13 @@ describe('the capture pane status line', () => {
     expect(statusText({ ...run, phase: 'stopped' })).toBe('Stopped at frame 5 of 60, 150.3 s of 151.0 s');
   });
 
+  it('counts records where the listed direction has no recorded frames (the requests of a bench capture)', () => {
+    const requests = { ...base, framesTotal: 0, records: 6, durationS: 6.8, direction: 'to the device' };
+    expect(statusText(requests)).toBe('No decoded frames recorded in 6 records to the device, 6.8 s of traffic');
+    expect(statusText({ ...requests, phase: 'replaying', recordsShown: 2, elapsedS: 6.1 })).toBe('Replaying: record 2 of 6, 6.1 s of 6.8 s');
+    expect(statusText({ ...requests, phase: 'finished', recordsShown: 6, elapsedS: 6.8 })).toBe('Replay finished: 6 records, 6.8 s of traffic');
+  });
+
   it('never says more time has passed than the capture lasts', () => {
     // The last tick lands after the last record, by up to a frame of wall time times the speed.
     expect(statusText({ ...base, phase: 'replaying', framesShown: 1057, elapsedS: 7.3, speed: 64 })).toContain('6.4 s of 6.4 s');

@@ -58,7 +58,7 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
   const [mode, setMode] = useState<'browse' | 'replaying' | 'stopped' | 'finished'>('browse');
   const replaying = mode === 'replaying';
   // How far a replay has come: `live` every tick, `progress` (the status line) now and then.
-  const live = useRef({ framesShown: 0, elapsedS: 0 });
+  const live = useRef({ framesShown: 0, recordsShown: 0, elapsedS: 0 });
   const [progress, setProgress] = useState(live.current);
   const box = useRef<HTMLDivElement>(null);
   const term = useRef<Terminal | null>(null);
@@ -143,7 +143,7 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
       sayHidden();
       if (lines.length) t.write(lines.join('\r\n') + '\r\n');
       // The status line counts recorded time, skipped silences included.
-      live.current = { framesShown: frameCounts[next], elapsedS: recordedAt(line, next, playMs) / 1000 };
+      live.current = { framesShown: frameCounts[next], recordsShown: next, elapsedS: recordedAt(line, next, playMs) / 1000 };
       if (next >= shown.length) {
         t.write(`${C.dim}End of the capture.${C.off}\r\n`);
         setProgress(live.current);
@@ -162,7 +162,7 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
   }, [mode]);
 
   const startReplay = () => {
-    live.current = { framesShown: 0, elapsedS: 0 };
+    live.current = { framesShown: 0, recordsShown: 0, elapsedS: 0 };
     setProgress(live.current);
     setMode('replaying');
   };

@@ -9,7 +9,9 @@ export interface ReplayStatus {
   /** Frames among the listed records, and how many of them a replay has shown so far. */
   framesTotal: number;
   framesShown: number;
+  /** Records listed, and how many of them a replay has shown so far. */
   records: number;
+  recordsShown?: number;
   /** Recorded time of the listed records, and how far into it a replay has come. */
   durationS: number;
   elapsedS: number;
@@ -25,19 +27,23 @@ export const STATUS_EVERY_MS = 500;
 
 const n = (v: number) => v.toLocaleString('en-US');
 const frames = (v: number) => `${n(v)} ${v === 1 ? 'frame' : 'frames'}`;
+const records = (v: number) => `${n(v)} ${v === 1 ? 'record' : 'records'}`;
 const seconds = (s: number) => `${s.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 })} s`;
 
 export function statusText(s: ReplayStatus): string {
-  const at = `frame ${n(s.framesShown)} of ${n(s.framesTotal)}, ${seconds(Math.min(s.elapsedS, s.durationS))} of ${seconds(s.durationS)}`;
+  // Bench captures record the device's frames only: with just the requests listed, count records.
+  const byRecords = s.framesTotal === 0 && s.records > 0;
+  const where = byRecords ? `record ${n(s.recordsShown ?? 0)} of ${n(s.records)}` : `frame ${n(s.framesShown)} of ${n(s.framesTotal)}`;
+  const at = `${where}, ${seconds(Math.min(s.elapsedS, s.durationS))} of ${seconds(s.durationS)}`;
   switch (s.phase) {
     case 'idle':
-      return `${frames(s.framesTotal)} in ${n(s.records)} ${s.records === 1 ? 'record' : 'records'}${s.direction ? ` ${s.direction}` : ''}, ${seconds(s.durationS)} of traffic`;
+      return `${byRecords ? 'No decoded frames recorded' : frames(s.framesTotal)} in ${records(s.records)}${s.direction ? ` ${s.direction}` : ''}, ${seconds(s.durationS)} of traffic`;
     case 'replaying':
       return `Replaying${s.speed === 1 ? '' : ` ${s.speed}× faster`}${s.skipSilences ? ', skipping silences' : ''}: ${at}`;
     case 'stopped':
       return `Stopped at ${at}`;
     case 'finished':
-      return `Replay finished: ${frames(s.framesTotal)}, ${seconds(s.durationS)} of traffic`;
+      return `Replay finished: ${byRecords ? records(s.records) : frames(s.framesTotal)}, ${seconds(s.durationS)} of traffic`;
   }
 }
 
