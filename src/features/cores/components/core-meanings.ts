@@ -37,5 +37,5 @@ export const MODEL: Record<ModelKey, { label: string; explain: string }> = {
 
 export const LINK = {
   baud: { label: 'Baud', explain: 'UART line rate in bit/s (9,600 to 12,000,000).' },
-  crc: { label: 'Frame check', explain: 'The CRC-8 variant each frame carries (PROTOCOL.md).' },
+  crc: { label: 'Frame check', explain: 'The CRC-8 variant that checks each frame on the link; board and host must agree on it.' },
 } as const;
