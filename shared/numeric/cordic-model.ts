@@ -1,7 +1,8 @@
 // The bit-accurate reference model of a rotation-mode CORDIC sine/cosine core. Every product part
 // (scorer, simulated board, runner) evaluates through here, so its arithmetic is the definition.
-// Values reach 2^40, beyond JavaScript's 32-bit shifts: shifts are floor divisions by powers of
-// two, which are exact on integers below 2^53.
+// Values reach 2^40, beyond JavaScript's 32-bit shifts: the general path's shifts are floor
+// divisions by powers of two, exact on integers below 2^53; datapaths that fit in 32 bits take
+// an integer path with the same results (fitsInt32).
 import { buildCordicTables, type CordicTables } from './cordic-tables';
 import { AngleCodeError } from './errors';
 import { angleCodeRange, outputCodeRange } from './formats';
@@ -103,20 +104,19 @@ function buildModel(config: Readonly<ModelConfig>, arithmetic: 'auto' | 'float')
     return r < outMin ? outMin : r > outMax ? outMax : r;
   };
 
+  // The angle in z units, folded into ±90° when the core folds; `negate` says to turn the result
+  // half a turn back. Shared by both paths; results land in closure variables so nothing allocates.
+  let negate = false;
+  const foldedAngle = (code: number): number => {
+    // readAngle for `turn`, inlined with its constants hoisted.
+    const z = turn ? (code >= codeHalf ? code - codeTurn : code) * zUnit : readAngle(config, tables, code);
+    negate = fold && (z > zQuarter || z < -zQuarter);
+    return negate ? (z > 0 ? z - zHalf : z + zHalf) : z;
+  };
+
   // Leaves the result in lastCos/lastSin so the batch path allocates nothing per sample.
   const runFloat = (code: number): void => {
-    // readAngle for `turn`, inlined with its constants hoisted.
-    let z = turn ? (code >= codeHalf ? code - codeTurn : code) * zUnit : readAngle(config, tables, code);
-    let negate = false;
-    if (fold) {
-      if (z > zQuarter) {
-        z -= zHalf;
-        negate = true;
-      } else if (z < -zQuarter) {
-        z += zHalf;
-        negate = true;
-      }
-    }
+    let z = foldedAngle(code);
     let x = x0;
     let y = 0;
     for (let i = 0; i < n; i++) {
@@ -156,17 +156,7 @@ function buildModel(config: Readonly<ModelConfig>, arithmetic: 'auto' | 'float')
   const atan32 = Int32Array.from(atan);
   const roundAdd32 = Int32Array.from({ length: n }, (_, i) => (nearestShift && i > 0 ? 2 ** (i - 1) : 0));
   const runInt32 = (code: number): void => {
-    let z = (turn ? (code >= codeHalf ? code - codeTurn : code) * zUnit : readAngle(config, tables, code)) | 0;
-    let negate = false;
-    if (fold) {
-      if (z > zQuarter) {
-        z = (z - zHalf) | 0;
-        negate = true;
-      } else if (z < -zQuarter) {
-        z = (z + zHalf) | 0;
-        negate = true;
-      }
-    }
+    let z = foldedAngle(code) | 0;
     let x = x0 | 0;
     let y = 0;
     for (let i = 0; i < n; i++) {

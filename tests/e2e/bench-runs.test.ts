@@ -1,35 +1,25 @@
-import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startMockServer, type MockServer } from '../../mock-device/ws-server';
 import { defaultBoardSettings } from '../../mock-device/board-session';
 import { samplesFromArchive } from '../../shared/bench/archive-samples';
 import { readArchive } from '../../shared/link';
-import { launchBrowser, startApp, type RunningApp } from './harness';
+import { appAndBrowser, signInAs } from './harness';
 
-let app: RunningApp;
-let browser: Browser;
+const ctx = appAndBrowser();
 let board: MockServer;
 
 beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
   board = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
 });
 afterAll(async () => {
   await board?.close();
-  await browser?.close();
-  await app?.stop();
 });
 
 describe('two runs on one bench connection', () => {
   it('saves the second with its own traffic only, plus the HELLO → INFO preamble', async () => {
+    const { app, browser } = ctx;
     const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
-    await page.goto(`${app.url}/bench`);
-    await page.waitForURL(/\/sign-in/);
-    await page.getByLabel('E-mail').fill('engineer@anglebench.test');
-    await page.getByLabel('Password').fill('anglebench');
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL(/\/bench$/);
+    await signInAs(page, app, 'engineer', '/bench');
     await page.getByLabel('Board address').fill(board.url);
     await page.getByRole('button', { name: 'Connect' }).click();
     await expect.poll(() => page.getByTestId('device-info').textContent(), { timeout: 10_000 }).toContain('simulated board');

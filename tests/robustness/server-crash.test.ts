@@ -35,6 +35,38 @@ async function inspectDatabase() {
 
 const sessionCount = async (s: HttpSession) => ((await (await s.fetch('/api/sessions?pageSize=1')).json()) as { total: number }).total;
 
+const BOUNDARY = 'robustness-boundary-7f3a';
+const formField = (name: string, value: string) => `--${BOUNDARY}\r\nContent-Disposition: form-data; name="${name}"\r\n\r\n${value}\r\n`;
+const fileFieldHead = (name: string, fileName: string) =>
+  `--${BOUNDARY}\r\nContent-Disposition: form-data; name="${name}"; filename="${fileName}"\r\nContent-Type: application/octet-stream\r\n\r\n`;
+
+/**
+ * Starts a multipart upload by raw HTTP that announces a file of `fileMiB` MiB after `head`, and
+ * sends `sentMiB` of it; the body is never finished. Resolves once those bytes are written, with
+ * `ended`: how the request ended ("answered N", or "error: …" when the connection died).
+ */
+async function partialUpload(s: HttpSession, path: string, head: string, fileMiB: number, sentMiB: number, fill: number): Promise<{ ended: Promise<string> }> {
+  const start = Buffer.from(head);
+  const tail = Buffer.from(`\r\n--${BOUNDARY}--\r\n`);
+  const req = request(`${server!.url}${path}`, {
+    method: 'POST',
+    headers: {
+      cookie: s.cookie,
+      'x-csrf-token': s.csrf,
+      'content-type': `multipart/form-data; boundary=${BOUNDARY}`,
+      'content-length': start.length + fileMiB * 1024 * 1024 + tail.length,
+    },
+  });
+  const ended = new Promise<string>((resolve) => {
+    req.on('error', (e) => resolve(`error: ${e.message}`));
+    req.on('response', (res) => resolve(`answered ${res.statusCode}`));
+  });
+  req.write(start);
+  const chunk = Buffer.alloc(1024 * 1024, fill);
+  for (let sent = 0; sent < sentMiB; sent++) if (!req.write(chunk)) await new Promise((r) => req.once('drain', r));
+  return { ended };
+}
+
 let ids: { coreId: number; buildId: number | null; boardId: number | null };
 
 beforeAll(async () => {
@@ -52,29 +84,7 @@ describe('the server killed during uploads', () => {
     const before = await sessionCount(engineer);
 
     // A 40 MB upload, of which 8 MB is sent before the server is killed.
-    const boundary = 'robustness-boundary-7f3a';
-    const head = Buffer.from(
-      `--${boundary}\r\nContent-Disposition: form-data; name="session"\r\n\r\n${sessionPart(ids, 'half an upload')}\r\n` +
-        `--${boundary}\r\nContent-Disposition: form-data; name="samples"; filename="samples.bin"\r\nContent-Type: application/octet-stream\r\n\r\n`,
-    );
-    const fileBytes = 40 * 1024 * 1024;
-    const tail = Buffer.from(`\r\n--${boundary}--\r\n`);
-    const req = request(`${server!.url}/api/sessions`, {
-      method: 'POST',
-      headers: {
-        cookie: engineer.cookie,
-        'x-csrf-token': engineer.csrf,
-        'content-type': `multipart/form-data; boundary=${boundary}`,
-        'content-length': head.length + fileBytes + tail.length,
-      },
-    });
-    const ended = new Promise<string>((resolve) => {
-      req.on('error', (e) => resolve(`error: ${e.message}`));
-      req.on('response', (res) => resolve(`answered ${res.statusCode}`));
-    });
-    req.write(head);
-    const chunk = Buffer.alloc(1024 * 1024, 0x5a);
-    for (let sent = 0; sent < 8; sent++) if (!req.write(chunk)) await new Promise((r) => req.once('drain', r));
+    const { ended } = await partialUpload(engineer, '/api/sessions', `${formField('session', sessionPart(ids, 'half an upload'))}${fileFieldHead('samples', 'samples.bin')}`, 40, 8, 0x5a);
     await new Promise((r) => setTimeout(r, 300));
     await server!.kill();
     expect(await ended).toMatch(/^error: /); // the connection died with the server: no answer
@@ -132,19 +142,7 @@ describe('the server killed during uploads', () => {
   it('killed during a bitstream upload: the restarted server removes the half file and keeps the build as it was', async () => {
     const engineer = await signInOverHttp(server!.url, 'engineer@anglebench.test', 'anglebench');
     const build = ((await (await engineer.fetch('/api/builds')).json()) as { builds: Array<{ id: number; sha256: string | null }> }).builds[0];
-    const boundary = 'robustness-bitstream-2c9e';
-    const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="top.bit"\r\nContent-Type: application/octet-stream\r\n\r\n`);
-    const req = request(`${server!.url}/api/builds/${build.id}/file`, {
-      method: 'POST',
-      headers: { cookie: engineer.cookie, 'x-csrf-token': engineer.csrf, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': head.length + 32 * 1024 * 1024 },
-    });
-    const ended = new Promise<string>((resolve) => {
-      req.on('error', (e) => resolve(`error: ${e.message}`));
-      req.on('response', (res) => resolve(`answered ${res.statusCode}`));
-    });
-    req.write(head);
-    const chunk = Buffer.alloc(1024 * 1024, 0xa5);
-    for (let sent = 0; sent < 4; sent++) if (!req.write(chunk)) await new Promise((r) => req.once('drain', r));
+    const { ended } = await partialUpload(engineer, `/api/builds/${build.id}/file`, fileFieldHead('file', 'top.bit'), 32, 4, 0xa5);
     const dir = uploadDirOf(tmp.url);
     const incoming = () => (fs.existsSync(dir) ? fs.readdirSync(dir).filter((n) => n.startsWith('.incoming-')) : []);
     const deadline = Date.now() + 10_000;

@@ -9,7 +9,7 @@ import { angleCodeRange } from '../../../shared/numeric/formats';
 import type { ModelConfig } from '../../../shared/numeric/model-config';
 
 /**
- * The definition of issue 3 transcribed line by line in BigInt, with real arithmetic shifts: an
+ * The definition of issue 3 written out line by line in BigInt, with real arithmetic shifts: an
  * independent second reading that proves the double-based model neither wraps at 32 bits nor
  * loses integers at 40.
  */

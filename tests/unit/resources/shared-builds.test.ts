@@ -4,19 +4,12 @@ import { buildQueryOptions } from '../../../src/lib/resources/build-detail';
 import { boardKeys } from '../../../src/lib/resources/boards';
 import { buildKeys, buildsQueryOptions } from '../../../src/lib/resources/builds';
 import { coreKeys } from '../../../src/lib/resources/cores';
+import { serveJson } from '../../support/serve-json';
 
 const build = { id: 4, coreId: 7, label: 'ref16-r4', sourceRevision: 'a1b2', toolVersion: '1.0', clockMHz: 100, status: 'passing', sessionCount: 2 };
 const other = { ...build, id: 5, coreId: 8, label: 'wide24-r1' };
 
-// Answers each path with its canned reply and records which paths were asked for.
-function serve(replies: Record<string, unknown>) {
-  const fetchMock = vi.fn(async (path: string) => {
-    if (!(path in replies)) return new Response(JSON.stringify({ error: { code: 'not_found', message: 'No such build' } }), { status: 404 });
-    return new Response(JSON.stringify(replies[path]), { status: 200, headers: { 'content-type': 'application/json' } });
-  });
-  vi.stubGlobal('fetch', fetchMock);
-  return fetchMock;
-}
+const serve = (replies: Record<string, unknown>) => serveJson(replies, 'No such build');
 const pathsAsked = (fetchMock: ReturnType<typeof serve>) => fetchMock.mock.calls.map((c) => c[0]);
 
 let qc: QueryClient;

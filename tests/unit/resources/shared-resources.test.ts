@@ -3,19 +3,12 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { boardKeys, boardsQueryOptions } from '../../../src/lib/resources/boards';
 import { coreQueryOptions } from '../../../src/lib/resources/core-detail';
 import { coreKeys, coresQueryOptions } from '../../../src/lib/resources/cores';
+import { serveJson } from '../../support/serve-json';
 
 const core = { id: 7, name: 'Reference 16', slug: 'reference-16', baselineSessionId: null };
 const board = { id: 2, name: 'Bench A', serial: 'S-1', fpgaPart: '', adapter: '', location: '', createdAt: '', updatedAt: '' };
 
-// Answers each path with its canned reply and records which paths were asked for.
-function serve(replies: Record<string, unknown>) {
-  const fetchMock = vi.fn(async (path: string) => {
-    if (!(path in replies)) return new Response(JSON.stringify({ error: { code: 'not_found', message: 'No such path' } }), { status: 404 });
-    return new Response(JSON.stringify(replies[path]), { status: 200, headers: { 'content-type': 'application/json' } });
-  });
-  vi.stubGlobal('fetch', fetchMock);
-  return fetchMock;
-}
+const serve = serveJson;
 
 let qc: QueryClient;
 beforeEach(() => {
