@@ -4,7 +4,7 @@ import tseslint from 'typescript-eslint';
 import reactHooks from 'eslint-plugin-react-hooks';
 
 export default tseslint.config(
-  { ignores: ['dist', 'node_modules', 'data', 'coverage', 'bench/results'] },
+  { ignores: ['dist', 'node_modules', 'data', 'coverage', 'benchmarks/results'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {

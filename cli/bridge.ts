@@ -7,8 +7,8 @@ import type { AddressInfo } from 'node:net';
 import { parseArgs } from 'node:util';
 import { WebSocketServer, type WebSocket } from 'ws';
 import type { CliIo } from './io';
-import { SerialLink } from './transport/serial-link';
-import { ChunkCoalescer } from '../shared/bench/chunk-coalescer';
+import { PortSerialLink } from './transport/port-serial-link';
+import { ChunkCoalescer } from '../shared/link-engine/chunk-coalescer';
 import { realClock } from './clock';
 
 const HELP = `usage: npm run --silent cli -- bridge --device <serial path> --ws-port N --token T [options]
@@ -70,7 +70,7 @@ function sameToken(given: string | null, expected: string): boolean {
 /** Open the port and listen; rejects with a one-line reason. */
 export async function startBridge(o: BridgeOptions, deps: BridgeDeps = {}): Promise<Bridge> {
   const log = deps.log ?? ((line: string) => console.log(line));
-  const link = await SerialLink.open({ path: o.device, baud: o.baud, binding: deps.serialBinding });
+  const link = await PortSerialLink.open({ path: o.device, baud: o.baud, binding: deps.serialBinding });
   const wss = new WebSocketServer({ port: o.port, host: o.host, maxPayload: MAX_MESSAGE_BYTES });
   let active: { ws: WebSocket; outgoing: ChunkCoalescer; touch: () => void; count: (dir: 'in' | 'out', n: number) => void } | null = null;
   let connections = 0;

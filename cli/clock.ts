@@ -1,4 +1,4 @@
-import type { EngineClock } from '../shared/bench/link-engine';
+import type { EngineClock } from '../shared/link-engine/link-engine';
 
 /** Real time for the engine and the bridge (shared/ holds no timers). */
 export const realClock: EngineClock = {

@@ -1,6 +1,6 @@
 // `--device`: a WebSocket device (the simulated board or a bench bridge) or a serial port.
-import type { ByteLink } from '../shared/bench/byte-link';
-import { SerialLink } from './transport/serial-link';
+import type { ByteLink } from '../shared/link-engine/byte-link';
+import { PortSerialLink } from './transport/port-serial-link';
 import { NodeSocketLink } from './transport/ws-link';
 
 export interface DeviceDeps {
@@ -13,5 +13,5 @@ export const isSocketDevice = (device: string) => /^wss?:\/\//i.test(device);
 /** Open the device; rejects with a one-line reason. */
 export function openDevice(device: string, baud: number, deps: DeviceDeps = {}): Promise<ByteLink> {
   if (isSocketDevice(device)) return NodeSocketLink.open(device);
-  return SerialLink.open({ path: device, baud, binding: deps.serialBinding });
+  return PortSerialLink.open({ path: device, baud, binding: deps.serialBinding });
 }

@@ -1,6 +1,6 @@
 // Run progress on stderr (stdout stays clean for --json): a bar redrawn in place on a terminal,
 // a plain line every second otherwise (CI logs keep every line).
-import type { RunProgress } from '../shared/bench/link-figures';
+import type { RunProgress } from '../shared/link-engine/link-figures';
 
 export interface ProgressSink {
   update(p: RunProgress): void;

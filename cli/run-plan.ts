@@ -1,7 +1,7 @@
 // From the plan as typed to the plan as saved (planSchema) and to the engine's run request.
 // Exhaustive runs and sweeps become SWEEP requests (the device makes the codes at line rate);
 // every other plan is an explicit list of codes.
-import type { RunRequest } from '../shared/bench/run-request';
+import type { RunRequest } from '../shared/link-engine/run-request';
 import { angleCodeRange, assertAngleCode, bindPlan, planCodes, PlanError, type AngleFormat, type Plan } from '../shared/numeric';
 import { parseInteger, UsageError, type PlanSpec } from './run-options';
 

@@ -1,8 +1,8 @@
 // The run's capture: both directions through the shared Recorder, with a label that says what
 // was asked (plan, model configuration), so an archive alone scores again to the same figures.
 import { Kind, RecordedDecoder, Recorder, decodePayload, profileFromInfo, type Crc8Name, type MessageOf } from '../shared/link';
-import { samplesFromArchive } from '../shared/bench/archive-samples';
-import { expandRequest } from '../shared/bench/run-request';
+import { samplesFromArchive } from '../shared/link-engine/archive-samples';
+import { expandRequest } from '../shared/link-engine/run-request';
 import { parseModelConfig, planSchema, type ModelConfig, type Plan } from '../shared/numeric';
 import { planToRequest } from './run-plan';
 import { scoreRun, type RunScore } from './run-score';

@@ -1,5 +1,5 @@
 // What `run` prints: a table for people, or one JSON summary for machines.
-import type { LinkFigures } from '../shared/bench/link-figures';
+import type { LinkFigures } from '../shared/link-engine/link-figures';
 import type { DeviceInfo } from '../shared/link';
 import type { ModelConfig, Plan } from '../shared/numeric';
 import type { RunScore } from './run-score';

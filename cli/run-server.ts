@@ -128,4 +128,4 @@ export async function uploadSession(fetchImpl: Fetch, server: { url: string; tok
 }
 
 /** The upload's sample packing is shared with the Bench page and the server. */
-export { packSamples } from '../shared/bench/sample-pack';
+export { packSamples } from '../shared/link-engine/sample-pack';

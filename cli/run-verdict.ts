@@ -3,8 +3,8 @@
 import type { RunScore } from './run-score';
 import { UsageError } from './run-options';
 
-export { limitsSchema, type Limits, type LimitKey } from '../shared/bench/limits';
-import { limitsSchema, type Limits, type LimitKey } from '../shared/bench/limits';
+export { limitsSchema, type Limits, type LimitKey } from '../shared/link-engine/limits';
+import { limitsSchema, type Limits, type LimitKey } from '../shared/link-engine/limits';
 
 export function parseLimits(input: unknown, where: string): Limits {
   const r = limitsSchema.safeParse(input);

@@ -2,9 +2,9 @@
 // link engine, scoring against the reference model, the verdict against the core's limits, the
 // capture archive and the session upload. Exit 0 pass, 1 a limit fails, 2 any error.
 import { writeFileSync } from 'node:fs';
-import type { ByteLink } from '../shared/bench/byte-link';
-import { confirmOffModel } from '../shared/bench/confirm-off-model';
-import { LinkEngine, type RunResult } from '../shared/bench/link-engine';
+import type { ByteLink } from '../shared/link-engine/byte-link';
+import { confirmOffModel } from '../shared/link-engine/confirm-off-model';
+import { LinkEngine, type RunResult } from '../shared/link-engine/link-engine';
 import { DEFAULT_CRC8, type DeviceInfo } from '../shared/link';
 import { parseModelConfig, type ModelConfig } from '../shared/numeric';
 import { openDevice, type DeviceDeps } from './device';

@@ -4,7 +4,7 @@
  * Bytes leave in chunks of whatever accumulated since the last tick, the way a USB-serial adapter
  * merges and splits the line into packets, so chunk boundaries carry no meaning.
  */
-import type { EngineClock } from '../shared/bench/link-engine';
+import type { EngineClock } from '../shared/link-engine/link-engine';
 
 /** The same injected time as the link engine's, so one clock serves both ends in tests. */
 export type PacerClock = EngineClock;

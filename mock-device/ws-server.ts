@@ -3,7 +3,7 @@
 import type { AddressInfo } from 'node:net';
 import { WebSocketServer, type WebSocket } from 'ws';
 import { openBoardSession, type BoardSettings } from './board-session';
-import { ChunkCoalescer } from '../shared/bench/chunk-coalescer';
+import { ChunkCoalescer } from '../shared/link-engine/chunk-coalescer';
 import { realClock } from './line-pacer';
 
 /** Host messages above this are refused (a UART host never sends megabytes at once). */

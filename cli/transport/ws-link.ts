@@ -1,5 +1,5 @@
 import WebSocket from 'ws';
-import { ByteLinkBase, LinkClosedError } from '../../shared/bench/byte-link';
+import { ByteLinkBase, LinkClosedError } from '../../shared/link-engine/byte-link';
 
 /** A WebSocket device (the simulated board or a bench bridge) from Node, as a ByteLink. */
 export class NodeSocketLink extends ByteLinkBase {

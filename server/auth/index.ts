@@ -4,7 +4,7 @@ import type { Config } from '../config';
 import { bearerAuth } from './bearer';
 import { csrfGuard } from './csrf';
 import { createPassport } from './passport';
-import { DatabaseSessionStore } from './session-store';
+import { SignInStore } from './sign-in-store';
 import './types';
 
 export { requireRole, currentUser, hasRole } from './guards';
@@ -20,7 +20,7 @@ export function installAuth(app: Express, config: Config) {
     session({
       name: 'anglebench.sid',
       secret: config.sessionSecret,
-      store: new DatabaseSessionStore(),
+      store: new SignInStore(),
       resave: false,
       saveUninitialized: false,
       cookie: {

@@ -6,10 +6,10 @@
 // up without quadrant folding, then fixed.
 import type { Transaction } from 'sequelize';
 import { createSimCore, parseCoreFault } from '../../mock-device/faulty-core';
-import { packColumns } from '../../shared/bench/sample-pack';
+import { packColumns } from '../../shared/link-engine/sample-pack';
 import { Kind, encodeMessage, maxListCodes, maxResultPairs, RecordedDecoder, Recorder, type DeviceInfo, type WireProfile } from '../../shared/link';
 import { parseModelConfig, planCodes, planSchema, type Plan } from '../../shared/numeric';
-import { storeSession } from '../services/session-store';
+import { storeSession } from '../services/session-ingest';
 import { Core, GoldenVectorSet, type Board, type Build } from './models';
 
 interface DemoSession {

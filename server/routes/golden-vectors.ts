@@ -1,9 +1,9 @@
 import { Router, type Request } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
-import { checkGoldenVectors, GoldenVectorError, summariseGoldenVectors } from '../../shared/bench/golden-vectors';
-import { parseSampleCsv, SampleCsvError } from '../../shared/bench/sample-csv';
-import { packColumns, unpackSamples } from '../../shared/bench/sample-pack';
+import { checkGoldenVectors, GoldenVectorError, summariseGoldenVectors } from '../../shared/link-engine/golden-vectors';
+import { parseSampleCsv, SampleCsvError } from '../../shared/link-engine/sample-csv';
+import { packColumns, unpackSamples } from '../../shared/link-engine/sample-pack';
 import { parseModelConfig, type ModelConfig } from '../../shared/numeric';
 import { currentUser, requireRole } from '../auth';
 import { Core, GoldenVectorSet } from '../db/models';

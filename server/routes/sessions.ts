@@ -13,7 +13,7 @@ import { recordAudit } from '../services/audit';
 import { sessionCsvChunks } from '../services/session-csv';
 import { decodeSamples } from '../services/session-scoring';
 import { readImport } from '../services/session-import';
-import { storeSession } from '../services/session-store';
+import { storeSession } from '../services/session-ingest';
 import { sanitizeFileName } from '../uploads/bitstream-storage';
 import { mailSafely, type RouteDeps } from './deps';
 import { id, idParams, originOf, paramsOf, queryOf } from './params';

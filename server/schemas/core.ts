@@ -15,4 +15,4 @@ export const linkProfileSchema = z.strictObject({
   crc: z.enum(['CRC-8/SMBUS', 'CRC-8/MAXIM-DOW', 'CRC-8/DVB-S2', 'CRC-8/AUTOSAR']).default('CRC-8/SMBUS'),
 });
 
-export { limitsSchema } from '../../shared/bench/limits';
+export { limitsSchema } from '../../shared/link-engine/limits';

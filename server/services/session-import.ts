@@ -1,8 +1,8 @@
 // Reading an imported session file: a recorder archive (kept as the session's archive) or a CSV of
 // angle_code,cos_code,sin_code. Either becomes packed samples for storeSession, which scores them.
-import { samplesFromArchive } from '../../shared/bench/archive-samples';
-import { parseSampleCsv, SampleCsvError } from '../../shared/bench/sample-csv';
-import { packColumns, type UnpackedSamples } from '../../shared/bench/sample-pack';
+import { samplesFromArchive } from '../../shared/link-engine/archive-samples';
+import { parseSampleCsv, SampleCsvError } from '../../shared/link-engine/sample-csv';
+import { packColumns, type UnpackedSamples } from '../../shared/link-engine/sample-pack';
 import { ARCHIVE_MAGIC, ArchiveError } from '../../shared/link';
 import { HttpError } from '../http-error';
 

@@ -1,7 +1,7 @@
 // Scoring of an uploaded bench session on the server: the packed samples are decoded, scored with
 // the shared ScoreAccumulator under the core's own model configuration, and judged against the
 // core's limits. Nothing the client computed is trusted.
-import { SamplePackError, unpackSamples, type UnpackedSamples } from '../../shared/bench/sample-pack';
+import { SamplePackError, unpackSamples, type UnpackedSamples } from '../../shared/link-engine/sample-pack';
 import { HttpError } from '../http-error';
 import { modelConfigSchema, limitsSchema } from '../schemas/core';
 import { planCodes, planSchema, PROFILE_BINS, SpectralError, toneFigures, type ToneFigures } from '../../shared/numeric';

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startMockServer, type MockServer } from '../../mock-device/ws-server';
 import { defaultBoardSettings } from '../../mock-device/board-session';
-import { samplesFromArchive } from '../../shared/bench/archive-samples';
+import { samplesFromArchive } from '../../shared/link-engine/archive-samples';
 import { readArchive } from '../../shared/link';
 import { appAndBrowser, signInAs } from './harness';
 

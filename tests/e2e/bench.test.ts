@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startMockServer, type MockServer } from '../../mock-device/ws-server';
 import { defaultBoardSettings } from '../../mock-device/board-session';
 import { parseCoreFault } from '../../mock-device/faulty-core';
-import { samplesFromArchive } from '../../shared/bench/archive-samples';
+import { samplesFromArchive } from '../../shared/link-engine/archive-samples';
 import { readArchive } from '../../shared/link';
 import { launchBrowser, startApp, type RunningApp } from './harness';
 

@@ -1,6 +1,6 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { packSamples } from '../../shared/bench/sample-pack';
+import { packSamples } from '../../shared/link-engine/sample-pack';
 import { createCordicModel } from '../../shared/numeric';
 import { launchBrowser, startApp, type RunningApp } from './harness';
 

@@ -1,7 +1,7 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { emptyFigures } from '../../shared/bench/link-figures';
-import { packSamples } from '../../shared/bench/sample-pack';
+import { emptyFigures } from '../../shared/link-engine/link-figures';
+import { packSamples } from '../../shared/link-engine/sample-pack';
 import { encodeMessage, Kind, RecordedDecoder, Recorder } from '../../shared/link';
 import { createCordicModel, parseModelConfig } from '../../shared/numeric';
 import { launchBrowser, startApp, type RunningApp } from './harness';

@@ -6,8 +6,8 @@
 import { describe, expect, it } from 'vitest';
 import { planToRequest } from '../../cli/run-plan';
 import { parseLineFaults } from '../../mock-device/line-faults';
-import { confirmOffModel } from '../../shared/bench/confirm-off-model';
-import { LinkEngine, type RunHandlers, type RunResult } from '../../shared/bench/link-engine';
+import { confirmOffModel } from '../../shared/link-engine/confirm-off-model';
+import { LinkEngine, type RunHandlers, type RunResult } from '../../shared/link-engine/link-engine';
 import { createCordicModel, parseModelConfig, planCodes, planSchema, type Plan } from '../../shared/numeric';
 import { realEngineClock } from '../support/in-process-board';
 import { tappedBoard } from './support/tapped-board';

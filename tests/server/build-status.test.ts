@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Build, Core } from '../../server/db/models';
 import { modelConfigSchema } from '../../server/schemas/core';
 import { deriveBuildStatus, type ReviewFacts, type SessionFacts } from '../../server/services/build-status';
-import { packSamples } from '../../shared/bench/sample-pack';
+import { packSamples } from '../../shared/link-engine/sample-pack';
 import { createCordicModel } from '../../shared/numeric';
 import { testApp, type Agent, type TestApp } from '../support/test-app';
 

@@ -6,7 +6,7 @@ import { loadConfig } from '../../server/config';
 import { openDatabase } from '../../server/db/connection';
 import { migrate } from '../../server/db/migrator';
 import { BenchSession, Board, Build, Core, GoldenVectorSet, Review, User } from '../../server/db/models';
-import { unpackSamples } from '../../shared/bench/sample-pack';
+import { unpackSamples } from '../../shared/link-engine/sample-pack';
 import { ScoreAccumulator } from '../../shared/numeric/score';
 import { demoAccountsPresent, seedIfEmpty } from '../../server/db/seed';
 import { modelConfigSchema } from '../../server/schemas/core';

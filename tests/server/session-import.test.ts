@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { BenchSession, Build, Core, type OutboxMessage } from '../../server/db/models';
 import { modelConfigSchema } from '../../server/schemas/core';
-import { packColumns } from '../../shared/bench/sample-pack';
+import { packColumns } from '../../shared/link-engine/sample-pack';
 import { Recorder } from '../../shared/link/recorder';
 import { createCordicModel, errorProfile, PROFILE_BINS } from '../../shared/numeric';
 import { ScoreAccumulator } from '../../shared/numeric/score';

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Core } from '../../server/db/models';
 import { modelConfigSchema } from '../../server/schemas/core';
-import { packColumns } from '../../shared/bench/sample-pack';
+import { packColumns } from '../../shared/link-engine/sample-pack';
 import { createCordicModel, planCodes, toneFigures } from '../../shared/numeric';
 import { testApp, type Agent, type TestApp } from '../support/test-app';
 

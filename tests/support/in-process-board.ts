@@ -1,5 +1,5 @@
-import { LinkEvents, type ByteLink } from '../../shared/bench/byte-link';
-import type { EngineClock } from '../../shared/bench/link-engine';
+import { LinkEvents, type ByteLink } from '../../shared/link-engine/byte-link';
+import type { EngineClock } from '../../shared/link-engine/link-engine';
 import { realClock } from '../../mock-device/line-pacer';
 import { defaultBoardSettings, openBoardSession, type BoardSettings } from '../../mock-device/board-session';
 

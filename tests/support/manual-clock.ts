@@ -1,4 +1,4 @@
-import type { EngineClock } from '../../shared/bench/link-engine';
+import type { EngineClock } from '../../shared/link-engine/link-engine';
 
 /**
  * A clock whose timers fire only when the test moves time: `advance` fires each timer at its

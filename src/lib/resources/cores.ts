@@ -1,7 +1,7 @@
 // Cores as every page reads them: one record type, one key factory and one list query, so a page
 // fetches GET /api/cores once and an edit anywhere refreshes every view of a core.
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { Limits } from '../../../shared/bench/limits';
+import type { Limits } from '../../../shared/link-engine/limits';
 import type { ModelConfig } from '../../../shared/numeric/model-config';
 import { api } from '../api';
 import { RESOURCE_STALE_MS } from './stale';

@@ -1,7 +1,7 @@
 // The simulated board in this process with its line faults applied here rather than inside the
 // board session, so the test also sees the clean bytes the board sent: what the host decodes can
 // then be told apart into frames the board really sent and frames made by damage on the line.
-import { LinkEvents, type ByteLink } from '../../../shared/bench/byte-link';
+import { LinkEvents, type ByteLink } from '../../../shared/link-engine/byte-link';
 import { FrameDecoder, type DecodedFrame } from '../../../shared/link/decoder';
 import { defaultBoardSettings, openBoardSession, type BoardSettings } from '../../../mock-device/board-session';
 import { LineFaults, noLineFaults, type LineFaultSettings } from '../../../mock-device/line-faults';

@@ -3,7 +3,7 @@ import WebSocket from 'ws';
 import { SerialPortMock } from 'serialport';
 import { startBridge, type Bridge } from '../../../cli/bridge';
 import { NodeSocketLink } from '../../../cli/transport/ws-link';
-import { LinkEngine } from '../../../shared/bench/link-engine';
+import { LinkEngine } from '../../../shared/link-engine/link-engine';
 import { realEngineClock } from '../../support/in-process-board';
 import { mockSerialBoard } from './run-support';
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { samplesFromArchive } from '../../../shared/bench/archive-samples';
+import { samplesFromArchive } from '../../../shared/link-engine/archive-samples';
 import { readArchive, type Direction } from '../../../shared/link/archive';
 import { Kind } from '../../../shared/link/kinds';
 import { encodeMessage, type DeviceInfo } from '../../../shared/link/payloads';

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import WebSocket from 'ws';
 import { NodeSocketLink } from '../../../cli/transport/ws-link';
-import { LinkEngine } from '../../../shared/bench/link-engine';
+import { LinkEngine } from '../../../shared/link-engine/link-engine';
 import { createCordicModel } from '../../../shared/numeric';
 import { defaultBoardSettings } from '../../../mock-device/board-session';
 import { startMockServer, type MockServer } from '../../../mock-device/ws-server';

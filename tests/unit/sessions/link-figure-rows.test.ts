@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { linkFigureRows } from '../../../src/features/sessions/detail/link-figure-rows';
-import { emptyFigures, type LinkFigures } from '../../../shared/bench/link-figures';
+import { emptyFigures, type LinkFigures } from '../../../shared/link-engine/link-figures';
 
 const asMap = (rows: { label: string; value: string }[]) => Object.fromEntries(rows.map((r) => [r.label, r.value]));
 

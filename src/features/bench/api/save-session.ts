@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api';
-import type { RunRecord } from '../session/bench-controller';
-import { packSamples } from '../../../../shared/bench/sample-pack';
+import type { RunRecord } from '../live/bench-controller';
+import { packSamples } from '../../../../shared/link-engine/sample-pack';
 
 export const sessionKeys = { all: ['sessions'] as const };
 

@@ -1,6 +1,6 @@
 import { useEffect, useRef, useState, useSyncExternalStore } from 'react';
-import { BenchController } from '../session/bench-controller';
-import type { LiveSamples } from '../session/live-samples';
+import { BenchController } from '../live/bench-controller';
+import type { LiveSamples } from '../live/live-samples';
 import { ConnectPanel } from './connect-panel';
 import { LiveCharts } from './live-charts';
 import { ProgressBar } from './progress-bar';

@@ -2,9 +2,9 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import type { BenchController, BenchSnapshot } from '../session/bench-controller';
+import type { BenchController, BenchSnapshot } from '../live/bench-controller';
 import { COMMON_BAUD_RATES, MAX_BAUD, MIN_BAUD, recommendedBufferSize, type SerialSettings } from '../transport/serial-options';
-import { hasWebSerial, SerialLink } from '../transport/serial-link';
+import { hasWebSerial, WebSerialLink } from '../transport/web-serial-link';
 import { SocketLink } from '../transport/socket-link';
 import { SerialCaution, serialCautionSeen } from './serial-caution';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
@@ -94,7 +94,7 @@ export function ConnectPanel({ controller, snap }: { controller: BenchController
       async () => {
         const granted = v.reuseGranted ? (await navigator.serial.getPorts())[0] : undefined;
         const port = granted ?? (await navigator.serial.requestPort());
-        return SerialLink.open(port, settings);
+        return WebSerialLink.open(port, settings);
       },
       `Serial port at ${settings.baudRate.toLocaleString()} baud`,
       settings.baudRate,

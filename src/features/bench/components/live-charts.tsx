@@ -4,7 +4,7 @@ import { useMemo } from 'react';
 import type uPlot from 'uplot';
 import { histogramData } from '../../../components/charts/chart-specs';
 import { SignalCharts, type ChartFeed } from '../../../components/charts/signal-charts';
-import { COLUMNS, RAW_LIMIT, type LiveSamples } from '../session/live-samples';
+import { COLUMNS, RAW_LIMIT, type LiveSamples } from '../live/live-samples';
 
 type Data = uPlot.AlignedData;
 const CHARTS = ['values', 'error', 'histogram', 'xy'] as const;

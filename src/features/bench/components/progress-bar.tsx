@@ -1,4 +1,4 @@
-import type { BenchSnapshot } from '../session/bench-controller';
+import type { BenchSnapshot } from '../live/bench-controller';
 
 const fmtS = (s: number) => (s < 1 ? `${Math.round(s * 1000)} ms` : s < 60 ? `${s.toFixed(s < 10 ? 1 : 0)} s` : `${Math.floor(s / 60)} min ${Math.round(s % 60)} s`);
 

@@ -1,4 +1,4 @@
-import type { BenchController, BenchSnapshot } from '../session/bench-controller';
+import type { BenchController, BenchSnapshot } from '../live/bench-controller';
 import { btn, btnPrimary, panel } from '../../../components/ui';
 
 const when = (ms: number) => new Date(ms).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' });

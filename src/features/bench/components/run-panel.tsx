@@ -2,7 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { bindPlan, parseModelConfig, PlanError } from '../../../../shared/numeric';
-import type { BenchController, BenchSnapshot } from '../session/bench-controller';
+import type { BenchController, BenchSnapshot } from '../live/bench-controller';
 import { ANGLE_UNITS, defaultPlanForm, PLAN_KINDS, planFormSchema, PlanFieldError, planFromForm, type PlanForm } from './plan-from-form';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 

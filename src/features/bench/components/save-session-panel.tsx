@@ -8,8 +8,8 @@ import { useBoards } from '../../../lib/resources/boards';
 import { useCoreBuilds } from '../../../lib/resources/builds';
 import { useCores } from '../../../lib/resources/cores';
 import { useSaveSession, type LimitOutcome, type SavedSession } from '../api/save-session';
-import type { BenchController, BenchSnapshot } from '../session/bench-controller';
-import { answeredCount } from '../../../../shared/bench/sample-pack';
+import type { BenchController, BenchSnapshot } from '../live/bench-controller';
+import { answeredCount } from '../../../../shared/link-engine/sample-pack';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 
 const DEFAULT_CORE_SLUG = 'reference-16';

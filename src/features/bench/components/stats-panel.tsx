@@ -1,4 +1,4 @@
-import type { BenchSnapshot } from '../session/bench-controller';
+import type { BenchSnapshot } from '../live/bench-controller';
 import { panel, panelTitle } from '../../../components/ui';
 import { ToneFigures } from './tone-figures';
 

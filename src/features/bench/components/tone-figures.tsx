@@ -1,5 +1,5 @@
 import { Fragment } from 'react';
-import type { ToneResult } from '../session/score-protocol';
+import type { ToneResult } from '../live/score-protocol';
 
 const db = (v: number) => (Number.isFinite(v) ? `${v.toFixed(1)} dB` : v > 0 ? '∞ dB' : '—');
 const bits = (v: number) => (Number.isFinite(v) ? `${v.toFixed(2)} bits` : '—');

@@ -1,7 +1,7 @@
 // One traffic entry as terminal lines: hex and ASCII by direction, with time stamps, decoded
 // frames and decoder events in between.
 import { kindName } from '../../../../shared/link';
-import type { TrafficEntry } from '../session/traffic-log';
+import type { TrafficEntry } from '../live/traffic-log';
 
 export const C = { dim: '\x1b[90m', tx: '\x1b[33m', rx: '\x1b[36m', frame: '\x1b[32m', warn: '\x1b[31m', off: '\x1b[0m' };
 

@@ -5,8 +5,8 @@ import { FitAddon } from '@xterm/addon-fit';
 import { Terminal } from '@xterm/xterm';
 import '@xterm/xterm/css/xterm.css';
 import { useEffect, useRef, useState } from 'react';
-import type { TrafficLog } from '../session/traffic-log';
-import { TrafficLines } from '../session/traffic-lines';
+import type { TrafficLog } from '../live/traffic-log';
+import { TrafficLines } from '../live/traffic-lines';
 import { C, copyOrDownload, formatTraffic } from './traffic-format';
 import { btn, input, panel, panelTitle } from '../../../components/ui';
 

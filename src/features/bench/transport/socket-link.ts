@@ -1,4 +1,4 @@
-import { ByteLinkBase, LinkClosedError } from '../../../../shared/bench/byte-link';
+import { ByteLinkBase, LinkClosedError } from '../../../../shared/link-engine/byte-link';
 
 /**
  * The simulated board or a bench bridge over WebSocket: each binary message carries raw line

@@ -1,4 +1,4 @@
-import { LIMIT_MEANINGS } from '../../../../shared/bench/limits';
+import { LIMIT_MEANINGS } from '../../../../shared/link-engine/limits';
 import { panel, panelTitle } from '../../../components/ui';
 import type { ComparedSession, LimitOutcome } from '../api/compare-types';
 import { sessionName } from './chart-data';

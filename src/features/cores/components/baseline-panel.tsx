@@ -3,7 +3,7 @@ import { btn, fieldError } from '../../../components/ui';
 import { useBaselineSession } from '../api/get-baseline-session';
 import { useUpdateCore } from '../api/update-core';
 import { LIMITS } from './core-meanings';
-import type { LimitKey } from '../../../../shared/bench/limits';
+import type { LimitKey } from '../../../../shared/link-engine/limits';
 
 const num = (v: number) => v.toLocaleString('en-US', { maximumFractionDigits: 4 });
 

@@ -1,7 +1,7 @@
 // The core form: every number is typed as text, then checked by the same zod schemas the server
-// uses (shared/numeric/model-config.ts, shared/bench/limits.ts), so the bounds live in one place.
+// uses (shared/numeric/model-config.ts, shared/link-engine/limits.ts), so the bounds live in one place.
 import { z } from 'zod';
-import { limitsSchema, type LimitKey, type Limits } from '../../../../shared/bench/limits';
+import { limitsSchema, type LimitKey, type Limits } from '../../../../shared/link-engine/limits';
 import { modelConfigSchema, type ModelConfigInput } from '../../../../shared/numeric/model-config';
 import type { CoreRecord, LinkProfile } from '../../../lib/resources/cores';
 import { LIMIT_KEYS } from './core-meanings';

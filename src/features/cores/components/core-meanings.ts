@@ -1,6 +1,6 @@
 // Plain words for every key of a core: the form labels them, the read-only view explains them.
 // Meanings follow docs/model.md (model keys) and server/services/session-scoring.ts (limits).
-import { LIMIT_KEYS, LIMIT_MEANINGS, type LimitKey } from '../../../../shared/bench/limits';
+import { LIMIT_KEYS, LIMIT_MEANINGS, type LimitKey } from '../../../../shared/link-engine/limits';
 
 export interface LimitMeaning {
   label: string;

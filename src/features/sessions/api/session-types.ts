@@ -1,6 +1,6 @@
 // What the sessions API answers (server/routes/sessions.ts), as the client reads it.
 import type { ScoreSummary } from '../../../../shared/numeric';
-import type { LimitKey } from '../../../../shared/bench/limits';
+import type { LimitKey } from '../../../../shared/link-engine/limits';
 
 /** One limit's outcome; `measured` and `pass` are null when the server could not measure it. */
 export interface LimitOutcome {

@@ -1,5 +1,5 @@
 // The archive label in words. The Bench page and the runner write JSON labels (see
-// src/features/bench/session/connection-recording.ts and cli/run-record.ts); anything else is
+// src/features/bench/live/connection-recording.ts and cli/run-record.ts); anything else is
 // shown as it was written.
 
 const text = (v: unknown): string | null => (typeof v === 'string' && v.trim() ? v : null);

@@ -1,6 +1,6 @@
 // A session's verdict per limit, in words: what each limit is, what was measured, and by how
 // much it was met or missed (margin > 0: met with room; < 0: missed by that much).
-import { LIMIT_MEANINGS } from '../../../../shared/bench/limits';
+import { LIMIT_MEANINGS } from '../../../../shared/link-engine/limits';
 import type { LimitOutcome, Verdict } from '../api/session-types';
 
 export const LIMIT_META: Record<string, { name: string; unit: string; atMost: boolean }> = LIMIT_MEANINGS;

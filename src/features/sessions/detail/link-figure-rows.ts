@@ -1,4 +1,4 @@
-// A saved run's link figures (shared/bench/link-figures.ts) as labelled lines with units, for
+// A saved run's link figures (shared/link-engine/link-figures.ts) as labelled lines with units, for
 // the session page. Stored JSON may be partial (older or seeded sessions) or hold figures this
 // page does not know yet: a line is shown for what is there, and unknown entries are listed plainly.
 import { NakReason } from '../../../../shared/link';

@@ -1,7 +1,7 @@
 import type { ModelConfigInput, ScoreSummary } from '../../../../shared/numeric';
 import type { StoredChartData } from './plot-builder';
 
-/** The one request: score these packed samples (shared/bench/sample-pack.ts) under this model. */
+/** The one request: score these packed samples (shared/link-engine/sample-pack.ts) under this model. */
 export interface StoredScoreRequest {
   bytes: ArrayBuffer;
   config: ModelConfigInput;

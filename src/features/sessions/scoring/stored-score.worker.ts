@@ -2,7 +2,7 @@
 // Scores a stored session off the main thread: unpack, score in chunks with the shared
 // ScoreAccumulator (exact math and the bit-accurate model), and reduce to chart columns. The
 // result is transferred back; the page never holds the full sample arrays.
-import { unpackSamples } from '../../../../shared/bench/sample-pack';
+import { unpackSamples } from '../../../../shared/link-engine/sample-pack';
 import { exactSinCosInto, ScoreAccumulator } from '../../../../shared/numeric';
 import { PlotBuilder } from './plot-builder';
 import type { StoredScoreReply, StoredScoreRequest } from './stored-score-protocol';

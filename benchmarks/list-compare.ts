@@ -1,0 +1,225 @@
+// list-compare: the sessions table and the compare view against a database holding 10,000
+// sessions (seeded straight through the models in one transaction, small samples blobs), called
+// as the page calls them (signed-in cookie). Beside the list: the same SELECT … LIMIT 25 that
+// Sequelize generates, run with bare sqlite3 on the same file. Beside the compare: a bare loop
+// over the two sessions' typed arrays.
+import sqlite3 from 'sqlite3';
+import { Op, type WhereOptions } from 'sequelize';
+import { ScoreAccumulator } from '../shared/numeric';
+import { packSamples } from '../shared/link-engine/sample-pack';
+import { BenchSession, Board, Build, Core } from '../server/db/models';
+import { modelConfigSchema } from '../server/schemas/core';
+import type { BenchResult } from './report';
+import { bigExhaustiveSamples, startBenchServer, type BenchServer } from './server-fixture';
+import { median, quantile, timeMs } from './timing';
+
+const SESSIONS = 10_000;
+const LIST_CALLS = 200;
+const COMPARE_RUNS = 5;
+const DAY_MS = 86_400_000;
+const EPOCH = Date.UTC(2026, 0, 1);
+
+/** Deterministic pseudo-random numbers (a 32-bit LCG, Numerical Recipes constants). */
+function lcg(seed: number) {
+  let s = seed >>> 0;
+  return (n: number) => {
+    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
+    return s % n;
+  };
+}
+
+interface Seeded {
+  coreIds: number[];
+  buildIds: number[];
+  boardIds: number[];
+  operatorIds: number[];
+}
+
+async function seed(server: BenchServer): Promise<Seeded> {
+  const { t } = server;
+  const config = modelConfigSchema.parse({});
+  const rnd = lcg(7);
+  // One real score of 64 results, so each row's stats JSON is the size a stored session's is.
+  const codes = Array.from({ length: 64 }, (_, i) => i * 1024);
+  const score = new ScoreAccumulator(config);
+  const model = score.model;
+  const cos = codes.map((c) => model.evaluate(c).cos);
+  const sin = codes.map((c) => model.evaluate(c).sin);
+  const stats = score.add(codes, cos, sin).summary() as unknown as Record<string, unknown>;
+  const samples = Buffer.from(packSamples(codes, cos, sin, new Uint8Array(64).fill(1)));
+  return t.db.transaction(async (transaction) => {
+    const cores = await Core.bulkCreate(
+      Array.from({ length: 4 }, (_, i) => ({ name: `Seeded core ${i}`, slug: `seeded-${i}`, linkProfile: {}, modelConfig: config, limits: { maxAbsErrorLsb: 4 }, baselineSessionId: null })),
+      { transaction },
+    );
+    const builds = await Build.bulkCreate(
+      cores.flatMap((c) => Array.from({ length: 5 }, (_, i) => ({ coreId: c.id, label: `b${i}`, sourceRevision: `r${i}`, toolVersion: 'v1', clockMHz: 100, notes: '' }))),
+      { transaction },
+    );
+    const boards = await Board.bulkCreate(
+      Array.from({ length: 5 }, (_, i) => ({ name: `Board ${i}`, serial: `S${i}`, fpgaPart: 'part', adapter: 'usb', location: 'lab' })),
+      { transaction },
+    );
+    const operatorIds = Object.values(t.users).map((u) => u.id);
+    for (let done = 0; done < SESSIONS; done += 500) {
+      const rows = Array.from({ length: 500 }, () => {
+        const build = builds[rnd(builds.length)];
+        const passed = rnd(10) > 1;
+        return {
+          coreId: build.coreId,
+          buildId: build.id,
+          boardId: boards[rnd(boards.length)].id,
+          operatorId: operatorIds[rnd(operatorIds.length)],
+          startedAt: new Date(EPOCH + rnd(300) * DAY_MS + rnd(DAY_MS)),
+          endedAt: null,
+          plan: { kind: 'random', seed: rnd(1000), count: 64 },
+          transport: { kind: 'websocket', device: 'seeded', baud: 3_000_000 },
+          deviceInfo: null,
+          stats,
+          verdict: { maxAbsErrorLsb: { limit: 4, measured: 3.3, pass: passed } },
+          passed,
+          regression: !passed && rnd(4) === 0,
+          sampleCount: 64,
+          samples,
+          archive: null,
+          notes: '',
+          tags: ['seeded'],
+        };
+      });
+      await BenchSession.bulkCreate(rows, { transaction });
+    }
+    return { coreIds: cores.map((c) => c.id), buildIds: builds.map((b) => b.id), boardIds: boards.map((b) => b.id), operatorIds };
+  });
+}
+
+type ListFilter = Partial<Record<'coreId' | 'buildId' | 'boardId' | 'operatorId', number>> & { passed?: boolean; from?: Date; to?: Date; sort: '-startedAt' | 'startedAt' | 'id'; page: number };
+
+function filters(s: Seeded): ListFilter[] {
+  const rnd = lcg(11);
+  const pick = <T>(xs: T[]) => xs[rnd(xs.length)];
+  return Array.from({ length: LIST_CALLS }, (_, i) => {
+    const f: ListFilter = { sort: pick(['-startedAt', '-startedAt', 'startedAt', 'id'] as const), page: 1 + rnd(i % 4 === 0 ? 400 : 10) };
+    const kind = i % 8;
+    if (kind === 1) f.coreId = pick(s.coreIds);
+    if (kind === 2) f.buildId = pick(s.buildIds);
+    if (kind === 3) Object.assign(f, { boardId: pick(s.boardIds), passed: rnd(2) === 0 });
+    if (kind === 4) f.operatorId = pick(s.operatorIds);
+    if (kind === 5) f.passed = false;
+    if (kind === 6) {
+      f.from = new Date(EPOCH + rnd(200) * DAY_MS);
+      f.to = new Date(f.from.getTime() + 60 * DAY_MS);
+    }
+    if (kind === 7) Object.assign(f, { coreId: pick(s.coreIds), passed: true });
+    if (f.page > 1 && kind !== 0) f.page = 1 + rnd(4);
+    return f;
+  });
+}
+
+const queryString = (f: ListFilter) =>
+  new URLSearchParams(Object.entries(f).map(([k, v]) => [k, v instanceof Date ? v.toISOString() : String(v)])).toString();
+
+/** The SELECT Sequelize sends for this filter (the route's where, order and page), captured once. */
+async function selectSql(f: ListFilter): Promise<string> {
+  const where: Record<string | symbol, unknown> = {};
+  for (const key of ['coreId', 'buildId', 'boardId', 'operatorId', 'passed'] as const) if (f[key] !== undefined) where[key] = f[key];
+  if (f.from || f.to) where.startedAt = { ...(f.from ? { [Op.gte]: f.from } : {}), ...(f.to ? { [Op.lte]: f.to } : {}) };
+  let sql = '';
+  const column = f.sort.replace('-', '');
+  await BenchSession.findAll({
+    where: where as WhereOptions,
+    attributes: { exclude: ['samples', 'archive'] },
+    order: [[column, f.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']],
+    limit: 25,
+    offset: (f.page - 1) * 25,
+    logging: (text) => (sql = text.replace(/^Executing \([^)]*\): /, '')),
+  });
+  return sql;
+}
+
+export async function listCompareBench(): Promise<BenchResult[]> {
+  const big = bigExhaustiveSamples();
+  const server = await startBenchServer();
+  try {
+    const t0 = performance.now();
+    const seeded = await seed(server);
+    console.log(`  seeded ${SESSIONS.toLocaleString('en-US')} sessions in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
+    const headers = await server.cookieHeaders();
+
+    // --- the list
+    const list = filters(seeded);
+    const listMs: number[] = [];
+    for (const f of list) {
+      let status = 0;
+      listMs.push(await timeMs(async () => {
+        const res = await fetch(`${server.url}/api/sessions?${queryString(f)}`, { headers });
+        status = res.status;
+        await res.json();
+      }));
+      if (status !== 200) throw new Error(`GET /api/sessions?${queryString(f)} answered ${status}`);
+    }
+    const sqls = await Promise.all(list.map(selectSql));
+    const storage = server.t.config.databaseUrl.slice('sqlite:'.length);
+    const bare = await new Promise<sqlite3.Database>((resolve, reject) => {
+      const d = new sqlite3.Database(storage, sqlite3.OPEN_READONLY, (err) => (err ? reject(err) : resolve(d)));
+    });
+    const bareMs: number[] = [];
+    try {
+      for (const sql of sqls) bareMs.push(await timeMs(() => new Promise((resolve, reject) => bare.all(sql, (err, rows) => (err ? reject(err) : resolve(rows))))));
+    } finally {
+      await new Promise((r) => bare.close(r));
+    }
+    const p50 = quantile(listMs, 0.5);
+    const p95 = quantile(listMs, 0.95);
+    console.log(`  list: p50 ${p50.toFixed(1)} ms, p95 ${p95.toFixed(1)} ms, max ${Math.max(...listMs).toFixed(1)} ms; bare SELECT p50 ${quantile(bareMs, 0.5).toFixed(2)} ms, p95 ${quantile(bareMs, 0.95).toFixed(2)} ms`);
+
+    // --- the compare: two 1,048,576-sample sessions; the second answers 1 LSB high on every 97th code
+    const cosB = big.cos.slice();
+    for (let i = 0; i < cosB.length; i += 97) cosB[i] = Math.min(cosB[i] + 1, 32767);
+    const ones = new Uint8Array(big.codes.length).fill(1);
+    const row = (samples: Uint8Array, passed: boolean) => ({
+      coreId: server.bigCore.id, buildId: null, boardId: null, operatorId: server.t.users.engineer.id, startedAt: new Date(), endedAt: null,
+      plan: { kind: 'exhaustive' }, transport: { kind: 'websocket' }, deviceInfo: null, stats: {}, verdict: {}, passed,
+      sampleCount: big.codes.length, samples: Buffer.from(samples), archive: null,
+    });
+    const a = await BenchSession.create(row(big.packed, true));
+    const b = await BenchSession.create(row(packSamples(big.codes, cosB, big.sin, ones), false));
+    const compareMs: number[] = [];
+    let differing = -1;
+    for (let i = 0; i < COMPARE_RUNS; i++) {
+      compareMs.push(await timeMs(async () => {
+        const res = await fetch(`${server.url}/api/compare?ids=${a.id},${b.id}`, { headers });
+        if (res.status !== 200) throw new Error(`GET /api/compare answered ${res.status}: ${await res.text()}`);
+        differing = ((await res.json()) as { pairs: { differing: number }[] }).pairs[0].differing;
+      }));
+    }
+    const expected = Math.ceil(big.codes.length / 97);
+    if (differing !== expected) throw new Error(`compare found ${differing} differing codes, ${expected} expected`);
+    let sink = 0;
+    const loopMs: number[] = [];
+    for (let i = 0; i < COMPARE_RUNS; i++) {
+      loopMs.push(await timeMs(() => {
+        let n = 0;
+        let worst = 0;
+        for (let k = 0; k < big.cos.length; k++) {
+          const d = Math.max(Math.abs(big.cos[k] - cosB[k]), Math.abs(big.sin[k] - big.sin[k]));
+          if (d === 0) continue;
+          n++;
+          worst = Math.max(worst, d);
+        }
+        sink += n + worst;
+      }));
+    }
+    if (sink !== COMPARE_RUNS * (expected + 1)) throw new Error('bare diff loop miscounted');
+    const cmp = median(compareMs);
+    console.log(`  compare: ${compareMs.map((m) => m.toFixed(0)).join(', ')} ms; bare diff loop ${median(loopMs).toFixed(2)} ms`);
+
+    const bareP95 = quantile(bareMs, 0.95);
+    return [
+      { name: 'list-p50', value: p50, unit: 'ms per GET /api/sessions', ratio: p50 / quantile(bareMs, 0.5), ratioOf: 'p50 ÷ bare sqlite3 SELECT … LIMIT 25 p50', target: null, met: null },
+      { name: 'list-p95', value: p95, unit: 'ms per GET /api/sessions', ratio: p95 / bareP95, ratioOf: 'p95 ÷ bare sqlite3 SELECT … LIMIT 25 p95', target: '< 100 ms', met: p95 < 100 },
+      { name: 'compare', value: cmp, unit: 'ms per GET /api/compare (2 × 1,048,576 samples)', ratio: cmp / median(loopMs), ratioOf: 'compare time ÷ bare typed-array diff loop', target: '< 500 ms', met: cmp < 500 },
+    ];
+  } finally {
+    await server.close();
+  }
+}
