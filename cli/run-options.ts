@@ -20,6 +20,8 @@ export const RUN_HELP = `usage: npm run --silent cli -- run --device <serial pat
   --config JSON    reference-model configuration (default: the server's core, else from INFO)
   --out FILE       write the capture archive (both directions) to FILE
   --json           print a machine-readable summary on stdout (progress stays on stderr)
+  --explain        after the run, name the configuration or RTL defect that reproduces the answers
+                   (printed, and the summary's "explanation" key)
 
 Exit status: 0 every limit passes, 1 a limit fails, 2 an error (one line on stderr).
 `;
@@ -54,6 +56,7 @@ export interface RunOptions {
   config: ModelConfigInput | null;
   out: string | null;
   json: boolean;
+  explain: boolean;
   help: boolean;
   crc: Crc8Name | null;
 }
@@ -134,6 +137,7 @@ export function parseRunArgs(argv: string[]): RunOptions {
         crc: { type: 'string' },
         out: { type: 'string' },
         json: { type: 'boolean' },
+        explain: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
     }));
@@ -177,6 +181,7 @@ export function parseRunArgs(argv: string[]): RunOptions {
     config,
     out: str('out') ?? null,
     json: values.json === true,
+    explain: values.explain === true,
     help: false,
     crc: (crc as Crc8Name | undefined) ?? null,
   };
