@@ -21,7 +21,11 @@ export function ExplanationSummary({ explanation: e, top = 5, headingLevel = 3 }
           {shown.map((h, i) => (
             <li key={`${i}-${h.label}`}>
               <span className={i === 0 ? 'font-bold' : ''}>{h.label}</span> — {reproducedWords(h, e.answered)}
-              {h.equivalent.length > 0 && <span className="block text-xs text-ink-soft">{equivalentWords(h.equivalent)}</span>}
+              {h.equivalent.length > 0 && (
+                <span className="block text-xs text-ink-soft" title={h.equivalent.map((q) => q.label).join('\n')}>
+                  {equivalentWords(h.equivalent)}
+                </span>
+              )}
             </li>
           ))}
         </ol>

@@ -33,8 +33,12 @@ export function reproducedWords(h: { exact: number; maxDiffLsb: number }, answer
   return `reproduces ${count(h.exact)} of ${count(answered)} answers exactly${all ? '' : `; largest difference left ${count(h.maxDiffLsb)} LSB`}`;
 }
 
-/** The labels of the hypotheses giving identical answers, listed together. */
-export const equivalentWords = (equivalent: HypothesisRef[]) => (equivalent.length ? `same answers as: ${equivalent.map((h) => h.label).join('; ')}` : '');
+/** The labels of the hypotheses giving identical answers, listed together: the first `shown`, then how many more. */
+export function equivalentWords(equivalent: HypothesisRef[], shown = 3): string {
+  if (equivalent.length === 0) return '';
+  const more = equivalent.length - shown;
+  return `same answers as: ${equivalent.slice(0, shown).map((h) => h.label).join('; ')}${more > 0 ? ` and ${more} more` : ''}`;
+}
 
 /** The keys a configuration changes, "iterations 16 → 12", in the model's key order. */
 export function configChanges(from: object, to: object): string[] {

@@ -97,6 +97,9 @@ describe('explanation words', () => {
     expect(reproducedWords({ exact: 65_536, maxDiffLsb: 0 }, 65_536)).toBe('reproduces 65,536 of 65,536 answers exactly');
     expect(reproducedWords({ exact: 65_000, maxDiffLsb: 2 }, 65_536)).toBe('reproduces 65,000 of 65,536 answers exactly; largest difference left 2 LSB');
     expect(equivalentWords([])).toBe('');
+    const refs = ['a', 'b', 'c', 'd', 'e'].map((label) => ({ label, config, fault: null }));
+    expect(equivalentWords(refs.slice(0, 2))).toBe('same answers as: a; b');
+    expect(equivalentWords(refs)).toBe('same answers as: a; b; c and 2 more');
     expect(configChanges(config, parseModelConfig({ iterations: 12, fold: false }))).toEqual(['iterations 16 → 12', 'fold true → false']);
   });
 });

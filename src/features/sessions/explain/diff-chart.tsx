@@ -5,7 +5,8 @@ import 'uplot/dist/uPlot.min.css';
 import { axis, dots, REFERENCE, SIGNAL } from '../../../components/charts/uplot-theme';
 
 const OPTIONS: Omit<uPlot.Options, 'width' | 'height'> = {
-  scales: { x: { time: false } },
+  // At least ±1 LSB on y, so an all-zero difference reads as a flat line at 0, not as noise.
+  scales: { x: { time: false }, y: { range: (_u, min, max) => [Math.min(-1, min), Math.max(1, max)] } },
   axes: [axis('angle, °'), axis('LSB')],
   series: [{}, dots(SIGNAL, 'cos'), dots(REFERENCE, 'sin')],
   legend: { show: true, live: false },
