@@ -2,7 +2,7 @@
 // shared explain() under the core's own model configuration, so a saved explanation is always the
 // server's own result, never a client's. Also: which configuration deviation, if any, an engineer
 // may apply to the core in one step.
-import { explain, type Explanation } from '../../shared/explain';
+import { explain, ExplainInputError, type Explanation } from '../../shared/explain';
 import { parseModelConfig, type ModelConfig } from '../../shared/numeric';
 import type { BenchSession, Core, SessionExplanation } from '../db/models';
 import { HttpError } from '../http-error';
@@ -10,13 +10,20 @@ import { decodeSamples } from './session-scoring';
 
 /**
  * The explanation of `session`'s answers under `core`'s model configuration.
- * @throws HttpError 400 `no_samples` for a session that holds no answers.
+ * @throws HttpError 400 `no_samples` for a session that holds no answers, `bad_samples` for
+ * answers the core's configuration cannot take.
  */
 export function explainStoredSession(session: Pick<BenchSession, 'id' | 'samples'>, core: Pick<Core, 'modelConfig'>): Explanation {
   const declared = parseModelConfig(core.modelConfig);
   const samples = decodeSamples(session.samples, declared.angleFormat);
   if (samples.codes.length === 0) throw new HttpError(400, 'no_samples', `Session ${session.id} holds no answers to explain`);
-  return explain(declared, { angle: samples.codes, cos: samples.cos, sin: samples.sin });
+  try {
+    return explain(declared, { angle: samples.codes, cos: samples.cos, sin: samples.sin });
+  } catch (err) {
+    // A code outside the core's range: the core's formats changed since the session was stored.
+    if (err instanceof ExplainInputError) throw new HttpError(400, 'bad_samples', `samples: ${err.message}`);
+    throw err;
+  }
 }
 
 const sameConfig = (a: ModelConfig, b: ModelConfig) => JSON.stringify(parseModelConfig(a)) === JSON.stringify(parseModelConfig(b));

@@ -86,15 +86,18 @@ describe('POST /api/sessions/:id/explanation', () => {
     const session = await storedSession(packed(stuckBit0));
     const empty = await storedSession(Buffer.alloc(0));
     const broken = await storedSession(Buffer.alloc(13));
+    // Angle code 70,000 does not fit the core's 16-bit angles.
+    const outOfRange = await storedSession(Buffer.from(packColumns({ codes: Float64Array.of(70_000), cos: Int32Array.of(0), sin: Int32Array.of(0) })));
     const refused = await agents.reviewer.post(url(session.id)).expect(403);
     expect(refused.body.error.code).toBe('forbidden');
     expect((await agents.engineer.post(url('abc')).expect(400)).body.error.message).toMatch(/^params\.sessionId: /);
     expect((await agents.engineer.post(url(999_999)).expect(404)).body.error.message).toBe('Session not found');
     expect((await agents.engineer.post(url(empty.id)).expect(400)).body.error).toEqual({ code: 'no_samples', message: `Session ${empty.id} holds no answers to explain` });
     expect((await agents.engineer.post(url(broken.id)).expect(400)).body.error.code).toBe('bad_samples');
-    for (const s of [session, empty, broken]) expect(await SessionExplanation.count({ where: { sessionId: s.id } })).toBe(0);
+    expect((await agents.engineer.post(url(outOfRange.id)).expect(400)).body.error.message).toMatch(/^samples: sample 0: angle code 70000 /);
+    for (const s of [session, empty, broken, outOfRange]) expect(await SessionExplanation.count({ where: { sessionId: s.id } })).toBe(0);
     expect((await agents.reviewer.get(url(empty.id)).expect(404)).body.error.message).toBe('Explanation of this session not found');
-    expect(await AuditEntry.count({ where: { action: 'explain', entityId: [session.id, empty.id, broken.id] } })).toBe(0);
+    expect(await AuditEntry.count({ where: { action: 'explain', entityId: [session.id, empty.id, broken.id, outOfRange.id] } })).toBe(0);
   });
 });
 
