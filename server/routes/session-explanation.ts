@@ -1,5 +1,4 @@
 import { Router, type Request } from 'express';
-import { z } from 'zod';
 import { currentUser, requireRole } from '../auth';
 import { BenchSession, Core, SessionExplanation, User } from '../db/models';
 import { HttpError, notFound } from '../http-error';
@@ -8,10 +7,9 @@ import { recordAudit } from '../services/audit';
 import { applicableConfig, coreStillDeclared, explainStoredSession, explanationReply } from '../services/session-explanation';
 import type { Explanation } from '../../shared/explain';
 import type { RouteDeps } from './deps';
-import { id, paramsOf } from './params';
+import { paramsOf } from './params';
+import { explanationDecisionBody, explanationParams, type ExplanationDecisionBody } from '../../shared/contract/session-explanation';
 
-const sessionParams = z.strictObject({ sessionId: id });
-const decisionBody = z.strictObject({ decision: z.enum(['apply', 'keep']) });
 const withPeople = [
   { model: User, as: 'savedBy', attributes: ['id', 'name'] },
   { model: User, as: 'decidedBy', attributes: ['id', 'name'] },
@@ -36,10 +34,10 @@ export function sessionExplanationRouter({ db }: RouteDeps) {
 
   router
     .route('/')
-    .get(requireRole('reviewer'), validate({ params: sessionParams }), async (req, res) => {
+    .get(requireRole('reviewer'), validate({ params: explanationParams }), async (req, res) => {
       res.json(explanationReply(await findStored(req)));
     })
-    .post(requireRole('engineer'), validate({ params: sessionParams }), async (req, res) => {
+    .post(requireRole('engineer'), validate({ params: explanationParams }), async (req, res) => {
       const me = currentUser(req);
       const session = await BenchSession.findByPk(sessionId(req), { attributes: ['id', 'coreId', 'samples'] });
       if (!session) throw notFound('Session');
@@ -64,9 +62,9 @@ export function sessionExplanationRouter({ db }: RouteDeps) {
     });
 
   // Apply the configuration deviation to the core, or keep the core as declared: one audited step.
-  router.route('/decision').post(requireRole('engineer'), validate({ params: sessionParams, body: decisionBody }), async (req, res) => {
+  router.route('/decision').post(requireRole('engineer'), validate({ params: explanationParams, body: explanationDecisionBody }), async (req, res) => {
     const me = currentUser(req);
-    const choice = (req.body as z.infer<typeof decisionBody>).decision;
+    const choice = (req.body as ExplanationDecisionBody).decision;
     const row = await findStored(req);
     if (row.decision) throw new HttpError(409, 'conflict', `The explanation was already ${row.decision === 'applied' ? 'applied to the core' : 'set aside, keeping the core as declared'}`);
     const explanation = row.explanation as unknown as Explanation;

@@ -3,7 +3,9 @@ import { api } from '../../../lib/api';
 import { coreKeys } from '../../../lib/resources/cores';
 import { explanationKeys, type StoredExplanation } from '../../../lib/resources/explanations';
 
-export type ExplanationChoice = 'apply' | 'keep';
+import type { ExplanationDecisionBody } from '../../../../shared/contract/session-explanation';
+
+export type ExplanationChoice = ExplanationDecisionBody['decision'];
 
 /** POST /api/sessions/:id/explanation/decision: apply the deviation to the core, or keep the core as declared. */
 export const decideExplanation = (sessionId: number, decision: ExplanationChoice) =>
