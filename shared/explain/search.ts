@@ -210,7 +210,7 @@ export function explain(declaredInput: ModelConfig, samples: ExplainSamples, opt
       }
       const keep1 = survivors(s1, l1.codes.length, 32);
       const s2 = keep1.map((i) => countExact(models[i], l2));
-      chosen = survivors(s2, l2.codes.length, 12).map((j) => keep1[j]);
+      chosen = survivors(s2, l2.codes.length, 6).map((j) => keep1[j]);
     }
     for (const i of chosen) {
       stop();
