@@ -185,7 +185,7 @@ function Result({ phase, sessionId, core, canEdit }: { phase: Extract<Phase, { k
     <div className="grid gap-4" data-testid="explain-result">
       {e && (
         <div className="grid gap-2">
-          <p className="text-xs text-ink-soft">
+          <p className="text-xs text-ink-soft" data-testid="explain-elapsed" data-elapsed-ms={Math.round(result.elapsedMs)}>
             Searched in this browser in {(result.elapsedMs / 1000).toFixed(1)} s over {count(e.answered)} answers.
           </p>
           <ExplanationSummary explanation={e} />
