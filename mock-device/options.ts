@@ -6,7 +6,9 @@ import { parseLineFaults } from './line-faults';
 
 export const USAGE = `npm run mock -- [--ws-port 5175] [--baud 3000000] [--core '<json model config>']
   [--queue-depth 256] [--build-id N] [--name S]
-  [--line-faults 'ber=1e-5,drop=1e-6,jitter-ms=2,seed=7'] [--core-fault gain|fold|sign:K|stuck:B]`;
+  [--line-faults 'ber=1e-5,drop=1e-6,jitter-ms=2,seed=7'] [--core-fault F]
+  F: a catalogue defect (sign-slip:K, atan-entry:K:±D, stuck-bit:cos:B:1, … see docs/explain.md),
+     a configuration deviation key=value (iterations=15, fold=false), or gain, fold, sign:K, stuck:B`;
 
 function int(name: string, text: string, min: number, max: number): number {
   const n = Number(text);
@@ -48,6 +50,7 @@ export function parseBoardArgs(args: string[]): { port: number; settings: BoardS
     s.name = values.name;
   }
   if (values['line-faults'] !== undefined) s.lineFaults = parseLineFaults(values['line-faults']);
+  // Wrappers around the core (an intermittent fault, say) are read before the catalogue entry.
   if (values['core-fault'] !== undefined) s.coreFault = parseCoreFault(values['core-fault']);
   const port = values['ws-port'] !== undefined ? int('ws-port', values['ws-port'], 0, 65_535) : 5175;
   return { port, settings: s };
