@@ -24,6 +24,8 @@ export const RUN_HELP = `${RUN_USAGE}
   --out FILE       write the capture archive (both directions) to FILE
   --json           print a machine-readable summary on stdout (progress stays on stderr)
   --junit FILE     write the verdict as JUnit XML to FILE: a test case per limit, the session's address
+  --explain        after the run, name the configuration or RTL defect that reproduces the answers
+                   (printed, and the summary's "explanation" key)
 
 Ctrl-C stops the run cleanly: what was captured is scored and written to --out, nothing is
 uploaded; a second Ctrl-C quits at once.
@@ -62,6 +64,7 @@ export interface RunOptions {
   out: string | null;
   junit: string | null;
   json: boolean;
+  explain: boolean;
   help: boolean;
   crc: Crc8Name | null;
 }
@@ -143,6 +146,7 @@ export function parseRunArgs(argv: string[]): RunOptions {
         out: { type: 'string' },
         junit: { type: 'string' },
         json: { type: 'boolean' },
+        explain: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
     }));
@@ -188,6 +192,7 @@ export function parseRunArgs(argv: string[]): RunOptions {
     out: str('out') ?? null,
     junit: str('junit') ?? null,
     json: values.json === true,
+    explain: values.explain === true,
     help: false,
     crc: (crc as Crc8Name | undefined) ?? null,
   };

@@ -17,6 +17,7 @@ import { humanReport, jsonSummary, type RunReport } from './run-report';
 import { scoreRun } from './run-score';
 import { fetchCore, packSamples, ServerError, uploadSession, type Fetch, type ServerCore } from './run-server';
 import { judge, type Limits } from './run-verdict';
+import { explainRun } from './run-explain';
 import { realClock } from './clock';
 import { INTERRUPTED_STATUS, withSigint, type Interrupt } from './interrupt';
 import { junitXml } from './junit';
@@ -118,6 +119,7 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
     const report: RunReport = {
       core: o.core, build: o.build, board: o.board, device: o.device, baud, info, plan, planText: o.planText, model, modelFrom: from,
       limitsFrom, status: result.status, elapsedMs: result.elapsedMs, score, figures: result.figures, verdict, archive: o.out,
+      explanation: o.explain ? explainRun(model, result) : undefined,
     };
     for (const w of warnings.slice(0, 5)) io.stderr(`warning: ${w}\n`);
     const writeJunit = (sessionUrl: string | null) => {
