@@ -4,3 +4,4 @@ export * from './soak-spec';
 export * from './soak-accumulator';
 export * from './soak-record';
 export * from './board-conditions';
+export * from './soak-run';
