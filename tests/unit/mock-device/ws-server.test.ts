@@ -31,7 +31,7 @@ describe('the simulated board over a real WebSocket', () => {
     createCordicModel({}).evaluateInto(result.codes, cos, sin);
     expect(Buffer.from(result.cos.buffer).equals(Buffer.from(cos.buffer))).toBe(true);
     expect(Buffer.from(result.sin.buffer).equals(Buffer.from(sin.buffer))).toBe(true);
-    // PROTOCOL.md link budget: 65,536 results need at least 0.906 s on the wire at 3,000,000 baud.
+    // docs/protocol.md "7. Throughput": 65,536 results need at least 0.906 s on the wire at 3,000,000 baud.
     expect(elapsedS).toBeGreaterThan(0.9);
     expect(result.figures.lineShare).toBeLessThanOrEqual(1);
     await link.close();
