@@ -61,6 +61,7 @@ describe('Explain panel', () => {
       const saved = panel.getByTestId('saved-explanation');
       await saved.waitFor({ timeout: 60_000 });
       expect(await saved.getByTestId('explanation-hypotheses').locator('li').first().textContent()).toContain(STUCK);
+      if (SHOTS) await panel.screenshot({ path: `${SHOTS}/explain-saved.png` });
 
       await page.goto(`${ctx.app.url}/sessions/${id}/report`);
       const report = page.getByTestId('report-explanation');
