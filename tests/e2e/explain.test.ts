@@ -63,6 +63,15 @@ describe('Explain panel', () => {
       expect(await saved.getByTestId('explanation-hypotheses').locator('li').first().textContent()).toContain(STUCK);
       if (SHOTS) await panel.screenshot({ path: `${SHOTS}/explain-saved.png` });
 
+      // Read back on a fresh page: the saved explanation, and its differences drawn without a new search.
+      await page.reload();
+      const again = page.getByTestId('explain-panel');
+      await again.getByTestId('saved-explanation').waitFor();
+      await again.getByRole('button', { name: 'Show the differences and a trace' }).click();
+      await again.getByTestId('chart-board-minus-hypothesis').locator('canvas').waitFor({ timeout: 60_000 });
+      expect(await again.getByTestId('explain-elapsed').count()).toBe(0);
+      expect(await again.getByTestId('trace-parting').textContent()).toBe('They part at: output.');
+
       await page.goto(`${ctx.app.url}/sessions/${id}/report`);
       const report = page.getByTestId('report-explanation');
       await report.waitFor();
