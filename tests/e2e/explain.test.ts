@@ -20,13 +20,29 @@ function regressionSessionId(page: Page): Promise<number> {
 }
 
 describe('Explain panel', () => {
-  it('names the stuck output bit of ref16-r3, saves the explanation and shows it on the report', async () => {
+  it('can be cancelled, names the stuck output bit of ref16-r3, saves the explanation and shows it on the report', async () => {
     const page = await ctx.browser.newPage({ viewport: { width: 1400, height: 1800 } });
     try {
       await signInAs(page, ctx.app, 'engineer', '/sessions');
       const id = await regressionSessionId(page);
       await page.goto(`${ctx.app.url}/sessions/${id}`);
       const panel = page.getByTestId('explain-panel');
+
+      // Cancel: the samples are held back until Cancel is pressed, so the search is surely still running.
+      let release = () => {};
+      const held = new Promise<void>((r) => (release = r));
+      await page.route('**/api/sessions/*/samples', async (route) => {
+        await held;
+        await route.continue().catch(() => undefined); // the page has given up on it
+      });
+      await panel.getByRole('button', { name: 'Explain in this browser' }).click();
+      await panel.getByRole('progressbar', { name: 'Explaining the answers' }).waitFor();
+      await panel.getByRole('button', { name: 'Cancel' }).click();
+      await panel.getByText('Cancelled; nothing was saved.').waitFor();
+      release();
+      await page.unroute('**/api/sessions/*/samples');
+      expect(await panel.getByTestId('explain-result').count()).toBe(0);
+
       await panel.getByRole('button', { name: 'Explain in this browser' }).click();
       const result = panel.getByTestId('explain-result');
       await result.waitFor({ timeout: 60_000 });
@@ -45,6 +61,7 @@ describe('Explain panel', () => {
       const saved = panel.getByTestId('saved-explanation');
       await saved.waitFor({ timeout: 60_000 });
       expect(await saved.getByTestId('explanation-hypotheses').locator('li').first().textContent()).toContain(STUCK);
+      if (SHOTS) await panel.screenshot({ path: `${SHOTS}/explain-saved.png` });
 
       await page.goto(`${ctx.app.url}/sessions/${id}/report`);
       const report = page.getByTestId('report-explanation');
