@@ -193,7 +193,7 @@ export function sessionsRouter({ db, mailer, config }: RouteDeps) {
       const result = await db.transaction((transaction) => storeSession(transaction, me.id, { ...draft, link }, samplesFile.buffer, archive));
       const { row, core, stats, verdict, passed, failedLimits } = result;
       if (failedLimits.length > 0) await mailRegression(req, row, core, failedLimits);
-      res.status(201).json({ id: row.id, passed, regression: row.regression, verdict, stats });
+      res.status(201).json({ id: row.id, url: `${originOf(req)}/sessions/${row.id}`, passed, regression: row.regression, verdict, stats });
     });
 
   router.route('/import').post(requireRole('engineer'), importUpload(config.uploadLimitBytes), async (req, res) => {
@@ -221,7 +221,7 @@ export function sessionsRouter({ db, mailer, config }: RouteDeps) {
     );
     const { row, core, stats, verdict, passed, failedLimits } = result;
     if (failedLimits.length > 0) await mailRegression(req, row, core, failedLimits);
-    res.status(201).json({ id: row.id, passed, regression: row.regression, verdict, stats });
+    res.status(201).json({ id: row.id, url: `${originOf(req)}/sessions/${row.id}`, passed, regression: row.regression, verdict, stats });
   });
 
   async function mailRegression(req: Request, row: BenchSession, core: Core, failedLimits: string[]) {
