@@ -96,6 +96,21 @@ describe('server-hosted simulated boards', () => {
     }
   });
 
+  it('closes a connection that sends a message over 64 KiB with 1009 and frees its board', async () => {
+    const boards = await hostedBoards(1);
+    try {
+      const raw = new WebSocket(boards.url);
+      await new Promise((r) => raw.once('open', r));
+      const closed = new Promise<number>((r) => raw.once('close', (code) => r(code)));
+      raw.send(Buffer.alloc(64 * 1024 + 1));
+      // RFC 6455 section 7.4.1: 1009, a message too big to process.
+      expect(await closed).toBe(1009);
+      await expect.poll(() => boards.counts.at(-1)).toBe(0);
+    } finally {
+      await boards.close();
+    }
+  });
+
   it('frees a board with no traffic for the idle time, with a reason', async () => {
     const boards = await hostedBoards(1, 200);
     try {
