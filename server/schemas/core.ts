@@ -1,7 +1,4 @@
 // The shapes of a core's JSON columns, checked on every write.
-import { z } from 'zod';
-
-const int = (min: number, max: number) => z.number().int().min(min).max(max);
 
 // The reference model's configuration is the numeric core's own schema (the keys the model, the
 // runner and the simulated board share); parsing fills the defaults — the `reference-16` core.
