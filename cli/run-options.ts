@@ -4,6 +4,9 @@ import { z } from 'zod';
 import { isCrc8Name, type Crc8Name } from '../shared/link';
 import { parseModelConfig, type ModelConfigInput } from '../shared/numeric';
 import { parseLimits, type Limits } from './run-verdict';
+import type { Conditions, SoakSpec } from '../shared/soak';
+import { parseConditionOptions } from './conditions';
+import { parseSoakOption } from './soak';
 
 export const RUN_HELP = `usage: npm run --silent cli -- run --device <serial path | ws://host:port/> --plan <plan> --core <slug> [options]
 
@@ -20,6 +23,9 @@ export const RUN_HELP = `usage: npm run --silent cli -- run --device <serial pat
   --config JSON    reference-model configuration (default: the server's core, else from INFO)
   --out FILE       write the capture archive (both directions) to FILE
   --json           print a machine-readable summary on stdout (progress stays on stderr)
+  --soak N|D       repeat the plan: N passes (50) or for a duration (90s, 30m, 2h); lists unstable codes
+  --condition K=V  an operating condition, repeatable: temperature_c=85, vccint_v=0.95, clock_mhz=200,
+                   or any name=value; saved with the session
 
 Exit status: 0 every limit passes, 1 a limit fails, 2 an error (one line on stderr).
 `;
@@ -56,6 +62,8 @@ export interface RunOptions {
   json: boolean;
   help: boolean;
   crc: Crc8Name | null;
+  soak: SoakSpec | null;
+  conditions: Conditions;
 }
 
 const INTEGER = /^[+-]?(0x[0-9a-f]+|\d+)$/i;
@@ -114,7 +122,7 @@ function json(text: string, option: string): unknown {
 const urlSchema = z.url({ protocol: /^https?$/ });
 
 export function parseRunArgs(argv: string[]): RunOptions {
-  let values: Record<string, string | boolean | undefined>;
+  let values: Record<string, string | boolean | string[] | undefined>;
   try {
     ({ values } = parseArgs({
       args: argv,
@@ -134,6 +142,8 @@ export function parseRunArgs(argv: string[]): RunOptions {
         crc: { type: 'string' },
         out: { type: 'string' },
         json: { type: 'boolean' },
+        soak: { type: 'string' },
+        condition: { type: 'string', multiple: true },
         help: { type: 'boolean', short: 'h' },
       },
     }));
@@ -179,5 +189,7 @@ export function parseRunArgs(argv: string[]): RunOptions {
     json: values.json === true,
     help: false,
     crc: (crc as Crc8Name | undefined) ?? null,
+    soak: str('soak') !== undefined ? parseSoakOption(str('soak')!) : null,
+    conditions: parseConditionOptions((values.condition as string[] | undefined) ?? []),
   };
 }

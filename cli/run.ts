@@ -18,6 +18,8 @@ import { scoreRun } from './run-score';
 import { fetchCore, packSamples, ServerError, uploadSession, type Fetch, type ServerCore } from './run-server';
 import { judge, type Limits } from './run-verdict';
 import { realClock } from './clock';
+import { runConditions } from './conditions';
+import { soakPasses, type SoakRun } from './soak';
 
 /** What `run` touches besides the CLI streams, so tests can swap it. */
 export interface RunDeps extends DeviceDeps {
@@ -90,9 +92,14 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
     const request = planToRequest(plan, model);
     const progress = progressSink(io.stderr, deps.stderrIsTty ?? false, () => clock.now());
     const startedAt = new Date();
+    const { conditions, fromBoard } = runConditions(info, o.conditions);
     let result: RunResult;
+    let soak: SoakRun | null = null;
     try {
-      result = await engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) }).done;
+      if (o.soak) {
+        soak = await soakPasses({ engine, request, model, plan, spec: o.soak, clock, confirm: confirmOffModel(model), log: io.stderr });
+        result = soak.status === 'complete' ? soak.result : { ...soak.result, status: soak.status, message: soak.message };
+      } else result = await engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) }).done;
     } finally {
       progress.end(null);
     }
@@ -107,10 +114,11 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
       }
     }
     const score = scoreRun(model, plan, result, result.figures.checkFailures);
-    const verdict = judge(score, limits);
+    const verdict = judge(score, limits, soak ? { unstableCodes: soak.record.unstable.count } : {});
     const report: RunReport = {
       core: o.core, build: o.build, board: o.board, device: o.device, baud, info, plan, planText: o.planText, model, modelFrom: from,
       limitsFrom, status: result.status, elapsedMs: result.elapsedMs, score, figures: result.figures, verdict, archive: o.out,
+      conditions, conditionsFromBoard: fromBoard, soak: soak?.record ?? null,
     };
     for (const w of warnings.slice(0, 5)) io.stderr(`warning: ${w}\n`);
     let sessionId: number | null = null;
@@ -124,6 +132,7 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
             coreId: core.id, coreSlug: core.slug, build: o.build, board: o.board, plan, startedAt: startedAt.toISOString(), endedAt: endedAt.toISOString(),
             transport: { kind: o.device.startsWith('ws') ? 'websocket' : 'serial', device: o.device, baud, crc },
             deviceInfo: info, stats: summary.stats, link: result.figures, verdict: summary.verdict, passed: verdict.passed, sampleCount: score.answered,
+            ...soakUpload(conditions, soak),
           },
           samples: packSamples(result.codes, result.cos, result.sin, result.answered),
           archive,
@@ -140,6 +149,11 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
   } finally {
     await link.close().catch(() => undefined);
   }
+}
+
+/** The session's conditions and soak, left out when there are none (older servers refuse unknown keys). */
+function soakUpload(conditions: RunReport['conditions'], soak: SoakRun | null): Record<string, unknown> {
+  return { ...(Object.keys(conditions).length > 0 ? { conditions } : {}), ...(soak ? { soak: soak.record } : {}) };
 }
 
 /** The `run` command. */
