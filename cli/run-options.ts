@@ -8,7 +8,10 @@ import type { Conditions, SoakSpec } from '../shared/soak';
 import { parseConditionOptions } from './conditions';
 import { parseSoakOption } from './soak';
 
-export const RUN_HELP = `usage: npm run --silent cli -- run --device <serial path | ws://host:port/> --plan <plan> --core <slug> [options]
+export const RUN_USAGE = 'usage: anglebench run --device <serial path | ws://host:port/> --plan <plan> --core <slug> [options]';
+
+export const RUN_HELP = `${RUN_USAGE}
+       (from a checkout: npm run --silent cli -- run …)
 
   --device D       a serial port (/dev/ttyUSB0, COM3) or a WebSocket device (ws://127.0.0.1:5175/)
   --baud N         line rate, 9600..12000000 (default: the core's link profile, else 3000000)
@@ -26,8 +29,14 @@ export const RUN_HELP = `usage: npm run --silent cli -- run --device <serial pat
   --soak N|D       repeat the plan: N passes (50) or for a duration (90s, 30m, 2h); lists unstable codes
   --condition K=V  an operating condition, repeatable: temperature_c=85, vccint_v=0.95, clock_mhz=200,
                    or any name=value; saved with the session
+  --junit FILE     write the verdict as JUnit XML to FILE: a test case per limit, the session's address
+  --explain        after the run, name the configuration or RTL defect that reproduces the answers
+                   (printed, and the summary's "explanation" key)
 
-Exit status: 0 every limit passes, 1 a limit fails, 2 an error (one line on stderr).
+Ctrl-C stops the run cleanly: what was captured is scored and written to --out, nothing is
+uploaded; a second Ctrl-C quits at once.
+Exit status: 0 every limit passes, 1 a limit fails, 2 an error (one line on stderr),
+130 interrupted by Ctrl-C.
 `;
 
 /** A bad command line: one line for the user, exit status 2. */
@@ -59,7 +68,9 @@ export interface RunOptions {
   limits: Limits | null;
   config: ModelConfigInput | null;
   out: string | null;
+  junit: string | null;
   json: boolean;
+  explain: boolean;
   help: boolean;
   crc: Crc8Name | null;
   soak: SoakSpec | null;
@@ -141,9 +152,11 @@ export function parseRunArgs(argv: string[]): RunOptions {
         config: { type: 'string' },
         crc: { type: 'string' },
         out: { type: 'string' },
+        junit: { type: 'string' },
         json: { type: 'boolean' },
         soak: { type: 'string' },
         condition: { type: 'string', multiple: true },
+        explain: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
     }));
@@ -152,6 +165,7 @@ export function parseRunArgs(argv: string[]): RunOptions {
   }
   const str = (k: string) => (typeof values[k] === 'string' ? (values[k] as string) : undefined);
   if (values.help) return { help: true } as RunOptions;
+  for (const [k, v] of Object.entries(values)) if (v === '') throw new UsageError(`--${k} must not be empty`);
   for (const k of ['device', 'plan', 'core']) if (str(k) === undefined) throw new UsageError(`--${k} is required (see run --help)`);
   let baud: number | null = null;
   if (str('baud') !== undefined) {
@@ -186,7 +200,9 @@ export function parseRunArgs(argv: string[]): RunOptions {
     limits: str('limits') !== undefined ? parseLimits(json(str('limits')!, 'limits'), '--limits') : null,
     config,
     out: str('out') ?? null,
+    junit: str('junit') ?? null,
     json: values.json === true,
+    explain: values.explain === true,
     help: false,
     crc: (crc as Crc8Name | undefined) ?? null,
     soak: str('soak') !== undefined ? parseSoakOption(str('soak')!) : null,

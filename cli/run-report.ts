@@ -1,6 +1,8 @@
 // What `run` prints: a table for people, or one JSON summary for machines.
 import type { LinkFigures } from '../shared/link-engine/link-figures';
 import type { DeviceInfo } from '../shared/link';
+import type { Explanation } from '../shared/explain';
+import { explanationText } from './run-explain';
 import type { ModelConfig, Plan } from '../shared/numeric';
 import type { RunScore } from './run-score';
 import type { LimitCheck, Verdict } from './run-verdict';
@@ -31,6 +33,8 @@ export interface RunReport {
   conditionsFromBoard: Conditions | null;
   /** The soak's books when --soak was given; the other figures are then its last pass. */
   soak: SoakRecord | null;
+  /** With --explain: what reproduces the answers. */
+  explanation?: Explanation;
 }
 
 /** The machine-readable summary: everything but the histogram bins and the kept mismatches' bulk. */
@@ -64,6 +68,7 @@ export function jsonSummary(r: RunReport, upload: { sessionId: number | null } |
     archive: r.archive,
     conditions: r.conditions,
     soak: r.soak,
+    ...(r.explanation ? { explanation: r.explanation } : {}),
     upload,
   };
 }
@@ -111,5 +116,5 @@ export function humanReport(r: RunReport): string {
     out.push(`verdict: ${r.verdict.passed ? 'PASS' : 'FAIL'}`);
   }
   if (r.archive) out.push(`archive written to ${r.archive}`);
-  return out.join('\n') + '\n';
+  return out.join('\n') + '\n' + (r.explanation ? explanationText(r.explanation) : '');
 }

@@ -1,6 +1,6 @@
 // `run --soak 50 | 30m`: the plan repeated on one connection (shared/soak/soak-run.ts), a line
 // per pass on stderr, and the soak's part of the report, the JSON summary and the upload.
-import type { LinkEngine, RunResult } from '../shared/link-engine/link-engine';
+import type { LinkEngine, RunHandle, RunResult } from '../shared/link-engine/link-engine';
 import type { RunRequest } from '../shared/link-engine/run-request';
 import type { ModelConfig, Plan } from '../shared/numeric';
 import { describeSoak, parseSoakSpec, runSoak, type SoakRecord, type SoakSpec } from '../shared/soak';
@@ -36,6 +36,8 @@ export async function soakPasses(a: {
   clock: EngineClock;
   confirm: (code: number, cos: number, sin: number) => boolean;
   log: (line: string) => void;
+  onPassStart?: (handle: RunHandle) => void;
+  keepGoing?: () => boolean;
 }): Promise<SoakRun> {
   const total = a.spec.kind === 'passes' ? `/${n(a.spec.passes)}` : '';
   const out = await runSoak({
@@ -44,6 +46,8 @@ export async function soakPasses(a: {
     spec: a.spec,
     clock: a.clock,
     handlers: { confirm: a.confirm },
+    onPassStart: (_pass, handle) => a.onPassStart?.(handle),
+    keepGoing: a.keepGoing,
     score: (result, checkFailures) => {
       const s = scoreRun(a.model, a.plan, result, checkFailures);
       return { mismatches: s.summary.mismatches.count, maxAbsErrorLsb: s.summary.count > 0 ? s.summary.overall.maxAbsLsb : null };
@@ -54,8 +58,10 @@ export async function soakPasses(a: {
           `${p.retries ? ` (${n(p.retries)} re-asked)` : ''}, ${n(acc.unstableCount)} unstable codes so far, ${(p.elapsedMs / 1000).toFixed(2)} s\n`,
       ),
   });
-  if (!out.last) throw new Error(out.message ?? 'the soak ended before its first pass finished');
-  return { status: out.status, message: out.message, result: out.last.result, record: out.acc.record(a.spec) };
+  // Stopped in its first pass: what that pass got is all there is (nothing is uploaded then).
+  const result = out.last?.result ?? out.cut;
+  if (!result) throw new Error(out.message ?? 'the soak ended before its first pass');
+  return { status: out.status, message: out.message, result, record: out.acc.record(a.spec) };
 }
 
 /** The soak's lines of the human report. */

@@ -5,6 +5,7 @@ import { createFlakyCore, type CoreFlip, type FlakyFault } from './flaky-core';
 import { LineFaults, noLineFaults, type LineFaultSettings } from './line-faults';
 import { LinePacer, realClock, type PacerClock } from './line-pacer';
 import { DEFAULT_LINE_LOW_MARK, SimulatedBoard } from './simulated-board';
+import type { Crc8Name } from '../shared/link/crc8';
 import type { ModelConfigInput } from '../shared/numeric';
 import { nameWithConditions, type Conditions } from '../shared/soak';
 
@@ -17,6 +18,8 @@ export interface BoardSettings {
   name: string;
   baud: number;
   lineFaults: LineFaultSettings;
+  /** The frame check (default CRC-8/SMBUS, as the protocol's). */
+  crc?: Crc8Name;
   /** An intermittent defect on top of the core (and of any coreFault). */
   flaky?: FlakyFault;
   /** Seeds the flaky core's draws. */
@@ -73,6 +76,7 @@ export function openBoardSession(settings: BoardSettings, deliver: (bytes: Uint8
     buildId: settings.buildId,
     clockKHz: settings.clockKHz,
     name: settings.conditions ? nameWithConditions(settings.name, settings.conditions) : settings.name,
+    crc: settings.crc,
     lineLowMark: lineLowMark(settings.baud),
     send: (bytes) => {
       pacer.write(bytes);

@@ -7,8 +7,10 @@ import { boardConditionArgs, isFlakyFaultText, parseFlakyFault } from './flaky-o
 
 export const USAGE = `npm run mock -- [--ws-port 5175] [--baud 3000000] [--core '<json model config>']
   [--queue-depth 256] [--build-id N] [--name S]
-  [--line-faults 'ber=1e-5,drop=1e-6,jitter-ms=2,seed=7'] [--core-fault gain|fold|sign:K|stuck:B|flaky:RATE[@SECONDS]] [--seed N]
-  [--condition name=value]…`;
+  [--line-faults 'ber=1e-5,drop=1e-6,jitter-ms=2,seed=7'] [--core-fault F] [--seed N] [--condition name=value]…
+  F: a catalogue defect (sign-slip:K, atan-entry:K:±D, stuck-bit:cos:B:1, … see docs/explain.md),
+     a configuration deviation key=value (iterations=15, fold=false), gain, fold, sign:K, stuck:B,
+     or an intermittent one, flaky:RATE[@SECONDS]`;
 
 function int(name: string, text: string, min: number, max: number): number {
   const n = Number(text);
@@ -52,6 +54,7 @@ export function parseBoardArgs(args: string[]): { port: number; settings: BoardS
     s.name = values.name;
   }
   if (values['line-faults'] !== undefined) s.lineFaults = parseLineFaults(values['line-faults']);
+  // Wrappers around the core (an intermittent fault) are read before the catalogue entry.
   if (values['core-fault'] !== undefined && isFlakyFaultText(values['core-fault'])) s.flaky = parseFlakyFault(values['core-fault']);
   else if (values['core-fault'] !== undefined) s.coreFault = parseCoreFault(values['core-fault']);
   if (values.seed !== undefined) s.seed = int('seed', values.seed, 0, 0xffff_ffff);

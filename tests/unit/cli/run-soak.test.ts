@@ -72,7 +72,9 @@ describe('run --soak', { timeout: 30_000 }, () => {
     for (const [args, line] of cases) {
       const r = await run(...args);
       expect(r.status, args.join(' ')).toBe(2);
-      expect(r.err).toBe(`${line}\n`);
+      // The error line, then the usage line the runner adds to any bad command line.
+      expect(r.err.split('\n')[0]).toBe(line);
+      expect(r.err.split('\n')[1]).toMatch(/^usage: /);
       expect(r.out).toBe('');
     }
   });
