@@ -27,6 +27,9 @@ const ENTRIES: [string, ModelConfigInput?][] = [
   ['angle-offset:+1'],
   ['angle-offset:-37'],
   ['angle-offset:+4096'],
+  ['angle-bit:0:1'],
+  ['angle-bit:13:0'],
+  ['angle-bit:2:1', { angleFormat: 'rad', angleBits: 16, angleFrac: 12 }],
   ['gain:2'],
   ['gain:0'],
   ['gain:12'],
@@ -60,7 +63,7 @@ function expectExplainedBy(e: Explanation, spec: string, declared: ModelConfig) 
   const named = [best, ...best.equivalent].some((h) => JSON.stringify(h.config) === JSON.stringify(config) && JSON.stringify(h.fault) === JSON.stringify(injected.fault));
   if (named) return;
   // Otherwise the test shows the two give identical answers on every code of the format.
-  const all = Float64Array.from({ length: 2 ** declared.angleBits }, (_, i) => i);
+  const all = Float64Array.from({ length: 2 ** declared.angleBits }, (_, i) => i + lowest(declared));
   const a = board(spec, declared, all);
   const m = createFaultyModel(best.config, best.fault);
   const cos = new Int32Array(all.length);
@@ -70,17 +73,19 @@ function expectExplainedBy(e: Explanation, spec: string, declared: ModelConfig) 
   expect(sin, `${spec} named as ${best.label}`).toEqual(a.sin);
 }
 
-const exhaustive = Float64Array.from({ length: 65_536 }, (_, i) => i);
-const random = (() => {
+/** The lowest angle code: 0 for `turn`, −2^(bits−1) for the signed `rad`. */
+const lowest = (c: ModelConfig) => (c.angleFormat === 'turn' ? 0 : -(2 ** (c.angleBits - 1)));
+const exhaustive = (c: ModelConfig) => Float64Array.from({ length: 65_536 }, (_, i) => i + lowest(c));
+const random = (c: ModelConfig) => {
   const r = seededRandom(2026);
-  return Float64Array.from({ length: 2000 }, () => Math.floor(r() * 65_536));
-})();
+  return Float64Array.from({ length: 2000 }, () => Math.floor(r() * 65_536) + lowest(c));
+};
 
 describe('every catalogue entry injected into the simulated board is explained', { timeout: 600_000 }, () => {
   for (const [spec, core = {}] of ENTRIES) {
     it(`${spec}${Object.keys(core).length ? ` on ${JSON.stringify(core)}` : ''}`, () => {
       const declared = parseModelConfig(core);
-      for (const codes of [exhaustive, random]) expectExplainedBy(explain(declared, board(spec, core, codes)), spec, declared);
+      for (const codes of [exhaustive(declared), random(declared)]) expectExplainedBy(explain(declared, board(spec, core, codes)), spec, declared);
     });
   }
 });

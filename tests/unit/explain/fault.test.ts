@@ -16,6 +16,7 @@ describe('the catalogue spelling', () => {
     ['negate:cos', { kind: 'negate', channel: 'cos' }],
     ['wrap', { kind: 'wrap' }],
     ['angle-offset:-12', { kind: 'angle-offset', codes: -12 }],
+    ['angle-bit:3:0', { kind: 'angle-bit', bit: 3, value: 0 }],
     ['gain:0', { kind: 'gain', iterations: 0 }],
     ['blocking-update', { kind: 'blocking-update' }],
     ['zero-direction', { kind: 'zero-direction' }],

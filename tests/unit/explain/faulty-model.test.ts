@@ -59,6 +59,8 @@ describe('the faulty iteration', { timeout: 120_000 }, () => {
     const low = faulty('stuck-bit:both:0:0');
     expect(low.cos).toEqual(healthy.cos.map((v) => v & ~1));
     expect(faulty('angle-offset:+5')).toEqual(answers(createCordicModel({}), codes.map((c) => (c + 5) % 65_536)));
+    expect(faulty('angle-bit:15:1')).toEqual(answers(createCordicModel({}), codes.map((c) => c | 0x8000)));
+    expect(faulty('angle-bit:2:0')).toEqual(answers(createCordicModel({}), codes.map((c) => c & ~4)));
   });
 
   it('wraps instead of saturating where the format cannot hold +1.0', () => {
