@@ -205,7 +205,10 @@ export function explain(declaredInput: ModelConfig, samples: ExplainSamples, opt
     const candidates = stage();
     if (candidates.length === 0) continue;
     const models = candidates.map(modelOf);
+    // Run on every answer: first those that reproduced all of the large screen, then, unless one
+    // of them reproduces every answer, the best of the rest (for the ranking of partial ones).
     let chosen = candidates.map((_, i) => i);
+    let perfect = chosen;
     if (candidates.length > 1) {
       const s1: number[] = [];
       for (let i = 0; i < models.length; i++) {
@@ -218,11 +221,14 @@ export function explain(declaredInput: ModelConfig, samples: ExplainSamples, opt
       const keep1 = survivors(s1, l1.codes.length, KEEP_AFTER_SMALL);
       const s2 = keep1.map((i) => countExact(models[i], l2));
       chosen = survivors(s2, l2.codes.length, KEEP_AFTER_LARGE).map((j) => keep1[j]);
+      perfect = keep1.filter((_, j) => s2[j] === l2.codes.length);
     }
-    for (const i of chosen) {
+    const confirm = (i: number) => {
       stop();
       tried.push({ ...candidates[i], order: tried.length, ...fullRun(models[i], full) });
-    }
+    };
+    perfect.forEach(confirm);
+    if (!tried.some((t) => t.exact === n)) chosen.filter((i) => !perfect.includes(i)).forEach(confirm);
     done += candidates.length;
     options.onProgress?.(done, total);
     if (tried.some((t) => t.exact === n)) break;
