@@ -3,7 +3,16 @@ import { defineConfig } from 'vitest/config';
 export default defineConfig({
   test: {
     projects: [
-      { test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
+      {
+        test: {
+          name: 'unit',
+          include: ['tests/unit/**/*.test.ts'],
+          environment: 'node',
+          // Exhaustive 16-bit checks take a second alone and several on a loaded machine; the
+          // timeout is there to catch a hang, not to time anything.
+          testTimeout: 30_000,
+        },
+      },
       {
         test: {
           name: 'server',

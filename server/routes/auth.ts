@@ -17,7 +17,7 @@ export interface LoginLimit {
 
 const loginBody = z.strictObject({ email: z.email().max(254), password: z.string().min(1).max(200) });
 
-/** /api/auth: the CSRF token, sign-in, sign-out and who am I. */
+/** /api/auth: the CSRF token, sign-in, sign-out, who am I and who is signed in. */
 export function authRouter(passport: ReturnType<typeof createPassport>, limit: LoginLimit) {
   const router = Router();
   const loginLimiter = rateLimit({
@@ -56,6 +56,13 @@ export function authRouter(passport: ReturnType<typeof createPassport>, limit: L
 
   router.route('/me').get(requireRole('reviewer'), (req, res) => {
     reply(res, meReply, { user: req.user!.toPublic(), via: req.authVia! });
+  });
+
+  // The browser's question at every page load. Nobody signed in is an answer, not an error, so it
+  // is 200 with null (a 401 would be logged in the browser's console); /me stays 401 for clients
+  // that must be signed in.
+  router.route('/current').get((req, res) => {
+    res.json({ user: req.user ? req.user.toPublic() : null });
   });
 
   return router;

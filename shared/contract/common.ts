@@ -1,8 +1,11 @@
 // Small pieces every part of the API contract uses.
 import { z } from 'zod';
 
-/** A row id: a positive integer (coerced, so it also reads path and query strings). */
-export const id = z.coerce.number().int().positive();
+/**
+ * A row id: a positive integer. Path and query strings must be plain decimal digits: a bare
+ * coercion would also read "0x10" as 16, "1e1" as 10 and " 7" as 7.
+ */
+export const id = z.preprocess((v) => (typeof v === 'string' && /^\d+$/.test(v) ? Number(v) : v), z.number().int().positive().max(Number.MAX_SAFE_INTEGER));
 export const idParams = z.strictObject({ id });
 
 /** Free text, trimmed, at most `max` characters. */
