@@ -21,7 +21,7 @@ export interface SignalChartsProps {
   /** Canvas height in CSS px (the XY chart is as wide as its plotting area is high). */
   heightPx?: number;
   className?: string;
-  /** Off where the page already titles the chart (the printed report); still read by screen readers. */
+  /** Off where the page already titles the chart in a section of its own (the printed report). */
   showTitles?: boolean;
 }
 
@@ -71,12 +71,21 @@ export function SignalCharts({ charts, feed, heightPx = 220, className = 'grid g
 
   return (
     <div className={className}>
-      {charts.map((id, i) => (
-        <section key={id} aria-label={CHART_SPECS[id].title} className={`${panel} min-w-0 break-inside-avoid`}>
-          <h3 className={showTitles ? panelTitle : 'sr-only'}>{CHART_SPECS[id].title}</h3>
-          <div data-testid={CHART_SPECS[id].testId} ref={(el) => void (boxes.current[i] = el)} className={id === 'xy' ? 'flex min-w-0 justify-center' : 'min-w-0'} />
-        </section>
-      ))}
+      {charts.map((id, i) => {
+        const plot = <div data-testid={CHART_SPECS[id].testId} ref={(el) => void (boxes.current[i] = el)} className={id === 'xy' ? 'flex min-w-0 justify-center' : 'min-w-0'} />;
+        // Untitled, the chart sits in a section of the caller's that names it: a second landmark
+        // of the same name would only repeat it.
+        return showTitles ? (
+          <section key={id} aria-label={CHART_SPECS[id].title} className={`${panel} min-w-0 break-inside-avoid`}>
+            <h3 className={panelTitle}>{CHART_SPECS[id].title}</h3>
+            {plot}
+          </section>
+        ) : (
+          <div key={id} className={`${panel} min-w-0 break-inside-avoid`}>
+            {plot}
+          </div>
+        );
+      })}
     </div>
   );
 }
