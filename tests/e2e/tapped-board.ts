@@ -6,10 +6,12 @@ import { WebSocketServer } from 'ws';
 import { defaultBoardSettings, openBoardSession, type BoardSettings } from '../../mock-device/board-session';
 import { realClock } from '../../mock-device/line-pacer';
 import { ChunkCoalescer } from '../../shared/link-engine/chunk-coalescer';
-import { decodePayload, DEFAULT_PROFILE, FrameDecoder, Kind, type WireProfile } from '../../shared/link';
+import { decodePayload, DEFAULT_PROFILE, FrameDecoder, Kind, type Message, type WireProfile } from '../../shared/link';
 
 export interface TappedRequest {
   kind: number;
+  /** The request as decoded (its codes, for ONE, LIST and SWEEP). */
+  message: Message;
   /** Result pairs the board had sent when this request reached it. */
   resultsBefore: number;
 }
@@ -33,7 +35,7 @@ export function startTappedBoard(overrides: Partial<BoardSettings> = {}): Promis
   let resultsSent = 0;
   const wss = new WebSocketServer({ port: 0, host: '127.0.0.1' });
   wss.on('connection', (ws) => {
-    const fromHost = new FrameDecoder({ accept: 'requests', profile, onFrame: (f) => void requests.push({ kind: f.kind, resultsBefore: resultsSent }) });
+    const fromHost = new FrameDecoder({ accept: 'requests', profile, onFrame: (f) => void requests.push({ kind: f.kind, message: decodePayload(f.kind, f.payload, profile), resultsBefore: resultsSent }) });
     const toHost = new FrameDecoder({
       accept: 'replies',
       profile,
