@@ -32,8 +32,11 @@ export function SignalCharts({ charts, feed, heightPx = 220, className = 'grid g
   useEffect(() => {
     const ids = key.split(',') as ChartId[];
     const extents = ids.map(() => 1.1);
+    // The elements of this effect's lifetime: React clears the refs on unmount before the cleanup
+    // below disconnects the observer, and a resize can land in between.
+    const els = ids.map((_, i) => boxes.current[i]!);
     const plots = ids.map((id, i) => {
-      const box = boxes.current[i]!;
+      const box = els[i];
       const spec = CHART_SPECS[id];
       if (id !== 'xy') return new uPlot({ ...spec.options, width: box.clientWidth, height: heightPx, legend: { show: true, live: false } }, [[]], box);
       const range = (): uPlot.Range.MinMax => [-extents[i], extents[i]];
@@ -43,8 +46,8 @@ export function SignalCharts({ charts, feed, heightPx = 220, className = 'grid g
         box,
       );
     });
-    const ro = new ResizeObserver(() => ids.forEach((id, i) => id !== 'xy' && plots[i].setSize({ width: boxes.current[i]!.clientWidth, height: heightPx })));
-    boxes.current.forEach((b) => b && ro.observe(b));
+    const ro = new ResizeObserver(() => ids.forEach((id, i) => id !== 'xy' && plots[i].setSize({ width: els[i].clientWidth, height: heightPx })));
+    els.forEach((b) => ro.observe(b));
     let raf = 0;
     let first = true;
     const tick = () => {
