@@ -1,17 +1,34 @@
-// `--device`: a WebSocket device (the simulated board or a bench bridge) or a serial port.
+// `--device`: a WebSocket device (the simulated board or a bench bridge), a station on the team
+// server (`station:NAME`), or a serial port.
 import type { ByteLink } from '../shared/link-engine/byte-link';
+import { STATION_MAX_MESSAGE_BYTES, stationDrivePath } from '../shared/stations/wire';
 import { PortSerialLink } from './transport/port-serial-link';
 import { NodeSocketLink } from './transport/ws-link';
 
 export interface DeviceDeps {
   /** The serialport binding for serial devices; default the platform's native one. */
   serialBinding?: object;
+  /** The server and API token a `station:NAME` device is driven through. */
+  server?: { url: string; token: string } | null;
 }
 
 export const isSocketDevice = (device: string) => /^wss?:\/\//i.test(device);
 
+const STATION = /^station:(.+)$/;
+
+/** The station's name when `device` is `station:NAME`, else null. */
+export const stationName = (device: string) => STATION.exec(device)?.[1] ?? null;
+
+/** The WebSocket address that drives station `name` on `server` (http → ws, https → wss). */
+export const stationDriveUrl = (server: string, name: string) => new URL(stationDrivePath(name), server.replace(/^http/i, 'ws')).toString();
+
 /** Open the device; rejects with a one-line reason. */
 export function openDevice(device: string, baud: number, deps: DeviceDeps = {}): Promise<ByteLink> {
+  const station = stationName(device);
+  if (station !== null) {
+    if (!deps.server) return Promise.reject(new Error(`--device ${device} needs --server and --token: a station is reached through the team server`));
+    return NodeSocketLink.open(stationDriveUrl(deps.server.url, station), { headers: { authorization: `Bearer ${deps.server.token}` }, maxPayload: STATION_MAX_MESSAGE_BYTES });
+  }
   if (isSocketDevice(device)) return NodeSocketLink.open(device);
   return PortSerialLink.open({ path: device, baud, binding: deps.serialBinding });
 }

@@ -1,5 +1,30 @@
-import WebSocket from 'ws';
+import type { IncomingMessage } from 'node:http';
+import WebSocket, { type ClientOptions } from 'ws';
 import { ByteLinkBase, LinkClosedError } from '../../shared/link-engine/byte-link';
+
+/** How to reach a WebSocket device: a handshake timeout, and headers and TLS settings for wss. */
+export interface SocketOpenOptions extends Pick<ClientOptions, 'headers' | 'ca' | 'rejectUnauthorized' | 'maxPayload'> {
+  timeoutMs?: number;
+}
+
+/** A refusal at the upgrade, in one line: its status and the server's own message when it sent one. */
+export function upgradeRefusal(res: IncomingMessage): Promise<string> {
+  return new Promise((resolve) => {
+    let body = '';
+    res.setEncoding('utf8');
+    res.on('data', (d: string) => (body = (body + d).slice(0, 2000)));
+    res.on('error', () => resolve(`refused with ${res.statusCode}`));
+    res.on('end', () => {
+      let message = '';
+      try {
+        message = (JSON.parse(body) as { error?: { message?: string } }).error?.message ?? '';
+      } catch {
+        message = body.trim().split('\n')[0].slice(0, 200);
+      }
+      resolve(`refused with ${res.statusCode}${message ? `: ${message}` : ''}`);
+    });
+  });
+}
 
 /** A WebSocket device (the simulated board or a bench bridge) from Node, as a ByteLink. */
 export class NodeSocketLink extends ByteLinkBase {
@@ -20,11 +45,18 @@ export class NodeSocketLink extends ByteLinkBase {
   }
 
   /** Connect; reject with a one-line reason (refused, busy, timed out). */
-  static open(url: string, timeoutMs = 5000): Promise<NodeSocketLink> {
+  static open(url: string, { timeoutMs = 5000, ...options }: SocketOpenOptions = {}): Promise<NodeSocketLink> {
     return new Promise((resolve, reject) => {
-      const ws = new WebSocket(url, { handshakeTimeout: timeoutMs });
+      const ws = new WebSocket(url, { handshakeTimeout: timeoutMs, ...options });
       const fail = (why: string) => reject(new Error(`Cannot connect to ${url}: ${why}`));
       ws.once('error', (err) => fail(err.message || 'connection failed'));
+      ws.once('unexpected-response', (_req, res) => {
+        // Read the refusal before ending the socket, so its reason wins over ws's own error.
+        void upgradeRefusal(res).then((why) => {
+          fail(why);
+          ws.terminate();
+        });
+      });
       ws.once('open', () => {
         // A busy device accepts the handshake and closes at once: wait a moment for that.
         const early = (code: number, reason: Buffer) => fail(reason.toString() || `closed with code ${code}`);

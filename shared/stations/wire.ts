@@ -58,12 +58,12 @@ export interface StationListing extends StationRegistration {
 
 const NAME = /^[^\u0000-\u001f\u007f]{1,80}$/;
 
-/** Check a registration from a query string; throws with a one-line reason. */
+/** Check a registration from a query string; throws with a one-line reason naming the field. */
 export function parseRegistration(q: { name: string | null; device: string | null; baud: string | null }): StationRegistration {
   const name = (q.name ?? '').trim();
-  if (!NAME.test(name)) throw new Error('a station needs a name of 1 to 80 printable characters');
+  if (!NAME.test(name)) throw new Error('name must be 1 to 80 printable characters');
   const device = (q.device ?? '').trim();
-  if (!NAME.test(device)) throw new Error('a station needs its device (1 to 80 printable characters)');
+  if (!NAME.test(device)) throw new Error('device must be 1 to 80 printable characters');
   const baud = Number(q.baud);
   if (!Number.isInteger(baud) || baud < 9_600 || baud > 12_000_000) throw new Error(`baud must be an integer 9600..12000000, got "${q.baud ?? ''}"`);
   return { name, device, baud };
