@@ -1,7 +1,7 @@
 // `--device`: a WebSocket device (the simulated board or a bench bridge), a station on the team
 // server (`station:NAME`), or a serial port.
 import type { ByteLink } from '../shared/link-engine/byte-link';
-import { STATION_MAX_MESSAGE_BYTES, stationDrivePath } from '../shared/stations/wire';
+import { STATION_MAX_MESSAGE_BYTES, isReadyNote, stationDrivePath } from '../shared/stations/wire';
 import { PortSerialLink } from './transport/port-serial-link';
 import { NodeSocketLink } from './transport/ws-link';
 
@@ -27,7 +27,7 @@ export function openDevice(device: string, baud: number, deps: DeviceDeps = {}):
   const station = stationName(device);
   if (station !== null) {
     if (!deps.server) return Promise.reject(new Error(`--device ${device} needs --server and --token: a station is reached through the team server`));
-    return NodeSocketLink.open(stationDriveUrl(deps.server.url, station), { headers: { authorization: `Bearer ${deps.server.token}` }, maxPayload: STATION_MAX_MESSAGE_BYTES });
+    return NodeSocketLink.open(stationDriveUrl(deps.server.url, station), { headers: { authorization: `Bearer ${deps.server.token}` }, maxPayload: STATION_MAX_MESSAGE_BYTES, ready: isReadyNote });
   }
   if (isSocketDevice(device)) return NodeSocketLink.open(device);
   return PortSerialLink.open({ path: device, baud, binding: deps.serialBinding });

@@ -5,6 +5,8 @@ import { ByteLinkBase, LinkClosedError } from '../../shared/link-engine/byte-lin
 /** How to reach a WebSocket device: a handshake timeout, and headers and TLS settings for wss. */
 export interface SocketOpenOptions extends Pick<ClientOptions, 'headers' | 'ca' | 'rejectUnauthorized' | 'maxPayload'> {
   timeoutMs?: number;
+  /** Open only once a text message passes this test (a station's relay says when it is ready). */
+  ready?: (text: string) => boolean;
 }
 
 /** A refusal at the upgrade, in one line: its status and the server's own message when it sent one. */
@@ -45,7 +47,7 @@ export class NodeSocketLink extends ByteLinkBase {
   }
 
   /** Connect; reject with a one-line reason (refused, busy, timed out). */
-  static open(url: string, { timeoutMs = 5000, ...options }: SocketOpenOptions = {}): Promise<NodeSocketLink> {
+  static open(url: string, { timeoutMs = 5000, ready, ...options }: SocketOpenOptions = {}): Promise<NodeSocketLink> {
     return new Promise((resolve, reject) => {
       const ws = new WebSocket(url, { handshakeTimeout: timeoutMs, ...options });
       const fail = (why: string) => reject(new Error(`Cannot connect to ${url}: ${why}`));
@@ -57,6 +59,23 @@ export class NodeSocketLink extends ByteLinkBase {
           ws.terminate();
         });
       });
+      if (ready) {
+        const early = (code: number, reason: Buffer) => fail(reason.toString() || `closed with code ${code}`);
+        const timer = setTimeout(() => {
+          fail(`no answer within ${timeoutMs / 1000} s`);
+          ws.terminate();
+        }, timeoutMs);
+        ws.once('close', early);
+        const onMessage = (data: Buffer, isBinary: boolean) => {
+          if (isBinary || !ready(data.toString())) return;
+          clearTimeout(timer);
+          ws.off('close', early);
+          ws.off('message', onMessage);
+          resolve(new NodeSocketLink(ws));
+        };
+        ws.on('message', onMessage);
+        return;
+      }
       ws.once('open', () => {
         // A busy device accepts the handshake and closes at once: wait a moment for that.
         const early = (code: number, reason: Buffer) => fail(reason.toString() || `closed with code ${code}`);

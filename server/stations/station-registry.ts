@@ -123,6 +123,7 @@ export class StationRegistry {
     station.driving = driving;
     this.watchIdle(station, driving);
     station.peer.note({ type: 'driven', by: user.name, since: iso(driving.since) });
+    peer.note({ type: 'ready', name });
     return {
       refused: false,
       toDevice: (bytes) => {

@@ -41,11 +41,24 @@ export interface StationRegistration {
   baud: number;
 }
 
-/** Text notes from the server to a station, for its log. */
+/**
+ * Text notes from the server: to a station, for its log; to a driver, `ready` once the station is
+ * its own (a driver waits for it, so a refusal arrives as a close reason, never as a dead link).
+ */
 export type StationNote =
+  | { type: 'ready'; name: string }
   | { type: 'registered'; name: string }
   | { type: 'driven'; by: string; since: string }
   | { type: 'released'; by: string; why: string };
+
+/** True for the text message a driver waits for before it sends a byte. */
+export function isReadyNote(text: string): boolean {
+  try {
+    return (JSON.parse(text) as { type?: unknown }).type === 'ready';
+  } catch {
+    return false;
+  }
+}
 
 /** One station as GET /api/stations lists it. */
 export interface StationListing extends StationRegistration {

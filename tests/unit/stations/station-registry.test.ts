@@ -58,6 +58,7 @@ describe('StationRegistry', () => {
     expect(sp.sent).toEqual([all]);
     expect(dp.sent).toEqual([all.slice().reverse()]);
     expect(sp.notes.at(-1)).toEqual({ type: 'driven', by: 'Bo Ferreira', since: '2026-12-02T09:00:05Z' });
+    expect(dp.notes).toEqual([{ type: 'ready', name: reg.name }]);
     expect(registry.list()[0].inUse).toEqual({ by: 'Bo Ferreira', since: '2026-12-02T09:00:05Z' });
 
     const second = registry.drive(reg.name, ada, peer());

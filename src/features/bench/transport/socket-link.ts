@@ -22,8 +22,12 @@ export class SocketLink extends ByteLinkBase {
 
   private requested = false;
 
-  /** Connect to `url` (a bridge token goes in its query string); reject with a plain reason. */
-  static open(url: string, timeoutMs = 5000): Promise<SocketLink> {
+  /**
+   * Connect to `url` (a bridge token goes in its query string); reject with a plain reason. With
+   * `ready`, the link opens only once a text message passes it (a station's relay says when the
+   * station is this browser's), so a refusal arrives as its close reason.
+   */
+  static open(url: string, timeoutMs = 5000, ready?: (text: string) => boolean): Promise<SocketLink> {
     return new Promise((resolve, reject) => {
       let socket: WebSocket;
       try {
@@ -36,10 +40,16 @@ export class SocketLink extends ByteLinkBase {
         socket.close();
         reject(new Error(`No answer from ${url} within ${timeoutMs / 1000} s`));
       }, timeoutMs);
-      socket.addEventListener('open', () => {
+      const opened = () => {
         clearTimeout(timer);
+        socket.removeEventListener('message', onMessage);
         resolve(new SocketLink(socket));
-      });
+      };
+      const onMessage = (e: MessageEvent) => {
+        if (typeof e.data === 'string' && ready?.(e.data)) opened();
+      };
+      if (ready) socket.addEventListener('message', onMessage);
+      else socket.addEventListener('open', opened);
       socket.addEventListener('close', (e) => {
         clearTimeout(timer);
         reject(new Error(`Could not connect to ${url}${e.reason ? `: ${e.reason}` : ''}`));
