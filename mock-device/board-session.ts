@@ -4,6 +4,7 @@ import { createSimCore, type CoreFault } from './faulty-core';
 import { LineFaults, noLineFaults, type LineFaultSettings } from './line-faults';
 import { LinePacer, realClock, type PacerClock } from './line-pacer';
 import { DEFAULT_LINE_LOW_MARK, SimulatedBoard } from './simulated-board';
+import type { Crc8Name } from '../shared/link/crc8';
 import type { ModelConfigInput } from '../shared/numeric';
 
 export interface BoardSettings {
@@ -15,6 +16,8 @@ export interface BoardSettings {
   name: string;
   baud: number;
   lineFaults: LineFaultSettings;
+  /** The frame check (default CRC-8/SMBUS, as the protocol's). */
+  crc?: Crc8Name;
 }
 
 export const defaultBoardSettings = (): BoardSettings => ({
@@ -63,6 +66,7 @@ export function openBoardSession(settings: BoardSettings, deliver: (bytes: Uint8
     buildId: settings.buildId,
     clockKHz: settings.clockKHz,
     name: settings.name,
+    crc: settings.crc,
     lineLowMark: lineLowMark(settings.baud),
     send: (bytes) => {
       pacer.write(bytes);

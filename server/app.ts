@@ -24,6 +24,8 @@ import { sessionsRouter } from './routes/sessions';
 import { tokensRouter } from './routes/tokens';
 import { usersRouter } from './routes/users';
 import { securityHeaders } from './security-headers';
+import { createSocketDispatcher } from './sockets/upgrade';
+import { registerSimBoards } from './sockets/sim-boards';
 
 export interface AppDeps {
   config: Config;
@@ -42,7 +44,10 @@ export interface AppDeps {
 
 const version = (JSON.parse(fs.readFileSync(path.join(projectRoot, 'package.json'), 'utf8')) as { version: string }).version;
 
-/** Build the Express app. It does not listen: tests drive it with supertest. */
+/**
+ * Build the Express app. It does not listen: tests drive it with supertest. `app.sockets` holds
+ * the WebSocket routes; whoever listens attaches it to the HTTP(S) server.
+ */
 export function createApp({
   config,
   db,
@@ -56,12 +61,15 @@ export function createApp({
   const deps: RouteDeps = { config, db, mailer, uploadDir, bcryptCost };
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
-  app.use(securityHeaders());
+  app.set('trust proxy', config.trustProxy);
+  app.set('public url', config.publicUrl);
+  app.use(securityHeaders(config));
   app.use(express.json({ limit: '1mb' }));
 
   app.use('/api/health', healthRouter(db, version));
-  const passport = installAuth(app, config);
+  const { passport, authenticateUpgrade } = installAuth(app, config);
+  const sockets = createSocketDispatcher({ authenticate: authenticateUpgrade, allowedOrigins: config.publicUrl ? [new URL(config.publicUrl).origin] : [] });
+  registerSimBoards(sockets, config);
   app.use('/api/auth', authRouter(passport, loginLimit));
   app.use('/api/tokens', tokensRouter(deps));
   app.use('/api/users', usersRouter(deps));
@@ -85,5 +93,5 @@ export function createApp({
   }
 
   app.use(errorHandler());
-  return app;
+  return Object.assign(app, { sockets });
 }
