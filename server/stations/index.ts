@@ -1,0 +1,28 @@
+// Stations on the app: the list route and the relay's sockets over one in-memory registry.
+import type { Express } from 'express';
+import type { EngineClock } from '../../shared/link-engine/link-engine';
+import type { SocketDispatcher } from '../sockets/upgrade';
+import { StationRegistry, type StationRegistryOptions } from './station-registry';
+import { registerStationSockets } from './station-sockets';
+import { stationsRouter } from './stations-router';
+
+/** Ten minutes without a byte either way frees a station for others (the listening bridge's default). */
+export const STATION_IDLE_MS = 10 * 60 * 1000;
+
+/** Real time, with timers that never keep the process alive on their own. */
+const serverClock: EngineClock = {
+  now: () => performance.now(),
+  after: (ms, fn) => {
+    const t = setTimeout(fn, ms);
+    t.unref();
+    return () => clearTimeout(t);
+  },
+};
+
+/** Mount GET /api/stations and register the station and driver sockets; returns the registry. */
+export function installStations(app: Express, sockets: SocketDispatcher, options: Partial<StationRegistryOptions> = {}) {
+  const registry = new StationRegistry({ clock: serverClock, idleTimeoutMs: STATION_IDLE_MS, ...options });
+  registerStationSockets(sockets, registry);
+  app.use('/api/stations', stationsRouter(registry));
+  return registry;
+}
