@@ -69,6 +69,7 @@ export interface StationListing extends StationRegistration {
   inUse: { by: string; since: string } | null;
 }
 
+// eslint-disable-next-line no-control-regex -- control characters are exactly what a name may not hold
 const NAME = /^[^\u0000-\u001f\u007f]{1,80}$/;
 
 /** Check a registration from a query string; throws with a one-line reason naming the field. */
