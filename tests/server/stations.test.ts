@@ -18,6 +18,7 @@ import { STATION_CONNECT_PATH, STATION_MAX_MESSAGE_BYTES, stationDrivePath } fro
 import { manualClock } from '../support/manual-clock';
 import { realEngineClock } from '../support/in-process-board';
 import { testApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
+import { mockSerialBoard } from '../unit/cli/run-support';
 
 type App = ReturnType<typeof createApp>;
 
@@ -248,6 +249,23 @@ describe('the CLI station through the relay', { timeout: 60_000 }, () => {
     expect(result.sin).toEqual(sin);
     await link.close();
     expect(lines.some((l) => l.includes('driven by Test admin'))).toBe(true);
+  });
+
+  it('carries a run from a serial port (serialport\'s mock binding) unchanged', async () => {
+    const serial = mockSerialBoard({ baud: 12_000_000 });
+    station = await startStation({ server: srv.http, token: tokens.engineer, device: serial.path, name: 'Serial bay', baud: 12_000_000, ca: null, insecure: false }, { serialBinding: serial.binding, log: () => undefined });
+    await until(() => station!.online);
+    const link = await openDevice('station:Serial bay', 12_000_000, { server: { url: srv.http, token: tokens.engineer } });
+    const engine = new LinkEngine({ link, clock: realEngineClock, baud: 12_000_000 });
+    await engine.hello();
+    const result = await engine.run({ kind: 'sweep', start: 0, step: 3, count: 4096 }).done;
+    expect(result.status).toBe('complete');
+    const cos = new Int32Array(4096);
+    const sin = new Int32Array(4096);
+    createCordicModel(defaultBoardSettings().core).evaluateInto(result.codes, cos, sin);
+    expect(result.cos).toEqual(cos);
+    expect(result.sin).toEqual(sin);
+    await link.close();
   });
 
   it('comes back online by itself within a few seconds when the server restarts', async () => {
