@@ -10,7 +10,7 @@ import { ChunkCoalescer } from '../shared/link-engine/chunk-coalescer';
 import { Backoff } from '../shared/stations/backoff';
 import { STATION_CONNECT_PATH, STATION_MAX_MESSAGE_BYTES, StationClose, parseRegistration, type StationNote } from '../shared/stations/wire';
 import { realClock } from './clock';
-import { openDevice, type DeviceDeps } from './device';
+import { isSocketDevice, openDevice, type DeviceDeps } from './device';
 import type { CliIo } from './io';
 import { upgradeRefusal } from './transport/ws-link';
 
@@ -91,7 +91,9 @@ export async function startStation(o: StationOptions, deps: StationDeps = {}): P
   let retry: NodeJS.Timeout | undefined;
   let endedWith: (reason: string | null) => void = () => {};
   const ended = new Promise<string | null>((r) => (endedWith = r));
-  // The port's small reads, merged into fewer messages (as the listening bridge does).
+  // A serial port's small reads, merged into fewer messages (as the listening bridge does). A
+  // WebSocket device already sends merged chunks: merging again would only add delay.
+  const coalesce = !isSocketDevice(o.device);
   let outgoing: ChunkCoalescer | null = null;
 
   const stop = async (reason: string | null, code = 1000) => {
@@ -131,7 +133,8 @@ export async function startStation(o: StationOptions, deps: StationDeps = {}): P
       });
     });
     socket.on('open', () => {
-      outgoing = new ChunkCoalescer({ clock: realClock, emit: (bytes) => socket.readyState === WebSocket.OPEN && socket.send(bytes, { binary: true }) });
+      const send = (bytes: Uint8Array) => socket.readyState === WebSocket.OPEN && socket.send(bytes, { binary: true });
+      outgoing = new ChunkCoalescer({ clock: realClock, emit: send, ...(coalesce ? {} : { flushBytes: 1 }) });
       socket.on('pong', () => (lastPong = Date.now()));
       heartbeat = setInterval(() => {
         if (Date.now() - lastPong > 2 * heartbeatMs) {

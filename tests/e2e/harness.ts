@@ -124,3 +124,24 @@ export function appAndBrowser(env: Record<string, string> = {}): { readonly app:
     },
   };
 }
+
+/** A personal API token of a demo account, made through the API as the Account page makes one. */
+export async function demoApiToken(app: RunningApp, who: DemoRole, name = 'test token'): Promise<string> {
+  const cookies = (res: Response) => res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  const csrf = await fetch(`${app.url}/api/auth/csrf`);
+  const { token: csrfToken } = (await csrf.json()) as { token: string };
+  const login = await fetch(`${app.url}/api/auth/login`, {
+    method: 'POST',
+    headers: { cookie: cookies(csrf), 'x-csrf-token': csrfToken, 'content-type': 'application/json' },
+    body: JSON.stringify({ email: `${who}@anglebench.test`, password: 'anglebench' }),
+  });
+  if (!login.ok) throw new Error(`sign-in as ${who} failed: ${login.status}`);
+  const { csrfToken: sessionCsrf } = (await login.json()) as { csrfToken: string };
+  const made = await fetch(`${app.url}/api/tokens`, {
+    method: 'POST',
+    headers: { cookie: cookies(login), 'x-csrf-token': sessionCsrf, 'content-type': 'application/json' },
+    body: JSON.stringify({ name }),
+  });
+  if (made.status !== 201) throw new Error(`making an API token failed: ${made.status}`);
+  return ((await made.json()) as { token: string }).token;
+}

@@ -8,30 +8,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { defaultBoardSettings } from '../../mock-device/board-session';
 import { startMockServer, type MockServer } from '../../mock-device/ws-server';
 import { projectRoot } from '../../server/paths';
-import { appAndBrowser, signInAs, type RunningApp } from './harness';
+import { appAndBrowser, demoApiToken, signInAs, type RunningApp } from './harness';
 
 const env = appAndBrowser();
-
-/** An API token of a demo account, made through the API as the Account page makes one. */
-async function apiToken(app: RunningApp, email: string): Promise<string> {
-  const csrf = await fetch(`${app.url}/api/auth/csrf`);
-  const jar0 = csrf.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
-  const { token: csrf0 } = (await csrf.json()) as { token: string };
-  const login = await fetch(`${app.url}/api/auth/login`, {
-    method: 'POST',
-    headers: { cookie: jar0, 'x-csrf-token': csrf0, 'content-type': 'application/json' },
-    body: JSON.stringify({ email, password: 'anglebench' }),
-  });
-  const jar = login.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
-  const { csrfToken } = (await login.json()) as { csrfToken: string };
-  const made = await fetch(`${app.url}/api/tokens`, {
-    method: 'POST',
-    headers: { cookie: jar, 'x-csrf-token': csrfToken, 'content-type': 'application/json' },
-    body: JSON.stringify({ name: 'bench station' }),
-  });
-  expect(made.status).toBe(201);
-  return ((await made.json()) as { token: string }).token;
-}
 
 /** `npm run cli -- bridge --server …` as its own process; resolves once it says it is online. */
 function stationProcess(app: RunningApp, token: string, device: string, name: string, baud: number) {
@@ -72,7 +51,7 @@ describe('stations in the browser', () => {
     fast = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
     // A slow line, so the run is still going when its station is killed.
     slow = await startMockServer({ ...defaultBoardSettings(), baud: 460_800 }, 0, '127.0.0.1', () => undefined);
-    const token = await apiToken(env.app, 'engineer@anglebench.test');
+    const token = await demoApiToken(env.app, 'engineer', 'bench station');
     bay = stationProcess(env.app, token, fast.url, BAY, 3_000_000);
     slowBay = stationProcess(env.app, token, slow.url, SLOW, 460_800);
     await Promise.all([bay.online, slowBay.online]);
