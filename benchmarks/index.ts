@@ -10,6 +10,7 @@ type Bench = () => Promise<BenchResult[]>;
 const BENCHES: Record<string, Bench> = {
   'decode-score': async () => (await import('./decode-score')).decodeScoreBench(),
   link: async () => (await import('./link')).linkBench(),
+  'hosted-board': async () => (await import('./hosted-board')).hostedBoardBench(),
   ingest: async () => (await import('./ingest')).ingestBench(),
   'list-compare': async () => (await import('./list-compare')).listCompareBench(),
   page: async () => (await import('./page')).pageBench(),

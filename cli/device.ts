@@ -27,7 +27,7 @@ export function openDevice(device: string, baud: number, deps: DeviceDeps = {}):
   const station = stationName(device);
   if (station !== null) {
     if (!deps.server) return Promise.reject(new Error(`--device ${device} needs --server and --token: a station is reached through the team server`));
-    return NodeSocketLink.open(stationDriveUrl(deps.server.url, station), { headers: { authorization: `Bearer ${deps.server.token}` }, maxPayload: STATION_MAX_MESSAGE_BYTES, ready: isReadyNote });
+    return NodeSocketLink.open(stationDriveUrl(deps.server.url, station), 5000, { headers: { authorization: `Bearer ${deps.server.token}` }, maxPayload: STATION_MAX_MESSAGE_BYTES, ready: isReadyNote });
   }
   if (isSocketDevice(device)) return NodeSocketLink.open(device);
   return PortSerialLink.open({ path: device, baud, binding: deps.serialBinding });

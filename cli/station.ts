@@ -175,8 +175,8 @@ export async function startStation(o: StationOptions, deps: StationDeps = {}): P
       if (stopping) return;
       const reason = reasonBuf.toString();
       // A refusal that will not change by trying again: stop and say why.
-      if (refusedAtUpgrade && /^refused with 40[13]/.test(refusedAtUpgrade)) {
-        void stop(`the server ${refusedAtUpgrade} (is the token right, and is it an engineer's?)`);
+      if (refusedAtUpgrade && /^40[013] /.test(refusedAtUpgrade)) {
+        void stop(`the server refused the station: ${refusedAtUpgrade}`);
         return;
       }
       if (code === StationClose.refused) {

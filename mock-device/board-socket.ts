@@ -18,8 +18,8 @@ export interface BoardSocketStats {
 }
 
 export interface BoardSocket {
-  /** performance.now() of the last byte from the host (for idle timeouts). */
-  readonly lastInputAt: number;
+  /** performance.now() of the last byte either way (for idle timeouts: a long sweep is not idle). */
+  readonly lastActivityAt: number;
   /** Resolves once the socket closed and the board stopped. */
   readonly ended: Promise<BoardSocketStats>;
 }
@@ -28,18 +28,19 @@ export function attachBoard(ws: WebSocket, settings: BoardSettings): BoardSocket
   const started = realClock.now();
   let bytesIn = 0;
   let bytesOut = 0;
-  const state = { lastInputAt: started };
+  const state = { lastActivityAt: started };
   // The pacer's 1 ms chunks, merged: a message per chunk costs a browser more than the bytes.
   const outgoing = new ChunkCoalescer({ clock: realClock, emit: (bytes) => ws.readyState === ws.OPEN && ws.send(bytes) });
   const session = openBoardSession(settings, (bytes) => {
     bytesOut += bytes.length;
+    state.lastActivityAt = realClock.now();
     outgoing.push(bytes);
   });
   ws.on('message', (data, isBinary) => {
     if (!isBinary) return; // text has no place on a byte line: ignored
     const buf = Array.isArray(data) ? Buffer.concat(data) : Buffer.from(data as ArrayBuffer);
     bytesIn += buf.length;
-    state.lastInputAt = realClock.now();
+    state.lastActivityAt = realClock.now();
     session.receive(new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength));
   });
   ws.on('error', () => undefined); // oversized or broken frames: 'close' follows
@@ -52,8 +53,8 @@ export function attachBoard(ws: WebSocket, settings: BoardSettings): BoardSocket
     }),
   );
   return {
-    get lastInputAt() {
-      return state.lastInputAt;
+    get lastActivityAt() {
+      return state.lastActivityAt;
     },
     ended,
   };

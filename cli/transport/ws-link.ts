@@ -2,28 +2,31 @@ import type { IncomingMessage } from 'node:http';
 import WebSocket, { type ClientOptions } from 'ws';
 import { ByteLinkBase, LinkClosedError } from '../../shared/link-engine/byte-link';
 
-/** How to reach a WebSocket device: a handshake timeout, and headers and TLS settings for wss. */
+/** How to reach a WebSocket device: headers and TLS settings for wss, and what to wait for. */
 export interface SocketOpenOptions extends Pick<ClientOptions, 'headers' | 'ca' | 'rejectUnauthorized' | 'maxPayload'> {
-  timeoutMs?: number;
   /** Open only once a text message passes this test (a station's relay says when it is ready). */
   ready?: (text: string) => boolean;
 }
 
-/** A refusal at the upgrade, in one line: its status and the server's own message when it sent one. */
+/**
+ * A refused upgrade (401, 403, 404…) in one line: its status, and the reason its JSON body gives,
+ * e.g. "401 Unauthorized: Unknown or revoked API token".
+ */
 export function upgradeRefusal(res: IncomingMessage): Promise<string> {
+  const status = `${res.statusCode} ${res.statusMessage ?? ''}`.trim();
   return new Promise((resolve) => {
     let body = '';
     res.setEncoding('utf8');
     res.on('data', (d: string) => (body = (body + d).slice(0, 2000)));
-    res.on('error', () => resolve(`refused with ${res.statusCode}`));
+    res.on('error', () => resolve(status));
     res.on('end', () => {
       let message = '';
       try {
         message = (JSON.parse(body) as { error?: { message?: string } }).error?.message ?? '';
       } catch {
-        message = body.trim().split('\n')[0].slice(0, 200);
+        // not the server's JSON: the status alone
       }
-      resolve(`refused with ${res.statusCode}${message ? `: ${message}` : ''}`);
+      resolve(`${status}${message ? `: ${message}` : ''}`);
     });
   });
 }
@@ -46,17 +49,21 @@ export class NodeSocketLink extends ByteLinkBase {
     ws.on('error', () => undefined); // 'close' follows with the reason
   }
 
-  /** Connect; reject with a one-line reason (refused, busy, timed out). */
-  static open(url: string, { timeoutMs = 5000, ready, ...options }: SocketOpenOptions = {}): Promise<NodeSocketLink> {
+  /**
+   * Connect; reject with a one-line reason (refused, busy, timed out). `options` carries what a
+   * server-hosted board or a station needs: an Authorization header, a lab's own certificate
+   * authority, and for a station the relay's ready note to wait for.
+   */
+  static open(url: string, timeoutMs = 5000, { ready, ...options }: SocketOpenOptions = {}): Promise<NodeSocketLink> {
     return new Promise((resolve, reject) => {
-      const ws = new WebSocket(url, { handshakeTimeout: timeoutMs, ...options });
+      const ws = new WebSocket(url, { ...options, handshakeTimeout: timeoutMs });
       const fail = (why: string) => reject(new Error(`Cannot connect to ${url}: ${why}`));
       ws.once('error', (err) => fail(err.message || 'connection failed'));
-      ws.once('unexpected-response', (_req, res) => {
+      ws.once('unexpected-response', (req, res) => {
         // Read the refusal before ending the socket, so its reason wins over ws's own error.
         void upgradeRefusal(res).then((why) => {
           fail(why);
-          ws.terminate();
+          req.destroy();
         });
       });
       if (ready) {

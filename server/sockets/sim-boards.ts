@@ -1,6 +1,6 @@
 // Simulated boards hosted by the app server: `/api/sim-board` gives every connection a board of
 // its own, in-process, paced to its baud rate as `npm run mock` paces. At most SIM_BOARDS_MAX at
-// once; boards whose host has sent nothing for a while are freed for others.
+// once; boards with no traffic either way for a while are freed for others.
 import type { IncomingMessage } from 'node:http';
 import type { WebSocket } from 'ws';
 import type { BoardSettings } from '../../mock-device/board-session';
@@ -15,11 +15,11 @@ export const SIM_BOARD_PATH = '/api/sim-board';
 export const TRY_AGAIN_LATER = 1013;
 const NORMAL = 1000;
 
-/** Ten minutes without a byte from the host frees the board (common practice, no source). */
+/** Ten minutes without a byte either way frees the board (common practice, no source). */
 const DEFAULT_IDLE_MS = 10 * 60 * 1000;
 
 export interface SimBoardOptions {
-  /** Free a board after this long without host input. */
+  /** Free a board after this long without traffic. */
   idleMs?: number;
   /** Called with the number of boards open whenever it changes (tests, logs). */
   onCount?: (open: number) => void;
@@ -27,6 +27,10 @@ export interface SimBoardOptions {
 
 /** The refusal when every board is taken; the Bench page shows it as the link's message. */
 export const boardsBusyReason = (max: number) => `All ${max} simulated boards on this server are in use (${max} of ${max}); try again when one is free`;
+
+/** Why an idle board was closed. */
+export const idleReason = (idleMs: number) =>
+  `No traffic for ${idleMs >= 60_000 ? `${Math.round(idleMs / 60_000)} min` : `${Math.round(idleMs / 1000)} s`}: the simulated board was freed for others`;
 
 export function registerSimBoards(sockets: SocketDispatcher, config: Pick<Config, 'simBoardsMax'>, options: SimBoardOptions = {}) {
   const idleMs = options.idleMs ?? DEFAULT_IDLE_MS;
@@ -36,7 +40,7 @@ export function registerSimBoards(sockets: SocketDispatcher, config: Pick<Config
 
   const sweep = () => {
     const now = performance.now();
-    for (const b of open) if (now - b.lastInputAt >= idleMs) b.ws.close(NORMAL, `Idle for ${Math.round(idleMs / 60_000) || '<1'} min: the simulated board was freed`);
+    for (const b of open) if (now - b.lastActivityAt >= idleMs) b.ws.close(NORMAL, idleReason(idleMs));
   };
   const counted = () => {
     options.onCount?.(open.size);

@@ -40,6 +40,8 @@ export interface SocketDispatcher {
    * (e.g. `/api/stations/`). One registration per path.
    */
   register(path: string, route: SocketRoute): void;
+  /** Sockets open on the route registered as `path` (0 for an unknown path). */
+  openSockets(path: string): number;
   /** Handle the upgrades of this HTTP(S) server. */
   attach(server: Server): void;
   /** Close every open socket and free each route's resources. */
@@ -104,6 +106,9 @@ export function createSocketDispatcher({ authenticate, allowedOrigins = [], log 
       if (!path.startsWith('/')) throw new Error(`socket route must start with "/": ${path}`);
       if (routes.some((r) => r.path === path)) throw new Error(`socket route ${path} registered twice`);
       routes.push({ path, route, wss: new WebSocketServer({ noServer: true, maxPayload: route.maxPayload }) });
+    },
+    openSockets(path) {
+      return routes.find((r) => r.path === path)?.wss.clients.size ?? 0;
     },
     attach(server) {
       server.on('upgrade', (req: IncomingMessage, socket: Duplex, head: Buffer) => void onUpgrade(req, socket, head));

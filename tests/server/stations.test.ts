@@ -292,6 +292,6 @@ describe('the CLI station through the relay', { timeout: 60_000 }, () => {
   it('stops with the reason when the server refuses its token', async () => {
     board = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
     station = await startStation({ server: srv.http, token: 'ab_wrong', device: board.url, name: 'Bay 6', baud: 3_000_000, ca: null, insecure: false }, { log: () => undefined });
-    expect(await station.ended).toMatch(/^the server refused with 401: Unknown or revoked API token/);
+    expect(await station.ended).toBe('the server refused the station: 401 Unauthorized: Unknown or revoked API token');
   });
 });
