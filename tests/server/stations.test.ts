@@ -1,6 +1,10 @@
 // The station relay over real sockets: the app listening on a free port, stations and drivers as
 // WebSocket clients (raw ones where the test plays the station, the CLI's own where it runs one).
 import { createServer, type Server } from 'node:http';
+import { createServer as createHttpsServer } from 'node:https';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import WebSocket from 'ws';
@@ -19,12 +23,13 @@ import { manualClock } from '../support/manual-clock';
 import { realEngineClock } from '../support/in-process-board';
 import { testApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
 import { mockSerialBoard } from '../unit/cli/run-support';
+import { makeLabCertificate } from '../../scripts/lab-certificate';
 
 type App = ReturnType<typeof createApp>;
 
-/** The app on a free port with its socket routes attached, as startServer does. */
-async function listen(app: App, port = 0) {
-  const server: Server = createServer(app);
+/** The app on a free port with its socket routes attached, as startServer does (HTTPS with `tls`). */
+async function listen(app: App, port = 0, tls?: { cert: string; key: string }) {
+  const server: Server = tls ? createHttpsServer(tls, app) : createServer(app);
   app.sockets.attach(server);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
@@ -33,8 +38,8 @@ async function listen(app: App, port = 0) {
   const { port: p } = server.address() as AddressInfo;
   return {
     port: p,
-    http: `http://127.0.0.1:${p}`,
-    ws: `ws://127.0.0.1:${p}`,
+    http: `${tls ? 'https' : 'http'}://127.0.0.1:${p}`,
+    ws: `${tls ? 'wss' : 'ws'}://127.0.0.1:${p}`,
     close: async () => {
       const closed = new Promise<void>((r) => server.close(() => r()));
       await app.sockets.close();
@@ -293,5 +298,45 @@ describe('the CLI station through the relay', { timeout: 60_000 }, () => {
     board = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
     station = await startStation({ server: srv.http, token: 'ab_wrong', device: board.url, name: 'Bay 6', baud: 3_000_000, ca: null, insecure: false }, { log: () => undefined });
     expect(await station.ended).toBe('the server refused the station: 401 Unauthorized: Unknown or revoked API token');
+  });
+});
+
+describe('a station of a server with a self-signed certificate', { timeout: 60_000 }, () => {
+  let dir = '';
+  let board: MockServer | null = null;
+  const stations: Station[] = [];
+  afterEach(async () => {
+    for (const s of stations.splice(0)) await s.close();
+    await board?.close();
+    board = null;
+    rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('trusts it with --ca, is refused it without, and skips the check with --insecure', async () => {
+    dir = mkdtempSync(path.join(tmpdir(), 'station-tls-'));
+    const made = makeLabCertificate({ hosts: ['127.0.0.1', 'localhost'], outDir: dir });
+    // The plain listener of beforeEach makes way for an HTTPS one on the same app's database.
+    await srv.close();
+    const app = createApp({ config: t.config, db: t.db, mailer: t.mailer, uploadDir: t.uploadDir, bcryptCost: 4 });
+    srv = await listen(app, 0, { cert: readFileSync(made.certFile, 'utf8'), key: readFileSync(made.keyFile, 'utf8') });
+    board = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
+    const base = { server: srv.http, token: tokens.engineer, device: board.url, baud: 3_000_000, insecure: false };
+
+    const unchecked: string[] = [];
+    stations.push(await startStation({ ...base, name: 'No CA', ca: null }, { log: (l) => unchecked.push(l) }));
+    await until(() => unchecked.some((l) => /self-signed certificate/.test(l)));
+    expect(stations[0].online).toBe(false);
+    await stations[0].close(); // frees the simulated board's one connection
+    stations.length = 0;
+
+    const trusted = await startStation({ ...base, name: 'With CA', ca: made.certFile }, { log: () => undefined });
+    stations.push(trusted);
+    await until(() => trusted.online);
+    await trusted.close();
+    stations.length = 0;
+
+    const insecure = await startStation({ ...base, name: 'Insecure', ca: null, insecure: true }, { log: () => undefined });
+    stations.push(insecure);
+    await until(() => insecure.online); // online means the server said "registered" over wss
   });
 });
