@@ -133,7 +133,13 @@ export async function startStation(o: StationOptions, deps: StationDeps = {}): P
       });
     });
     socket.on('open', () => {
-      const send = (bytes: Uint8Array) => socket.readyState === WebSocket.OPEN && socket.send(bytes, { binary: true });
+      // Never a message over the relay's limit (the server would close with 1009): a serial read
+      // can be as large as the limit by itself.
+      const send = (bytes: Uint8Array) => {
+        for (let at = 0; at < bytes.length && socket.readyState === WebSocket.OPEN; at += STATION_MAX_MESSAGE_BYTES) {
+          socket.send(bytes.subarray(at, at + STATION_MAX_MESSAGE_BYTES), { binary: true });
+        }
+      };
       outgoing = new ChunkCoalescer({ clock: realClock, emit: send, ...(coalesce ? {} : { flushBytes: 1 }) });
       socket.on('pong', () => (lastPong = Date.now()));
       heartbeat = setInterval(() => {

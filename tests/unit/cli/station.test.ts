@@ -9,6 +9,7 @@ import { parseStationArgs, startStation, type Station } from '../../../cli/stati
 import { parseRunArgs } from '../../../cli/run-options';
 import { openDevice, stationDriveUrl } from '../../../cli/device';
 import { Backoff } from '../../../shared/stations/backoff';
+import { STATION_MAX_MESSAGE_BYTES } from '../../../shared/stations/wire';
 import { cli } from './run-support';
 
 const MockBinding = SerialPortMock.binding;
@@ -116,6 +117,25 @@ describe('bridge --server: the station', { timeout: 20_000 }, () => {
     await until(() => Buffer.concat(c.received).length >= all.length);
     expect(new Uint8Array(Buffer.concat(c.received))).toEqual(all);
     expect(opened.port!.recording.length).toBe(all.length);
+  });
+
+  it('never sends a message over the relay\'s size limit, however much the device hands it at once', async () => {
+    server = await standIn();
+    // The device: a stand-in board on a WebSocket that answers with one large message.
+    const board = new WebSocketServer({ port: 0, host: '127.0.0.1' });
+    await new Promise<void>((r) => board.once('listening', () => r()));
+    const boardSockets: WebSocket[] = [];
+    board.on('connection', (ws) => boardSockets.push(ws));
+    station = await startStation({ server: server.url, token: 'ab_secret', device: `ws://127.0.0.1:${(board.address() as AddressInfo).port}/`, name: 'Bay 6', baud: 12_000_000, ca: null, insecure: false }, { log: () => undefined });
+    await until(() => station!.online && boardSockets.length === 1);
+    const big = Uint8Array.from({ length: 3 * STATION_MAX_MESSAGE_BYTES + 117 }, (_, i) => (i * 31) & 0xff);
+    boardSockets[0].send(big);
+    const c = server.connections[0];
+    await until(() => Buffer.concat(c.received).length >= big.length);
+    expect(new Uint8Array(Buffer.concat(c.received))).toEqual(big);
+    expect(c.received.map((m) => m.length)).toEqual([STATION_MAX_MESSAGE_BYTES, STATION_MAX_MESSAGE_BYTES, STATION_MAX_MESSAGE_BYTES, 117]);
+    await station.close();
+    await new Promise<void>((r) => board.close(() => r()));
   });
 
   it('dials again with backoff when the server drops it, and when the server stops answering pings', async () => {
