@@ -1,6 +1,6 @@
 // link: exhaustive 16-bit sweeps against the simulated board (its own process) over a real
 // WebSocket, driven the way `anglebench run` drives them: NodeSocketLink + LinkEngine. The bound
-// is PROTOCOL.md's "Link budget": the reply bytes the run put on the wire ÷ (baud / 10).
+// is docs/protocol.md "7. Throughput": the reply bytes the run put on the wire ÷ (baud / 10).
 import type { ClientOptions } from 'ws';
 import { NodeSocketLink } from '../cli/transport/ws-link';
 import { LinkEngine, type EngineClock } from '../shared/link-engine/link-engine';

@@ -11,7 +11,10 @@ import { PortSerialLink } from './transport/port-serial-link';
 import { ChunkCoalescer } from '../shared/link-engine/chunk-coalescer';
 import { realClock } from './clock';
 
-const HELP = `usage: npm run --silent cli -- bridge --device <serial path> --ws-port N --token T [options]
+const USAGE = 'usage: anglebench bridge --device <serial path> --ws-port N --token T [options]';
+
+const HELP = `${USAGE}
+       (from a checkout: npm run --silent cli -- bridge …)
 
   --device PATH        the serial port of the board (/dev/ttyUSB0, COM3)
   --baud N             line rate, 9600..12000000 (default 3000000)
@@ -212,7 +215,7 @@ export async function runBridgeCommand(argv: string[], io: CliIo, deps: BridgeDe
   try {
     o = parseBridgeArgs(argv);
   } catch (e) {
-    io.stderr(`error: ${(e as Error).message}\n`);
+    io.stderr(`error: ${(e as Error).message}\n${USAGE}\n`);
     return 2;
   }
   if (o === 'help') {

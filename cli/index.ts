@@ -1,11 +1,12 @@
 // The runner's entry: one sub-command per module, so `run` and `bridge` sit beside `model`.
-// Exit status: 0 pass, 1 fail, 2 error (bad input, bad configuration).
+// Exit status: 0 pass, 1 fail, 2 error (bad input, bad configuration), 130 a run stopped by Ctrl-C.
 import { runModelCommand } from './model';
 import { runRunCommand } from './run';
 import { runBridgeCommand } from './bridge';
 import { runStationCommand } from './station';
 import type { CliIo } from './io';
 import { nodeIo } from './io';
+import { packageVersion } from './version';
 
 type Command = (argv: string[], io: CliIo) => Promise<number>;
 
@@ -21,18 +22,36 @@ const COMMANDS: Record<string, { run: Command; summary: string }> = {
 
 function usage(): string {
   const lines = Object.entries(COMMANDS).map(([name, c]) => `  ${name.padEnd(8)} ${c.summary}`);
-  return ['usage: npm run --silent cli -- <command> [options]', '', 'commands:', ...lines, ''].join('\n');
+  return [
+    'usage: anglebench <command> [options]   (from a checkout: npm run --silent cli -- <command> [options])',
+    '       anglebench --version | --help',
+    '',
+    'commands:',
+    ...lines,
+    '',
+    '<command> --help describes its options.',
+    '',
+  ].join('\n');
 }
 
 async function main(argv: string[]): Promise<number> {
   const [name, ...rest] = argv;
-  if (name === undefined || name === '--help' || name === '-h') {
+  if (name === '--help' || name === '-h') {
     nodeIo.stdout(usage());
-    return name === undefined ? 2 : 0;
+    return 0;
+  }
+  if (name === '--version') {
+    nodeIo.stdout(`${packageVersion()}\n`);
+    return 0;
+  }
+  // Wrong arguments: the usage goes to stderr, so stdout stays empty for a pipe.
+  if (name === undefined) {
+    nodeIo.stderr(usage());
+    return 2;
   }
   const command = COMMANDS[name];
   if (!command) {
-    nodeIo.stderr(`error: unknown command "${name}" (known: ${Object.keys(COMMANDS).join(', ')})\n`);
+    nodeIo.stderr(`error: unknown command "${name}" (known: ${Object.keys(COMMANDS).join(', ')})\n${usage()}`);
     return 2;
   }
   return command.run(rest, nodeIo);

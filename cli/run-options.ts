@@ -5,7 +5,10 @@ import { isCrc8Name, type Crc8Name } from '../shared/link';
 import { parseModelConfig, type ModelConfigInput } from '../shared/numeric';
 import { parseLimits, type Limits } from './run-verdict';
 
-export const RUN_HELP = `usage: npm run --silent cli -- run --device <serial path | ws://host:port/> --plan <plan> --core <slug> [options]
+export const RUN_USAGE = 'usage: anglebench run --device <serial path | ws://host:port/> --plan <plan> --core <slug> [options]';
+
+export const RUN_HELP = `${RUN_USAGE}
+       (from a checkout: npm run --silent cli -- run …)
 
   --device D       a serial port (/dev/ttyUSB0, COM3), a WebSocket device (ws://127.0.0.1:5175/)
                    or a station on the server (station:NAME; needs --server and --token)
@@ -21,8 +24,14 @@ export const RUN_HELP = `usage: npm run --silent cli -- run --device <serial pat
   --config JSON    reference-model configuration (default: the server's core, else from INFO)
   --out FILE       write the capture archive (both directions) to FILE
   --json           print a machine-readable summary on stdout (progress stays on stderr)
+  --junit FILE     write the verdict as JUnit XML to FILE: a test case per limit, the session's address
+  --explain        after the run, name the configuration or RTL defect that reproduces the answers
+                   (printed, and the summary's "explanation" key)
 
-Exit status: 0 every limit passes, 1 a limit fails, 2 an error (one line on stderr).
+Ctrl-C stops the run cleanly: what was captured is scored and written to --out, nothing is
+uploaded; a second Ctrl-C quits at once.
+Exit status: 0 every limit passes, 1 a limit fails, 2 an error (one line on stderr),
+130 interrupted by Ctrl-C.
 `;
 
 /** A bad command line: one line for the user, exit status 2. */
@@ -54,7 +63,9 @@ export interface RunOptions {
   limits: Limits | null;
   config: ModelConfigInput | null;
   out: string | null;
+  junit: string | null;
   json: boolean;
+  explain: boolean;
   help: boolean;
   crc: Crc8Name | null;
 }
@@ -134,7 +145,9 @@ export function parseRunArgs(argv: string[]): RunOptions {
         config: { type: 'string' },
         crc: { type: 'string' },
         out: { type: 'string' },
+        junit: { type: 'string' },
         json: { type: 'boolean' },
+        explain: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
     }));
@@ -143,6 +156,7 @@ export function parseRunArgs(argv: string[]): RunOptions {
   }
   const str = (k: string) => (typeof values[k] === 'string' ? (values[k] as string) : undefined);
   if (values.help) return { help: true } as RunOptions;
+  for (const [k, v] of Object.entries(values)) if (v === '') throw new UsageError(`--${k} must not be empty`);
   for (const k of ['device', 'plan', 'core']) if (str(k) === undefined) throw new UsageError(`--${k} is required (see run --help)`);
   let baud: number | null = null;
   if (str('baud') !== undefined) {
@@ -178,7 +192,9 @@ export function parseRunArgs(argv: string[]): RunOptions {
     limits: str('limits') !== undefined ? parseLimits(json(str('limits')!, 'limits'), '--limits') : null,
     config,
     out: str('out') ?? null,
+    junit: str('junit') ?? null,
     json: values.json === true,
+    explain: values.explain === true,
     help: false,
     crc: (crc as Crc8Name | undefined) ?? null,
   };

@@ -1,6 +1,8 @@
 // What `run` prints: a table for people, or one JSON summary for machines.
 import type { LinkFigures } from '../shared/link-engine/link-figures';
 import type { DeviceInfo } from '../shared/link';
+import type { Explanation } from '../shared/explain';
+import { explanationText } from './run-explain';
 import type { ModelConfig, Plan } from '../shared/numeric';
 import type { RunScore } from './run-score';
 import type { LimitCheck, Verdict } from './run-verdict';
@@ -23,6 +25,8 @@ export interface RunReport {
   figures: LinkFigures;
   verdict: Verdict;
   archive: string | null;
+  /** With --explain: what reproduces the answers. */
+  explanation?: Explanation;
 }
 
 /** The machine-readable summary: everything but the histogram bins and the kept mismatches' bulk. */
@@ -54,6 +58,7 @@ export function jsonSummary(r: RunReport, upload: { sessionId: number | null } |
     link: r.figures,
     verdict: { passed: r.verdict.passed, limitsFrom: r.limitsFrom, checks: r.verdict.checks },
     archive: r.archive,
+    ...(r.explanation ? { explanation: r.explanation } : {}),
     upload,
   };
 }
@@ -98,5 +103,5 @@ export function humanReport(r: RunReport): string {
     out.push(`verdict: ${r.verdict.passed ? 'PASS' : 'FAIL'}`);
   }
   if (r.archive) out.push(`archive written to ${r.archive}`);
-  return out.join('\n') + '\n';
+  return out.join('\n') + '\n' + (r.explanation ? explanationText(r.explanation) : '');
 }

@@ -10,14 +10,17 @@ import { parseModelConfig, type ModelConfig } from '../shared/numeric';
 import { openDevice, type DeviceDeps } from './device';
 import type { CliIo } from './io';
 import { progressSink } from './progress';
-import { parseRunArgs, RUN_HELP, UsageError, type RunOptions } from './run-options';
+import { parseRunArgs, RUN_HELP, RUN_USAGE, UsageError, type RunOptions } from './run-options';
 import { planToRequest, resolvePlan } from './run-plan';
 import { labelBytes, MAX_LABEL_BYTES, RunRecording, type RunLabel } from './run-record';
 import { humanReport, jsonSummary, type RunReport } from './run-report';
 import { scoreRun } from './run-score';
 import { fetchCore, packSamples, ServerError, uploadSession, type Fetch, type ServerCore } from './run-server';
 import { judge, type Limits } from './run-verdict';
+import { explainRun } from './run-explain';
 import { realClock } from './clock';
+import { INTERRUPTED_STATUS, withSigint, type Interrupt } from './interrupt';
+import { junitXml } from './junit';
 
 /** What `run` touches besides the CLI streams, so tests can swap it. */
 export interface RunDeps extends DeviceDeps {
@@ -25,6 +28,8 @@ export interface RunDeps extends DeviceDeps {
   writeFile?: (path: string, bytes: Uint8Array) => void;
   /** Whether stderr is a terminal (a redrawn bar) or a log (a line a second). */
   stderrIsTty?: boolean;
+  /** Ctrl-C; default the process's SIGINT for the length of the run. */
+  interrupt?: Interrupt;
 }
 
 /** Something went wrong that is not the core's fault: exit status 2 with this one line. */
@@ -91,9 +96,12 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
     const progress = progressSink(io.stderr, deps.stderrIsTty ?? false, () => clock.now());
     const startedAt = new Date();
     let result: RunResult;
+    const handle = engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) });
+    const stopOnInterrupt = deps.interrupt?.onRequest(() => void handle.abort()) ?? (() => undefined);
     try {
-      result = await engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) }).done;
+      result = await handle.done;
     } finally {
+      stopOnInterrupt();
       progress.end(null);
     }
     const endedAt = new Date();
@@ -111,8 +119,23 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
     const report: RunReport = {
       core: o.core, build: o.build, board: o.board, device: o.device, baud, info, plan, planText: o.planText, model, modelFrom: from,
       limitsFrom, status: result.status, elapsedMs: result.elapsedMs, score, figures: result.figures, verdict, archive: o.out,
+      explanation: o.explain ? explainRun(model, result) : undefined,
     };
     for (const w of warnings.slice(0, 5)) io.stderr(`warning: ${w}\n`);
+    const writeJunit = (sessionUrl: string | null) => {
+      if (!o.junit) return;
+      try {
+        (deps.writeFile ?? writeFileSync)(o.junit, new TextEncoder().encode(junitXml(report, sessionUrl)));
+      } catch (e) {
+        throw new RunError(`cannot write the JUnit report to ${o.junit}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
+      }
+    };
+    if (deps.interrupt?.requested) {
+      // What was captured is on record (--out); a partial session is not uploaded.
+      io.stdout(o.json ? JSON.stringify(jsonSummary(report, null), null, 2) + '\n' : humanReport(report));
+      io.stderr(`interrupted: ${score.answered} of ${score.total} codes answered${o.out ? `, the capture written to ${o.out}` : ''}; nothing uploaded\n`);
+      return INTERRUPTED_STATUS;
+    }
     let sessionId: number | null = null;
     if (o.server && core) {
       // Print the verdict first: a refused upload must not hide what the board did.
@@ -130,12 +153,14 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
         });
       } catch (e) {
         if (o.json) io.stdout(JSON.stringify({ ...summary, upload: { error: (e as Error).message } }, null, 2) + '\n');
+        writeJunit(null); // the verdict stands without the session's address
         throw e;
       }
       if (o.json) io.stdout(JSON.stringify(jsonSummary(report, { sessionId }), null, 2) + '\n');
       else io.stdout(`session uploaded${sessionId !== null ? `: ${o.server.url}/sessions/${sessionId}` : ''}\n`);
     } else if (o.json) io.stdout(JSON.stringify(jsonSummary(report, null), null, 2) + '\n');
     else io.stdout(humanReport(report));
+    writeJunit(o.server && sessionId !== null ? `${o.server.url}/sessions/${sessionId}` : null);
     return verdict.passed ? 0 : 1;
   } finally {
     await link.close().catch(() => undefined);
@@ -150,9 +175,14 @@ export async function runRunCommand(argv: string[], io: CliIo, deps: RunDeps = {
       io.stdout(RUN_HELP);
       return 0;
     }
-    return await execute(o, io, deps);
+    if (deps.interrupt) return await execute(o, io, deps);
+    return await withSigint(io, (interrupt) => execute(o, io, { ...deps, interrupt }));
   } catch (e) {
-    if (e instanceof UsageError || e instanceof RunError || e instanceof ServerError) {
+    if (e instanceof UsageError) {
+      io.stderr(`error: ${oneLine(e.message)}\n${RUN_USAGE}\n`);
+      return 2;
+    }
+    if (e instanceof RunError || e instanceof ServerError) {
       io.stderr(`error: ${oneLine(e.message)}\n`);
       return 2;
     }

@@ -14,7 +14,10 @@ import { isSocketDevice, openDevice, type DeviceDeps } from './device';
 import type { CliIo } from './io';
 import { upgradeRefusal } from './transport/ws-link';
 
-export const STATION_HELP = `usage: npm run --silent cli -- bridge --server URL --token T --device D --name NAME [options]
+const STATION_USAGE = 'usage: anglebench bridge --server URL --token T --device D --name NAME [options]';
+
+export const STATION_HELP = `${STATION_USAGE}
+       (from a checkout: npm run --silent cli -- bridge --server …)
 
 Offers a board to the team server as a station: the bridge connects out to the server (no port
 opens on this machine), and engineers drive the board from the Bench page or with
@@ -248,7 +251,7 @@ export async function runStationCommand(argv: string[], io: CliIo, deps: Station
   try {
     o = parseStationArgs(argv);
   } catch (e) {
-    io.stderr(`error: ${(e as Error).message}\n`);
+    io.stderr(`error: ${(e as Error).message}\n${STATION_USAGE}\n`);
     return 2;
   }
   if (o === 'help') {

@@ -20,6 +20,7 @@ import type { RouteDeps } from './routes/deps';
 import { goldenVectorsRouter } from './routes/golden-vectors';
 import { healthRouter } from './routes/health';
 import { invitationsRouter } from './routes/invitations';
+import { sessionExplanationRouter } from './routes/session-explanation';
 import { sessionsRouter } from './routes/sessions';
 import { tokensRouter } from './routes/tokens';
 import { usersRouter } from './routes/users';
@@ -85,6 +86,7 @@ export function createApp({
   app.use('/api/builds', buildsRouter(deps));
   app.use('/api/boards', boardsRouter(deps));
   app.use('/api/sessions/:sessionId/comments', sessionCommentsRouter(deps));
+  app.use('/api/sessions/:sessionId/explanation', sessionExplanationRouter(deps));
   app.use('/api/sessions', sessionsRouter(deps));
   app.use('/api/comments', commentsRouter(deps));
   app.use('/api/compare', compareRouter(deps));

@@ -2,8 +2,8 @@
 import type { Request } from 'express';
 import { z } from 'zod';
 
-export const id = z.coerce.number().int().positive();
-export const idParams = z.strictObject({ id });
+// The id schemas are the API contract's.
+export { id, idParams } from '../../shared/contract/common';
 
 export const pageQuery = z.strictObject({
   limit: z.coerce.number().int().min(1).max(500).default(100),

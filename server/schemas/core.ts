@@ -9,7 +9,7 @@ const int = (min: number, max: number) => z.number().int().min(min).max(max);
 // committed numeric code.
 export { modelConfigSchema, type ModelConfig as CoreModelConfig } from '../../shared/numeric/model-config';
 
-/** How the bench talks to the core: the UART rate and the frame check (PROTOCOL.md). */
+/** How the bench talks to the core: the UART rate and the frame check (docs/protocol.md). */
 export const linkProfileSchema = z.strictObject({
   baud: int(9_600, 12_000_000).default(3_000_000),
   crc: z.enum(['CRC-8/SMBUS', 'CRC-8/MAXIM-DOW', 'CRC-8/DVB-S2', 'CRC-8/AUTOSAR']).default('CRC-8/SMBUS'),

@@ -70,7 +70,7 @@ describe('bridge --server: the command line', () => {
   it('is what `bridge` runs when --server is given; without it the listening bridge answers', { timeout: 30_000 }, async () => {
     const station = await cli(['bridge', '--server', 'http://127.0.0.1:9', '--help']);
     expect(station.status).toBe(0);
-    expect(station.stdout).toMatch(/^usage: .* bridge --server URL --token T --device D --name NAME/);
+    expect(station.stdout).toMatch(/^usage: anglebench bridge --server URL --token T --device D --name NAME/);
     const listening = await cli(['bridge', '--help']);
     expect(listening.stdout).toMatch(/--ws-port N/);
     expect(listening.stdout).toMatch(/With --server URL the bridge dials the team server as a station/);

@@ -31,7 +31,7 @@ describe('the simulated board over a real WebSocket', () => {
     createCordicModel({}).evaluateInto(result.codes, cos, sin);
     expect(Buffer.from(result.cos.buffer).equals(Buffer.from(cos.buffer))).toBe(true);
     expect(Buffer.from(result.sin.buffer).equals(Buffer.from(sin.buffer))).toBe(true);
-    // PROTOCOL.md link budget: 65,536 results need at least 0.906 s on the wire at 3,000,000 baud.
+    // docs/protocol.md "7. Throughput": 65,536 results need at least 0.906 s on the wire at 3,000,000 baud.
     expect(elapsedS).toBeGreaterThan(0.9);
     expect(result.figures.lineShare).toBeLessThanOrEqual(1);
     await link.close();
@@ -71,7 +71,7 @@ describe('the simulated board command line', () => {
   it('reads every option and names a bad one', () => {
     const { port, settings } = parseBoardArgs(['--ws-port', '6000', '--baud', '921600', '--queue-depth', '64', '--core-fault', 'sign:5', '--line-faults', 'ber=1e-5,seed=3', '--core', '{"outBits":18,"outFrac":16}']);
     expect(port).toBe(6000);
-    expect(settings).toMatchObject({ baud: 921_600, queueDepth: 64, coreFault: { kind: 'sign', iteration: 5 }, lineFaults: { ber: 1e-5, seed: 3 } });
+    expect(settings).toMatchObject({ baud: 921_600, queueDepth: 64, coreFault: { config: {}, fault: { kind: 'sign-slip', iteration: 5 } }, lineFaults: { ber: 1e-5, seed: 3 } });
     expect(settings.core).toMatchObject({ outBits: 18, outFrac: 16 });
     expect(() => parseBoardArgs(['--baud', 'fast'])).toThrow(/--baud/);
     expect(() => parseBoardArgs(['--core-fault', 'melt'])).toThrow(/--core-fault/);
