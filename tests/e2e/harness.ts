@@ -43,7 +43,8 @@ export interface RunningApp {
  * (and everything it started) for sure.
  */
 export async function startApp(env: Record<string, string> = {}): Promise<RunningApp> {
-  const port = await freePort();
+  // env.PORT (with env.DATABASE_URL) starts a server again where an earlier one ran: a restart.
+  const port = env.PORT ? Number(env.PORT) : await freePort();
   const db = tempDatabase();
   const child: ChildProcess = spawn(process.execPath, [path.join(projectRoot, 'node_modules/tsx/dist/cli.mjs'), 'server/index.ts'], {
     cwd: projectRoot,

@@ -8,7 +8,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { defaultBoardSettings } from '../../mock-device/board-session';
 import { startMockServer, type MockServer } from '../../mock-device/ws-server';
 import { projectRoot } from '../../server/paths';
-import { appAndBrowser, demoApiToken, signInAs, type RunningApp } from './harness';
+import { appAndBrowser, demoApiToken, freePort, signInAs, startApp, type RunningApp } from './harness';
+import { tempDatabase } from '../support/temp-db';
 
 const env = appAndBrowser();
 
@@ -143,4 +144,35 @@ describe('stations in the browser', () => {
     await page.getByLabel('Station (a board on a lab PC, through this server)').check();
     await expect.poll(() => page.getByTestId('station-picker').textContent()).not.toContain(SLOW);
   }, 90_000);
+});
+
+describe('a server restart', () => {
+  it('brings the station back online by itself within a few seconds, without touching the lab PC', async () => {
+    const port = String(await freePort());
+    const db = tempDatabase();
+    const same = { PORT: port, DATABASE_URL: db.url, UPLOAD_DIR: path.join(db.dir, 'uploads') };
+    const board = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
+    let app = await startApp(same);
+    const token = await demoApiToken(app, 'engineer', 'restart station');
+    const station = stationProcess(app, token, board.url, 'Bay 9', 3_000_000);
+    try {
+      await station.online;
+      const listed = async () => {
+        const res = await fetch(`${app.url}/api/stations`, { headers: { authorization: `Bearer ${token}` } }).catch(() => null);
+        return res?.ok ? ((await res.json()) as { stations: { name: string }[] }).stations.map((s) => s.name) : null;
+      };
+      expect(await listed()).toEqual(['Bay 9']);
+      await app.stop(); // SIGTERM: the server closes every socket and exits
+      app = await startApp(same);
+      const back = Date.now();
+      await expect.poll(listed, { timeout: 10_000, interval: 100 }).toEqual(['Bay 9']);
+      expect(Date.now() - back).toBeLessThan(5_000);
+      expect(station.log()).toMatch(/offline: .*dialling again in/);
+    } finally {
+      station.kill();
+      await app.stop();
+      await board.close();
+      db.cleanup();
+    }
+  }, 180_000);
 });
