@@ -27,8 +27,7 @@ import { usersRouter } from './routes/users';
 import { securityHeaders } from './security-headers';
 import { createSocketDispatcher } from './sockets/upgrade';
 import { registerSimBoards } from './sockets/sim-boards';
-import { installStations } from './stations';
-import type { StationRegistryOptions } from './stations/station-registry';
+import { installStations, type StationOptions } from './stations';
 
 export interface AppDeps {
   config: Config;
@@ -44,7 +43,7 @@ export interface AppDeps {
   /** Failed sign-ins allowed per address (default 10 in 15 minutes). */
   loginLimit?: LoginLimit;
   /** The station relay's clock and idle timeout (tests shorten it). */
-  stations?: Partial<StationRegistryOptions>;
+  stations?: StationOptions;
 }
 
 const version = (JSON.parse(fs.readFileSync(path.join(projectRoot, 'package.json'), 'utf8')) as { version: string }).version;

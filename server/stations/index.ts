@@ -19,10 +19,16 @@ const serverClock: EngineClock = {
   },
 };
 
+/** The relay's settings; tests shorten them. */
+export interface StationOptions extends Partial<StationRegistryOptions> {
+  /** How often stations and drivers are pinged (two unanswered: gone). */
+  pingMs?: number;
+}
+
 /** Mount GET /api/stations and register the station and driver sockets; returns the registry. */
-export function installStations(app: Express, sockets: SocketDispatcher, options: Partial<StationRegistryOptions> = {}) {
+export function installStations(app: Express, sockets: SocketDispatcher, { pingMs, ...options }: StationOptions = {}) {
   const registry = new StationRegistry({ clock: serverClock, idleTimeoutMs: STATION_IDLE_MS, ...options });
-  registerStationSockets(sockets, registry);
+  registerStationSockets(sockets, registry, pingMs);
   app.use('/api/stations', stationsRouter(registry));
   return registry;
 }

@@ -9,8 +9,11 @@ import { HttpError } from '../http-error';
 import type { SocketCaller, SocketDispatcher } from '../sockets/upgrade';
 import { closeReason, type RelayPeer, type StationRegistry } from './station-registry';
 
-/** A station silent for two pings (no pong) is taken as gone; a half-open TCP connection is caught. */
-const PING_MS = 15_000;
+/**
+ * A station or driver silent for two pings (no pong) is taken as gone: a half-open TCP connection
+ * (a pulled cable, a laptop shut) frees the name or the station instead of holding it.
+ */
+export const STATION_PING_MS = 15_000;
 
 const DRIVE = /^\/api\/stations\/([^/]+)\/drive$/;
 
@@ -37,12 +40,18 @@ function offlineWhy(code: number, reason: string): string {
   return `its connection closed (code ${code})`;
 }
 
-export function registerStationSockets(sockets: SocketDispatcher, registry: StationRegistry) {
+export function registerStationSockets(sockets: SocketDispatcher, registry: StationRegistry, pingMs = STATION_PING_MS) {
   const registrations = new WeakMap<IncomingMessage, StationRegistration>();
   const alive = new WeakMap<WebSocket, boolean>();
-  const stations = new Set<WebSocket>();
+  const watched = new Set<WebSocket>();
+  const watch = (ws: WebSocket) => {
+    watched.add(ws);
+    alive.set(ws, true);
+    ws.on('pong', () => alive.set(ws, true));
+    ws.on('close', () => watched.delete(ws));
+  };
   const pinger = setInterval(() => {
-    for (const ws of stations) {
+    for (const ws of watched) {
       if (alive.get(ws) === false) {
         ws.terminate();
         continue;
@@ -50,7 +59,7 @@ export function registerStationSockets(sockets: SocketDispatcher, registry: Stat
       alive.set(ws, false);
       ws.ping();
     }
-  }, PING_MS);
+  }, pingMs);
   pinger.unref();
 
   // Registered before the drive prefix below, so the dispatcher finds this one first.
@@ -72,15 +81,12 @@ export function registerStationSockets(sockets: SocketDispatcher, registry: Stat
         ws.close(station.code, station.reason);
         return;
       }
-      stations.add(ws);
-      alive.set(ws, true);
-      ws.on('pong', () => alive.set(ws, true));
+      watch(ws);
       ws.on('message', (data, isBinary) => {
         if (isBinary) station.fromDevice(bytesOf(data)); // text from a station has no meaning: ignored
       });
       ws.on('error', () => undefined); // oversize or broken frames: 'close' follows with the code
       ws.on('close', (code, reason) => {
-        stations.delete(ws);
         station.offline(offlineWhy(code, reason.toString()));
       });
     },
@@ -106,6 +112,7 @@ export function registerStationSockets(sockets: SocketDispatcher, registry: Stat
         ws.close(driver.code, driver.reason);
         return;
       }
+      watch(ws);
       ws.on('message', (data, isBinary) => {
         if (isBinary) driver.toDevice(bytesOf(data));
       });

@@ -50,8 +50,8 @@ async function listen(app: App, port = 0, tls?: { cert: string; key: string }) {
 }
 
 /** A WebSocket client that keeps what it hears: the upgrade's outcome, binary and text messages, the close. */
-function client(url: string, headers: Record<string, string> = {}) {
-  const ws = new WebSocket(url, { headers });
+function client(url: string, headers: Record<string, string> = {}, autoPong = true) {
+  const ws = new WebSocket(url, { headers, autoPong });
   const binary: Buffer[] = [];
   const texts: string[] = [];
   const closed = new Promise<{ code: number; reason: string }>((r) => ws.on('close', (code, reason) => r({ code, reason: reason.toString() })));
@@ -124,7 +124,7 @@ async function driver(headers: Record<string, string>, name = REG.name) {
 }
 
 beforeEach(async () => {
-  t = await testApp({ stations: { clock: clock.clock, idleTimeoutMs: 60_000 } });
+  t = await testApp({ stations: { clock: clock.clock, idleTimeoutMs: 60_000, pingMs: 100 } });
   srv = await listen(t.app);
   for (const role of ['reviewer', 'engineer', 'admin'] as const) tokens[role] = await makeToken(role);
 });
@@ -218,6 +218,17 @@ describe('stations on the server', { timeout: 30_000 }, () => {
     const d = await driver(bearer('engineer'));
     await d.note('ready');
     station.ws.terminate(); // the lab PC's cable pulled: no close frame
+    expect(await d.closed).toEqual({ code: 4001, reason: 'The station "Bay 3 / bench A" went offline: its connection was lost' });
+    expect((await list(bearer('reviewer'))).body.stations).toEqual([]);
+  });
+});
+
+describe('a station whose connection went half-open', () => {
+  it('is dropped after two unanswered pings, and its driver closed with the reason', async () => {
+    const silent = client(connectUrl(srv.ws), bearer('engineer'), false); // answers no ping, like a dead peer
+    await silent.note('registered');
+    const d = await driver(bearer('admin'));
+    await d.note('ready');
     expect(await d.closed).toEqual({ code: 4001, reason: 'The station "Bay 3 / bench A" went offline: its connection was lost' });
     expect((await list(bearer('reviewer'))).body.stations).toEqual([]);
   });

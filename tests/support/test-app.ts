@@ -9,7 +9,7 @@ import { initModels, User, type Role } from '../../server/db/models';
 import { startMailCatcher } from '../../server/mail/catcher';
 import { createSmtpMailer } from '../../server/mail/mailer';
 import type { LoginLimit } from '../../server/routes/auth';
-import type { StationRegistryOptions } from '../../server/stations/station-registry';
+import type { StationOptions } from '../../server/stations';
 import { tempDatabase } from './temp-db';
 
 export const TEST_PASSWORD = 'test-password-1';
@@ -19,7 +19,7 @@ export type Agent = ReturnType<typeof request.agent>;
  * The app over a fresh migrated database, with the local mail catcher as its mailer, bitstreams
  * in the temporary folder, a cheap bcrypt cost and one user per role (password TEST_PASSWORD).
  */
-export async function testApp(options: { uploadLimitBytes?: number; loginLimit?: LoginLimit; env?: Record<string, string>; stations?: Partial<StationRegistryOptions> } = {}) {
+export async function testApp(options: { uploadLimitBytes?: number; loginLimit?: LoginLimit; env?: Record<string, string>; stations?: StationOptions } = {}) {
   const tmp = tempDatabase();
   const config = loadConfig(
     { NODE_ENV: 'test', DATABASE_URL: tmp.url, SESSION_SECRET: 'x'.repeat(32), UPLOAD_LIMIT_BYTES: String(options.uploadLimitBytes ?? 64 * 1024 * 1024), ...options.env },
