@@ -10,6 +10,8 @@ export interface DeviceDeps {
   serialBinding?: object;
   /** The server and API token a `station:NAME` device is driven through. */
   server?: { url: string; token: string } | null;
+  /** Opens the device instead of the transports below (tests: a simulated board in this process). */
+  openLink?: (device: string, baud: number) => Promise<ByteLink>;
 }
 
 export const isSocketDevice = (device: string) => /^wss?:\/\//i.test(device);
@@ -24,6 +26,7 @@ export const stationDriveUrl = (server: string, name: string) => new URL(station
 
 /** Open the device; rejects with a one-line reason. */
 export function openDevice(device: string, baud: number, deps: DeviceDeps = {}): Promise<ByteLink> {
+  if (deps.openLink) return deps.openLink(device, baud);
   const station = stationName(device);
   if (station !== null) {
     if (!deps.server) return Promise.reject(new Error(`--device ${device} needs --server and --token: a station is reached through the team server`));

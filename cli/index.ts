@@ -4,6 +4,7 @@ import { runModelCommand } from './model';
 import { runRunCommand } from './run';
 import { runBridgeCommand } from './bridge';
 import { runStationCommand } from './station';
+import { runExplainCommand } from './explain';
 import type { CliIo } from './io';
 import { nodeIo } from './io';
 import { packageVersion } from './version';
@@ -18,6 +19,7 @@ const COMMANDS: Record<string, { run: Command; summary: string }> = {
     run: (argv, io) => (argv.some((a) => a === '--server' || a.startsWith('--server=')) ? runStationCommand(argv, io) : runBridgeCommand(argv, io)),
     summary: 'offer one serial port over WebSocket: listening, guarded by a token, or with --server as a station of the team server',
   },
+  explain: { run: (argv, io) => runExplainCommand(argv, io), summary: 'find the configuration deviation or defect that reproduces a core\'s answers (exit 0 found, 1 not, 2 error)' },
 };
 
 function usage(): string {
