@@ -114,6 +114,10 @@ export async function stationBench(): Promise<BenchResult[]> {
     await sweepOnce(relayed);
     const relayedRuns = [];
     for (let i = 0; i < RUNS; i++) relayedRuns.push(await sweepOnce(relayed));
+    const relayedMs = median(relayedRuns.map((r) => r.ms));
+    const directMs = median(directRuns.map((r) => r.ms));
+    // On a busy machine both drift from the bound together: this says what the relay itself adds.
+    console.log(`  relayed ÷ direct: ${(relayedMs / directMs).toFixed(3)}`);
     return [result(`station@${BAUD}`, relayedRuns, true), result(`station-direct@${BAUD}`, directRuns, false)];
   } finally {
     await station?.stop();
