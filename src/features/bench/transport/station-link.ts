@@ -1,10 +1,9 @@
 import { isReadyNote, stationDrivePath } from '../../../../shared/stations/wire';
+import { sameOriginSocketUrl } from './browser-links';
 import { SocketLink } from './socket-link';
 
-/** Where this page drives station `name`: the server's own origin, wss:// under https. */
-export function stationDriveUrl(name: string, at: Pick<Location, 'protocol' | 'host'> = window.location): string {
-  return `${at.protocol === 'https:' ? 'wss:' : 'ws:'}//${at.host}${stationDrivePath(name)}`;
-}
+/** Where this page drives station `name`: the server it came from, wss: under HTTPS. */
+export const stationDriveUrl = (name: string, at: Pick<Location, 'protocol' | 'host'> = window.location) => sameOriginSocketUrl(at, stationDrivePath(name));
 
 /**
  * A station through the server's relay, with the sign-in cookie: open once the relay says the
