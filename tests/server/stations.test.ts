@@ -1,11 +1,8 @@
 // The station relay over real sockets: the app listening on a free port, stations and drivers as
 // WebSocket clients (raw ones where the test plays the station, the CLI's own where it runs one).
-import { createServer, type Server } from 'node:http';
-import { createServer as createHttpsServer } from 'node:https';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import type { AddressInfo } from 'node:net';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import WebSocket from 'ws';
 import { startStation, type Station } from '../../cli/station';
@@ -22,32 +19,9 @@ import { STATION_CONNECT_PATH, STATION_MAX_MESSAGE_BYTES, stationDrivePath } fro
 import { manualClock } from '../support/manual-clock';
 import { realEngineClock } from '../support/in-process-board';
 import { testApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
+import { listen, signInCookie, type ListeningApp } from '../support/listening-app';
 import { mockSerialBoard } from '../unit/cli/run-support';
 import { makeLabCertificate } from '../../scripts/lab-certificate';
-
-type App = ReturnType<typeof createApp>;
-
-/** The app on a free port with its socket routes attached, as startServer does (HTTPS with `tls`). */
-async function listen(app: App, port = 0, tls?: { cert: string; key: string }) {
-  const server: Server = tls ? createHttpsServer(tls, app) : createServer(app);
-  app.sockets.attach(server);
-  await new Promise<void>((resolve, reject) => {
-    server.once('error', reject);
-    server.listen(port, '127.0.0.1', resolve);
-  });
-  const { port: p } = server.address() as AddressInfo;
-  return {
-    port: p,
-    http: `${tls ? 'https' : 'http'}://127.0.0.1:${p}`,
-    ws: `${tls ? 'wss' : 'ws'}://127.0.0.1:${p}`,
-    close: async () => {
-      const closed = new Promise<void>((r) => server.close(() => r()));
-      await app.sockets.close();
-      server.closeAllConnections();
-      await closed;
-    },
-  };
-}
 
 /** A WebSocket client that keeps what it hears: the upgrade's outcome, binary and text messages, the close. */
 function client(url: string, headers: Record<string, string> = {}, autoPong = true) {
@@ -81,7 +55,7 @@ const REG = { name: 'Bay 3 / bench A', device: '/dev/ttyUSB0', baud: '3000000' }
 const connectUrl = (base: string, reg = REG) => `${base}${STATION_CONNECT_PATH}?${new URLSearchParams(reg)}`;
 
 let t: TestApp;
-let srv: Awaited<ReturnType<typeof listen>>;
+let srv: ListeningApp;
 const tokens = {} as Record<Role, string>;
 const clock = manualClock();
 
@@ -91,35 +65,23 @@ async function makeToken(role: Role) {
   return secret;
 }
 
-/** The sign-in cookie of `role`, from the real login route. */
-async function cookieOf(role: Role) {
-  const csrf = await fetch(`${srv.http}/api/auth/csrf`);
-  const jar = csrf.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
-  const { token } = (await csrf.json()) as { token: string };
-  const login = await fetch(`${srv.http}/api/auth/login`, {
-    method: 'POST',
-    headers: { cookie: jar, 'x-csrf-token': token, 'content-type': 'application/json' },
-    body: JSON.stringify({ email: t.users[role].email, password: TEST_PASSWORD }),
-  });
-  expect(login.status).toBe(200);
-  return login.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
-}
+const cookieOf = (role: Role) => signInCookie(srv.url, t.users[role].email, TEST_PASSWORD);
 
 const bearer = (role: Role) => ({ authorization: `Bearer ${tokens[role]}` });
 const list = async (headers: Record<string, string>) => {
-  const res = await fetch(`${srv.http}/api/stations`, { headers });
+  const res = await fetch(`${srv.url}/api/stations`, { headers });
   return { status: res.status, body: (await res.json()) as { stations: Array<Record<string, unknown>> } };
 };
 
 /** The test plays a station: registered with the engineer's token. */
 async function rawStation(reg = REG) {
-  const s = client(connectUrl(srv.ws, reg), bearer('engineer'));
+  const s = client(connectUrl(srv.wsUrl, reg), bearer('engineer'));
   await s.note('registered');
   return s;
 }
 
 async function driver(headers: Record<string, string>, name = REG.name) {
-  const d = client(`${srv.ws}${stationDrivePath(name)}`, headers);
+  const d = client(`${srv.wsUrl}${stationDrivePath(name)}`, headers);
   return d;
 }
 
@@ -183,9 +145,9 @@ describe('stations on the server', { timeout: 30_000 }, () => {
     expect(await (await driver(bearer('reviewer'))).upgrade).toBe(403);
     expect(await (await driver({ cookie: await cookieOf('reviewer') })).upgrade).toBe(403);
     // A station needs an engineer's token too.
-    expect(await client(connectUrl(srv.ws, { ...REG, name: 'Bay 4' }), bearer('reviewer')).upgrade).toBe(403);
-    expect(await client(connectUrl(srv.ws, { ...REG, name: 'Bay 4' }), {}).upgrade).toBe(401);
-    expect(await client(connectUrl(srv.ws, { ...REG, baud: '12' }), bearer('engineer')).upgrade).toBe(400);
+    expect(await client(connectUrl(srv.wsUrl, { ...REG, name: 'Bay 4' }), bearer('reviewer')).upgrade).toBe(403);
+    expect(await client(connectUrl(srv.wsUrl, { ...REG, name: 'Bay 4' }), {}).upgrade).toBe(401);
+    expect(await client(connectUrl(srv.wsUrl, { ...REG, baud: '12' }), bearer('engineer')).upgrade).toBe(400);
     // The station heard nothing: no driver, no byte.
     expect(station.binary).toEqual([]);
     expect(station.texts.map((x) => JSON.parse(x).type)).toEqual(['registered']);
@@ -225,7 +187,7 @@ describe('stations on the server', { timeout: 30_000 }, () => {
 
 describe('a station whose connection went half-open', () => {
   it('is dropped after two unanswered pings, and its driver closed with the reason', async () => {
-    const silent = client(connectUrl(srv.ws), bearer('engineer'), false); // answers no ping, like a dead peer
+    const silent = client(connectUrl(srv.wsUrl), bearer('engineer'), false); // answers no ping, like a dead peer
     await silent.note('registered');
     const d = await driver(bearer('admin'));
     await d.note('ready');
@@ -248,9 +210,9 @@ describe('the CLI station through the relay', { timeout: 60_000 }, () => {
     const settings = { ...defaultBoardSettings(), baud: 12_000_000 };
     board = await startMockServer(settings, 0, '127.0.0.1', () => undefined);
     const lines: string[] = [];
-    station = await startStation({ server: srv.http, token: tokens.engineer, device: board.url, name: 'Sim bay', baud: 12_000_000, ca: null, insecure: false }, { log: (l) => lines.push(l) });
+    station = await startStation({ server: srv.url, token: tokens.engineer, device: board.url, name: 'Sim bay', baud: 12_000_000, ca: null, insecure: false }, { log: (l) => lines.push(l) });
     await until(() => station!.online);
-    const link = await openDevice('station:Sim bay', 12_000_000, { server: { url: srv.http, token: tokens.admin } });
+    const link = await openDevice('station:Sim bay', 12_000_000, { server: { url: srv.url, token: tokens.admin } });
     const engine = new LinkEngine({ link, clock: realEngineClock, baud: 12_000_000 });
     const info = await engine.hello();
     const count = 2 ** info.angleBits;
@@ -269,9 +231,9 @@ describe('the CLI station through the relay', { timeout: 60_000 }, () => {
 
   it('carries a run from a serial port (serialport\'s mock binding) unchanged', async () => {
     const serial = mockSerialBoard({ baud: 12_000_000 });
-    station = await startStation({ server: srv.http, token: tokens.engineer, device: serial.path, name: 'Serial bay', baud: 12_000_000, ca: null, insecure: false }, { serialBinding: serial.binding, log: () => undefined });
+    station = await startStation({ server: srv.url, token: tokens.engineer, device: serial.path, name: 'Serial bay', baud: 12_000_000, ca: null, insecure: false }, { serialBinding: serial.binding, log: () => undefined });
     await until(() => station!.online);
-    const link = await openDevice('station:Serial bay', 12_000_000, { server: { url: srv.http, token: tokens.engineer } });
+    const link = await openDevice('station:Serial bay', 12_000_000, { server: { url: srv.url, token: tokens.engineer } });
     const engine = new LinkEngine({ link, clock: realEngineClock, baud: 12_000_000 });
     await engine.hello();
     const result = await engine.run({ kind: 'sweep', start: 0, step: 3, count: 4096 }).done;
@@ -288,7 +250,7 @@ describe('the CLI station through the relay', { timeout: 60_000 }, () => {
     board = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
     const lines: string[] = [];
     station = await startStation(
-      { server: srv.http, token: tokens.engineer, device: board.url, name: 'Bay 5', baud: 3_000_000, ca: null, insecure: false },
+      { server: srv.url, token: tokens.engineer, device: board.url, name: 'Bay 5', baud: 3_000_000, ca: null, insecure: false },
       { log: (l) => lines.push(l), backoff: new Backoff({ baseMs: 250, capMs: 4_000 }) },
     );
     await until(() => station!.online);
@@ -298,7 +260,7 @@ describe('the CLI station through the relay', { timeout: 60_000 }, () => {
     const down = Date.now();
     // The same database, a new app and listener on the same port: a restarted server.
     const app = createApp({ config: t.config, db: t.db, mailer: t.mailer, uploadDir: t.uploadDir, bcryptCost: 4 });
-    srv = await listen(app, port);
+    srv = await listen(app, undefined, port);
     await until(() => station!.online, 10_000);
     expect(Date.now() - down).toBeLessThan(5_000);
     expect((await list(bearer('reviewer'))).body.stations.map((s) => s.name)).toEqual(['Bay 5']);
@@ -307,7 +269,7 @@ describe('the CLI station through the relay', { timeout: 60_000 }, () => {
 
   it('stops with the reason when the server refuses its token', async () => {
     board = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
-    station = await startStation({ server: srv.http, token: 'ab_wrong', device: board.url, name: 'Bay 6', baud: 3_000_000, ca: null, insecure: false }, { log: () => undefined });
+    station = await startStation({ server: srv.url, token: 'ab_wrong', device: board.url, name: 'Bay 6', baud: 3_000_000, ca: null, insecure: false }, { log: () => undefined });
     expect(await station.ended).toBe('the server refused the station: 401 Unauthorized: Unknown or revoked API token');
   });
 });
@@ -329,9 +291,9 @@ describe('a station of a server with a self-signed certificate', { timeout: 60_0
     // The plain listener of beforeEach makes way for an HTTPS one on the same app's database.
     await srv.close();
     const app = createApp({ config: t.config, db: t.db, mailer: t.mailer, uploadDir: t.uploadDir, bcryptCost: 4 });
-    srv = await listen(app, 0, { cert: readFileSync(made.certFile, 'utf8'), key: readFileSync(made.keyFile, 'utf8') });
+    srv = await listen(app, { cert: readFileSync(made.certFile), key: readFileSync(made.keyFile) });
     board = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
-    const base = { server: srv.http, token: tokens.engineer, device: board.url, baud: 3_000_000, insecure: false };
+    const base = { server: srv.url, token: tokens.engineer, device: board.url, baud: 3_000_000, insecure: false };
 
     const unchecked: string[] = [];
     stations.push(await startStation({ ...base, name: 'No CA', ca: null }, { log: (l) => unchecked.push(l) }));
