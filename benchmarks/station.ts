@@ -3,14 +3,11 @@
 // (`bridge --server`, dialling out), the production server relaying, and here the runner's side
 // (`run --device station:NAME`: openDevice + LinkEngine). Beside each, the same sweep straight to
 // the board, and the line bound: the reply bytes the run put on the wire ÷ (baud / 10).
-import { spawn } from 'node:child_process';
-import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { openDevice } from '../cli/device';
 import { NodeSocketLink } from '../cli/transport/ws-link';
 import type { ByteLink } from '../shared/link-engine/byte-link';
 import { LinkEngine, type EngineClock } from '../shared/link-engine/link-engine';
-import { demoApiToken, startApp } from '../tests/e2e/harness';
+import { demoApiToken, startApp, startStationProcess, type StationProcess } from '../tests/e2e/harness';
 import { startBoardProcess } from './board-process';
 import type { BenchResult } from './report';
 import { median } from './timing';
@@ -20,8 +17,6 @@ const TARGET_RATIO = 1.1;
 const RUNS = 3;
 const CODES = 1 << 16;
 const NAME = 'Bench relay bay';
-
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
 const clock: EngineClock = {
   now: () => performance.now(),
@@ -49,37 +44,6 @@ async function sweepOnce(open: () => Promise<ByteLink>): Promise<{ ms: number; r
   }
 }
 
-/** `bridge --server …` in its own process group; resolves once it says it is online. */
-function stationProcess(server: string, token: string, device: string) {
-  const child = spawn(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), 'cli/index.ts', 'bridge', '--server', server, '--token', token, '--device', device, '--name', NAME], {
-    cwd: root,
-    stdio: ['ignore', 'pipe', 'pipe'],
-    detached: true,
-  });
-  let log = '';
-  const online = new Promise<void>((resolve, reject) => {
-    const timer = setTimeout(() => reject(new Error(`the station did not come online in 20 s:\n${log}`)), 20_000);
-    child.stdout.on('data', (d) => {
-      log += d;
-      if (log.includes('online at')) {
-        clearTimeout(timer);
-        resolve();
-      }
-    });
-    child.stderr.on('data', (d) => (log += d));
-    child.once('exit', (code) => reject(new Error(`the station exited with ${code}:\n${log}`)));
-  });
-  const exited = new Promise<void>((r) => child.once('exit', () => r()));
-  return {
-    online,
-    stop: async () => {
-      if (child.exitCode !== null || child.signalCode !== null) return;
-      process.kill(-child.pid!, 'SIGTERM');
-      await exited;
-    },
-  };
-}
-
 function result(name: string, runs: { ms: number; rxBytes: number }[], targeted: boolean): BenchResult {
   const ms = median(runs.map((r) => r.ms));
   const boundMs = (median(runs.map((r) => r.rxBytes)) * 1000) / (BAUD / 10);
@@ -99,7 +63,7 @@ function result(name: string, runs: { ms: number; rxBytes: number }[], targeted:
 export async function stationBench(): Promise<BenchResult[]> {
   const board = await startBoardProcess(BAUD);
   const app = await startApp();
-  let station: ReturnType<typeof stationProcess> | null = null;
+  let station: StationProcess | null = null;
   try {
     const token = await demoApiToken(app, 'engineer', 'station benchmark');
     // Straight to the board first (the station holds the board's one connection once online).
@@ -108,7 +72,7 @@ export async function stationBench(): Promise<BenchResult[]> {
     const directRuns = [];
     for (let i = 0; i < RUNS; i++) directRuns.push(await sweepOnce(direct));
 
-    station = stationProcess(app.url, token, board.url);
+    station = startStationProcess(app.url, token, board.url, NAME, BAUD);
     await station.online;
     const relayed = () => openDevice(`station:${NAME}`, BAUD, { server: { url: app.url, token } });
     await sweepOnce(relayed);

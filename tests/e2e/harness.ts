@@ -157,3 +157,43 @@ export async function demoApiToken(app: RunningApp, who: DemoRole, name = 'test 
   if (made.status !== 201) throw new Error(`making an API token failed: ${made.status}`);
   return ((await made.json()) as { token: string }).token;
 }
+
+export interface StationProcess {
+  /** Settles once the station says it is online; rejects if it exits first. */
+  online: Promise<void>;
+  log(): string;
+  /** SIGKILL: the lab PC gone without a word. */
+  kill(): void;
+  /** SIGTERM, and wait until it has exited. */
+  stop(): Promise<void>;
+}
+
+/** `anglebench bridge --server …` as its own process: a station dialling `server`. */
+export function startStationProcess(server: string, token: string, device: string, name: string, baud = 3_000_000): StationProcess {
+  const child: ChildProcess = spawn(
+    process.execPath,
+    [path.join(projectRoot, 'node_modules/tsx/dist/cli.mjs'), 'cli/index.ts', 'bridge', '--server', server, '--token', token, '--device', device, '--name', name, '--baud', String(baud)],
+    // Its own process group: tsx runs the command in a child, and a signal must reach both.
+    { cwd: projectRoot, stdio: ['ignore', 'pipe', 'pipe'], detached: true },
+  );
+  let log = '';
+  child.stdout!.on('data', (d) => (log += d));
+  child.stderr!.on('data', (d) => (log += d));
+  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
+  const online = new Promise<void>((resolve, reject) => {
+    child.stdout!.on('data', () => log.includes('online at') && resolve());
+    child.once('exit', (code) => reject(new Error(`the station exited with ${code}:\n${log}`)));
+  });
+  online.catch(() => undefined); // a station killed on purpose rejects it with nobody waiting
+  const running = () => child.exitCode === null && child.signalCode === null;
+  return {
+    online,
+    log: () => log,
+    kill: () => void (running() && process.kill(-child.pid!, 'SIGKILL')),
+    stop: async () => {
+      if (!running()) return;
+      process.kill(-child.pid!, 'SIGTERM');
+      await exited;
+    },
+  };
+}

@@ -1,35 +1,15 @@
 // Stations in a real browser: the CLI bridge (a child process, `bridge --server`) dials the
 // production server with an engineer's API token, its device a simulated board in this process;
 // engineers drive it from the Bench page through the server's relay.
-import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { defaultBoardSettings } from '../../mock-device/board-session';
 import { startMockServer, type MockServer } from '../../mock-device/ws-server';
-import { projectRoot } from '../../server/paths';
-import { appAndBrowser, demoApiToken, freePort, signInAs, startApp, type RunningApp } from './harness';
+import { appAndBrowser, demoApiToken, freePort, signInAs, startApp, startStationProcess, type StationProcess } from './harness';
 import { tempDatabase } from '../support/temp-db';
 
 const env = appAndBrowser();
-
-/** `npm run cli -- bridge --server …` as its own process; resolves once it says it is online. */
-function stationProcess(app: RunningApp, token: string, device: string, name: string, baud: number) {
-  const child: ChildProcess = spawn(
-    process.execPath,
-    [path.join(projectRoot, 'node_modules/tsx/dist/cli.mjs'), 'cli/index.ts', 'bridge', '--server', app.url, '--token', token, '--device', device, '--name', name, '--baud', String(baud)],
-    // Its own process group: tsx runs the command in a child, and a kill must reach both.
-    { cwd: projectRoot, stdio: ['ignore', 'pipe', 'pipe'], detached: true },
-  );
-  let log = '';
-  child.stdout!.on('data', (d) => (log += d));
-  child.stderr!.on('data', (d) => (log += d));
-  const online = new Promise<void>((resolve, reject) => {
-    child.stdout!.on('data', () => log.includes('online at') && resolve());
-    child.once('exit', (code) => reject(new Error(`station exited with ${code}:\n${log}`)));
-  });
-  return { child, online, log: () => log, kill: () => child.exitCode === null && child.signalCode === null && process.kill(-child.pid!, 'SIGKILL') };
-}
 
 const BAY = 'Bay 3 / bench A';
 const SLOW = 'Bay 7 / slow line';
@@ -44,8 +24,8 @@ async function connectStation(page: Page, name: string) {
 describe('stations in the browser', () => {
   let fast: MockServer;
   let slow: MockServer;
-  let bay: ReturnType<typeof stationProcess>;
-  let slowBay: ReturnType<typeof stationProcess>;
+  let bay: StationProcess;
+  let slowBay: StationProcess;
   let engineerPage: Page;
 
   beforeAll(async () => {
@@ -53,8 +33,8 @@ describe('stations in the browser', () => {
     // A slow line, so the run is still going when its station is killed.
     slow = await startMockServer({ ...defaultBoardSettings(), baud: 460_800 }, 0, '127.0.0.1', () => undefined);
     const token = await demoApiToken(env.app, 'engineer', 'bench station');
-    bay = stationProcess(env.app, token, fast.url, BAY, 3_000_000);
-    slowBay = stationProcess(env.app, token, slow.url, SLOW, 460_800);
+    bay = startStationProcess(env.app.url, token, fast.url, BAY, 3_000_000);
+    slowBay = startStationProcess(env.app.url, token, slow.url, SLOW, 460_800);
     await Promise.all([bay.online, slowBay.online]);
   });
   afterAll(async () => {
@@ -154,7 +134,7 @@ describe('a server restart', () => {
     const board = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
     let app = await startApp(same);
     const token = await demoApiToken(app, 'engineer', 'restart station');
-    const station = stationProcess(app, token, board.url, 'Bay 9', 3_000_000);
+    const station = startStationProcess(app.url, token, board.url, 'Bay 9', 3_000_000);
     try {
       await station.online;
       const listed = async () => {
