@@ -133,9 +133,10 @@ describe('a server restart', () => {
     const same = { PORT: port, DATABASE_URL: db.url, UPLOAD_DIR: path.join(db.dir, 'uploads') };
     const board = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
     let app = await startApp(same);
-    const token = await demoApiToken(app, 'engineer', 'restart station');
-    const station = startStationProcess(app.url, token, board.url, 'Bay 9', 3_000_000);
+    let station: StationProcess | null = null;
     try {
+      const token = await demoApiToken(app, 'engineer', 'restart station');
+      station = startStationProcess(app.url, token, board.url, 'Bay 9', 3_000_000);
       await station.online;
       const listed = async () => {
         const res = await fetch(`${app.url}/api/stations`, { headers: { authorization: `Bearer ${token}` } }).catch(() => null);
@@ -149,7 +150,7 @@ describe('a server restart', () => {
       expect(Date.now() - back).toBeLessThan(5_000);
       expect(station.log()).toMatch(/offline: .*dialling again in/);
     } finally {
-      station.kill();
+      station?.kill();
       await app.stop();
       await board.close();
       db.cleanup();
