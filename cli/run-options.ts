@@ -4,6 +4,9 @@ import { z } from 'zod';
 import { isCrc8Name, type Crc8Name } from '../shared/link';
 import { parseModelConfig, type ModelConfigInput } from '../shared/numeric';
 import { parseLimits, type Limits } from './run-verdict';
+import type { Conditions, SoakSpec } from '../shared/soak';
+import { parseConditionOptions } from './conditions';
+import { parseSoakOption } from './soak';
 
 export const RUN_USAGE = 'usage: anglebench run --device <serial path | ws://host:port/> --plan <plan> --core <slug> [options]';
 
@@ -23,6 +26,9 @@ export const RUN_HELP = `${RUN_USAGE}
   --config JSON    reference-model configuration (default: the server's core, else from INFO)
   --out FILE       write the capture archive (both directions) to FILE
   --json           print a machine-readable summary on stdout (progress stays on stderr)
+  --soak N|D       repeat the plan: N passes (50) or for a duration (90s, 30m, 2h); lists unstable codes
+  --condition K=V  an operating condition, repeatable: temperature_c=85, vccint_v=0.95, clock_mhz=200,
+                   or any name=value; saved with the session
   --junit FILE     write the verdict as JUnit XML to FILE: a test case per limit, the session's address
   --explain        after the run, name the configuration or RTL defect that reproduces the answers
                    (printed, and the summary's "explanation" key)
@@ -67,6 +73,8 @@ export interface RunOptions {
   explain: boolean;
   help: boolean;
   crc: Crc8Name | null;
+  soak: SoakSpec | null;
+  conditions: Conditions;
 }
 
 const INTEGER = /^[+-]?(0x[0-9a-f]+|\d+)$/i;
@@ -125,7 +133,7 @@ function json(text: string, option: string): unknown {
 const urlSchema = z.url({ protocol: /^https?$/ });
 
 export function parseRunArgs(argv: string[]): RunOptions {
-  let values: Record<string, string | boolean | undefined>;
+  let values: Record<string, string | boolean | string[] | undefined>;
   try {
     ({ values } = parseArgs({
       args: argv,
@@ -146,6 +154,8 @@ export function parseRunArgs(argv: string[]): RunOptions {
         out: { type: 'string' },
         junit: { type: 'string' },
         json: { type: 'boolean' },
+        soak: { type: 'string' },
+        condition: { type: 'string', multiple: true },
         explain: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
@@ -168,8 +178,9 @@ export function parseRunArgs(argv: string[]): RunOptions {
   if (serverUrl !== undefined && !urlSchema.safeParse(serverUrl).success) throw new UsageError(`--server must be an http(s) URL, got "${serverUrl}"`);
   let config: ModelConfigInput | null = null;
   if (str('config') !== undefined) {
+    const input = json(str('config')!, 'config');
     try {
-      config = parseModelConfig(json(str('config')!, 'config'));
+      config = parseModelConfig(input);
     } catch (e) {
       throw new UsageError(`--config: ${(e as Error).message}`);
     }
@@ -195,5 +206,7 @@ export function parseRunArgs(argv: string[]): RunOptions {
     explain: values.explain === true,
     help: false,
     crc: (crc as Crc8Name | undefined) ?? null,
+    soak: str('soak') !== undefined ? parseSoakOption(str('soak')!) : null,
+    conditions: parseConditionOptions((values.condition as string[] | undefined) ?? []),
   };
 }

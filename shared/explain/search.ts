@@ -45,7 +45,10 @@ export interface Explanation {
 }
 
 export interface ExplainOptions {
-  /** Called now and then with hypotheses handled so far and the planned total. */
+  /**
+   * Called now and then with hypotheses handled so far and the planned total; the last call has
+   * done = total = the hypotheses actually tried (fewer than planned when a stage explained all).
+   */
   onProgress?(done: number, total: number): void;
   /** Asked between hypotheses; true ends the search with ExplainStopped. */
   shouldStop?(): boolean;
@@ -221,7 +224,7 @@ export function explain(declaredInput: ModelConfig, samples: ExplainSamples, opt
     options.onProgress?.(done, total);
     if (tried.some((t) => t.exact === n)) break;
   }
-  options.onProgress?.(total, total);
+  options.onProgress?.(done, done);
   return summarise(declared, n, tried, full);
 }
 

@@ -34,6 +34,8 @@ export interface SoakOutcome<S extends PassScore> {
   acc: SoakAccumulator;
   /** The last whole pass and its score: the session's samples and figures. */
   last: { result: RunResult; score: S } | null;
+  /** The pass that was cut short (aborted or failed), not booked. */
+  cut: RunResult | null;
 }
 
 export async function runSoak<S extends PassScore>(o: SoakRunOptions<S>): Promise<SoakOutcome<S>> {
@@ -50,8 +52,7 @@ export async function runSoak<S extends PassScore>(o: SoakRunOptions<S>): Promis
     const result = await handle.done;
     if (result.status !== 'complete') {
       // A pass cut short is not booked: its missing codes would read as link errors.
-      const outcome = { status: result.status, message: result.message, acc: acc ?? new SoakAccumulator(result.codes, o.accumulator), last };
-      return outcome;
+      return { status: result.status, message: result.message, acc: acc ?? new SoakAccumulator(result.codes, o.accumulator), last, cut: result };
     }
     acc ??= new SoakAccumulator(result.codes, o.accumulator);
     const checkFailures = f.checkFailures - before.checkFailures;
@@ -71,5 +72,5 @@ export async function runSoak<S extends PassScore>(o: SoakRunOptions<S>): Promis
     last = { result, score };
     o.onPass?.(point, acc, score, result);
   }
-  return { status: 'complete', acc: acc!, last };
+  return { status: 'complete', acc: acc!, last, cut: null };
 }

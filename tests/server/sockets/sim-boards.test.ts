@@ -11,7 +11,7 @@ import { Core } from '../../../server/db/models';
 import { boardsBusyReason, idleReason, registerSimBoards, SIM_BOARD_PATH, TRY_AGAIN_LATER } from '../../../server/sockets/sim-boards';
 import { createSocketDispatcher, type SocketDispatcher } from '../../../server/sockets/upgrade';
 import { LinkEngine } from '../../../shared/link-engine/link-engine';
-import { createCordicModel } from '../../../shared/numeric';
+import { createCordicModel, parseModelConfig } from '../../../shared/numeric';
 import { realEngineClock } from '../../support/in-process-board';
 import { testApp, type TestApp } from '../../support/test-app';
 
@@ -125,7 +125,7 @@ describe('server-hosted simulated boards', () => {
   });
 
   it("takes a core's model and link profile from ?core=, and its own settings from the query", async () => {
-    await Core.create({ name: 'Wide core', slug: 'wide-18', linkProfile: { baud: 921_600, crc: 'CRC-8/SMBUS' }, modelConfig: { outBits: 18, outFrac: 16 }, limits: {} });
+    await Core.create({ name: 'Wide core', slug: 'wide-18', linkProfile: { baud: 921_600, crc: 'CRC-8/SMBUS' }, modelConfig: parseModelConfig({ outBits: 18, outFrac: 16 }), limits: {} });
     const boards = await hostedBoards(4);
     try {
       const link = await NodeSocketLink.open(`${boards.url}?core=wide-18`);
