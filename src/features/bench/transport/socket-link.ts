@@ -36,12 +36,26 @@ export class SocketLink extends ByteLinkBase {
         reject(new Error(`Not a WebSocket address: ${url} (${(err as Error).message})`));
         return;
       }
+      // The page's CSP lets it reach its own server and the BRIDGE_ORIGINS only; a blocked
+      // address fails like an unreachable one, so say which it was.
+      const onViolation = (e: SecurityPolicyViolationEvent) => {
+        if (e.effectiveDirective !== 'connect-src' || !e.blockedURI.startsWith(new URL(url).origin)) return;
+        settle();
+        socket.close();
+        reject(new Error(`This server does not let the page connect to ${new URL(url).origin}: an administrator can add it to BRIDGE_ORIGINS`));
+      };
+      document.addEventListener('securitypolicyviolation', onViolation);
+      const settle = () => {
+        clearTimeout(timer);
+        document.removeEventListener('securitypolicyviolation', onViolation);
+      };
       const timer = setTimeout(() => {
+        settle();
         socket.close();
         reject(new Error(`No answer from ${url} within ${timeoutMs / 1000} s`));
       }, timeoutMs);
       const opened = () => {
-        clearTimeout(timer);
+        settle();
         socket.removeEventListener('message', onMessage);
         resolve(new SocketLink(socket));
       };
@@ -51,7 +65,7 @@ export class SocketLink extends ByteLinkBase {
       if (ready) socket.addEventListener('message', onMessage);
       else socket.addEventListener('open', opened);
       socket.addEventListener('close', (e) => {
-        clearTimeout(timer);
+        settle();
         reject(new Error(`Could not connect to ${url}${e.reason ? `: ${e.reason}` : ''}`));
       });
     });
