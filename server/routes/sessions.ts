@@ -6,6 +6,7 @@ import type { Literal } from 'sequelize/types/utils';
 import { z } from 'zod';
 import { currentUser, hasRole, requireRole } from '../auth';
 import { BenchSession, Board, Build, Core, CoreWatcher, User } from '../db/models';
+import { jsonArrayContains } from '../db/dialect';
 import { HttpError, notFound } from '../http-error';
 import { sendRegressionMail } from '../mail/messages';
 import { validate } from '../middleware/validate';
@@ -154,7 +155,7 @@ function listWhere(q: ListQuery): WhereOptions {
     if (q[key] !== undefined) where[key] = q[key];
   }
   if (q.from || q.to) where.startedAt = { ...(q.from ? { [Op.gte]: q.from } : {}), ...(q.to ? { [Op.lte]: q.to } : {}) };
-  if (q.tag) where[Op.and] = literal(`EXISTS (SELECT 1 FROM json_each("BenchSession"."tags") WHERE json_each.value = ${BenchSession.sequelize!.escape(q.tag)})`);
+  if (q.tag) where[Op.and] = jsonArrayContains(BenchSession.sequelize!, '"BenchSession"."tags"', q.tag);
   return where as WhereOptions;
 }
 

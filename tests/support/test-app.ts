@@ -19,7 +19,7 @@ export type Agent = ReturnType<typeof request.agent>;
  * in the temporary folder, a cheap bcrypt cost and one user per role (password TEST_PASSWORD).
  */
 export async function testApp(options: { uploadLimitBytes?: number; loginLimit?: LoginLimit } = {}) {
-  const tmp = tempDatabase();
+  const tmp = await tempDatabase();
   const config = loadConfig(
     { NODE_ENV: 'test', DATABASE_URL: tmp.url, SESSION_SECRET: 'x'.repeat(32), UPLOAD_LIMIT_BYTES: String(options.uploadLimitBytes ?? 64 * 1024 * 1024) },
     path.join(tmp.dir, 'session-secret'),
@@ -67,7 +67,7 @@ export async function testApp(options: { uploadLimitBytes?: number; loginLimit?:
       mailer.close();
       await catcher.close();
       await db.close();
-      tmp.cleanup();
+      await tmp.cleanup();
     },
   };
 }
