@@ -11,6 +11,7 @@ import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { clientDistDir, dataDir, projectRoot } from './paths';
 import { auditRouter, outboxRouter } from './routes/admin';
 import { authRouter, type LoginLimit } from './routes/auth';
+import { SignInAttemptStore } from './auth/sign-in-attempt-store';
 import { boardsRouter } from './routes/boards';
 import { buildsRouter } from './routes/builds';
 import { commentsRouter, sessionCommentsRouter } from './routes/comments';
@@ -62,7 +63,7 @@ export function createApp({
 
   app.use('/api/health', healthRouter(db, version));
   const passport = installAuth(app, config);
-  app.use('/api/auth', authRouter(passport, loginLimit));
+  app.use('/api/auth', authRouter(passport, loginLimit, new SignInAttemptStore(db)));
   app.use('/api/tokens', tokensRouter(deps));
   app.use('/api/users', usersRouter(deps));
   app.use('/api/invitations', invitationsRouter(deps));

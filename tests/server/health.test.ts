@@ -26,6 +26,8 @@ describe('GET /api/health', () => {
     expect(res.body.status).toBe('ok');
     expect(res.body.version).toMatch(/^\d+\.\d+\.\d+/);
     expect(res.body.database).toMatchObject({ status: 'ok', dialect: tmp.dialect });
+    // The server's own version: SQLite's library (3.x) or PostgreSQL's (e.g. 15.18 (Debian …)).
+    expect(res.body.database.serverVersion).toMatch(tmp.dialect === 'sqlite' ? /^3\.\d+\.\d+$/ : /^\d+\.\d+/);
     expect(typeof res.body.database.migrations).toBe('number');
   });
 
