@@ -15,13 +15,14 @@ export interface TempDatabase {
 /**
  * A fresh, empty database for one test file, removed by `cleanup`. A SQLite file in its own
  * temporary folder, or — when ANGLEBENCH_TEST_PG holds a PostgreSQL admin URL (`npm run test:pg`
- * sets it) — a new database with a unique name on that cluster. `{ dialect: 'sqlite' }` asks for
- * SQLite whatever the environment, for tests of SQLite's own behaviour.
+ * sets it) — a new database with a unique name on that cluster. `dialect` insists on one: SQLite
+ * whatever the environment (tests of SQLite's own behaviour), or PostgreSQL (the benchmarks).
  */
-export async function tempDatabase(options: { dialect?: 'sqlite' } = {}): Promise<TempDatabase> {
+export async function tempDatabase(options: { dialect?: 'sqlite' | 'postgres' } = {}): Promise<TempDatabase> {
+  const adminUrl = options.dialect === 'sqlite' ? undefined : process.env.ANGLEBENCH_TEST_PG;
+  if (options.dialect === 'postgres' && !adminUrl) throw new Error('a PostgreSQL test database needs ANGLEBENCH_TEST_PG (npm run test:pg sets it)');
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'anglebench-test-'));
   const removeDir = () => fs.rmSync(dir, { recursive: true, force: true });
-  const adminUrl = options.dialect ? undefined : process.env.ANGLEBENCH_TEST_PG;
   if (!adminUrl) return { dir, url: `sqlite:${path.join(dir, 'test.sqlite')}`, dialect: 'sqlite', cleanup: async () => removeDir() };
 
   const name = `anglebench_test_${randomBytes(6).toString('hex')}`;
