@@ -48,7 +48,7 @@ async function ingestOn(dialect: BenchDialect, samples: ReturnType<typeof bigExh
     const times: number[] = [];
     for (let i = 0; i < RUNS; i++) {
       let id: number | null = null;
-      times.push(await timeMs(async () => (id = await uploadSession(fetch, { url: server.url, token: server.token }, { session, samples: samples.packed, archive: new Uint8Array(0) }))));
+      times.push(await timeMs(async () => ({ id } = await uploadSession(fetch, { url: server.url, token: server.token }, { session, samples: samples.packed, archive: new Uint8Array(0) }))));
       if (id === null) throw new Error('the upload returned no session id');
     }
     const bare = await bareBlobInserts(dialect, samples.packed, RUNS);

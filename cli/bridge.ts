@@ -11,7 +11,10 @@ import { PortSerialLink } from './transport/port-serial-link';
 import { ChunkCoalescer } from '../shared/link-engine/chunk-coalescer';
 import { realClock } from './clock';
 
-const HELP = `usage: npm run --silent cli -- bridge --device <serial path> --ws-port N --token T [options]
+const USAGE = 'usage: anglebench bridge --device <serial path> --ws-port N --token T [options]';
+
+const HELP = `${USAGE}
+       (from a checkout: npm run --silent cli -- bridge …)
 
   --device PATH        the serial port of the board (/dev/ttyUSB0, COM3)
   --baud N             line rate, 9600..12000000 (default 3000000)
@@ -165,8 +168,9 @@ function int(name: string, text: string | undefined, min: number, max: number, f
     if (fallback === undefined) throw new UsageError(`--${name} is required (see bridge --help)`);
     return fallback;
   }
-  const n = Number(text);
-  if (!Number.isInteger(n) || n < min || n > max) throw new UsageError(`--${name} must be an integer ${min}..${max}, got "${text}"`);
+  // Decimal digits only: Number() would also take "", " 5", "0x10" and "1e3".
+  const n = /^\d+$/.test(text) ? Number(text) : NaN;
+  if (!Number.isSafeInteger(n) || n < min || n > max) throw new UsageError(`--${name} must be an integer ${min}..${max}, got "${text}"`);
   return n;
 }
 
@@ -191,7 +195,9 @@ export function parseBridgeArgs(argv: string[]): BridgeOptions | 'help' {
   }
   if (values.help) return 'help';
   const s = (k: string) => values[k] as string | undefined;
-  if (!s('device')) throw new UsageError('--device is required (see bridge --help)');
+  if (s('device') === undefined) throw new UsageError('--device is required (see bridge --help)');
+  if (s('device') === '') throw new UsageError('--device must not be empty');
+  if (s('host') === '') throw new UsageError('--host must not be empty');
   const token = s('token');
   if (!token) throw new UsageError('--token is required: the bridge never runs unguarded');
   if (token.length < 8) throw new UsageError('--token must be at least 8 characters');
@@ -211,7 +217,7 @@ export async function runBridgeCommand(argv: string[], io: CliIo, deps: BridgeDe
   try {
     o = parseBridgeArgs(argv);
   } catch (e) {
-    io.stderr(`error: ${(e as Error).message}\n`);
+    io.stderr(`error: ${(e as Error).message}\n${USAGE}\n`);
     return 2;
   }
   if (o === 'help') {

@@ -1,10 +1,12 @@
 // The runner's entry: one sub-command per module, so `run` and `bridge` sit beside `model`.
-// Exit status: 0 pass, 1 fail, 2 error (bad input, bad configuration).
+// Exit status: 0 pass, 1 fail, 2 error (bad input, bad configuration), 130 a run stopped by Ctrl-C.
 import { runModelCommand } from './model';
 import { runRunCommand } from './run';
 import { runBridgeCommand } from './bridge';
+import { runExplainCommand } from './explain';
 import type { CliIo } from './io';
 import { nodeIo } from './io';
+import { packageVersion } from './version';
 
 type Command = (argv: string[], io: CliIo) => Promise<number>;
 
@@ -12,22 +14,41 @@ const COMMANDS: Record<string, { run: Command; summary: string }> = {
   model: { run: runModelCommand, summary: 'evaluate the reference model for given angle codes and print JSON' },
   run: { run: (argv, io) => runRunCommand(argv, io), summary: 'run a bench plan against a board, print the verdict (exit 0 pass, 1 fail, 2 error)' },
   bridge: { run: (argv, io) => runBridgeCommand(argv, io), summary: 'offer one serial port to a browser elsewhere over WebSocket, guarded by a token' },
+  explain: { run: (argv, io) => runExplainCommand(argv, io), summary: 'find the configuration deviation or defect that reproduces a core\'s answers (exit 0 found, 1 not, 2 error)' },
 };
 
 function usage(): string {
   const lines = Object.entries(COMMANDS).map(([name, c]) => `  ${name.padEnd(8)} ${c.summary}`);
-  return ['usage: npm run --silent cli -- <command> [options]', '', 'commands:', ...lines, ''].join('\n');
+  return [
+    'usage: anglebench <command> [options]   (from a checkout: npm run --silent cli -- <command> [options])',
+    '       anglebench --version | --help',
+    '',
+    'commands:',
+    ...lines,
+    '',
+    '<command> --help describes its options.',
+    '',
+  ].join('\n');
 }
 
 async function main(argv: string[]): Promise<number> {
   const [name, ...rest] = argv;
-  if (name === undefined || name === '--help' || name === '-h') {
+  if (name === '--help' || name === '-h') {
     nodeIo.stdout(usage());
-    return name === undefined ? 2 : 0;
+    return 0;
+  }
+  if (name === '--version') {
+    nodeIo.stdout(`${packageVersion()}\n`);
+    return 0;
+  }
+  // Wrong arguments: the usage goes to stderr, so stdout stays empty for a pipe.
+  if (name === undefined) {
+    nodeIo.stderr(usage());
+    return 2;
   }
   const command = COMMANDS[name];
   if (!command) {
-    nodeIo.stderr(`error: unknown command "${name}" (known: ${Object.keys(COMMANDS).join(', ')})\n`);
+    nodeIo.stderr(`error: unknown command "${name}" (known: ${Object.keys(COMMANDS).join(', ')})\n${usage()}`);
     return 2;
   }
   return command.run(rest, nodeIo);

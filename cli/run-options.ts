@@ -4,8 +4,14 @@ import { z } from 'zod';
 import { isCrc8Name, type Crc8Name } from '../shared/link';
 import { parseModelConfig, type ModelConfigInput } from '../shared/numeric';
 import { parseLimits, type Limits } from './run-verdict';
+import type { Conditions, SoakSpec } from '../shared/soak';
+import { parseConditionOptions } from './conditions';
+import { parseSoakOption } from './soak';
 
-export const RUN_HELP = `usage: npm run --silent cli -- run --device <serial path | ws://host:port/> --plan <plan> --core <slug> [options]
+export const RUN_USAGE = 'usage: anglebench run --device <serial path | ws://host:port/> --plan <plan> --core <slug> [options]';
+
+export const RUN_HELP = `${RUN_USAGE}
+       (from a checkout: npm run --silent cli -- run …)
 
   --device D       a serial port (/dev/ttyUSB0, COM3) or a WebSocket device (ws://127.0.0.1:5175/)
   --baud N         line rate, 9600..12000000 (default: the core's link profile, else 3000000)
@@ -20,8 +26,17 @@ export const RUN_HELP = `usage: npm run --silent cli -- run --device <serial pat
   --config JSON    reference-model configuration (default: the server's core, else from INFO)
   --out FILE       write the capture archive (both directions) to FILE
   --json           print a machine-readable summary on stdout (progress stays on stderr)
+  --soak N|D       repeat the plan: N passes (50) or for a duration (90s, 30m, 2h); lists unstable codes
+  --condition K=V  an operating condition, repeatable: temperature_c=85, vccint_v=0.95, clock_mhz=200,
+                   or any name=value; saved with the session
+  --junit FILE     write the verdict as JUnit XML to FILE: a test case per limit, the session's address
+  --explain        after the run, name the configuration or RTL defect that reproduces the answers
+                   (printed, and the summary's "explanation" key)
 
-Exit status: 0 every limit passes, 1 a limit fails, 2 an error (one line on stderr).
+Ctrl-C stops the run cleanly: what was captured is scored and written to --out, nothing is
+uploaded; a second Ctrl-C quits at once.
+Exit status: 0 every limit passes, 1 a limit fails, 2 an error (one line on stderr),
+130 interrupted by Ctrl-C.
 `;
 
 /** A bad command line: one line for the user, exit status 2. */
@@ -53,9 +68,13 @@ export interface RunOptions {
   limits: Limits | null;
   config: ModelConfigInput | null;
   out: string | null;
+  junit: string | null;
   json: boolean;
+  explain: boolean;
   help: boolean;
   crc: Crc8Name | null;
+  soak: SoakSpec | null;
+  conditions: Conditions;
 }
 
 const INTEGER = /^[+-]?(0x[0-9a-f]+|\d+)$/i;
@@ -114,7 +133,7 @@ function json(text: string, option: string): unknown {
 const urlSchema = z.url({ protocol: /^https?$/ });
 
 export function parseRunArgs(argv: string[]): RunOptions {
-  let values: Record<string, string | boolean | undefined>;
+  let values: Record<string, string | boolean | string[] | undefined>;
   try {
     ({ values } = parseArgs({
       args: argv,
@@ -133,7 +152,11 @@ export function parseRunArgs(argv: string[]): RunOptions {
         config: { type: 'string' },
         crc: { type: 'string' },
         out: { type: 'string' },
+        junit: { type: 'string' },
         json: { type: 'boolean' },
+        soak: { type: 'string' },
+        condition: { type: 'string', multiple: true },
+        explain: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
     }));
@@ -142,6 +165,7 @@ export function parseRunArgs(argv: string[]): RunOptions {
   }
   const str = (k: string) => (typeof values[k] === 'string' ? (values[k] as string) : undefined);
   if (values.help) return { help: true } as RunOptions;
+  for (const [k, v] of Object.entries(values)) if (v === '') throw new UsageError(`--${k} must not be empty`);
   for (const k of ['device', 'plan', 'core']) if (str(k) === undefined) throw new UsageError(`--${k} is required (see run --help)`);
   let baud: number | null = null;
   if (str('baud') !== undefined) {
@@ -154,8 +178,9 @@ export function parseRunArgs(argv: string[]): RunOptions {
   if (serverUrl !== undefined && !urlSchema.safeParse(serverUrl).success) throw new UsageError(`--server must be an http(s) URL, got "${serverUrl}"`);
   let config: ModelConfigInput | null = null;
   if (str('config') !== undefined) {
+    const input = json(str('config')!, 'config');
     try {
-      config = parseModelConfig(json(str('config')!, 'config'));
+      config = parseModelConfig(input);
     } catch (e) {
       throw new UsageError(`--config: ${(e as Error).message}`);
     }
@@ -176,8 +201,12 @@ export function parseRunArgs(argv: string[]): RunOptions {
     limits: str('limits') !== undefined ? parseLimits(json(str('limits')!, 'limits'), '--limits') : null,
     config,
     out: str('out') ?? null,
+    junit: str('junit') ?? null,
     json: values.json === true,
+    explain: values.explain === true,
     help: false,
     crc: (crc as Crc8Name | undefined) ?? null,
+    soak: str('soak') !== undefined ? parseSoakOption(str('soak')!) : null,
+    conditions: parseConditionOptions((values.condition as string[] | undefined) ?? []),
   };
 }

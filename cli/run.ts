@@ -4,20 +4,25 @@
 import { writeFileSync } from 'node:fs';
 import type { ByteLink } from '../shared/link-engine/byte-link';
 import { confirmOffModel } from '../shared/link-engine/confirm-off-model';
-import { LinkEngine, type RunResult } from '../shared/link-engine/link-engine';
+import { LinkEngine, type RunHandle, type RunResult } from '../shared/link-engine/link-engine';
 import { DEFAULT_CRC8, type DeviceInfo } from '../shared/link';
 import { parseModelConfig, type ModelConfig } from '../shared/numeric';
 import { openDevice, type DeviceDeps } from './device';
 import type { CliIo } from './io';
 import { progressSink } from './progress';
-import { parseRunArgs, RUN_HELP, UsageError, type RunOptions } from './run-options';
+import { parseRunArgs, RUN_HELP, RUN_USAGE, UsageError, type RunOptions } from './run-options';
 import { planToRequest, resolvePlan } from './run-plan';
 import { labelBytes, MAX_LABEL_BYTES, RunRecording, type RunLabel } from './run-record';
 import { humanReport, jsonSummary, type RunReport } from './run-report';
 import { scoreRun } from './run-score';
 import { fetchCore, packSamples, ServerError, uploadSession, type Fetch, type ServerCore } from './run-server';
 import { judge, type Limits } from './run-verdict';
+import { explainRun } from './run-explain';
 import { realClock } from './clock';
+import { INTERRUPTED_STATUS, withSigint, type Interrupt } from './interrupt';
+import { junitXml } from './junit';
+import { runConditions } from './conditions';
+import { soakPasses, type SoakRun } from './soak';
 
 /** What `run` touches besides the CLI streams, so tests can swap it. */
 export interface RunDeps extends DeviceDeps {
@@ -25,6 +30,8 @@ export interface RunDeps extends DeviceDeps {
   writeFile?: (path: string, bytes: Uint8Array) => void;
   /** Whether stderr is a terminal (a redrawn bar) or a log (a line a second). */
   stderrIsTty?: boolean;
+  /** Ctrl-C; default the process's SIGINT for the length of the run. */
+  interrupt?: Interrupt;
 }
 
 /** Something went wrong that is not the core's fault: exit status 2 with this one line. */
@@ -90,10 +97,22 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
     const request = planToRequest(plan, model);
     const progress = progressSink(io.stderr, deps.stderrIsTty ?? false, () => clock.now());
     const startedAt = new Date();
+    const { conditions, fromBoard } = runConditions(info, o.conditions);
     let result: RunResult;
+    let soak: SoakRun | null = null;
+    let current: RunHandle | null = null;
+    const stopOnInterrupt = deps.interrupt?.onRequest(() => void current?.abort()) ?? (() => undefined);
     try {
-      result = await engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) }).done;
+      if (o.soak) {
+        const keepGoing = () => !deps.interrupt?.requested;
+        soak = await soakPasses({ engine, request, model, plan, spec: o.soak, clock, confirm: confirmOffModel(model), log: io.stderr, onPassStart: (h) => (current = h), keepGoing });
+        result = soak.status === 'complete' ? soak.result : { ...soak.result, status: soak.status, message: soak.message };
+      } else {
+        current = engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) });
+        result = await current.done;
+      }
     } finally {
+      stopOnInterrupt();
       progress.end(null);
     }
     const endedAt = new Date();
@@ -107,39 +126,65 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
       }
     }
     const score = scoreRun(model, plan, result, result.figures.checkFailures);
-    const verdict = judge(score, limits);
+    const verdict = judge(score, limits, soak ? { unstableCodes: soak.record.unstable.count } : {});
     const report: RunReport = {
       core: o.core, build: o.build, board: o.board, device: o.device, baud, info, plan, planText: o.planText, model, modelFrom: from,
       limitsFrom, status: result.status, elapsedMs: result.elapsedMs, score, figures: result.figures, verdict, archive: o.out,
+      conditions, conditionsFromBoard: fromBoard, soak: soak?.record ?? null,
+      explanation: o.explain ? explainRun(model, result) : undefined,
     };
     for (const w of warnings.slice(0, 5)) io.stderr(`warning: ${w}\n`);
+    const writeJunit = (sessionUrl: string | null) => {
+      if (!o.junit) return;
+      try {
+        (deps.writeFile ?? writeFileSync)(o.junit, new TextEncoder().encode(junitXml(report, sessionUrl)));
+      } catch (e) {
+        throw new RunError(`cannot write the JUnit report to ${o.junit}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
+      }
+    };
+    if (deps.interrupt?.requested) {
+      // What was captured is on record (--out); a partial session is not uploaded.
+      io.stdout(o.json ? JSON.stringify(jsonSummary(report, null), null, 2) + '\n' : humanReport(report));
+      io.stderr(`interrupted: ${score.answered} of ${score.total} codes answered${o.out ? `, the capture written to ${o.out}` : ''}; nothing uploaded\n`);
+      return INTERRUPTED_STATUS;
+    }
     let sessionId: number | null = null;
+    let sessionUrl: string | null = null;
     if (o.server && core) {
       // Print the verdict first: a refused upload must not hide what the board did.
       if (!o.json) io.stdout(humanReport(report));
       const summary = jsonSummary(report, null);
       try {
-        sessionId = await uploadSession(fetchImpl, o.server, {
+        ({ id: sessionId, url: sessionUrl } = await uploadSession(fetchImpl, o.server, {
           session: {
             coreId: core.id, coreSlug: core.slug, build: o.build, board: o.board, plan, startedAt: startedAt.toISOString(), endedAt: endedAt.toISOString(),
             transport: { kind: o.device.startsWith('ws') ? 'websocket' : 'serial', device: o.device, baud, crc },
             deviceInfo: info, stats: summary.stats, link: result.figures, verdict: summary.verdict, passed: verdict.passed, sampleCount: score.answered,
+            ...soakUpload(conditions, soak),
           },
           samples: packSamples(result.codes, result.cos, result.sin, result.answered),
           archive,
-        });
+        }));
       } catch (e) {
         if (o.json) io.stdout(JSON.stringify({ ...summary, upload: { error: (e as Error).message } }, null, 2) + '\n');
+        writeJunit(null); // the verdict stands without the session's address
         throw e;
       }
       if (o.json) io.stdout(JSON.stringify(jsonSummary(report, { sessionId }), null, 2) + '\n');
-      else io.stdout(`session uploaded${sessionId !== null ? `: ${o.server.url}/sessions/${sessionId}` : ''}\n`);
+      // The server's own address for it (PUBLIC_URL), else the one the runner was given.
+      else io.stdout(`session uploaded${sessionId !== null ? `: ${sessionUrl ?? `${o.server.url}/sessions/${sessionId}`}` : ''}\n`);
     } else if (o.json) io.stdout(JSON.stringify(jsonSummary(report, null), null, 2) + '\n');
     else io.stdout(humanReport(report));
+    writeJunit(o.server && sessionId !== null ? `${o.server.url}/sessions/${sessionId}` : null);
     return verdict.passed ? 0 : 1;
   } finally {
     await link.close().catch(() => undefined);
   }
+}
+
+/** The session's conditions and soak, left out when there are none (older servers refuse unknown keys). */
+function soakUpload(conditions: RunReport['conditions'], soak: SoakRun | null): Record<string, unknown> {
+  return { ...(Object.keys(conditions).length > 0 ? { conditions } : {}), ...(soak ? { soak: soak.record } : {}) };
 }
 
 /** The `run` command. */
@@ -150,9 +195,14 @@ export async function runRunCommand(argv: string[], io: CliIo, deps: RunDeps = {
       io.stdout(RUN_HELP);
       return 0;
     }
-    return await execute(o, io, deps);
+    if (deps.interrupt) return await execute(o, io, deps);
+    return await withSigint(io, (interrupt) => execute(o, io, { ...deps, interrupt }));
   } catch (e) {
-    if (e instanceof UsageError || e instanceof RunError || e instanceof ServerError) {
+    if (e instanceof UsageError) {
+      io.stderr(`error: ${oneLine(e.message)}\n${RUN_USAGE}\n`);
+      return 2;
+    }
+    if (e instanceof RunError || e instanceof ServerError) {
       io.stderr(`error: ${oneLine(e.message)}\n`);
       return 2;
     }

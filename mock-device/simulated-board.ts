@@ -1,4 +1,4 @@
-// The device end of the bench link, as PROTOCOL.md defines it, over any byte pipe. It keeps at
+// The device end of the bench link, as docs/protocol.md describes it, over any byte pipe. It keeps at
 // most queueDepth result pairs pending, generates sweeps itself as the line drains, and answers
 // whatever it cannot take with the matching NAK.
 import { DEFAULT_CRC8, type Crc8Name } from '../shared/link/crc8';

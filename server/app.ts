@@ -10,6 +10,7 @@ import { createSmtpMailer, discardingMailer, type Mailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { clientDistDir, dataDir, projectRoot } from './paths';
 import { auditRouter, outboxRouter } from './routes/admin';
+import { CHECK_REPLIES } from './routes/reply';
 import { authRouter, type LoginLimit } from './routes/auth';
 import { SignInAttemptStore } from './auth/sign-in-attempt-store';
 import { boardsRouter } from './routes/boards';
@@ -21,10 +22,13 @@ import type { RouteDeps } from './routes/deps';
 import { goldenVectorsRouter } from './routes/golden-vectors';
 import { healthRouter } from './routes/health';
 import { invitationsRouter } from './routes/invitations';
+import { sessionExplanationRouter } from './routes/session-explanation';
 import { sessionsRouter } from './routes/sessions';
 import { tokensRouter } from './routes/tokens';
 import { usersRouter } from './routes/users';
 import { securityHeaders } from './security-headers';
+import { createSocketDispatcher } from './sockets/upgrade';
+import { registerSimBoards } from './sockets/sim-boards';
 
 export interface AppDeps {
   config: Config;
@@ -43,7 +47,10 @@ export interface AppDeps {
 
 const version = (JSON.parse(fs.readFileSync(path.join(projectRoot, 'package.json'), 'utf8')) as { version: string }).version;
 
-/** Build the Express app. It does not listen: tests drive it with supertest. */
+/**
+ * Build the Express app. It does not listen: tests drive it with supertest. `app.sockets` holds
+ * the WebSocket routes; whoever listens attaches it to the HTTP(S) server.
+ */
 export function createApp({
   config,
   db,
@@ -57,12 +64,16 @@ export function createApp({
   const deps: RouteDeps = { config, db, mailer, uploadDir, bcryptCost };
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
-  app.use(securityHeaders());
+  app.set('trust proxy', config.trustProxy);
+  app.set('public url', config.publicUrl);
+  app.set(CHECK_REPLIES, config.nodeEnv !== 'production');
+  app.use(securityHeaders(config));
   app.use(express.json({ limit: '1mb' }));
 
   app.use('/api/health', healthRouter(db, version));
-  const passport = installAuth(app, config);
+  const { passport, authenticateUpgrade } = installAuth(app, config);
+  const sockets = createSocketDispatcher({ authenticate: authenticateUpgrade, allowedOrigins: config.publicUrl ? [new URL(config.publicUrl).origin] : [] });
+  registerSimBoards(sockets, config);
   app.use('/api/auth', authRouter(passport, loginLimit, new SignInAttemptStore(db)));
   app.use('/api/tokens', tokensRouter(deps));
   app.use('/api/users', usersRouter(deps));
@@ -72,6 +83,7 @@ export function createApp({
   app.use('/api/builds', buildsRouter(deps));
   app.use('/api/boards', boardsRouter(deps));
   app.use('/api/sessions/:sessionId/comments', sessionCommentsRouter(deps));
+  app.use('/api/sessions/:sessionId/explanation', sessionExplanationRouter(deps));
   app.use('/api/sessions', sessionsRouter(deps));
   app.use('/api/comments', commentsRouter(deps));
   app.use('/api/compare', compareRouter(deps));
@@ -86,5 +98,5 @@ export function createApp({
   }
 
   app.use(errorHandler());
-  return app;
+  return Object.assign(app, { sockets });
 }

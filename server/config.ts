@@ -2,6 +2,7 @@ import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { z } from 'zod';
+import { bridgeOriginsSchema, publicUrlSchema, readTlsFiles, trustProxySchema, type TlsFiles, type TrustProxy } from './network-config';
 import { dataDir } from './paths';
 
 const port = z.coerce.number().int().min(0).max(65535);
@@ -23,6 +24,12 @@ const envSchema = z.object({
   UPLOAD_LIMIT_BYTES: z.coerce.number().int().min(1).default(64 * 1024 * 1024),
   UPLOAD_DIR: z.string().default(path.join(dataDir, 'uploads')),
   DEMO_PASSWORD: z.string().min(8, 'must be at least 8 characters').optional(),
+  TLS_CERT_FILE: z.string().optional(),
+  TLS_KEY_FILE: z.string().optional(),
+  TRUST_PROXY: trustProxySchema.default(false),
+  PUBLIC_URL: publicUrlSchema.optional(),
+  SIM_BOARDS_MAX: z.coerce.number().int().min(0).max(256).default(8),
+  BRIDGE_ORIGINS: bridgeOriginsSchema.default([]),
 });
 
 export interface Config {
@@ -39,6 +46,16 @@ export interface Config {
   uploadDir: string;
   /** The demo accounts' password (`anglebench` when unset). */
   demoPassword: string;
+  /** HTTPS on PORT with this certificate and key (TLS_CERT_FILE, TLS_KEY_FILE); plain http without. */
+  tls?: TlsFiles;
+  /** Express's `trust proxy` for a reverse proxy that ends TLS (TRUST_PROXY; off by default). */
+  trustProxy: TrustProxy;
+  /** The address people use (PUBLIC_URL), for links in e-mail and the runner's output. */
+  publicUrl?: string;
+  /** Server-hosted simulated boards open at once (SIM_BOARDS_MAX, default 8; 0 turns them off). */
+  simBoardsMax: number;
+  /** WebSocket origins of bench bridges the page may reach (BRIDGE_ORIGINS), for the CSP. */
+  bridgeOrigins: string[];
 }
 
 export class ConfigError extends Error {
@@ -58,6 +75,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, secretFile = pa
     throw new ConfigError(parsed.error.issues.map((i) => `${i.path.join('.') || 'environment'}: ${i.message}`));
   }
   const e = parsed.data;
+  const { tls, issues } = readTlsFiles(e.TLS_CERT_FILE, e.TLS_KEY_FILE);
+  if (issues.length) throw new ConfigError(issues);
   return {
     nodeEnv: e.NODE_ENV,
     port: e.PORT,
@@ -69,6 +88,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, secretFile = pa
     uploadLimitBytes: e.UPLOAD_LIMIT_BYTES,
     uploadDir: path.resolve(e.UPLOAD_DIR),
     demoPassword: e.DEMO_PASSWORD ?? 'anglebench',
+    tls,
+    trustProxy: e.TRUST_PROXY,
+    publicUrl: e.PUBLIC_URL,
+    simBoardsMax: e.SIM_BOARDS_MAX,
+    bridgeOrigins: e.BRIDGE_ORIGINS,
   };
 }
 

@@ -1,5 +1,6 @@
 import type { AddressInfo } from 'node:net';
 import { createServer } from 'node:http';
+import { createServer as createHttpsServer } from 'node:https';
 import { createApp } from './app';
 import type { Config } from './config';
 import { openDatabase } from './db/connection';
@@ -36,18 +37,22 @@ export async function startServer(config: Config): Promise<RunningServer> {
   const abandoned = removeAbandonedUploads(config.uploadDir);
   if (abandoned > 0) console.log(`Removed ${abandoned} unfinished bitstream upload${abandoned === 1 ? '' : 's'} left by an earlier stop.`);
   const app = createApp({ config, db, mailer, uploadDir: config.uploadDir });
-  const server = createServer(app);
+  // TLS_CERT_FILE/TLS_KEY_FILE: HTTPS on the same port, so Web Serial works from other PCs.
+  const server = config.tls ? createHttpsServer({ cert: config.tls.cert, key: config.tls.key }, app) : createServer(app);
+  app.sockets.attach(server);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
     server.listen(config.port, config.host, resolve);
   });
   const { port } = server.address() as AddressInfo;
   return {
-    url: `http://${config.host === '0.0.0.0' ? '127.0.0.1' : config.host}:${port}`,
+    url: `${config.tls ? 'https' : 'http'}://${config.host === '0.0.0.0' ? '127.0.0.1' : config.host}:${port}`,
     mailCatcherUrl: catcher?.url,
     demoAccounts: await demoAccountsPresent(db),
     close: async () => {
-      await new Promise<void>((resolve) => server.close(() => resolve()));
+      const closed = new Promise<void>((resolve) => server.close(() => resolve()));
+      await app.sockets.close();
+      await closed;
       server.closeAllConnections();
       mailer.close();
       await catcher?.close();

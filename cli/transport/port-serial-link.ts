@@ -15,7 +15,7 @@ export interface SerialLinkOptions {
   binding?: object;
 }
 
-// Line problems the port reports that leave it usable: reading goes on (see PROTOCOL.md).
+// Line problems the port reports that leave it usable: reading goes on (see docs/protocol.md "1. Line").
 const RECOVERABLE = /overrun|framing|parity|break/i;
 
 /** One open serial port. Writes are serialised in call order through the port's own queue. */

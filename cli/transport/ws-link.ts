@@ -1,4 +1,4 @@
-import WebSocket from 'ws';
+import WebSocket, { type ClientOptions } from 'ws';
 import { ByteLinkBase, LinkClosedError } from '../../shared/link-engine/byte-link';
 
 /** A WebSocket device (the simulated board or a bench bridge) from Node, as a ByteLink. */
@@ -19,12 +19,31 @@ export class NodeSocketLink extends ByteLinkBase {
     ws.on('error', () => undefined); // 'close' follows with the reason
   }
 
-  /** Connect; reject with a one-line reason (refused, busy, timed out). */
-  static open(url: string, timeoutMs = 5000): Promise<NodeSocketLink> {
+  /**
+   * Connect; reject with a one-line reason (refused, busy, timed out). `options` carries what a
+   * server-hosted board needs: an Authorization header, a lab's own certificate authority.
+   */
+  static open(url: string, timeoutMs = 5000, options: Pick<ClientOptions, 'headers' | 'ca'> = {}): Promise<NodeSocketLink> {
     return new Promise((resolve, reject) => {
-      const ws = new WebSocket(url, { handshakeTimeout: timeoutMs });
+      const ws = new WebSocket(url, { ...options, handshakeTimeout: timeoutMs });
       const fail = (why: string) => reject(new Error(`Cannot connect to ${url}: ${why}`));
       ws.once('error', (err) => fail(err.message || 'connection failed'));
+      // A refused upgrade (401, 403, 404…) says why in its JSON body: show that, not just the code.
+      ws.once('unexpected-response', (req, res) => {
+        let body = '';
+        res.setEncoding('utf8');
+        res.on('data', (chunk: string) => (body += chunk.slice(0, 2000)));
+        res.on('end', () => {
+          let message = '';
+          try {
+            message = (JSON.parse(body) as { error?: { message?: string } }).error?.message ?? '';
+          } catch {
+            // not the server's JSON: the status alone
+          }
+          fail(`${res.statusCode} ${res.statusMessage ?? ''}${message ? `: ${message}` : ''}`.trim());
+          req.destroy();
+        });
+      });
       ws.once('open', () => {
         // A busy device accepts the handshake and closes at once: wait a moment for that.
         const early = (code: number, reason: Buffer) => fail(reason.toString() || `closed with code ${code}`);

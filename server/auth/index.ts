@@ -5,6 +5,7 @@ import { bearerAuth } from './bearer';
 import { csrfGuard } from './csrf';
 import { createPassport } from './passport';
 import { SignInStore } from './sign-in-store';
+import { upgradeAuthenticator } from './socket-auth';
 import './types';
 
 export { requireRole, currentUser, hasRole } from './guards';
@@ -13,34 +14,34 @@ export { csrfTokenOf } from './csrf';
 /**
  * Sign-in cookie (kept in the database), Passport, bearer tokens and the CSRF guard, in that
  * order: the guard must know whether the caller came with a token. Returns the Passport instance
- * for the sign-in route.
+ * for the sign-in route, and how WebSocket upgrades (which pass no Express middleware) learn who
+ * they come from.
  */
 export function installAuth(app: Express, config: Config) {
-  app.use(
-    session({
-      name: 'anglebench.sid',
-      secret: config.sessionSecret,
-      store: new SignInStore(),
-      resave: false,
-      saveUninitialized: false,
-      cookie: {
-        httpOnly: true,
-        sameSite: 'lax',
-        // 'auto' marks the cookie secure only on https requests, so plain http on localhost
-        // keeps working in production mode.
-        secure: config.nodeEnv === 'production' ? 'auto' : false,
-        maxAge: 7 * 24 * 60 * 60 * 1000,
-      },
-    }),
-  );
+  const sessions = session({
+    name: 'anglebench.sid',
+    secret: config.sessionSecret,
+    store: new SignInStore(),
+    resave: false,
+    saveUninitialized: false,
+    cookie: {
+      httpOnly: true,
+      sameSite: 'lax',
+      // 'auto': Secure whenever the request came over HTTPS, directly or through a trusted
+      // proxy (req.secure, TRUST_PROXY); plain http on localhost keeps working.
+      secure: 'auto',
+      maxAge: 7 * 24 * 60 * 60 * 1000,
+    },
+  });
+  app.use(sessions);
   const passport = createPassport();
-  app.use(passport.initialize());
-  app.use(passport.session());
+  const passportMiddleware = [passport.initialize(), passport.session()];
+  app.use(passportMiddleware);
   app.use((req, _res, next) => {
     if (req.user) req.authVia = 'session';
     next();
   });
   app.use(bearerAuth);
   app.use('/api', csrfGuard);
-  return passport;
+  return { passport, authenticateUpgrade: upgradeAuthenticator(sessions, passportMiddleware) };
 }

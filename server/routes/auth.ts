@@ -6,6 +6,8 @@ import { csrfTokenOf, requireRole } from '../auth';
 import type { User } from '../db/models';
 import { HttpError } from '../http-error';
 import { validate } from '../middleware/validate';
+import { csrfReply, loginReply, meReply } from '../../shared/contract/people';
+import { reply } from './reply';
 
 export interface LoginLimit {
   windowMs: number;
@@ -15,7 +17,7 @@ export interface LoginLimit {
 
 const loginBody = z.strictObject({ email: z.email().max(254), password: z.string().min(1).max(200) });
 
-/** /api/auth: the CSRF token, sign-in, sign-out and who am I. */
+/** /api/auth: the CSRF token, sign-in, sign-out, who am I and who is signed in. */
 export function authRouter(passport: ReturnType<typeof createPassport>, limit: LoginLimit, store: Store) {
   const router = Router();
   const loginLimiter = rateLimit({
@@ -30,7 +32,7 @@ export function authRouter(passport: ReturnType<typeof createPassport>, limit: L
   });
 
   router.route('/csrf').get((req, res) => {
-    res.json({ token: csrfTokenOf(req) });
+    reply(res, csrfReply, { token: csrfTokenOf(req) });
   });
 
   router.route('/login').post(loginLimiter, validate({ body: loginBody }), (req, res, next) => {
@@ -42,7 +44,7 @@ export function authRouter(passport: ReturnType<typeof createPassport>, limit: L
       // token goes with it, so the reply carries the new one.
       req.logIn(user, (loginErr) => {
         if (loginErr) return next(loginErr);
-        res.json({ user: user.toPublic(), csrfToken: csrfTokenOf(req) });
+        reply(res, loginReply, { user: user.toPublic(), csrfToken: csrfTokenOf(req) });
       });
     })(req, res, next);
   });
@@ -55,7 +57,14 @@ export function authRouter(passport: ReturnType<typeof createPassport>, limit: L
   });
 
   router.route('/me').get(requireRole('reviewer'), (req, res) => {
-    res.json({ user: req.user!.toPublic(), via: req.authVia });
+    reply(res, meReply, { user: req.user!.toPublic(), via: req.authVia! });
+  });
+
+  // The browser's question at every page load. Nobody signed in is an answer, not an error, so it
+  // is 200 with null (a 401 would be logged in the browser's console); /me stays 401 for clients
+  // that must be signed in.
+  router.route('/current').get((req, res) => {
+    res.json({ user: req.user ? req.user.toPublic() : null });
   });
 
   return router;

@@ -2,16 +2,17 @@
 import type { Request } from 'express';
 import { z } from 'zod';
 
-export const id = z.coerce.number().int().positive();
-export const idParams = z.strictObject({ id });
+// The id schemas are the API contract's.
+export { id, idParams } from '../../shared/contract/common';
 
 export const pageQuery = z.strictObject({
   limit: z.coerce.number().int().min(1).max(500).default(100),
   offset: z.coerce.number().int().min(0).default(0),
 });
 
-/** The address the caller reached us at, for links in e-mails (no public URL is configured). */
-export const originOf = (req: Request) => `${req.protocol}://${req.get('host') ?? 'localhost'}`;
+/** Where links in e-mail point: PUBLIC_URL when set, else the address this request came to. */
+export const originOf = (req: Request): string =>
+  (req.app.get('public url') as string | undefined) ?? `${req.protocol}://${req.get('host') ?? 'localhost'}`;
 
 /** The parsed params of a request behind validate({ params }). */
 export const paramsOf = <T>(req: Request) => req.params as unknown as T;

@@ -7,6 +7,7 @@ import { isCrc8Name, type Crc8Name } from './crc8';
 import type { AcceptedKinds, DecodedFrame, SkipEvent, SkipReason } from './decoder';
 import { HEADER_BYTES, FRAME_OVERHEAD, SYNC } from './frame';
 import { validateProfile, WireProfileError, type WireProfile } from './wire-profile';
+import { decodeUtf8, encodeUtf8 } from './text-codec';
 
 /** First four bytes of an archive: ASCII "ABRC". */
 export const ARCHIVE_MAGIC = Uint8Array.of(0x41, 0x42, 0x52, 0x43);
@@ -69,8 +70,8 @@ const FORMATS = ['turn', 'rad'] as const;
 /** Writes magic, version and header. */
 export function writeHeader(log: ByteLog, h: ArchiveHeader): void {
   const p = validateProfile(h.profile);
-  const crc = new TextEncoder().encode(h.crc);
-  const label = new TextEncoder().encode(h.label);
+  const crc = encodeUtf8(h.crc);
+  const label = encodeUtf8(h.label);
   if (label.length > 0xffff - 16) throw new RangeError('label must be under 65,519 bytes of UTF-8');
   log.bytes(ARCHIVE_MAGIC);
   log.u8(ARCHIVE_VERSION);
@@ -132,12 +133,12 @@ function readHeader(c: ByteCursor): ArchiveHeader {
   if (version !== ARCHIVE_VERSION) throw new ArchiveError('unsupported-version', `archive version ${version} is not supported (this reader knows ${ARCHIVE_VERSION})`);
   const h = new ByteCursor(c.bytes(c.u16()));
   const profile = readProfile(h);
-  const crc = new TextDecoder().decode(h.bytes(h.u8()));
+  const crc = decodeUtf8(h.bytes(h.u8()));
   if (!isCrc8Name(crc)) throw new ArchiveError('corrupt', `archive names an unknown CRC-8 "${crc}"`);
   const toDevice = ACCEPTS[h.u8()];
   const toHost = ACCEPTS[h.u8()];
   if (!toDevice || !toHost) throw new ArchiveError('corrupt', 'archive header has an unknown decoder KIND set');
-  const label = new TextDecoder().decode(h.bytes(h.u16()));
+  const label = decodeUtf8(h.bytes(h.u16()));
   return { profile, crc, accept: { 'to-device': toDevice, 'to-host': toHost }, label };
 }
 

@@ -35,7 +35,7 @@ export interface Crc8Params {
 /** The bench link's default CHECK. */
 export const DEFAULT_CRC8: Crc8Name = 'CRC-8/SMBUS';
 
-/** Parameters and check values of every supported variant (CRC catalogue, see REFERENCES.md). */
+/** Parameters and check values of every supported variant (docs/references.md "CRC-8 catalogue"). */
 export const CRC8_CATALOGUE: Readonly<Record<Crc8Name, Readonly<Crc8Params>>> = {
   'CRC-8/SMBUS': { poly: 0x07, init: 0x00, refin: false, refout: false, xorout: 0x00, check: 0xf4, residue: 0x00 },
   'CRC-8/MAXIM-DOW': { poly: 0x31, init: 0x00, refin: true, refout: true, xorout: 0x00, check: 0xa1, residue: 0x00 },

@@ -1,4 +1,4 @@
-// Frame layout (PROTOCOL.md "Frame"):
+// Frame layout (docs/protocol.md "2. Frame"):
 //   offset 0      SYNC   0xA5
 //   offset 1      KIND
 //   offset 2      TAG    0..255, echoed by replies

@@ -1,4 +1,4 @@
-// KIND codes, NAK reasons and SWEEP_END statuses of the bench link, version 1 (PROTOCOL.md).
+// KIND codes, NAK reasons and SWEEP_END statuses of the bench link, version 1 (docs/protocol.md).
 
 /** Every KIND of frame on the bench link. 0x0_–0x2_ go host → device, 0x8_–0xA_ device → host. */
 export const Kind = {

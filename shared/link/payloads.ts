@@ -1,4 +1,4 @@
-// Payload codecs for every KIND (PROTOCOL.md "Host → device", "Device → host"). All fields are
+// Payload codecs for every KIND (docs/protocol.md "Host → board", "Board → host"). All fields are
 // little-endian. Angle fields are ceil(angleBits/8) bytes (unsigned for `turn`, two's complement
 // for `rad`); output fields are ceil(outBits/8) bytes, two's complement.
 import { DEFAULT_CRC8, type Crc8Name } from './crc8';

@@ -82,9 +82,27 @@ export class CodeCoverage {
     this.perOctant[this.octantOf(code)]++;
   }
 
-  /** Marks codes[0..n) as seen. */
+  /** Marks codes[0..n) as seen: add() per code, with the bit set's arithmetic in integers. */
   addAll(codes: ArrayLike<number>, n: number): void {
-    for (let k = 0; k < n; k++) this.add(codes[k]);
+    const bits = this.bits;
+    if (!bits) {
+      for (let k = 0; k < n; k++) this.add(codes[k]);
+      return;
+    }
+    const { min, perOctant, octantOf } = this;
+    let distinct = this.distinct;
+    for (let k = 0; k < n; k++) {
+      const code = codes[k];
+      const at = code - min; // below 2^24, so the shifts are exact
+      const byte = at >>> 3;
+      const mask = 1 << (at & 7);
+      const b = bits[byte];
+      if (b & mask) continue;
+      bits[byte] = b | mask;
+      distinct++;
+      perOctant[octantOf(code)]++;
+    }
+    this.distinct = distinct;
   }
 
   /** True when the code has been seen. */

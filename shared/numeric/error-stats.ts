@@ -104,12 +104,18 @@ export class ErrorHistogram {
   addAll(errLsb: Float64Array, n: number): void {
     const { limitLsb, binsPerLsb } = this.options;
     const counts = this.counts;
+    const bins = counts.length;
+    let below = 0;
+    let above = 0;
     for (let k = 0; k < n; k++) {
-      const bin = Math.floor((errLsb[k] + limitLsb) * binsPerLsb);
-      if (bin < 0) this.below++;
-      else if (bin >= counts.length) this.above++;
-      else counts[bin]++;
+      // As add(): the bin is floor(t); for 0 ≤ t < bins that is t | 0, without a call.
+      const t = (errLsb[k] + limitLsb) * binsPerLsb;
+      if (t < 0) below++;
+      else if (t >= bins) above++;
+      else counts[t | 0]++;
     }
+    this.below += below;
+    this.above += above;
   }
 
   /** Folds another histogram with the same bins into this one. */

@@ -1,4 +1,4 @@
-// Angle and output number formats of the bench link (PROTOCOL.md "Numbers"). Plain arithmetic
+// Angle and output number formats of the bench link (docs/protocol.md "3. Numbers"). Plain arithmetic
 // throughout: codes reach 32 bits and JavaScript's bit operators would wrap them.
 import { AngleCodeError, OutputCodeError } from './errors';
 import type { ModelConfig } from './model-config';

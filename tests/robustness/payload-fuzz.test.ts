@@ -12,7 +12,7 @@ const profileArb: fc.Arbitrary<WireProfile> = fc.record({
   outBits: fc.integer({ min: 2, max: 32 }),
 });
 
-/** The LEN rules of PROTOCOL.md's request and reply tables, restated here from the table. */
+/** The LEN rules of docs/protocol.md "5. Which LEN values are possible", restated here from the table. */
 function protocolAllows(kind: number, len: number, p: WireProfile): boolean {
   const angle = Math.ceil(p.angleBits / 8);
   const pair = 2 * Math.ceil(p.outBits / 8);
@@ -58,7 +58,7 @@ const printable = (s: string) => /^[\x20-\x7e]*$/.test(s);
 
 describe('every payload codec under fuzzing', () => {
   for (const kind of Object.values(Kind)) {
-    it(`${kindName(kind)}: refuses exactly the lengths PROTOCOL.md forbids, and what it reads encodes back to the same bytes`, () => {
+    it(`${kindName(kind)}: refuses exactly the lengths docs/protocol.md forbids, and what it reads encodes back to the same bytes`, () => {
       let decoded = 0;
       fc.assert(
         fc.property(payloadFor(kind), ({ profile, payload }) => {

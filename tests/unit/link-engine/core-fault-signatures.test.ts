@@ -31,7 +31,7 @@ describe('each core fault shows the signature an engineer would expect', () => {
   it('gain (start value for 2 iterations) makes the magnitude about 4% high, the phase stays right', async () => {
     const s = await scoreFault('gain');
     expect(s.mismatches.count).toBeGreaterThan(60_000);
-    // K_2 / K_16 = 0.6325 / 0.6073 ≈ 1.041 (K_n as in REFERENCES.md: Volder; Walther).
+    // K_2 / K_16 = 0.6325 / 0.6073 ≈ 1.041 (K_n as in docs/references.md "CORDIC, rotation mode": Volder; Walther).
     expect(s.magnitude.mean).toBeGreaterThan(0.035);
     expect(s.magnitude.mean).toBeLessThan(0.047);
     // The phase of a scaled vector is unchanged: within a few LSB of angle.

@@ -100,7 +100,7 @@ describe('payload codecs', () => {
   });
 
   it('lays out a ONE request for a 16-bit turn angle little-endian', () => {
-    // 30° as a 16-bit binary angle is 5461 = 0x1555 (REFERENCES.md, number formats).
+    // 30° as a 16-bit binary angle is 5461 = 0x1555 (docs/references.md "Number formats").
     const p: WireProfile = { angleFormat: 'turn', angleBits: 16, outBits: 16 };
     expect([...encodePayload({ kind: Kind.One, angleCode: 5461 }, p)]).toEqual([0x55, 0x15]);
   });
@@ -128,7 +128,7 @@ describe('payload codecs', () => {
 
   it('fits 127 LIST codes and 62 RESULTS pairs in a frame for 16-bit cores, as the link budget assumes', () => {
     const p: WireProfile = { angleFormat: 'turn', angleBits: 16, outBits: 16 };
-    // PROTOCOL.md link budget: RESULTS frames of 62 pairs, 5 + 4 + 62·4 = 257 bytes.
+    // docs/protocol.md "7. Throughput": RESULTS frames of 62 pairs, 5 + 4 + 62·4 = 257 bytes.
     expect(maxResultPairs(p)).toBe(62);
     expect(encodeMessage({ kind: Kind.Results, firstIndex: 0, cos: new Int32Array(62), sin: new Int32Array(62) }, 0, p)).toHaveLength(257);
     expect(maxListCodes(p)).toBe(127);

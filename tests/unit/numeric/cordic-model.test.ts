@@ -220,7 +220,7 @@ describe('the CORDIC reference model', () => {
   });
 
   it('needs the quadrant fold beyond about ±99.88°, the convergence range', () => {
-    // REFERENCES.md: without pre-rotation CORDIC converges within Σ atan(2^-i) ≈ 99.88° (Walther; Andraka).
+    // docs/references.md "CORDIC, rotation mode": without pre-rotation CORDIC converges within Σ atan(2^-i) ≈ 99.88° (Walther; Andraka).
     const unfolded = createCordicModel({ fold: false });
     const folded = createCordicModel({ fold: true });
     const at = (deg: number) => (Math.round((deg / 360) * 65536) + 65536) % 65536;
@@ -230,7 +230,7 @@ describe('the CORDIC reference model', () => {
   });
 
   it('saturates instead of wrapping when the output format cannot hold 1.0', () => {
-    // Q15 cannot hold +1.0 (REFERENCES.md "Number formats"); a wrap would give -32768.
+    // Q15 cannot hold +1.0 (docs/references.md "Number formats"); a wrap would give -32768.
     const m = createCordicModel({ outBits: 16, outFrac: 15, guardBits: 4, iterations: 20 });
     expect(m.evaluate(0).cos).toBe(32767);
     expect(m.evaluate(0x8000).cos).toBe(-32768);

@@ -8,7 +8,7 @@ Decimal.set({ precision: 40 });
 
 describe('the CORDIC gain K_n', () => {
   it('matches the published K_n for 8, 12, 16, 20 and 24 iterations', () => {
-    // REFERENCES.md "CORDIC, rotation mode": K_n = Π (1+2^-2i)^-1/2 (Volder 1959; Walther 1971).
+    // docs/references.md "CORDIC, rotation mode": K_n = Π (1+2^-2i)^-1/2 (Volder 1959; Walther 1971).
     const table: [number, number, number][] = [
       [8, Number('0.60725911229889273006'), Number('1.6467435065969011554')],
       [12, Number('0.60725295913894481363'), Number('1.6467601926846950316')],
@@ -23,7 +23,7 @@ describe('the CORDIC gain K_n', () => {
   });
 
   it('tends to 0.6072529350088812561694 as iterations grow', () => {
-    // REFERENCES.md: K_∞ = 0.6072529350088812561694 (Volder 1959; Walther 1971).
+    // docs/references.md "CORDIC, rotation mode": K_∞ = 0.6072529350088812561694 (Volder 1959; Walther 1971).
     expect(Math.abs(cordicGain(40) - Number('0.6072529350088812561694'))).toBeLessThan(1e-15);
   });
 
@@ -37,7 +37,7 @@ describe('the CORDIC gain K_n', () => {
   });
 
   it('starts x at 19898 in Q15 for many iterations, the usual gain-compensated constant', () => {
-    // REFERENCES.md: round(K_∞ · 32768) = 19898 (0x4DBA), ≈ 0.60725 (common practice, no source).
+    // docs/references.md "CORDIC, rotation mode": round(K_∞ · 32768) = 19898 (0x4DBA), ≈ 0.60725 (common practice, no source).
     const t = buildCordicTables(parseModelConfig({ outBits: 16, outFrac: 15, guardBits: 0, iterations: 32 }));
     expect(t.x0).toBe(19898);
     expect(t.x0).toBe(0x4dba);
@@ -47,13 +47,13 @@ describe('the CORDIC gain K_n', () => {
 
 describe('the arctangent table', () => {
   it('holds atan(2^-i) as 16-bit binary angles exactly as published', () => {
-    // REFERENCES.md "CORDIC, rotation mode": 16-bit binary-angle codes of atan(2^-i), i = 0..15.
+    // docs/references.md "CORDIC, rotation mode": 16-bit binary-angle codes of atan(2^-i), i = 0..15.
     const t = buildCordicTables(parseModelConfig({ angleBits: 16, zGuardBits: 0, iterations: 16 }));
     expect(Array.from(t.atan)).toEqual([8192, 4836, 2555, 1297, 651, 326, 163, 81, 41, 20, 10, 5, 3, 1, 1, 0]);
   });
 
   it('holds atan(2^-i) in radians that match the published values', () => {
-    // REFERENCES.md: atan(2^-i) for i = 0, 1, 2, 3, 4, 8, 16.
+    // docs/references.md "CORDIC, rotation mode": atan(2^-i) for i = 0, 1, 2, 3, 4, 8, 16.
     const published: [number, number][] = [
       [0, Number('0.78539816339744830962')],
       [1, Number('0.46364760900080611621')],
@@ -71,7 +71,7 @@ describe('the arctangent table', () => {
   });
 
   it('sums to the convergence range of about 1.7433 rad (99.88°), beyond a quarter turn', () => {
-    // REFERENCES.md: Σ atan(2^-i) = 1.7432866204723400035 rad (Walther gives ≈ 1.74; Andraka).
+    // docs/references.md "CORDIC, rotation mode": Σ atan(2^-i) = 1.7432866204723400035 rad (Walther gives ≈ 1.74; Andraka).
     const t = buildCordicTables(parseModelConfig({ angleFormat: 'rad', angleBits: 32, angleFrac: 30, iterations: 40 }));
     const sum = t.atan.reduce((a, b) => a + b, 0) / 2 ** 32;
     expect(Math.abs(sum - Number('1.7432866204723400035'))).toBeLessThan(40 * 2 ** -33);

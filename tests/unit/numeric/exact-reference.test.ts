@@ -45,7 +45,7 @@ describe('the exact reference', () => {
   });
 
   it('matches the tabulated sin and cos of 1°, 5°, 10°, 18°, 36° and 1 rad', () => {
-    // REFERENCES.md "Exact values" (recomputed in arbitrary precision; A&S ch. 4 tabulates the same).
+    // docs/references.md "Exact values" (recomputed in arbitrary precision; A&S ch. 4 tabulates the same).
     const table: [number, number, number][] = [
       [1, Number('0.0174524064372835128'), Number('0.999847695156391239')],
       [5, Number('0.0871557427476581736'), Number('0.996194698091745532')],
@@ -98,7 +98,7 @@ describe('the ideal output codes', () => {
   });
 
   it('saturate at the format ends, so Q15 gives 32767 for 1.0', () => {
-    // REFERENCES.md "Number formats": Q15 tops out at 1 − 2^-15 (common practice).
+    // docs/references.md "Number formats": Q15 tops out at 1 − 2^-15 (common practice).
     expect(idealOutputCode({ outBits: 16, outFrac: 15 }, 1)).toBe(32767);
     expect(idealOutputCode({ outBits: 16, outFrac: 15 }, -1)).toBe(-32768);
   });

@@ -47,7 +47,7 @@ describe('angle formats', () => {
   });
 
   it('maps degrees to 16-bit binary angles as the binary-angle convention tabulates', () => {
-    // REFERENCES.md "Number formats" (binary angle; common practice, no source).
+    // docs/references.md "Number formats" (binary angle; common practice, no source).
     expect(degreesToAngleCode(turn16, 1)).toBe(182);
     expect(degreesToAngleCode(turn16, 10)).toBe(1820);
     expect(degreesToAngleCode(turn16, 30)).toBe(5461);
@@ -60,7 +60,7 @@ describe('angle formats', () => {
   });
 
   it('wraps binary angles modulo a full turn, negative angles included', () => {
-    // REFERENCES.md "Number formats": a binary angle wraps modulo 2^N (common practice, no source).
+    // docs/references.md "Number formats": a binary angle wraps modulo 2^N (common practice, no source).
     expect(degreesToAngleCode(turn16, -90)).toBe(0xc000);
     expect(degreesToAngleCode(turn16, 360 + 45)).toBe(0x2000);
     expect(degreesToAngleCode(turn16, 359.999)).toBe(0);
@@ -69,7 +69,7 @@ describe('angle formats', () => {
   });
 
   it('covers [-8, 8) rad with 16 bits and 12 fraction bits, and saturates sweeps there', () => {
-    // PROTOCOL.md "Numbers": 16 bits, 12 fraction bits covers [-8, 8) rad.
+    // docs/protocol.md "3. Numbers": 16 bits, 12 fraction bits covers [-8, 8) rad.
     expect(angleCodeRange(rad16)).toEqual({ min: -32768, max: 32767, count: 65536 });
     expect(angleCodeToRadians(rad16, -32768)).toBe(-8);
     expect(angleCodeToRadians(rad16, 32767)).toBe(8 - 2 ** -12);
@@ -90,7 +90,7 @@ describe('angle formats', () => {
 
 describe('output formats', () => {
   it('reads 16-bit outputs with 14 fraction bits as the protocol states: 1.0 is 16384', () => {
-    // PROTOCOL.md "Numbers".
+    // docs/protocol.md "3. Numbers".
     const f = { outBits: 16, outFrac: 14 };
     expect(valueToOutputCode(f, 1)).toBe(16384);
     expect(outputLsb(f)).toBe(2 ** -14);
@@ -98,7 +98,7 @@ describe('output formats', () => {
   });
 
   it('gives Q15 its usual range and LSB', () => {
-    // REFERENCES.md "Number formats": Q15 is [-1, 1 - 2^-15], LSB 3.0517578125e-5
+    // docs/references.md "Number formats": Q15 is [-1, 1 - 2^-15], LSB 3.0517578125e-5
     // (DSP vendor fixed-point library documentation; common practice).
     const q15 = { outBits: 16, outFrac: 15 };
     expect(outputLsb(q15)).toBe(3.0517578125e-5);
@@ -127,7 +127,7 @@ describe('output formats', () => {
 
 describe('wire fields', () => {
   it('sizes fields as ceil(bits / 8) bytes', () => {
-    // PROTOCOL.md "Numbers".
+    // docs/protocol.md "3. Numbers".
     expect([1, 8, 9, 16, 17, 24, 25, 32].map(fieldBytes)).toEqual([1, 1, 2, 2, 3, 3, 4, 4]);
   });
 

@@ -21,7 +21,7 @@ describe('the model configuration', () => {
   });
 
   it('gives rad angles angleBits − 4 fraction bits by default, so 16 bits cover [-8, 8) rad', () => {
-    // PROTOCOL.md "Numbers": 16 bits with 12 fraction bits covers [-8, 8) rad ⊇ [-2π, 2π].
+    // docs/protocol.md "3. Numbers": 16 bits with 12 fraction bits covers [-8, 8) rad ⊇ [-2π, 2π].
     expect(parseModelConfig({ angleFormat: 'rad' }).angleFrac).toBe(12);
     expect(parseModelConfig({ angleFormat: 'rad', angleBits: 24, angleFrac: 20 }).angleFrac).toBe(20);
   });

@@ -13,7 +13,7 @@ describe('plans', () => {
   });
 
   it('sweep by wrapping binary angles and saturating radians, as the bench link does', () => {
-    // PROTOCOL.md "Host → device": SWEEP codes start + i·step, wrapped (turn) or saturated (rad).
+    // docs/protocol.md "Host → board": SWEEP codes start + i·step, wrapped (turn) or saturated (rad).
     expect(Array.from(planCodes({ kind: 'sweep', start: 65534, step: 1, count: 4 }, turn16))).toEqual([65534, 65535, 0, 1]);
     expect(Array.from(planCodes({ kind: 'sweep', start: 2, step: -3, count: 3 }, turn16))).toEqual([2, 65535, 65532]);
     expect(Array.from(planCodes({ kind: 'sweep', start: 32760, step: 5, count: 3 }, rad16))).toEqual([32760, 32765, 32767]);

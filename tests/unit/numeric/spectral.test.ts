@@ -10,7 +10,7 @@ function quantisedSine(bits: number, cycles: number, length: number): Float64Arr
 describe('spectral figures of a coherent tone', () => {
   it('give an ideal N-bit quantised sine an SNR within 0.5 dB of 6.02·N + 1.76 dB', () => {
     // Bennett, "Spectra of Quantized Signals", BSTJ 27(3), 1948: noise Δ²/12, so SNR = 6.02·N + 1.76 dB.
-    // REFERENCES.md: a 65,536-sample, 4,099-cycle simulation gives 49.95, 74.03, 98.10, 122.17 dB.
+    // docs/references.md "Spectral figures": a 65,536-sample, 4,099-cycle simulation gives 49.95, 74.03, 98.10, 122.17 dB.
     for (const bits of [8, 12, 16, 20]) {
       const f = toneFigures(quantisedSine(bits, 4099, 65536), 4099);
       expect(Math.abs(f.snrDb - (6.02 * bits + 1.76))).toBeLessThan(0.5);
@@ -19,7 +19,7 @@ describe('spectral figures of a coherent tone', () => {
   });
 
   it('reads ENOB = (SINAD − 1.76) / 6.02 back as the word length of an ideal quantiser', () => {
-    // IEEE Std 1241-2010 ENOB from SINAD for a full-scale sine (from memory); REFERENCES.md: 74.00 dB → 12.00 bits.
+    // IEEE Std 1241-2010 ENOB from SINAD for a full-scale sine (from memory); docs/references.md "Spectral figures": 74.00 dB → 12.00 bits.
     for (const bits of [10, 14]) {
       const f = toneFigures(quantisedSine(bits, 1021, 16384), 1021);
       expect(f.enob).toBeCloseTo((f.sinadDb - 1.76) / 6.02, 12);

@@ -1,0 +1,52 @@
+// Taking in a session, uploaded (samples measured by the bench page or the runner) or imported
+// (a recorder archive or CSV): stored and scored in one transaction, then the regression mail,
+// then the one reply both give.
+import type { Sequelize, Transaction } from 'sequelize';
+import type { SessionImportPart, SessionUploadPart } from '../../shared/contract/sessions';
+import type { Mailer } from '../mail/mailer';
+import { sanitizeFileName } from '../uploads/bitstream-storage';
+import { mailRegression } from './regression-mail';
+import { readImport } from './session-import';
+import { storeSession, type StoredSession } from './session-ingest';
+
+interface IntakeDeps {
+  db: Sequelize;
+  mailer: Mailer;
+  /** Where links point: the regression mail's and the reply's `url` (PUBLIC_URL when set). */
+  origin: string;
+  operatorId: number;
+}
+
+async function accept({ db, mailer, origin }: IntakeDeps, store: (transaction: Transaction) => Promise<StoredSession>) {
+  const { row, core, stats, verdict, passed, failedLimits } = await db.transaction(store);
+  if (failedLimits.length > 0) await mailRegression(mailer, origin, row, core, failedLimits);
+  return { id: row.id, url: `${origin}/sessions/${row.id}`, passed, regression: row.regression, verdict, stats };
+}
+
+/** An upload: the runner's own score fields are dropped, the server scores the samples itself. */
+export function acceptUpload(deps: IntakeDeps, part: SessionUploadPart, samples: Buffer, archive: Buffer | null) {
+  const { link, stats: _s, verdict: _v, passed: _p, sampleCount: _n, ...draft } = part;
+  return accept(deps, (transaction) => storeSession(transaction, deps.operatorId, { ...draft, link }, samples, archive));
+}
+
+/** An import: what ran is read from the file; `part` says where it belongs. */
+export function acceptImport(deps: IntakeDeps, part: SessionImportPart, file: { buffer: Buffer; originalname: string }) {
+  const imported = readImport(file.buffer, file.originalname);
+  return accept(deps, (transaction) =>
+    storeSession(
+      transaction,
+      deps.operatorId,
+      {
+        ...part,
+        startedAt: part.startedAt ?? new Date(),
+        plan: { kind: 'imported', from: imported.source, fileName: sanitizeFileName(file.originalname) },
+        transport: { kind: 'import', source: imported.source },
+        deviceInfo: imported.deviceInfo,
+        link: imported.link,
+      },
+      imported.samples,
+      imported.archive,
+      { action: 'import' },
+    ),
+  );
+}

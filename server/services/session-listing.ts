@@ -1,0 +1,63 @@
+// Reading stored sessions as the API shows them: the filtered, paged list and one session's
+// detail, both built by `listed` so a list item and a detail are the same shape.
+import { literal, Op, type InferAttributes, type WhereOptions } from 'sequelize';
+import type { Literal } from 'sequelize/types/utils';
+import type { Sendable } from '../../shared/contract/check';
+import type { SessionListItem, SessionListQuery } from '../../shared/contract/sessions';
+import { jsonArrayContains } from '../db/dialect';
+import { BenchSession, Board, Build, Core, User } from '../db/models';
+import { notFound } from '../http-error';
+
+/** Without the blobs, with whether an archive is kept and the names a list shows. */
+const LISTED = {
+  attributes: { exclude: ['samples', 'archive'], include: [[literal('"BenchSession"."archive" IS NOT NULL'), 'hasArchive']] as [Literal, string][] },
+  include: [
+    { model: Core, as: 'core', attributes: ['id', 'name', 'slug'] },
+    { model: Build, as: 'build', attributes: ['id', 'label'] },
+    { model: Board, as: 'board', attributes: ['id', 'name'] },
+    { model: User, as: 'operator', attributes: ['id', 'name'] },
+  ],
+};
+/** The names LISTED includes (not part of the model's own attributes). */
+type Included = Sendable<Pick<SessionListItem, 'core' | 'build' | 'board' | 'operator'>>;
+const listed = (row: BenchSession): Sendable<SessionListItem> => ({
+  ...row.toJSON<InferAttributes<BenchSession> & Included>(),
+  hasArchive: Boolean(row.get('hasArchive')),
+});
+
+function listWhere(q: SessionListQuery): WhereOptions {
+  const where: Record<string | symbol, unknown> = {};
+  for (const key of ['coreId', 'buildId', 'boardId', 'operatorId', 'passed', 'regression'] as const) {
+    if (q[key] !== undefined) where[key] = q[key];
+  }
+  if (q.from || q.to) where.startedAt = { ...(q.from ? { [Op.gte]: q.from } : {}), ...(q.to ? { [Op.lte]: q.to } : {}) };
+  if (q.tag) where[Op.and] = jsonArrayContains(BenchSession.sequelize!, '"BenchSession"."tags"', q.tag);
+  return where as WhereOptions;
+}
+
+/** One page of sessions matching the filters, newest first unless `sort` says otherwise. */
+export async function listSessions(q: SessionListQuery) {
+  const column = q.sort.replace('-', '');
+  const { rows, count } = await BenchSession.findAndCountAll({
+    ...LISTED,
+    where: listWhere(q),
+    order: [[column, q.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']],
+    limit: q.pageSize,
+    offset: (q.page - 1) * q.pageSize,
+  });
+  return { items: rows.map(listed), total: count, page: q.page, pageSize: q.pageSize };
+}
+
+/** One session with its names, without the blobs. @throws HttpError 404 */
+export async function sessionDetail(id: number) {
+  const session = await BenchSession.findByPk(id, LISTED);
+  if (!session) throw notFound('Session');
+  return { session: listed(session) };
+}
+
+/** A stored session with (default) or without its blobs. @throws HttpError 404 */
+export async function findSession(id: number, { blobs = true } = {}): Promise<BenchSession> {
+  const session = await BenchSession.findByPk(id, blobs ? {} : { attributes: { exclude: ['samples', 'archive'] } });
+  if (!session) throw notFound('Session');
+  return session;
+}

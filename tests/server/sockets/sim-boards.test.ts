@@ -1,0 +1,157 @@
+// Simulated boards hosted by the app server: one per connection, each bit-exact with the model
+// while another runs; at most SIM_BOARDS_MAX, the next refused with how many are in use; idle
+// boards freed; settings read from the address, bad ones refused before the upgrade.
+import { createServer } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import WebSocket from 'ws';
+import { NodeSocketLink } from '../../../cli/transport/ws-link';
+import type { User } from '../../../server/db/models';
+import { Core } from '../../../server/db/models';
+import { boardsBusyReason, idleReason, registerSimBoards, SIM_BOARD_PATH, TRY_AGAIN_LATER } from '../../../server/sockets/sim-boards';
+import { createSocketDispatcher, type SocketDispatcher } from '../../../server/sockets/upgrade';
+import { LinkEngine } from '../../../shared/link-engine/link-engine';
+import { createCordicModel, parseModelConfig } from '../../../shared/numeric';
+import { realEngineClock } from '../../support/in-process-board';
+import { testApp, type TestApp } from '../../support/test-app';
+
+const CODES = 1 << 16;
+
+/** The hosted boards alone, behind a dispatcher that takes everybody as an engineer. */
+async function hostedBoards(simBoardsMax: number, idleMs?: number) {
+  const sockets: SocketDispatcher = createSocketDispatcher({ authenticate: async () => ({ user: { role: 'engineer' } as User, via: 'token' }) });
+  const counts: number[] = [];
+  registerSimBoards(sockets, { simBoardsMax }, { idleMs, onCount: (n) => counts.push(n) });
+  const server = createServer();
+  sockets.attach(server);
+  await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+  const url = `ws://127.0.0.1:${(server.address() as AddressInfo).port}${SIM_BOARD_PATH}`;
+  return {
+    url,
+    counts,
+    close: async () => {
+      await sockets.close();
+      await new Promise<void>((r) => server.close(() => r()));
+    },
+  };
+}
+
+/** An exhaustive 16-bit sweep on its own connection, compared bit for bit with the model. */
+async function exhaustiveSweep(url: string, modelConfig = {}) {
+  const link = await NodeSocketLink.open(url);
+  try {
+    const engine = new LinkEngine({ link, clock: realEngineClock, baud: 3_000_000 });
+    await engine.hello();
+    const result = await engine.run({ kind: 'sweep', start: 0, step: 1, count: CODES }).done;
+    const cos = new Int32Array(CODES);
+    const sin = new Int32Array(CODES);
+    createCordicModel(modelConfig).evaluateInto(result.codes, cos, sin);
+    return {
+      status: result.status,
+      missing: result.missing.length,
+      bitExact: Buffer.from(result.cos.buffer).equals(Buffer.from(cos.buffer)) && Buffer.from(result.sin.buffer).equals(Buffer.from(sin.buffer)),
+    };
+  } finally {
+    await link.close();
+  }
+}
+
+let t: TestApp;
+beforeAll(async () => {
+  t = await testApp(); // the database, for ?core=
+});
+afterAll(() => t?.close());
+
+describe('server-hosted simulated boards', () => {
+  it('gives two connections a board each, both exhaustive sweeps bit-exact at the same time', async () => {
+    const boards = await hostedBoards(2);
+    try {
+      const [a, b] = await Promise.all([exhaustiveSweep(boards.url), exhaustiveSweep(boards.url)]);
+      expect(a).toEqual({ status: 'complete', missing: 0, bitExact: true });
+      expect(b).toEqual({ status: 'complete', missing: 0, bitExact: true });
+      expect(Math.max(...boards.counts)).toBe(2);
+    } finally {
+      await boards.close();
+    }
+  });
+
+  it('with SIM_BOARDS_MAX=2 refuses a third connection saying how many are in use, and takes it once one is free', async () => {
+    const boards = await hostedBoards(2);
+    try {
+      const first = await NodeSocketLink.open(boards.url);
+      const second = await NodeSocketLink.open(boards.url);
+      const raw = new WebSocket(boards.url);
+      const [code, reason] = await new Promise<[number, string]>((r) => raw.on('close', (c, why) => r([c, why.toString()])));
+      expect(code).toBe(TRY_AGAIN_LATER);
+      expect(reason).toBe(boardsBusyReason(2));
+      expect(reason).toMatch(/All 2 simulated boards .* in use \(2 of 2\)/);
+      await expect(NodeSocketLink.open(boards.url)).rejects.toThrow(/All 2 simulated boards/);
+      expect(boards.counts.at(-1)).toBe(2);
+      await first.close();
+      await expect.poll(() => boards.counts.at(-1)).toBe(1);
+      const third = await NodeSocketLink.open(boards.url);
+      await Promise.all([second.close(), third.close()]);
+    } finally {
+      await boards.close();
+    }
+  });
+
+  it('closes a connection that sends a message over 64 KiB with 1009 and frees its board', async () => {
+    const boards = await hostedBoards(1);
+    try {
+      const raw = new WebSocket(boards.url);
+      await new Promise((r) => raw.once('open', r));
+      const closed = new Promise<number>((r) => raw.once('close', (code) => r(code)));
+      raw.send(Buffer.alloc(64 * 1024 + 1));
+      // RFC 6455 section 7.4.1: 1009, a message too big to process.
+      expect(await closed).toBe(1009);
+      await expect.poll(() => boards.counts.at(-1)).toBe(0);
+    } finally {
+      await boards.close();
+    }
+  });
+
+  it('frees a board with no traffic for the idle time, with a reason', async () => {
+    const boards = await hostedBoards(1, 200);
+    try {
+      const raw = new WebSocket(boards.url);
+      const [code, reason] = await new Promise<[number, string]>((r) => raw.on('close', (c, why) => r([c, why.toString()])));
+      expect(code).toBe(1000);
+      expect(reason).toBe(idleReason(200));
+      await expect.poll(() => boards.counts.at(-1)).toBe(0);
+    } finally {
+      await boards.close();
+    }
+  });
+
+  it("takes a core's model and link profile from ?core=, and its own settings from the query", async () => {
+    await Core.create({ name: 'Wide core', slug: 'wide-18', linkProfile: { baud: 921_600, crc: 'CRC-8/SMBUS' }, modelConfig: parseModelConfig({ outBits: 18, outFrac: 16 }), limits: {} });
+    const boards = await hostedBoards(4);
+    try {
+      const link = await NodeSocketLink.open(`${boards.url}?core=wide-18`);
+      const info = await new LinkEngine({ link, clock: realEngineClock, baud: 921_600 }).hello();
+      expect(info).toMatchObject({ outBits: 18, outFrac: 16, name: 'Anglebench simulated board (wide-18)' });
+      await link.close();
+
+      const config = encodeURIComponent(JSON.stringify({ outBits: 18, outFrac: 16 }));
+      const own = await NodeSocketLink.open(`${boards.url}?config=${config}&baud=12000000&fault=gain`);
+      expect((await new LinkEngine({ link: own, clock: realEngineClock, baud: 12_000_000 }).hello()).outBits).toBe(18);
+      await own.close();
+    } finally {
+      await boards.close();
+    }
+  });
+
+  it('refuses bad settings before the upgrade with the key named, opening no board', async () => {
+    const boards = await hostedBoards(4);
+    try {
+      await expect(NodeSocketLink.open(`${boards.url}?baud=fast`)).rejects.toThrow(/400 Bad Request: baud must be a whole rate/);
+      await expect(NodeSocketLink.open(`${boards.url}?fault=melt`)).rejects.toThrow(/400 Bad Request: fault: /);
+      await expect(NodeSocketLink.open(`${boards.url}?core=no-such-core`)).rejects.toThrow(/404 Not Found: Core no-such-core not found/);
+      await expect(NodeSocketLink.open(`${boards.url}?colour=red`)).rejects.toThrow(/Unknown setting "colour"/);
+      expect(boards.counts).toEqual([]);
+    } finally {
+      await boards.close();
+    }
+  });
+});
