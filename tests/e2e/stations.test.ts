@@ -129,7 +129,7 @@ describe('stations in the browser', () => {
 describe('a server restart', () => {
   it('brings the station back online by itself within a few seconds, without touching the lab PC', async () => {
     const port = String(await freePort());
-    const db = tempDatabase();
+    const db = await tempDatabase();
     const same = { PORT: port, DATABASE_URL: db.url, UPLOAD_DIR: path.join(db.dir, 'uploads') };
     const board = await startMockServer(defaultBoardSettings(), 0, '127.0.0.1', () => undefined);
     let app = await startApp(same);
