@@ -8,7 +8,8 @@ export default defineConfig({
   plugins: [react(), tailwindcss()],
   server: {
     port: 5173,
-    proxy: { '/api': { target: `http://127.0.0.1:${apiPort}`, changeOrigin: false } },
+    // ws: the hosted simulated boards' WebSocket (/api/sim-board) goes through too.
+    proxy: { '/api': { target: `http://127.0.0.1:${apiPort}`, changeOrigin: false, ws: true } },
   },
   build: { outDir: 'dist', chunkSizeWarningLimit: 1500 },
 });

@@ -4,6 +4,9 @@ import { z } from 'zod';
 import { isCrc8Name, type Crc8Name } from '../shared/link';
 import { parseModelConfig, type ModelConfigInput } from '../shared/numeric';
 import { parseLimits, type Limits } from './run-verdict';
+import type { Conditions, SoakSpec } from '../shared/soak';
+import { parseConditionOptions } from './conditions';
+import { parseSoakOption } from './soak';
 
 export const RUN_USAGE = 'usage: anglebench run --device <serial path | ws://host:port/> --plan <plan> --core <slug> [options]';
 
@@ -23,7 +26,12 @@ export const RUN_HELP = `${RUN_USAGE}
   --config JSON    reference-model configuration (default: the server's core, else from INFO)
   --out FILE       write the capture archive (both directions) to FILE
   --json           print a machine-readable summary on stdout (progress stays on stderr)
+  --soak N|D       repeat the plan: N passes (50) or for a duration (90s, 30m, 2h); lists unstable codes
+  --condition K=V  an operating condition, repeatable: temperature_c=85, vccint_v=0.95, clock_mhz=200,
+                   or any name=value; saved with the session
   --junit FILE     write the verdict as JUnit XML to FILE: a test case per limit, the session's address
+  --explain        after the run, name the configuration or RTL defect that reproduces the answers
+                   (printed, and the summary's "explanation" key)
 
 Ctrl-C stops the run cleanly: what was captured is scored and written to --out, nothing is
 uploaded; a second Ctrl-C quits at once.
@@ -62,8 +70,11 @@ export interface RunOptions {
   out: string | null;
   junit: string | null;
   json: boolean;
+  explain: boolean;
   help: boolean;
   crc: Crc8Name | null;
+  soak: SoakSpec | null;
+  conditions: Conditions;
 }
 
 const INTEGER = /^[+-]?(0x[0-9a-f]+|\d+)$/i;
@@ -122,7 +133,7 @@ function json(text: string, option: string): unknown {
 const urlSchema = z.url({ protocol: /^https?$/ });
 
 export function parseRunArgs(argv: string[]): RunOptions {
-  let values: Record<string, string | boolean | undefined>;
+  let values: Record<string, string | boolean | string[] | undefined>;
   try {
     ({ values } = parseArgs({
       args: argv,
@@ -143,6 +154,9 @@ export function parseRunArgs(argv: string[]): RunOptions {
         out: { type: 'string' },
         junit: { type: 'string' },
         json: { type: 'boolean' },
+        soak: { type: 'string' },
+        condition: { type: 'string', multiple: true },
+        explain: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
     }));
@@ -189,7 +203,10 @@ export function parseRunArgs(argv: string[]): RunOptions {
     out: str('out') ?? null,
     junit: str('junit') ?? null,
     json: values.json === true,
+    explain: values.explain === true,
     help: false,
     crc: (crc as Crc8Name | undefined) ?? null,
+    soak: str('soak') !== undefined ? parseSoakOption(str('soak')!) : null,
+    conditions: parseConditionOptions((values.condition as string[] | undefined) ?? []),
   };
 }

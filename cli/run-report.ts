@@ -1,9 +1,14 @@
 // What `run` prints: a table for people, or one JSON summary for machines.
 import type { LinkFigures } from '../shared/link-engine/link-figures';
 import type { DeviceInfo } from '../shared/link';
+import type { Explanation } from '../shared/explain';
+import { explanationText } from './run-explain';
 import type { ModelConfig, Plan } from '../shared/numeric';
 import type { RunScore } from './run-score';
 import type { LimitCheck, Verdict } from './run-verdict';
+import type { Conditions, SoakRecord } from '../shared/soak';
+import { conditionsLine } from './conditions';
+import { soakReportLines } from './soak';
 
 export interface RunReport {
   core: string;
@@ -23,6 +28,13 @@ export interface RunReport {
   figures: LinkFigures;
   verdict: Verdict;
   archive: string | null;
+  /** Operating conditions, and those of them the board reported itself. */
+  conditions: Conditions;
+  conditionsFromBoard: Conditions | null;
+  /** The soak's books when --soak was given; the other figures are then its last pass. */
+  soak: SoakRecord | null;
+  /** With --explain: what reproduces the answers. */
+  explanation?: Explanation;
 }
 
 /** The machine-readable summary: everything but the histogram bins and the kept mismatches' bulk. */
@@ -54,6 +66,9 @@ export function jsonSummary(r: RunReport, upload: { sessionId: number | null } |
     link: r.figures,
     verdict: { passed: r.verdict.passed, limitsFrom: r.limitsFrom, checks: r.verdict.checks },
     archive: r.archive,
+    conditions: r.conditions,
+    soak: r.soak,
+    ...(r.explanation ? { explanation: r.explanation } : {}),
     upload,
   };
 }
@@ -75,6 +90,8 @@ export function humanReport(r: RunReport): string {
   out.push(`core ${r.core}${r.build ? `, build ${r.build}` : ''}${r.board ? `, board ${r.board}` : ''}`);
   out.push(`device ${r.device} at ${r.baud.toLocaleString('en-US')} baud: "${i.name}", build id 0x${i.buildId.toString(16).padStart(8, '0')}, ${i.angleFormat} ${i.angleBits}-bit angles, ${i.outBits}-bit outputs (${i.outFrac} fraction bits), ${i.iterations} iterations`);
   out.push(`plan ${r.planText}: ${r.score.total.toLocaleString('en-US')} codes, ${r.score.answered.toLocaleString('en-US')} answered, ${r.score.missing} missing, ${(r.elapsedMs / 1000).toFixed(2)} s (${r.status})`);
+  const cond = conditionsLine(r.conditions, r.conditionsFromBoard);
+  if (cond) out.push(cond);
   out.push(`model from ${r.modelFrom === 'info' ? 'the device INFO (other keys at their defaults)' : r.modelFrom === 'server' ? 'the server' : '--config'}`);
   out.push('');
   out.push('              max |err| LSB   RMS LSB   mean LSB   at code');
@@ -90,6 +107,7 @@ export function humanReport(r: RunReport): string {
   const f = r.figures;
   const naks = Object.entries(f.naks).filter(([, n]) => n > 0).map(([k, n]) => `${n}×${k}`).join(' ') || 'none';
   out.push(`  link: ${f.framesSent} frames out, ${f.framesReceived} in, ${f.checkFailures} bad CHECK, ${f.skippedBytes} bytes skipped, ${f.retries} retries, NAKs ${naks}, ${f.confirmations} answers confirmed${f.unconfirmed ? ` (${f.unconfirmed} unconfirmed)` : ''}, ${Math.round(f.resultsPerS).toLocaleString('en-US')} results/s, ${(f.lineShare * 100).toFixed(1)}% of the line`);
+  if (r.soak) out.push('', ...soakReportLines(r.soak));
   out.push('');
   if (r.verdict.checks.length === 0) out.push('verdict: PASS (no limits given: nothing to fail)');
   else {
@@ -98,5 +116,5 @@ export function humanReport(r: RunReport): string {
     out.push(`verdict: ${r.verdict.passed ? 'PASS' : 'FAIL'}`);
   }
   if (r.archive) out.push(`archive written to ${r.archive}`);
-  return out.join('\n') + '\n';
+  return out.join('\n') + '\n' + (r.explanation ? explanationText(r.explanation) : '');
 }

@@ -30,7 +30,12 @@ export interface Verdict {
 }
 
 /** What each limit measures, and which way it must go. */
-const MEASURES: Record<LimitKey, { max: boolean; value: (s: RunScore) => number | null; note?: string }> = {
+/** What a run measured beyond its score: a soak's unstable codes. */
+export interface RunExtras {
+  unstableCodes?: number;
+}
+
+const MEASURES: Record<LimitKey, { max: boolean; value: (s: RunScore, x: RunExtras) => number | null; note?: string }> = {
   maxAbsErrorLsb: { max: true, value: (s) => s.summary.overall.maxAbsLsb },
   maxRmsErrorLsb: { max: true, value: (s) => s.summary.overall.rmsLsb },
   maxAbsBiasLsb: { max: true, value: (s) => Math.max(Math.abs(s.summary.cos.meanLsb), Math.abs(s.summary.sin.meanLsb)) },
@@ -38,19 +43,20 @@ const MEASURES: Record<LimitKey, { max: boolean; value: (s: RunScore) => number 
   maxModelMismatches: { max: true, value: (s) => s.summary.mismatches.count },
   maxLinkErrors: { max: true, value: (s) => s.linkErrors },
   minCoveragePct: { max: false, value: (s) => s.summary.coverage.share * 100 },
+  maxUnstableCodes: { max: true, value: (_s, x) => x.unstableCodes ?? null, note: 'needs a soak (--soak)' },
 };
 
 /**
  * Every given limit against the score. A run with nothing answered fails every limit it could
  * measure: an empty run proves nothing.
  */
-export function judge(score: RunScore, limits: Limits): Verdict {
+export function judge(score: RunScore, limits: Limits, extras: RunExtras = {}): Verdict {
   const checks: LimitCheck[] = [];
   for (const key of Object.keys(MEASURES) as LimitKey[]) {
     const limit = limits[key];
     if (limit === undefined) continue;
     const m = MEASURES[key];
-    const value = m.value(score);
+    const value = m.value(score, extras);
     if (value === null) {
       checks.push({ key, limit, value, outcome: 'skip', note: m.note });
       continue;

@@ -4,7 +4,7 @@
 import { writeFileSync } from 'node:fs';
 import type { ByteLink } from '../shared/link-engine/byte-link';
 import { confirmOffModel } from '../shared/link-engine/confirm-off-model';
-import { LinkEngine, type RunResult } from '../shared/link-engine/link-engine';
+import { LinkEngine, type RunHandle, type RunResult } from '../shared/link-engine/link-engine';
 import { DEFAULT_CRC8, type DeviceInfo } from '../shared/link';
 import { parseModelConfig, type ModelConfig } from '../shared/numeric';
 import { openDevice, type DeviceDeps } from './device';
@@ -17,9 +17,12 @@ import { humanReport, jsonSummary, type RunReport } from './run-report';
 import { scoreRun } from './run-score';
 import { fetchCore, packSamples, ServerError, uploadSession, type Fetch, type ServerCore } from './run-server';
 import { judge, type Limits } from './run-verdict';
+import { explainRun } from './run-explain';
 import { realClock } from './clock';
 import { INTERRUPTED_STATUS, withSigint, type Interrupt } from './interrupt';
 import { junitXml } from './junit';
+import { runConditions } from './conditions';
+import { soakPasses, type SoakRun } from './soak';
 
 /** What `run` touches besides the CLI streams, so tests can swap it. */
 export interface RunDeps extends DeviceDeps {
@@ -94,11 +97,25 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
     const request = planToRequest(plan, model);
     const progress = progressSink(io.stderr, deps.stderrIsTty ?? false, () => clock.now());
     const startedAt = new Date();
+    const { conditions, fromBoard } = runConditions(info, o.conditions);
     let result: RunResult;
-    const handle = engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) });
-    const stopOnInterrupt = deps.interrupt?.onRequest(() => void handle.abort()) ?? (() => undefined);
+    let soak: SoakRun | null = null;
+    let current: RunHandle | null = null;
+    const stopOnInterrupt = deps.interrupt?.onRequest(() => void current?.abort()) ?? (() => undefined);
+    // A run (or soak pass) that starts after the interrupt came is aborted as it begins.
+    const started = (h: RunHandle): RunHandle => {
+      current = h;
+      if (deps.interrupt?.requested) void h.abort();
+      return h;
+    };
     try {
-      result = await handle.done;
+      if (o.soak) {
+        const keepGoing = () => !deps.interrupt?.requested;
+        soak = await soakPasses({ engine, request, model, plan, spec: o.soak, clock, confirm: confirmOffModel(model), log: io.stderr, onPassStart: started, keepGoing });
+        result = soak.status === 'complete' ? soak.result : { ...soak.result, status: soak.status, message: soak.message };
+      } else {
+        result = await started(engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) })).done;
+      }
     } finally {
       stopOnInterrupt();
       progress.end(null);
@@ -114,10 +131,12 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
       }
     }
     const score = scoreRun(model, plan, result, result.figures.checkFailures);
-    const verdict = judge(score, limits);
+    const verdict = judge(score, limits, soak ? { unstableCodes: soak.record.unstable.count } : {});
     const report: RunReport = {
       core: o.core, build: o.build, board: o.board, device: o.device, baud, info, plan, planText: o.planText, model, modelFrom: from,
       limitsFrom, status: result.status, elapsedMs: result.elapsedMs, score, figures: result.figures, verdict, archive: o.out,
+      conditions, conditionsFromBoard: fromBoard, soak: soak?.record ?? null,
+      explanation: o.explain ? explainRun(model, result) : undefined,
     };
     for (const w of warnings.slice(0, 5)) io.stderr(`warning: ${w}\n`);
     const writeJunit = (sessionUrl: string | null) => {
@@ -135,27 +154,30 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
       return INTERRUPTED_STATUS;
     }
     let sessionId: number | null = null;
+    let sessionUrl: string | null = null;
     if (o.server && core) {
       // Print the verdict first: a refused upload must not hide what the board did.
       if (!o.json) io.stdout(humanReport(report));
       const summary = jsonSummary(report, null);
       try {
-        sessionId = await uploadSession(fetchImpl, o.server, {
+        ({ id: sessionId, url: sessionUrl } = await uploadSession(fetchImpl, o.server, {
           session: {
             coreId: core.id, coreSlug: core.slug, build: o.build, board: o.board, plan, startedAt: startedAt.toISOString(), endedAt: endedAt.toISOString(),
             transport: { kind: o.device.startsWith('ws') ? 'websocket' : 'serial', device: o.device, baud, crc },
             deviceInfo: info, stats: summary.stats, link: result.figures, verdict: summary.verdict, passed: verdict.passed, sampleCount: score.answered,
+            ...soakUpload(conditions, soak),
           },
           samples: packSamples(result.codes, result.cos, result.sin, result.answered),
           archive,
-        });
+        }));
       } catch (e) {
         if (o.json) io.stdout(JSON.stringify({ ...summary, upload: { error: (e as Error).message } }, null, 2) + '\n');
         writeJunit(null); // the verdict stands without the session's address
         throw e;
       }
       if (o.json) io.stdout(JSON.stringify(jsonSummary(report, { sessionId }), null, 2) + '\n');
-      else io.stdout(`session uploaded${sessionId !== null ? `: ${o.server.url}/sessions/${sessionId}` : ''}\n`);
+      // The server's own address for it (PUBLIC_URL), else the one the runner was given.
+      else io.stdout(`session uploaded${sessionId !== null ? `: ${sessionUrl ?? `${o.server.url}/sessions/${sessionId}`}` : ''}\n`);
     } else if (o.json) io.stdout(JSON.stringify(jsonSummary(report, null), null, 2) + '\n');
     else io.stdout(humanReport(report));
     writeJunit(o.server && sessionId !== null ? `${o.server.url}/sessions/${sessionId}` : null);
@@ -163,6 +185,11 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
   } finally {
     await link.close().catch(() => undefined);
   }
+}
+
+/** The session's conditions and soak, left out when there are none (older servers refuse unknown keys). */
+function soakUpload(conditions: RunReport['conditions'], soak: SoakRun | null): Record<string, unknown> {
+  return { ...(Object.keys(conditions).length > 0 ? { conditions } : {}), ...(soak ? { soak: soak.record } : {}) };
 }
 
 /** The `run` command. */

@@ -1,11 +1,13 @@
 // One connection to the simulated board: the protocol logic, paced to the line rate, with the
 // line faults applied on the way to the host. Transport-free, so tests run it in-process.
 import { createSimCore, type CoreFault } from './faulty-core';
+import { createFlakyCore, type CoreFlip, type FlakyFault } from './flaky-core';
 import { LineFaults, noLineFaults, type LineFaultSettings } from './line-faults';
 import { LinePacer, realClock, type PacerClock } from './line-pacer';
 import { DEFAULT_LINE_LOW_MARK, SimulatedBoard } from './simulated-board';
 import type { Crc8Name } from '../shared/link/crc8';
 import type { ModelConfigInput } from '../shared/numeric';
+import { nameWithConditions, type Conditions } from '../shared/soak';
 
 export interface BoardSettings {
   core: ModelConfigInput;
@@ -18,6 +20,14 @@ export interface BoardSettings {
   lineFaults: LineFaultSettings;
   /** The frame check (default CRC-8/SMBUS, as the protocol's). */
   crc?: Crc8Name;
+  /** An intermittent defect on top of the core (and of any coreFault). */
+  flaky?: FlakyFault;
+  /** Seeds the flaky core's draws. */
+  seed?: number;
+  /** Every answer the flaky core got wrong, as it happens: the board's own record of its flips. */
+  onCoreFlip?: (flip: CoreFlip) => void;
+  /** Conditions the board reports, at the end of its INFO name (shared/soak/board-conditions.ts). */
+  conditions?: Conditions;
 }
 
 export const defaultBoardSettings = (): BoardSettings => ({
@@ -61,11 +71,11 @@ export function openBoardSession(settings: BoardSettings, deliver: (bytes: Uint8
     },
   });
   const board = (holder.board = new SimulatedBoard({
-    core: createSimCore(settings.core, settings.coreFault),
+    core: simCore(settings, clock),
     queueDepth: settings.queueDepth,
     buildId: settings.buildId,
     clockKHz: settings.clockKHz,
-    name: settings.name,
+    name: settings.conditions ? nameWithConditions(settings.name, settings.conditions) : settings.name,
     crc: settings.crc,
     lineLowMark: lineLowMark(settings.baud),
     send: (bytes) => {
@@ -81,6 +91,12 @@ export function openBoardSession(settings: BoardSettings, deliver: (bytes: Uint8
       pacer.stop();
     },
   };
+}
+
+function simCore(settings: BoardSettings, clock: PacerClock) {
+  const core = createSimCore(settings.core, settings.coreFault);
+  if (!settings.flaky) return core;
+  return createFlakyCore(core, settings.flaky, { seed: settings.seed ?? 1, now: () => clock.now(), onFlip: settings.onCoreFlip });
 }
 
 /**

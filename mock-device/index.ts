@@ -5,7 +5,7 @@ import { startMockServer } from './ws-server';
 try {
   const { port, settings } = parseBoardArgs(process.argv.slice(2));
   const server = await startMockServer(settings, port);
-  const fault = settings.coreFault ? `, core fault ${JSON.stringify(settings.coreFault)}` : '';
+  const fault = [settings.coreFault, settings.flaky].filter(Boolean).map((f) => `, core fault ${JSON.stringify(f)}`).join('');
   console.log(`Simulated board listening on ${server.url} at ${settings.baud} baud${fault}`);
   const stop = () => void server.close().then(() => process.exit(0));
   process.once('SIGINT', stop);

@@ -3,10 +3,14 @@ import { parseModelConfig } from '../shared/numeric';
 import { defaultBoardSettings, type BoardSettings } from './board-session';
 import { parseCoreFault } from './faulty-core';
 import { parseLineFaults } from './line-faults';
+import { boardConditionArgs, isFlakyFaultText, parseFlakyFault } from './flaky-options';
 
 export const USAGE = `npm run mock -- [--ws-port 5175] [--baud 3000000] [--core '<json model config>']
   [--queue-depth 256] [--build-id N] [--name S]
-  [--line-faults 'ber=1e-5,drop=1e-6,jitter-ms=2,seed=7'] [--core-fault gain|fold|sign:K|stuck:B]`;
+  [--line-faults 'ber=1e-5,drop=1e-6,jitter-ms=2,seed=7'] [--core-fault F] [--seed N] [--condition name=value]…
+  F: a catalogue defect (sign-slip:K, atan-entry:K:±D, stuck-bit:cos:B:1, … see docs/explain.md),
+     a configuration deviation key=value (iterations=15, fold=false), gain, fold, sign:K, stuck:B,
+     or an intermittent one, flaky:RATE[@SECONDS]`;
 
 function int(name: string, text: string, min: number, max: number): number {
   const n = Number(text);
@@ -28,6 +32,8 @@ export function parseBoardArgs(args: string[]): { port: number; settings: BoardS
       name: { type: 'string' },
       'line-faults': { type: 'string' },
       'core-fault': { type: 'string' },
+      seed: { type: 'string' },
+      condition: { type: 'string', multiple: true },
     },
   });
   const s = defaultBoardSettings();
@@ -48,7 +54,11 @@ export function parseBoardArgs(args: string[]): { port: number; settings: BoardS
     s.name = values.name;
   }
   if (values['line-faults'] !== undefined) s.lineFaults = parseLineFaults(values['line-faults']);
-  if (values['core-fault'] !== undefined) s.coreFault = parseCoreFault(values['core-fault']);
+  // Wrappers around the core (an intermittent fault) are read before the catalogue entry.
+  if (values['core-fault'] !== undefined && isFlakyFaultText(values['core-fault'])) s.flaky = parseFlakyFault(values['core-fault']);
+  else if (values['core-fault'] !== undefined) s.coreFault = parseCoreFault(values['core-fault']);
+  if (values.seed !== undefined) s.seed = int('seed', values.seed, 0, 0xffff_ffff);
+  Object.assign(s, boardConditionArgs(values.condition ?? [], s.name));
   const port = values['ws-port'] !== undefined ? int('ws-port', values['ws-port'], 0, 65_535) : 5175;
   return { port, settings: s };
 }

@@ -10,6 +10,7 @@ import { createSmtpMailer, discardingMailer, type Mailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { clientDistDir, dataDir, projectRoot } from './paths';
 import { auditRouter, outboxRouter } from './routes/admin';
+import { CHECK_REPLIES } from './routes/reply';
 import { authRouter, type LoginLimit } from './routes/auth';
 import { boardsRouter } from './routes/boards';
 import { buildsRouter } from './routes/builds';
@@ -20,6 +21,7 @@ import type { RouteDeps } from './routes/deps';
 import { goldenVectorsRouter } from './routes/golden-vectors';
 import { healthRouter } from './routes/health';
 import { invitationsRouter } from './routes/invitations';
+import { sessionExplanationRouter } from './routes/session-explanation';
 import { sessionsRouter } from './routes/sessions';
 import { tokensRouter } from './routes/tokens';
 import { usersRouter } from './routes/users';
@@ -63,6 +65,7 @@ export function createApp({
   app.disable('x-powered-by');
   app.set('trust proxy', config.trustProxy);
   app.set('public url', config.publicUrl);
+  app.set(CHECK_REPLIES, config.nodeEnv !== 'production');
   app.use(securityHeaders(config));
   app.use(express.json({ limit: '1mb' }));
 
@@ -79,6 +82,7 @@ export function createApp({
   app.use('/api/builds', buildsRouter(deps));
   app.use('/api/boards', boardsRouter(deps));
   app.use('/api/sessions/:sessionId/comments', sessionCommentsRouter(deps));
+  app.use('/api/sessions/:sessionId/explanation', sessionExplanationRouter(deps));
   app.use('/api/sessions', sessionsRouter(deps));
   app.use('/api/comments', commentsRouter(deps));
   app.use('/api/compare', compareRouter(deps));

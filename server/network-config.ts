@@ -82,17 +82,17 @@ export function readTlsFiles(certFile: string | undefined, keyFile: string | und
   if (!certFile && !keyFile) return { issues: [] };
   if (!certFile || !keyFile) return { issues: [`TLS_CERT_FILE and TLS_KEY_FILE: set both for HTTPS, or neither for plain http (only ${certFile ? 'TLS_CERT_FILE' : 'TLS_KEY_FILE'} is set)`] };
   const issues: string[] = [];
-  const read = (name: string, file: string, marker: RegExp) => {
+  const read = (name: string, file: string, marker: RegExp, what: string) => {
     try {
       const data = fs.readFileSync(file);
-      if (!marker.test(data.toString('latin1'))) issues.push(`${name}: ${file} is not a PEM file (${marker.source.replace(/\\/g, '')} not found)`);
+      if (!marker.test(data.toString('latin1'))) issues.push(`${name}: ${file} is not a PEM ${what} (no "-----BEGIN ${what.toUpperCase()}-----" line)`);
       return data;
     } catch (err) {
       issues.push(`${name}: cannot read ${file} (${(err as NodeJS.ErrnoException).code ?? (err as Error).message})`);
       return Buffer.alloc(0);
     }
   };
-  const cert = read('TLS_CERT_FILE', certFile, /-----BEGIN CERTIFICATE-----/);
-  const key = read('TLS_KEY_FILE', keyFile, /-----BEGIN [A-Z ]*PRIVATE KEY-----/);
+  const cert = read('TLS_CERT_FILE', certFile, /-----BEGIN CERTIFICATE-----/, 'certificate');
+  const key = read('TLS_KEY_FILE', keyFile, /-----BEGIN [A-Z ]*PRIVATE KEY-----/, 'private key');
   return issues.length ? { issues } : { tls: { certFile, keyFile, cert, key }, issues };
 }

@@ -6,6 +6,8 @@ import { csrfTokenOf, requireRole } from '../auth';
 import type { User } from '../db/models';
 import { HttpError } from '../http-error';
 import { validate } from '../middleware/validate';
+import { csrfReply, loginReply, meReply } from '../../shared/contract/people';
+import { reply } from './reply';
 
 export interface LoginLimit {
   windowMs: number;
@@ -28,7 +30,7 @@ export function authRouter(passport: ReturnType<typeof createPassport>, limit: L
   });
 
   router.route('/csrf').get((req, res) => {
-    res.json({ token: csrfTokenOf(req) });
+    reply(res, csrfReply, { token: csrfTokenOf(req) });
   });
 
   router.route('/login').post(loginLimiter, validate({ body: loginBody }), (req, res, next) => {
@@ -40,7 +42,7 @@ export function authRouter(passport: ReturnType<typeof createPassport>, limit: L
       // token goes with it, so the reply carries the new one.
       req.logIn(user, (loginErr) => {
         if (loginErr) return next(loginErr);
-        res.json({ user: user.toPublic(), csrfToken: csrfTokenOf(req) });
+        reply(res, loginReply, { user: user.toPublic(), csrfToken: csrfTokenOf(req) });
       });
     })(req, res, next);
   });
@@ -53,7 +55,7 @@ export function authRouter(passport: ReturnType<typeof createPassport>, limit: L
   });
 
   router.route('/me').get(requireRole('reviewer'), (req, res) => {
-    res.json({ user: req.user!.toPublic(), via: req.authVia });
+    reply(res, meReply, { user: req.user!.toPublic(), via: req.authVia! });
   });
 
   // The browser's question at every page load. Nobody signed in is an answer, not an error, so it

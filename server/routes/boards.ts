@@ -7,6 +7,8 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { idParams, paramsOf } from './params';
+import { boardListReply, boardReply } from '../../shared/contract/boards';
+import { reply } from './reply';
 
 const text = (max: number) => z.string().trim().max(max);
 const boardBody = z.strictObject({
@@ -25,7 +27,7 @@ export function boardsRouter({ db }: RouteDeps) {
   router
     .route('/')
     .get(requireRole('reviewer'), async (_req, res) => {
-      res.json({ boards: await Board.findAll({ order: [['name', 'ASC']] }) });
+      reply(res, boardListReply, { boards: await Board.findAll({ order: [['name', 'ASC']] }) });
     })
     .post(requireRole('engineer'), validate({ body: boardBody }), async (req, res) => {
       const me = currentUser(req);
@@ -34,7 +36,7 @@ export function boardsRouter({ db }: RouteDeps) {
         await recordAudit(transaction, me.id, 'create', 'board', row.id, req.body);
         return row;
       });
-      res.status(201).json({ board });
+      reply(res, boardReply, { board }, 201);
     });
 
   router
@@ -42,7 +44,7 @@ export function boardsRouter({ db }: RouteDeps) {
     .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
       const board = await Board.findByPk(paramsOf<{ id: number }>(req).id);
       if (!board) throw notFound('Board');
-      res.json({ board });
+      reply(res, boardReply, { board });
     })
     .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
       const me = currentUser(req);
@@ -53,7 +55,7 @@ export function boardsRouter({ db }: RouteDeps) {
         await recordAudit(transaction, me.id, 'update', 'board', row.id, req.body);
         return row;
       });
-      res.json({ board });
+      reply(res, boardReply, { board });
     })
     .delete(requireRole('admin'), validate({ params: idParams }), async (req, res) => {
       const me = currentUser(req);

@@ -8,6 +8,8 @@ import { limitsSchema, linkProfileSchema, modelConfigSchema } from '../schemas/c
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { idParams, paramsOf } from './params';
+import { coreDetailReply, coreListReply, coreReply } from '../../shared/contract/cores';
+import { reply } from './reply';
 
 const slug = z.string().regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'use lower-case letters, digits and single hyphens').max(64);
 const createBody = z.strictObject({
@@ -40,7 +42,7 @@ export function coresRouter({ db }: RouteDeps) {
   router
     .route('/')
     .get(requireRole('reviewer'), async (_req, res) => {
-      res.json({ cores: await Core.findAll({ order: [['name', 'ASC']] }) });
+      reply(res, coreListReply, { cores: await Core.findAll({ order: [['name', 'ASC']] }) });
     })
     .post(requireRole('engineer'), validate({ body: createBody }), async (req, res) => {
       const me = currentUser(req);
@@ -49,7 +51,7 @@ export function coresRouter({ db }: RouteDeps) {
         await recordAudit(transaction, me.id, 'create', 'core', row.id, { name: row.name, slug: row.slug });
         return row;
       });
-      res.status(201).json({ core });
+      reply(res, coreReply, { core }, 201);
     });
 
   router
@@ -61,7 +63,7 @@ export function coresRouter({ db }: RouteDeps) {
       const rows = await CoreWatcher.findAll({ where: { coreId: core.id }, attributes: ['userId'] });
       const users = rows.length ? await User.findAll({ where: { id: rows.map((r) => r.userId) }, attributes: ['id', 'name'], order: [['name', 'ASC']] }) : [];
       const watchers = users.map((u) => ({ id: u.id, name: u.name }));
-      res.json({ core, watchers, watching: watchers.some((w) => w.id === me.id) });
+      reply(res, coreDetailReply, { core, watchers, watching: watchers.some((w) => w.id === me.id) });
     })
     .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
       const me = currentUser(req);
@@ -70,7 +72,7 @@ export function coresRouter({ db }: RouteDeps) {
         await core.update(req.body, { transaction });
         await recordAudit(transaction, me.id, 'update', 'core', core.id, req.body);
       });
-      res.json({ core });
+      reply(res, coreReply, { core });
     })
     .delete(requireRole('admin'), validate({ params: idParams }), async (req, res) => {
       const me = currentUser(req);

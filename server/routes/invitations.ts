@@ -11,6 +11,8 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import { mailSafely, type RouteDeps } from './deps';
 import { originOf } from './params';
+import { invitationListReply, invitationReply, userReply } from '../../shared/contract/people';
+import { reply } from './reply';
 
 const INVITATION_TTL_MS = 7 * 24 * 60 * 60 * 1000;
 
@@ -29,7 +31,7 @@ export function invitationsRouter({ db, mailer, bcryptCost }: RouteDeps) {
     .route('/')
     .get(requireRole('admin'), async (_req, res) => {
       const invitations = await Invitation.findAll({ order: [['id', 'DESC']] });
-      res.json({ invitations: invitations.map((i) => i.toPublic()) });
+      reply(res, invitationListReply, { invitations: invitations.map((i) => i.toPublic()) });
     })
     .post(requireRole('admin'), validate({ body: createBody }), async (req, res) => {
       const me = currentUser(req);
@@ -47,7 +49,7 @@ export function invitationsRouter({ db, mailer, bcryptCost }: RouteDeps) {
       });
       const link = `${originOf(req)}/invite/${token}`;
       const mailed = await mailSafely(() => sendInvitationMail(mailer, email, { link, role: invitation.role, invitedBy: me.name, expiresAt: invitation.expiresAt }));
-      res.status(201).json({ invitation: invitation.toPublic(), mailed });
+      reply(res, invitationReply, { invitation: invitation.toPublic(), mailed }, 201);
     });
 
   router.route('/accept').post(validate({ body: acceptBody }), async (req, res) => {
@@ -67,7 +69,7 @@ export function invitationsRouter({ db, mailer, bcryptCost }: RouteDeps) {
       await recordAudit(transaction, row.id, 'accept', 'invitation', invitation.id, { email: row.email, role: row.role });
       return row;
     });
-    res.status(201).json({ user: user.toPublic() });
+    reply(res, userReply, { user: user.toPublic() }, 201);
   });
 
   return router;

@@ -8,6 +8,8 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { idParams, paramsOf } from './params';
+import { tokenCreatedReply, tokenListReply } from '../../shared/contract/people';
+import { reply } from './reply';
 
 const createBody = z.strictObject({ name: z.string().trim().min(1).max(80) });
 
@@ -19,7 +21,7 @@ export function tokensRouter({ db }: RouteDeps) {
     .route('/')
     .get(requireRole('engineer'), async (req, res) => {
       const tokens = await ApiToken.findAll({ where: { userId: currentUser(req).id }, order: [['id', 'ASC']] });
-      res.json({ tokens: tokens.map((t) => t.toPublic()) });
+      reply(res, tokenListReply, { tokens: tokens.map((t) => t.toPublic()) });
     })
     .post(requireRole('engineer'), validate({ body: createBody }), async (req, res) => {
       const user = currentUser(req);
@@ -32,7 +34,7 @@ export function tokensRouter({ db }: RouteDeps) {
         await recordAudit(transaction, user.id, 'create', 'api_token', row.id, { name: row.name });
         return row;
       });
-      res.status(201).json({ ...token.toPublic(), token: secret });
+      reply(res, tokenCreatedReply, { ...token.toPublic(), token: secret }, 201);
     });
 
   router.route('/:id').delete(requireRole('engineer'), validate({ params: idParams }), async (req, res) => {

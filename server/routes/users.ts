@@ -7,6 +7,8 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { idParams, paramsOf } from './params';
+import { userListReply, userReply } from '../../shared/contract/people';
+import { reply } from './reply';
 
 const patchBody = z
   .strictObject({ name: z.string().trim().min(1).max(120), role: z.enum(ROLES), disabled: z.boolean() })
@@ -19,7 +21,7 @@ export function usersRouter({ db }: RouteDeps) {
 
   router.route('/').get(requireRole('admin'), async (_req, res) => {
     const users = await User.findAll({ order: [['id', 'ASC']] });
-    res.json({ users: users.map((u) => u.toPublic()) });
+    reply(res, userListReply, { users: users.map((u) => u.toPublic()) });
   });
 
   router
@@ -30,7 +32,7 @@ export function usersRouter({ db }: RouteDeps) {
       if (id !== me.id && !hasRole(me.role, 'admin')) throw new HttpError(403, 'forbidden', 'Only admins read other accounts');
       const user = await User.findByPk(id);
       if (!user) throw notFound('User');
-      res.json({ user: user.toPublic() });
+      reply(res, userReply, { user: user.toPublic() });
     })
     .patch(requireRole('admin'), validate({ params: idParams, body: patchBody }), async (req, res) => {
       const me = currentUser(req);
@@ -50,7 +52,7 @@ export function usersRouter({ db }: RouteDeps) {
         await recordAudit(transaction, me.id, 'update', 'user', row.id, changes);
         return row;
       });
-      res.json({ user: user.toPublic() });
+      reply(res, userReply, { user: user.toPublic() });
     });
 
   return router;

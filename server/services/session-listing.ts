@@ -1,8 +1,9 @@
 // Reading stored sessions as the API shows them: the filtered, paged list and one session's
 // detail, both built by `listed` so a list item and a detail are the same shape.
-import { literal, Op, type WhereOptions } from 'sequelize';
+import { literal, Op, type InferAttributes, type WhereOptions } from 'sequelize';
 import type { Literal } from 'sequelize/types/utils';
-import type { SessionListQuery } from '../../shared/contract/sessions';
+import type { Sendable } from '../../shared/contract/check';
+import type { SessionListItem, SessionListQuery } from '../../shared/contract/sessions';
 import { BenchSession, Board, Build, Core, User } from '../db/models';
 import { notFound } from '../http-error';
 
@@ -16,7 +17,12 @@ const LISTED = {
     { model: User, as: 'operator', attributes: ['id', 'name'] },
   ],
 };
-const listed = (row: BenchSession) => ({ ...row.toJSON(), hasArchive: Boolean(row.get('hasArchive')) });
+/** The names LISTED includes (not part of the model's own attributes). */
+type Included = Sendable<Pick<SessionListItem, 'core' | 'build' | 'board' | 'operator'>>;
+const listed = (row: BenchSession): Sendable<SessionListItem> => ({
+  ...row.toJSON<InferAttributes<BenchSession> & Included>(),
+  hasArchive: Boolean(row.get('hasArchive')),
+});
 
 function listWhere(q: SessionListQuery): WhereOptions {
   const where: Record<string | symbol, unknown> = {};

@@ -50,6 +50,8 @@ export interface JudgeContext {
   checkFailures?: number;
   /** The worse channel's SFDR of a coherent-tone session, dBc. */
   sfdrDb?: number;
+  /** A soak session's unstable codes (shared/soak); single-pass sessions have none to judge. */
+  unstableCodes?: number;
 }
 
 /** Spectral figures of each channel of a tone session. */
@@ -87,6 +89,7 @@ const MEASURES: Record<LimitKey, { max: boolean; value: (s: ScoreSummary, c: Jud
   // Link errors happen on the wire, not in the samples: the runner's own count is all there is.
   maxLinkErrors: { max: true, value: (_s, c) => c.checkFailures ?? null },
   minCoveragePct: { max: false, value: (s) => s.coverage.share * 100 },
+  maxUnstableCodes: { max: true, value: (_s, c) => c.unstableCodes ?? null },
 };
 
 /**

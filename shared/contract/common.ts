@@ -22,3 +22,12 @@ export const jsonObject = z.record(z.string(), z.unknown());
 
 /** A session's tags: at most 20, each 1–40 characters. */
 export const tags = z.array(text(40).min(1)).max(20);
+
+/** Another row as a reply names it. */
+export const named = z.object({ id: z.number().int(), name: z.string() });
+export const coreBrief = z.object({ id: z.number().int(), name: z.string(), slug: z.string() });
+export const buildBrief = z.object({ id: z.number().int(), label: z.string() });
+
+/** An object column checked only for being an object, typed as `T` (its shape is owned elsewhere). */
+export const typedObject = <T extends object>(what: string) =>
+  z.custom<T>((v) => typeof v === 'object' && v !== null && !Array.isArray(v), { message: `${what}: expected an object` });

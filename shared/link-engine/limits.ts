@@ -14,6 +14,7 @@ export const limitsSchema = z.strictObject({
   maxModelMismatches: z.number().int().min(0).optional(),
   maxLinkErrors: z.number().int().min(0).optional(),
   minCoveragePct: z.number().min(0).max(100).optional(),
+  maxUnstableCodes: z.number().int().min(0).optional(),
 });
 export type Limits = z.infer<typeof limitsSchema>;
 export type LimitKey = keyof Limits;
@@ -36,6 +37,7 @@ export const LIMIT_MEANINGS: Readonly<Record<LimitKey, LimitMeaning>> = {
   maxModelMismatches: { name: 'Model mismatches', unit: 'results', atMost: true, explain: 'Results whose cos or sin code differs from the bit-accurate model’s answer.' },
   maxLinkErrors: { name: 'Link errors', unit: 'frames', atMost: true, explain: 'Frames that failed their check on the link during the run, as the bench or runner counted them.' },
   minCoveragePct: { name: 'Code coverage', unit: '%', atMost: false, explain: 'Share of the core’s angle codes the session asked about, in percent.' },
+  maxUnstableCodes: { name: 'Unstable codes', unit: 'codes', atMost: true, explain: 'Codes whose answers differed between passes of a soak; a single-pass session leaves it unchecked.' },
 };
 
 export const LIMIT_KEYS = Object.keys(LIMIT_MEANINGS) as LimitKey[];

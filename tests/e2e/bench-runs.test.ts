@@ -5,7 +5,8 @@ import { samplesFromArchive } from '../../shared/link-engine/archive-samples';
 import { readArchive } from '../../shared/link';
 import { appAndBrowser, signInAs } from './harness';
 
-const ctx = appAndBrowser();
+// The page reaches this test's own simulated board (npm run mock's), so the CSP must list it.
+const ctx = appAndBrowser({ BRIDGE_ORIGINS: 'ws://127.0.0.1:*' });
 let board: MockServer;
 
 beforeAll(async () => {

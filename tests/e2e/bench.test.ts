@@ -12,7 +12,8 @@ let app: RunningApp;
 let browser: Browser;
 
 beforeAll(async () => {
-  app = await startApp();
+  // The page reaches these tests' own simulated boards (npm run mock's), so the CSP must list them.
+  app = await startApp({ BRIDGE_ORIGINS: 'ws://127.0.0.1:*' });
   browser = await launchBrowser();
 });
 afterAll(async () => {

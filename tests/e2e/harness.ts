@@ -1,4 +1,6 @@
 import { spawn, type ChildProcess } from 'node:child_process';
+import { get as httpGet } from 'node:http';
+import { get as httpsGet } from 'node:https';
 import { createServer } from 'node:net';
 import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
@@ -18,6 +20,17 @@ export function freePort(): Promise<number> {
   });
 }
 
+/** True when GET url answers 2xx; a self-signed test certificate is accepted. */
+function answers(url: string): Promise<boolean> {
+  return new Promise((resolve) => {
+    const get = url.startsWith('https:') ? httpsGet : httpGet;
+    get(url, { rejectUnauthorized: false }, (res) => {
+      res.resume();
+      resolve((res.statusCode ?? 500) < 300);
+    }).on('error', () => resolve(false));
+  });
+}
+
 export interface RunningApp {
   url: string;
   output: () => string;
@@ -26,7 +39,8 @@ export interface RunningApp {
 
 /**
  * Start the production server on a free port and a temporary database, the way `npm start`
- * runs it, and wait until it answers. `stop` ends it (and everything it started) for sure.
+ * runs it (over HTTPS when env has TLS_CERT_FILE), and wait until it answers. `stop` ends it
+ * (and everything it started) for sure.
  */
 export async function startApp(env: Record<string, string> = {}): Promise<RunningApp> {
   const port = await freePort();
@@ -40,7 +54,7 @@ export async function startApp(env: Record<string, string> = {}): Promise<Runnin
   let log = '';
   child.stdout!.on('data', (d) => (log += d));
   child.stderr!.on('data', (d) => (log += d));
-  const url = `http://127.0.0.1:${port}`;
+  const url = `${env.TLS_CERT_FILE ? 'https' : 'http'}://127.0.0.1:${port}`;
   const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
 
   const stop = async () => {
@@ -57,11 +71,7 @@ export async function startApp(env: Record<string, string> = {}): Promise<Runnin
   const deadline = Date.now() + 90_000;
   for (;;) {
     if (child.exitCode !== null) throw new Error(`server exited early:\n${log}`);
-    try {
-      if ((await fetch(`${url}/api/health`)).ok) break;
-    } catch {
-      // not listening yet
-    }
+    if (await answers(`${url}/api/health`)) break;
     if (Date.now() > deadline) {
       await stop();
       throw new Error(`server did not come up in 90 s:\n${log}`);
@@ -71,8 +81,8 @@ export async function startApp(env: Record<string, string> = {}): Promise<Runnin
   return { url, output: () => log, stop };
 }
 
-/** Debian's Chromium, headless, with a fresh profile and no background traffic. */
-export function launchBrowser(): Promise<Browser> {
+/** Debian's Chromium, headless, with a fresh profile and no background traffic (plus `extraArgs`). */
+export function launchBrowser(extraArgs: string[] = []): Promise<Browser> {
   return chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     headless: true,
@@ -84,6 +94,7 @@ export function launchBrowser(): Promise<Browser> {
       '--disable-component-update',
       '--disable-sync',
       '--no-first-run',
+      ...extraArgs,
     ],
   });
 }

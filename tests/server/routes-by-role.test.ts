@@ -60,6 +60,10 @@ const table: Row[] = [
   ['get', '/api/sessions/:session/export.csv', undefined, 401, 200, 200, 200],
   ['get', '/api/sessions/:session/comments', undefined, 401, 200, 200, 200],
   ['post', '/api/sessions/:session/comments', {}, 401, 400, 400, 400],
+  ['get', '/api/sessions/:session/explanation', undefined, 401, 404, 404, 404],
+  // The fixture session holds no samples: the search refuses it.
+  ['post', '/api/sessions/:session/explanation', undefined, 401, 403, 400, 400],
+  ['post', '/api/sessions/:session/explanation/decision', {}, 401, 403, 400, 400],
   ['delete', `/api/comments/${NONE}`, undefined, 401, 404, 404, 404],
   ['get', '/api/compare', undefined, 401, 400, 400, 400],
   ['get', `/api/compare?ids=:session,${NONE}`, undefined, 401, 404, 404, 404],

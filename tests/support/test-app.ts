@@ -18,10 +18,10 @@ export type Agent = ReturnType<typeof request.agent>;
  * The app over a fresh migrated database, with the local mail catcher as its mailer, bitstreams
  * in the temporary folder, a cheap bcrypt cost and one user per role (password TEST_PASSWORD).
  */
-export async function testApp(options: { uploadLimitBytes?: number; loginLimit?: LoginLimit } = {}) {
+export async function testApp(options: { uploadLimitBytes?: number; loginLimit?: LoginLimit; env?: Record<string, string> } = {}) {
   const tmp = tempDatabase();
   const config = loadConfig(
-    { NODE_ENV: 'test', DATABASE_URL: tmp.url, SESSION_SECRET: 'x'.repeat(32), UPLOAD_LIMIT_BYTES: String(options.uploadLimitBytes ?? 64 * 1024 * 1024) },
+    { NODE_ENV: 'test', DATABASE_URL: tmp.url, SESSION_SECRET: 'x'.repeat(32), UPLOAD_LIMIT_BYTES: String(options.uploadLimitBytes ?? 64 * 1024 * 1024), ...options.env },
     path.join(tmp.dir, 'session-secret'),
   );
   const db = openDatabase(config.databaseUrl);

@@ -11,10 +11,13 @@ import { Invitation, initInvitation } from './invitation.model';
 import { OutboxMessage, initOutboxMessage } from './outbox-message.model';
 import { Review, initReview } from './review.model';
 import { BenchSession, initBenchSession } from './session.model';
+import { SessionExplanation, initSessionExplanation } from './session-explanation.model';
 import { User, initUser } from './user.model';
 import { WebSession, initWebSession } from './web-session.model';
 
 export { ApiToken, AuditEntry, Board, Build, Comment, Core, CoreWatcher, GoldenVectorSet, Invitation, OutboxMessage, Review, BenchSession, User, WebSession };
+export { SessionExplanation };
+export { EXPLANATION_DECISIONS, type ExplanationDecision } from './session-explanation.model';
 export { ROLES, type Role } from './user.model';
 export { DECISIONS, type Decision } from './review.model';
 
@@ -28,6 +31,7 @@ export function initModels(sequelize: Sequelize) {
   for (const init of [
     initUser, initInvitation, initApiToken, initWebSession, initAuditEntry, initOutboxMessage, initCore, initCoreWatcher,
     initBoard, initBuild, initReview, initGoldenVectorSet, initBenchSession, initComment,
+    initSessionExplanation,
   ]) {
     init(sequelize);
   }
@@ -54,4 +58,6 @@ export function initModels(sequelize: Sequelize) {
   BenchSession.hasMany(Comment, { as: 'comments', foreignKey: 'sessionId' });
   Comment.belongsTo(BenchSession, { as: 'session', foreignKey: 'sessionId' });
   Comment.belongsTo(User, { as: 'author', foreignKey: 'authorId' });
+  SessionExplanation.belongsTo(User, { as: 'savedBy', foreignKey: 'savedById' });
+  SessionExplanation.belongsTo(User, { as: 'decidedBy', foreignKey: 'decidedById' });
 }

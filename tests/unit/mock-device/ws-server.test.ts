@@ -93,7 +93,7 @@ describe('the simulated board command line', () => {
   it('reads every option and names a bad one', () => {
     const { port, settings } = parseBoardArgs(['--ws-port', '6000', '--baud', '921600', '--queue-depth', '64', '--core-fault', 'sign:5', '--line-faults', 'ber=1e-5,seed=3', '--core', '{"outBits":18,"outFrac":16}']);
     expect(port).toBe(6000);
-    expect(settings).toMatchObject({ baud: 921_600, queueDepth: 64, coreFault: { kind: 'sign', iteration: 5 }, lineFaults: { ber: 1e-5, seed: 3 } });
+    expect(settings).toMatchObject({ baud: 921_600, queueDepth: 64, coreFault: { config: {}, fault: { kind: 'sign-slip', iteration: 5 } }, lineFaults: { ber: 1e-5, seed: 3 } });
     expect(settings.core).toMatchObject({ outBits: 18, outFrac: 16 });
     expect(() => parseBoardArgs(['--baud', 'fast'])).toThrow(/--baud/);
     expect(() => parseBoardArgs(['--core-fault', 'melt'])).toThrow(/--core-fault/);

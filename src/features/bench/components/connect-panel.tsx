@@ -4,12 +4,12 @@ import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import type { BenchController, BenchSnapshot } from '../live/bench-controller';
 import { COMMON_BAUD_RATES, MAX_BAUD, MIN_BAUD, recommendedBufferSize, type SerialSettings } from '../transport/serial-options';
-import { hasWebSerial, WebSerialLink } from '../transport/web-serial-link';
+import { browserFacts, hostedBoardUrl, serialSupport } from '../transport/browser-links';
+import { WebSerialLink } from '../transport/web-serial-link';
 import { SocketLink } from '../transport/socket-link';
 import { SerialCaution, serialCautionSeen } from './serial-caution';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 
-export const SIMULATED_BOARD_URL = 'ws://127.0.0.1:5175/';
 const wsUrl = z.string().trim().regex(/^wss?:\/\/\S+$/, 'A ws:// or wss:// address');
 
 const connectSchema = z
@@ -42,13 +42,14 @@ type ConnectForm = z.input<typeof connectSchema>;
 const baudOf = (v: { baud: string; customBaud: string }) => (v.baud === 'custom' ? Number(v.customBaud) : Number(v.baud));
 
 export function ConnectPanel({ controller, snap }: { controller: BenchController; snap: BenchSnapshot }) {
-  const serialAvailable = hasWebSerial();
+  const serial = serialSupport(browserFacts());
   const [caution, setCaution] = useState<ConnectForm | null>(null);
   const { register, handleSubmit, watch, setValue, formState } = useForm<ConnectForm, unknown, z.output<typeof connectSchema>>({
     resolver: zodResolver(connectSchema),
     defaultValues: {
       transport: 'simulated',
-      simulatedUrl: SIMULATED_BOARD_URL,
+      // A board of its own on the server this page came from (same origin: no CSP exception).
+      simulatedUrl: hostedBoardUrl(window.location),
       bridgeUrl: 'ws://127.0.0.1:5176/',
       bridgeToken: '',
       baud: '3000000',
@@ -126,15 +127,19 @@ export function ConnectPanel({ controller, snap }: { controller: BenchController
           <fieldset className="grid gap-1.5 text-sm" disabled={busy}>
             <legend className="mb-1 font-bold">Connect through</legend>
             <label className="flex items-center gap-2">
-              <input type="radio" value="simulated" {...register('transport')} /> Simulated board
+              <input type="radio" value="simulated" {...register('transport')} /> Simulated board (on this server)
             </label>
             <label className="flex items-center gap-2">
               <input type="radio" value="bridge" {...register('transport')} /> Bench bridge (network)
             </label>
             <label className="flex items-center gap-2">
-              <input type="radio" value="serial" disabled={!serialAvailable} {...register('transport')} /> Serial port in this browser
+              <input type="radio" value="serial" disabled={!serial.available} aria-describedby={serial.available ? undefined : 'serial-unavailable'} {...register('transport')} /> Serial port in this browser
             </label>
-            {!serialAvailable && <p className="text-xs text-ink-soft">This browser has no Web Serial, so it cannot open a serial port itself. Use the simulated board, or a bench bridge on the machine the board is plugged into.</p>}
+            {!serial.available && (
+              <p id="serial-unavailable" data-testid="serial-unavailable" className="text-xs text-ink-soft">
+                {serial.reason}
+              </p>
+            )}
           </fieldset>
 
           {transport === 'simulated' && (

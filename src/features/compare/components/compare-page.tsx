@@ -2,6 +2,7 @@ import { useSearchParams } from 'react-router-dom';
 import { useCompare } from '../api/get-compare';
 import { formatIds, parseIds } from './compare-ids';
 import { DiffPanel } from './diff-panel';
+import { ExplanationsPanel } from './explanations-panel';
 import { OverlayCharts } from './overlay-charts';
 import { SessionPicker } from './session-picker';
 import { StatsTable } from './stats-table';
@@ -38,6 +39,7 @@ export function ComparePage() {
           <OverlayCharts sessions={data.sessions} />
           <StatsTable sessions={data.sessions} />
           <DiffPanel sessions={data.sessions} pairs={data.pairs} />
+          <ExplanationsPanel sessions={data.sessions} />
         </>
       )}
     </div>

@@ -9,6 +9,7 @@ import { SessionFacts } from '../components/session-facts';
 import { SessionStats } from '../components/session-stats';
 import { RegressionBadge, VerdictBadge } from '../components/verdict-badges';
 import { VerdictTable } from '../components/verdict-table';
+import { ExplainPanel } from '../explain/explain-panel';
 import { CommentsPanel } from './comments-panel';
 import { NotesPanel } from './notes-panel';
 import { SessionActions } from './session-actions';
@@ -72,6 +73,9 @@ export function SessionPage({ id }: { id: number }) {
               The core could not be read, so the plots cannot be scored: {core.error.message}
             </p>
           )}
+          <LocalBoundary what="explanation">
+            <ExplainPanel session={s} core={core.data?.core} canEdit={canEdit} />
+          </LocalBoundary>
           <LocalBoundary what="capture">
             <CapturePane sessionId={s.id} hasArchive={!!s.hasArchive} />
           </LocalBoundary>

@@ -7,6 +7,7 @@ import { btnPrimary } from '../../../components/ui';
 import { useBuild } from '../../../lib/resources/build-detail';
 import { useCore } from '../../../lib/resources/core-detail';
 import { useSession } from '../api/get-session';
+import { ReportExplanation } from './report-explanation';
 import { useSessionPlots } from '../api/get-session-plots';
 import { SessionFacts } from '../components/session-facts';
 import { statRows } from '../components/session-stats';
@@ -95,6 +96,7 @@ export function SessionReport({ id }: { id: number }) {
           <p className="text-sm text-ink-soft">Scoring the stored samples for the plot…</p>
         )}
       </section>
+      <ReportExplanation session={session} className={h2} />
       <section aria-labelledby="r-notes" className="break-inside-avoid">
         <h2 id="r-notes" className={h2}>
           Notes

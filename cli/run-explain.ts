@@ -1,0 +1,36 @@
+// `run --explain`: after the run, search for the configuration or RTL defect that reproduces the
+// board's answers bit for bit (shared/explain), for the printed report and the JSON summary.
+import { explain, type Explanation } from '../shared/explain';
+import type { ModelConfig } from '../shared/numeric';
+import type { AnsweredRun } from './run-score';
+
+/** The explanation of the answered results of a run (unanswered codes are left out). */
+export function explainRun(model: ModelConfig, run: AnsweredRun): Explanation {
+  const n = run.codes.length;
+  let answered = 0;
+  for (let i = 0; i < n; i++) if (run.answered[i]) answered++;
+  const angle = new Float64Array(answered);
+  const cos = new Int32Array(answered);
+  const sin = new Int32Array(answered);
+  for (let i = 0, k = 0; i < n; i++) {
+    if (!run.answered[i]) continue;
+    [angle[k], cos[k], sin[k]] = [run.codes[i], run.cos[i], run.sin[i]];
+    k++;
+  }
+  return explain(model, { angle, cos, sin });
+}
+
+const SHOWN = 3;
+
+/** The lines `run` prints: the search's summary, then the best few hypotheses with their counts. */
+export function explanationText(e: Explanation): string {
+  const out = [`explanation: ${e.summary}`];
+  if (e.outcome !== 'matches-model') {
+    e.hypotheses.slice(0, SHOWN).forEach((h, i) => {
+      const rest = h.exact === e.answered ? '' : `, largest difference left ${h.maxDiffLsb} LSB`;
+      out.push(`  ${i + 1}. ${h.label}: reproduces ${h.exact.toLocaleString('en-US')} of ${e.answered.toLocaleString('en-US')} answers exactly${rest}`);
+      if (h.equivalent.length) out.push(`     same answers as: ${h.equivalent.map((q) => q.label).join('; ')}`);
+    });
+  }
+  return out.join('\n') + '\n';
+}

@@ -1,0 +1,81 @@
+// `run --soak 50 | 30m`: the plan repeated on one connection (shared/soak/soak-run.ts), a line
+// per pass on stderr, and the soak's part of the report, the JSON summary and the upload.
+import type { LinkEngine, RunHandle, RunResult } from '../shared/link-engine/link-engine';
+import type { RunRequest } from '../shared/link-engine/run-request';
+import type { ModelConfig, Plan } from '../shared/numeric';
+import { describeSoak, parseSoakSpec, runSoak, type SoakRecord, type SoakSpec } from '../shared/soak';
+import type { EngineClock } from '../shared/link-engine/link-engine';
+import { UsageError } from './run-options';
+import { scoreRun } from './run-score';
+
+export function parseSoakOption(text: string): SoakSpec {
+  try {
+    return parseSoakSpec(text);
+  } catch (e) {
+    throw new UsageError(`--soak: ${(e as Error).message}`);
+  }
+}
+
+const n = (v: number) => v.toLocaleString('en-US');
+
+export interface SoakRun {
+  status: 'complete' | 'aborted' | 'failed';
+  message?: string;
+  /** The last whole pass: the session's samples. */
+  result: RunResult;
+  record: SoakRecord;
+}
+
+/** Every pass of the soak; a pass that fails ends it (the caller reports the failure). */
+export async function soakPasses(a: {
+  engine: LinkEngine;
+  request: RunRequest;
+  model: ModelConfig;
+  plan: Plan;
+  spec: SoakSpec;
+  clock: EngineClock;
+  confirm: (code: number, cos: number, sin: number) => boolean;
+  log: (line: string) => void;
+  onPassStart?: (handle: RunHandle) => void;
+  keepGoing?: () => boolean;
+}): Promise<SoakRun> {
+  const total = a.spec.kind === 'passes' ? `/${n(a.spec.passes)}` : '';
+  const out = await runSoak({
+    engine: a.engine,
+    request: a.request,
+    spec: a.spec,
+    clock: a.clock,
+    handlers: { confirm: a.confirm },
+    onPassStart: (_pass, handle) => a.onPassStart?.(handle),
+    keepGoing: a.keepGoing,
+    score: (result, checkFailures) => {
+      const s = scoreRun(a.model, a.plan, result, checkFailures);
+      return { mismatches: s.summary.mismatches.count, maxAbsErrorLsb: s.summary.count > 0 ? s.summary.overall.maxAbsLsb : null };
+    },
+    onPass: (p, acc) =>
+      a.log(
+        `soak pass ${n(p.pass)}${total}: ${n(p.answered)} answered, ${n(p.mismatches)} mismatches, ${n(p.linkErrors)} link errors` +
+          `${p.retries ? ` (${n(p.retries)} re-asked)` : ''}, ${n(acc.unstableCount)} unstable codes so far, ${(p.elapsedMs / 1000).toFixed(2)} s\n`,
+      ),
+  });
+  // Stopped in its first pass: what that pass got is all there is (nothing is uploaded then).
+  const result = out.last?.result ?? out.cut;
+  if (!result) throw new Error(out.message ?? 'the soak ended before its first pass');
+  return { status: out.status, message: out.message, result, record: out.acc.record(a.spec) };
+}
+
+/** The soak's lines of the human report. */
+export function soakReportLines(r: SoakRecord): string[] {
+  const s = r.summary;
+  const lines = [
+    `soak ${describeSoak(r.spec)}: ${n(s.passes)} passes of ${n(s.codesPerPass)} codes in ${(s.elapsedMs / 1000).toFixed(1)} s; figures above are the last pass`,
+    `  ${n(s.mismatches)} model mismatches in all (${n(s.passesWithMismatches)} passes had some), ${n(s.linkErrors)} link errors (${n(s.checkFailures)} bad CHECK, ${n(s.missing)} never answered), ${n(s.retries)} codes re-asked`,
+    `  unstable codes: ${n(s.unstableCodes)}${r.unstable.listed < r.unstable.count ? ` (first ${n(r.unstable.listed)} listed)` : ''}`,
+  ];
+  for (const u of r.unstable.codes.slice(0, 20)) {
+    const answers = u.answers.map((x) => `(${x.cos}, ${x.sin})×${x.count}`).join(' ');
+    lines.push(`    code ${u.code} from pass ${u.firstPass}: ${answers}${u.otherAnswers ? ` +${u.otherAnswers} other` : ''}`);
+  }
+  if (r.unstable.codes.length > 20) lines.push(`    … ${n(r.unstable.codes.length - 20)} more in --json`);
+  return lines;
+}

@@ -1,0 +1,76 @@
+// A soak on one link engine: the same request pass after pass until the spec is used up, each
+// pass scored and put in the soak's books. The caller scores (it has the model) and hears about
+// every pass, so the runner prints and the Bench page draws while the soak goes on.
+import type { EngineClock, LinkEngine, RunHandle, RunHandlers, RunResult } from '../link-engine/link-engine';
+import type { RunRequest } from '../link-engine/run-request';
+import { SoakAccumulator, type SoakOptions, type SoakTimelinePoint } from './soak-accumulator';
+import { soakWantsAnotherPass, type SoakSpec } from './soak-spec';
+
+export interface PassScore {
+  mismatches: number;
+  maxAbsErrorLsb: number | null;
+}
+
+export interface SoakRunOptions<S extends PassScore> {
+  engine: LinkEngine;
+  request: RunRequest;
+  spec: SoakSpec;
+  clock: EngineClock;
+  /** Score one finished pass; `checkFailures` is this pass's own count. */
+  score: (result: RunResult, checkFailures: number) => S;
+  handlers?: Omit<RunHandlers, 'onProgress'> & { onProgress?: RunHandlers['onProgress'] };
+  /** A pass starts (1-based), with its handle so the caller can pause or abort it. */
+  onPassStart?: (pass: number, handle: RunHandle) => void;
+  /** A pass ended and was booked. */
+  onPass?: (point: SoakTimelinePoint, acc: SoakAccumulator, score: S, result: RunResult) => void;
+  accumulator?: SoakOptions;
+  /** Asked before each pass after the first: false stops the soak early (the user stopped it). */
+  keepGoing?: () => boolean;
+}
+
+export interface SoakOutcome<S extends PassScore> {
+  status: 'complete' | 'aborted' | 'failed';
+  message?: string;
+  acc: SoakAccumulator;
+  /** The last whole pass and its score: the session's samples and figures. */
+  last: { result: RunResult; score: S } | null;
+  /** The pass that was cut short (aborted or failed), not booked. */
+  cut: RunResult | null;
+}
+
+export async function runSoak<S extends PassScore>(o: SoakRunOptions<S>): Promise<SoakOutcome<S>> {
+  const t0 = o.clock.now();
+  let acc: SoakAccumulator | null = null;
+  let last: SoakOutcome<S>['last'] = null;
+  const f = o.engine.figures;
+  for (let pass = 1; ; pass++) {
+    if (pass > 1 && (!soakWantsAnotherPass(o.spec, pass - 1, o.clock.now() - t0) || o.keepGoing?.() === false)) break;
+    const before = { checkFailures: f.checkFailures, retries: f.retries };
+    const atMs = o.clock.now() - t0;
+    const handle = o.engine.run(o.request, o.handlers ?? {});
+    o.onPassStart?.(pass, handle);
+    const result = await handle.done;
+    if (result.status !== 'complete') {
+      // A pass cut short is not booked: its missing codes would read as link errors.
+      return { status: result.status, message: result.message, acc: acc ?? new SoakAccumulator(result.codes, o.accumulator), last, cut: result };
+    }
+    acc ??= new SoakAccumulator(result.codes, o.accumulator);
+    const checkFailures = f.checkFailures - before.checkFailures;
+    const score = o.score(result, checkFailures);
+    const point = acc.addPass({
+      codes: result.codes,
+      cos: result.cos,
+      sin: result.sin,
+      answered: result.answered,
+      mismatches: score.mismatches,
+      maxAbsErrorLsb: score.maxAbsErrorLsb,
+      checkFailures,
+      retries: f.retries - before.retries,
+      atMs,
+      elapsedMs: result.elapsedMs,
+    });
+    last = { result, score };
+    o.onPass?.(point, acc, score, result);
+  }
+  return { status: 'complete', acc: acc!, last, cut: null };
+}
