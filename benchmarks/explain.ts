@@ -34,10 +34,10 @@ export async function explainBench(): Promise<BenchResult[]> {
   const model = createCordicModel({});
   const outCos = new Int32Array(CODES);
   const outSin = new Int32Array(CODES);
-  const pass: number[] = [];
   const results: BenchResult[] = [];
   for (const c of cases) {
     const times: number[] = [];
+    const pass: number[] = [];
     let tried = 0;
     let e: Explanation | null = null;
     // Interleaved with the model pass, so a slow moment on the shared machine hits both alike.
