@@ -2,6 +2,9 @@
 import { z } from 'zod';
 import { isoDate, jsonObject, named } from './common';
 
+/** POST /api/sessions/:id/comments */
+export const commentBody = z.strictObject({ body: z.string().trim().min(1).max(10_000) });
+
 export const comment = z.object({
   id: z.number().int(),
   sessionId: z.number().int(),

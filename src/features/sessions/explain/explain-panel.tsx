@@ -14,7 +14,7 @@ import type { CoreRecord } from '../../../lib/resources/cores';
 import { useDecideExplanation } from '../api/decide-explanation';
 import { fetchBytes } from '../api/fetch-bytes';
 import { useSaveExplanation } from '../api/save-explanation';
-import type { SessionRecord } from '../api/session-types';
+import type { SessionRecord } from '../../../lib/resources/sessions';
 import { DiffChart } from './diff-chart';
 import { runExplain, type ExplainResult } from './run-explain';
 import { TraceTable } from './trace-table';
