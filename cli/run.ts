@@ -102,14 +102,19 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
     let soak: SoakRun | null = null;
     let current: RunHandle | null = null;
     const stopOnInterrupt = deps.interrupt?.onRequest(() => void current?.abort()) ?? (() => undefined);
+    // A run (or soak pass) that starts after the interrupt came is aborted as it begins.
+    const started = (h: RunHandle): RunHandle => {
+      current = h;
+      if (deps.interrupt?.requested) void h.abort();
+      return h;
+    };
     try {
       if (o.soak) {
         const keepGoing = () => !deps.interrupt?.requested;
-        soak = await soakPasses({ engine, request, model, plan, spec: o.soak, clock, confirm: confirmOffModel(model), log: io.stderr, onPassStart: (h) => (current = h), keepGoing });
+        soak = await soakPasses({ engine, request, model, plan, spec: o.soak, clock, confirm: confirmOffModel(model), log: io.stderr, onPassStart: started, keepGoing });
         result = soak.status === 'complete' ? soak.result : { ...soak.result, status: soak.status, message: soak.message };
       } else {
-        current = engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) });
-        result = await current.done;
+        result = await started(engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) })).done;
       }
     } finally {
       stopOnInterrupt();

@@ -20,6 +20,7 @@ const ENTRIES: [string, ModelConfigInput?][] = [
   ['stuck-bit:cos:0:1'],
   ['stuck-bit:sin:14:0'],
   ['stuck-bit:both:3:1'],
+  ['stuck:0'], // the demo data's seeded regression, in the board's old spelling
   ['swap'],
   ['negate:cos'],
   ['negate:sin'],

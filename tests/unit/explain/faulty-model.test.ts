@@ -71,7 +71,8 @@ describe('the faulty iteration', { timeout: 120_000 }, () => {
   });
 
   it('starts from the gain of another iteration count', () => {
-    // K_2 = 1/√(1·1.25) = 1/√2.5 (the product Π 1/√(1 + 2^−2i) of Volder's CORDIC), evaluated with decimal.js.
+    // K_2 = 1/√(1 · 1.25) = 1/√2.5: the gain product K_n = Π (1 + 2^−2i)^−1/2 (Volder; Walther, see
+    // docs/references.md "CORDIC, rotation mode"), recomputed with decimal.js.
     const k2 = new Decimal(1).div(new Decimal(2.5).sqrt());
     const expected = k2.times(2 ** 16).toDecimalPlaces(0, Decimal.ROUND_HALF_UP).toNumber();
     expect(expected).toBe(41_449);

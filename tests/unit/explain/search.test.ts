@@ -49,6 +49,24 @@ describe('the explain search', { timeout: 300_000 }, () => {
     });
   }
 
+  it('finds a defect on top of a configuration deviation', () => {
+    // 14 iterations instead of 16 and cos bit 0 stuck at 1: the deviation alone reproduces the
+    // answers whose bit 0 was already 1, so it beats the declared model and its defects are tried.
+    const sim = createSimCore({}, { config: { iterations: 14 }, fault: { kind: 'stuck-bit', channel: 'cos', bit: 0, value: 1 } });
+    const codes = every(16);
+    const cos = new Int32Array(codes.length);
+    const sin = new Int32Array(codes.length);
+    codes.forEach((c, k) => ({ cos: cos[k], sin: sin[k] } = sim.evaluate(c)));
+    const e = explain(parseModelConfig({}), { angle: codes, cos, sin });
+    expect(e.outcome).toBe('explained');
+    expect(e.hypotheses[0]).toMatchObject({
+      label: '14 iterations instead of 16 and cos output bit 0 stuck at 1',
+      config: { ...e.declared, iterations: 14 },
+      fault: { kind: 'stuck-bit', channel: 'cos', bit: 0, value: 1 },
+      exact: 65_536,
+    });
+  });
+
   it('ranks a defect first when a few answers were damaged on the line, and calls the rest scattered', () => {
     const s = board({}, 'sign-slip:5', every(16));
     // Bit errors that passed the frame check: a few answers with one wrong bit each.
