@@ -3,8 +3,9 @@
 import { literal, Op, type WhereOptions } from 'sequelize';
 import type { Literal } from 'sequelize/types/utils';
 import type { SessionListQuery } from '../../shared/contract/sessions';
-import { BenchSession, Board, Build, Core, User } from '../db/models';
+import { BenchSession, Board, Build, Core, SessionConditions, User } from '../db/models';
 import { notFound } from '../http-error';
+import { conditionRangeWhere, conditionsView } from './session-conditions';
 
 /** Without the blobs, with whether an archive is kept and the names a list shows. */
 const LISTED = {
@@ -14,9 +15,16 @@ const LISTED = {
     { model: Build, as: 'build', attributes: ['id', 'label'] },
     { model: Board, as: 'board', attributes: ['id', 'name'] },
     { model: User, as: 'operator', attributes: ['id', 'name'] },
+    { model: SessionConditions, as: 'conditions', attributes: { exclude: ['soak'] } },
   ],
 };
-const listed = (row: BenchSession) => ({ ...row.toJSON(), hasArchive: Boolean(row.get('hasArchive')) });
+/** The detail reads the soak's books as well. */
+const DETAILED = { ...LISTED, include: [...LISTED.include.slice(0, -1), { model: SessionConditions, as: 'conditions' }] };
+const listed = (row: BenchSession, withSoak = false) => ({
+  ...row.toJSON(),
+  hasArchive: Boolean(row.get('hasArchive')),
+  ...conditionsView(row.get('conditions') as SessionConditions | null, { withSoak }),
+});
 
 function listWhere(q: SessionListQuery): WhereOptions {
   const where: Record<string | symbol, unknown> = {};
@@ -24,7 +32,11 @@ function listWhere(q: SessionListQuery): WhereOptions {
     if (q[key] !== undefined) where[key] = q[key];
   }
   if (q.from || q.to) where.startedAt = { ...(q.from ? { [Op.gte]: q.from } : {}), ...(q.to ? { [Op.lte]: q.to } : {}) };
-  if (q.tag) where[Op.and] = literal(`EXISTS (SELECT 1 FROM json_each("BenchSession"."tags") WHERE json_each.value = ${BenchSession.sequelize!.escape(q.tag)})`);
+  const and: unknown[] = [];
+  if (q.tag) and.push(literal(`EXISTS (SELECT 1 FROM json_each("BenchSession"."tags") WHERE json_each.value = ${BenchSession.sequelize!.escape(q.tag)})`));
+  const ranges = conditionRangeWhere(q);
+  if (ranges) and.push(ranges);
+  if (and.length > 0) where[Op.and] = and;
   return where as WhereOptions;
 }
 
@@ -38,14 +50,14 @@ export async function listSessions(q: SessionListQuery) {
     limit: q.pageSize,
     offset: (q.page - 1) * q.pageSize,
   });
-  return { items: rows.map(listed), total: count, page: q.page, pageSize: q.pageSize };
+  return { items: rows.map((row) => listed(row)), total: count, page: q.page, pageSize: q.pageSize };
 }
 
 /** One session with its names, without the blobs. @throws HttpError 404 */
 export async function sessionDetail(id: number) {
-  const session = await BenchSession.findByPk(id, LISTED);
+  const session = await BenchSession.findByPk(id, DETAILED);
   if (!session) throw notFound('Session');
-  return { session: listed(session) };
+  return { session: listed(session, true) };
 }
 
 /** A stored session with (default) or without its blobs. @throws HttpError 404 */

@@ -1,6 +1,7 @@
 // The sessions API: what /api/sessions accepts.
 import { z } from 'zod';
 import { flag, id, jsonObject, tags, text } from './common';
+import { conditionsSchema, CONDITION_RANGES, soakRecordSchema } from '../soak';
 
 /**
  * The `session` part of an upload. The runner also sends its own `stats`, `verdict`, `passed`
@@ -23,6 +24,9 @@ export const sessionUploadPart = z
     notes: text(10_000).default(''),
     tags: tags.default([]),
     link: jsonObject.optional(),
+    /** Operating conditions (shared/soak/conditions.ts) and, for a soak, its books. */
+    conditions: conditionsSchema.optional(),
+    soak: soakRecordSchema.optional(),
     stats: z.unknown().optional(),
     verdict: z.unknown().optional(),
     passed: z.unknown().optional(),
@@ -45,6 +49,22 @@ export const sessionImportPart = z
   .refine((s) => s.coreId !== undefined || s.coreSlug !== undefined, { path: ['coreId'], message: 'coreId or coreSlug is required' });
 export type SessionImportPart = z.infer<typeof sessionImportPart>;
 
+/** Condition filter names of the list, each a bound of one named condition's range. */
+export const CONDITION_FILTERS = {
+  temperatureMin: ['temperature_c', 'min'],
+  temperatureMax: ['temperature_c', 'max'],
+  vccintMin: ['vccint_v', 'min'],
+  vccintMax: ['vccint_v', 'max'],
+  clockMin: ['clock_mhz', 'min'],
+  clockMax: ['clock_mhz', 'max'],
+} as const;
+export type ConditionFilter = keyof typeof CONDITION_FILTERS;
+
+function conditionRangeFilters() {
+  const bound = (name: keyof typeof CONDITION_RANGES) => z.coerce.number().min(CONDITION_RANGES[name].min).max(CONDITION_RANGES[name].max).optional();
+  return Object.fromEntries(Object.entries(CONDITION_FILTERS).map(([key, [name]]) => [key, bound(name)])) as Record<ConditionFilter, ReturnType<typeof bound>>;
+}
+
 /** GET /api/sessions: filters, order and page. */
 export const sessionListQuery = z.strictObject({
   coreId: id.optional(),
@@ -56,6 +76,7 @@ export const sessionListQuery = z.strictObject({
   tag: text(40).min(1).optional(),
   from: z.coerce.date().optional(),
   to: z.coerce.date().optional(),
+  ...conditionRangeFilters(),
   sort: z.enum(['startedAt', '-startedAt', 'id', '-id']).default('-startedAt'),
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(25),
