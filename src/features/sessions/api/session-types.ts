@@ -1,4 +1,5 @@
 // What the sessions API answers (server/routes/sessions.ts), as the client reads it.
+import type { Conditions, SoakRecord } from '../../../../shared/soak';
 import type { ScoreSummary } from '../../../../shared/numeric';
 import type { LimitKey } from '../../../../shared/link-engine/limits';
 
@@ -43,6 +44,12 @@ export interface SessionRecord {
   notes: string;
   tags: string[];
   hasArchive?: boolean;
+  /** Operating conditions (`{}` when none were recorded); a soak's pass count and unstable codes. */
+  conditions?: Conditions;
+  soakPasses?: number | null;
+  unstableCodes?: number | null;
+  /** The soak's books, in the detail only (null for a single-pass session). */
+  soak?: SoakRecord | null;
   createdAt?: string;
   updatedAt?: string;
 }
