@@ -21,7 +21,7 @@ describe('the condition grid', () => {
     expect(names.filter((n) => n?.startsWith('PASS'))).toHaveLength(8);
     // The line plot of one figure against temperature, a line per supply.
     await page.getByRole('combobox', { name: /^Figure/ }).selectOption({ label: 'Unstable codes' });
-    expect(await page.getByRole('img', { name: 'Unstable codes against Temperature (°C)' }).locator('polyline').count()).toBe(3);
+    await expect.poll(() => page.getByRole('img', { name: 'Unstable codes against Temperature (°C)' }).locator('polyline').count()).toBe(3);
     await page.screenshot({ path: '/tmp/soak-condition-grid.png', fullPage: true });
 
     await grid.getByRole('link', { name: /^UNSTABLE at/ }).click();
@@ -29,6 +29,17 @@ describe('the condition grid', () => {
     const rows = page.locator('table tbody tr');
     await expect.poll(() => rows.count()).toBe(1);
     await page.screenshot({ path: '/tmp/soak-cell-sessions.png', fullPage: true });
+
+    // The session itself: its conditions, the soak's timeline and the unstable codes against angle.
+    await rows.first().getByRole('link').first().click();
+    await page.waitForURL(/\/sessions\/\d+$/);
+    const conditions = page.getByLabel('Operating conditions').getByRole('definition');
+    await expect.poll(() => page.getByLabel('Operating conditions').innerText()).toMatch(/Temperature\s+85 °C[\s\S]*Core supply\s+0\.9 V[\s\S]*chamber\s+TC-2/);
+    expect(await conditions.count()).toBe(4);
+    expect(await page.getByTestId('soak-summary').innerText()).toMatch(/^5 passes of 1,024 codes .* \d+ unstable codes\./);
+    await expect.poll(() => page.getByRole('img', { name: 'Soak timeline: pass against mismatches, unstable codes and link errors' }).locator('polyline').count()).toBe(3);
+    expect(await page.getByRole('img', { name: /^Unstable codes against angle: \d+ codes$/ }).locator('circle').count()).toBeGreaterThan(5);
+    await page.screenshot({ path: '/tmp/soak-session.png', fullPage: true });
     await page.close();
   });
 });
