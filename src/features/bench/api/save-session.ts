@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api';
 import type { RunRecord } from '../live/bench-controller';
 import { packSamples } from '../../../../shared/link-engine/sample-pack';
+import type { Conditions } from '../../../../shared/soak';
 
 export const sessionKeys = { all: ['sessions'] as const };
 
@@ -27,6 +28,8 @@ export interface SaveSessionInput {
   boardId: number | null;
   notes: string;
   tags: string[];
+  /** Operating conditions from the save form; left out when none were given. */
+  conditions?: Conditions;
   /** Link figures of the run, when known (check failures count towards the verdict). */
   link?: Record<string, unknown> | null;
   /** A capture archive, when the page recorded one. */
@@ -46,6 +49,7 @@ export function saveSession(input: SaveSessionInput): Promise<SavedSession> {
     deviceInfo: record.info ? { ...record.info } : null,
     notes: input.notes,
     tags: input.tags,
+    ...(input.conditions && Object.keys(input.conditions).length > 0 ? { conditions: input.conditions } : {}),
     ...(input.link ? { link: input.link } : {}),
   };
   const form = new FormData();
