@@ -51,8 +51,8 @@ export function ConditionFields({ register, errors }: { register: (k: keyof Cond
       </p>
       <div className="grid grid-cols-3 gap-2">
         {field('temperature_c', 'Temperature (°C)')}
-        {field('vccint_v', 'Core supply (V)')}
-        {field('clock_mhz', 'Core clock (MHz)')}
+        {field('vccint_v', 'Supply, VCCINT (V)')}
+        {field('clock_mhz', 'Clock (MHz)')}
       </div>
       <label className={label}>
         Other conditions (name=value, comma-separated)
