@@ -33,8 +33,8 @@ describe('the condition grid', () => {
     // The session itself: its conditions, the soak's timeline and the unstable codes against angle.
     await rows.first().getByRole('link').first().click();
     await page.waitForURL(/\/sessions\/\d+$/);
-    const conditions = page.getByLabel('Operating conditions').getByRole('definition');
-    await expect.poll(() => page.getByLabel('Operating conditions').innerText()).toMatch(/Temperature\s+85 °C[\s\S]*Core supply\s+0\.9 V[\s\S]*chamber\s+TC-2/);
+    const conditions = page.getByLabel('Recorded conditions').getByRole('definition');
+    await expect.poll(() => page.getByLabel('Recorded conditions').innerText()).toMatch(/Temperature\s+85 °C[\s\S]*Core supply\s+0\.9 V[\s\S]*chamber\s+TC-2/);
     expect(await conditions.count()).toBe(4);
     expect(await page.getByTestId('soak-summary').innerText()).toMatch(/^5 passes of 1,024 codes .* \d+ unstable codes\./);
     await expect.poll(() => page.getByRole('img', { name: 'Soak timeline: pass against mismatches, unstable codes and link errors' }).locator('polyline').count()).toBe(3);

@@ -11,7 +11,7 @@ function ConditionList({ conditions }: { conditions: Conditions }) {
   const other = Object.entries(conditions.other ?? {});
   if (named.length === 0 && other.length === 0) return <p className="text-sm text-ink-soft">No operating conditions were recorded with this session.</p>;
   return (
-    <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm" aria-label="Operating conditions">
+    <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm" aria-label="Recorded conditions">
       {named.map((k) => (
         <div key={k} className="contents">
           <dt className="text-ink-soft">{CONDITION_RANGES[k].label}</dt>
