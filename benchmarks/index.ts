@@ -9,7 +9,9 @@ type Bench = () => Promise<BenchResult[]>;
 // Imported lazily: a benchmark's setup (a browser, a server) costs nothing unless it runs.
 const BENCHES: Record<string, Bench> = {
   'decode-score': async () => (await import('./decode-score')).decodeScoreBench(),
+  explain: async () => (await import('./explain')).explainBench(),
   link: async () => (await import('./link')).linkBench(),
+  'hosted-board': async () => (await import('./hosted-board')).hostedBoardBench(),
   ingest: async () => (await import('./ingest')).ingestBench(),
   'list-compare': async () => (await import('./list-compare')).listCompareBench(),
   page: async () => (await import('./page')).pageBench(),

@@ -51,7 +51,7 @@ export async function ingestBench(): Promise<BenchResult[]> {
     const times: number[] = [];
     for (let i = 0; i < RUNS; i++) {
       let id: number | null = null;
-      times.push(await timeMs(async () => (id = await uploadSession(fetch, { url: server.url, token: server.token }, { session, samples: samples.packed, archive: new Uint8Array(0) }))));
+      times.push(await timeMs(async () => ({ id } = await uploadSession(fetch, { url: server.url, token: server.token }, { session, samples: samples.packed, archive: new Uint8Array(0) }))));
       if (id === null) throw new Error('the upload returned no session id');
     }
     const bare = await bareBlobInserts(samples.packed, RUNS);

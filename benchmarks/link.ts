@@ -1,6 +1,7 @@
 // link: exhaustive 16-bit sweeps against the simulated board (its own process) over a real
 // WebSocket, driven the way `anglebench run` drives them: NodeSocketLink + LinkEngine. The bound
 // is docs/protocol.md "7. Throughput": the reply bytes the run put on the wire ÷ (baud / 10).
+import type { ClientOptions } from 'ws';
 import { NodeSocketLink } from '../cli/transport/ws-link';
 import { LinkEngine, type EngineClock } from '../shared/link-engine/link-engine';
 import { startBoardProcess } from './board-process';
@@ -22,8 +23,8 @@ const clock: EngineClock = {
 };
 
 /** One sweep on a fresh connection: wall time of the run and the reply bytes it took. */
-async function sweepOnce(url: string, baud: number): Promise<{ ms: number; rxBytes: number; stallMs: number }> {
-  const link = await NodeSocketLink.open(url);
+export async function sweepOnce(url: string, baud: number, connect: Pick<ClientOptions, 'headers'> = {}): Promise<{ ms: number; rxBytes: number; stallMs: number }> {
+  const link = await NodeSocketLink.open(url, 5000, connect);
   try {
     const engine = new LinkEngine({ link, clock, baud });
     await engine.hello();

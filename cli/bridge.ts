@@ -168,8 +168,9 @@ function int(name: string, text: string | undefined, min: number, max: number, f
     if (fallback === undefined) throw new UsageError(`--${name} is required (see bridge --help)`);
     return fallback;
   }
-  const n = Number(text);
-  if (!Number.isInteger(n) || n < min || n > max) throw new UsageError(`--${name} must be an integer ${min}..${max}, got "${text}"`);
+  // Decimal digits only: Number() would also take "", " 5", "0x10" and "1e3".
+  const n = /^\d+$/.test(text) ? Number(text) : NaN;
+  if (!Number.isSafeInteger(n) || n < min || n > max) throw new UsageError(`--${name} must be an integer ${min}..${max}, got "${text}"`);
   return n;
 }
 
@@ -194,7 +195,9 @@ export function parseBridgeArgs(argv: string[]): BridgeOptions | 'help' {
   }
   if (values.help) return 'help';
   const s = (k: string) => values[k] as string | undefined;
-  if (!s('device')) throw new UsageError('--device is required (see bridge --help)');
+  if (s('device') === undefined) throw new UsageError('--device is required (see bridge --help)');
+  if (s('device') === '') throw new UsageError('--device must not be empty');
+  if (s('host') === '') throw new UsageError('--host must not be empty');
   const token = s('token');
   if (!token) throw new UsageError('--token is required: the bridge never runs unguarded');
   if (token.length < 8) throw new UsageError('--token must be at least 8 characters');

@@ -3,6 +3,7 @@
 import { runModelCommand } from './model';
 import { runRunCommand } from './run';
 import { runBridgeCommand } from './bridge';
+import { runExplainCommand } from './explain';
 import type { CliIo } from './io';
 import { nodeIo } from './io';
 import { packageVersion } from './version';
@@ -13,6 +14,7 @@ const COMMANDS: Record<string, { run: Command; summary: string }> = {
   model: { run: runModelCommand, summary: 'evaluate the reference model for given angle codes and print JSON' },
   run: { run: (argv, io) => runRunCommand(argv, io), summary: 'run a bench plan against a board, print the verdict (exit 0 pass, 1 fail, 2 error)' },
   bridge: { run: (argv, io) => runBridgeCommand(argv, io), summary: 'offer one serial port to a browser elsewhere over WebSocket, guarded by a token' },
+  explain: { run: (argv, io) => runExplainCommand(argv, io), summary: 'find the configuration deviation or defect that reproduces a core\'s answers (exit 0 found, 1 not, 2 error)' },
 };
 
 function usage(): string {

@@ -178,8 +178,9 @@ export function parseRunArgs(argv: string[]): RunOptions {
   if (serverUrl !== undefined && !urlSchema.safeParse(serverUrl).success) throw new UsageError(`--server must be an http(s) URL, got "${serverUrl}"`);
   let config: ModelConfigInput | null = null;
   if (str('config') !== undefined) {
+    const input = json(str('config')!, 'config');
     try {
-      config = parseModelConfig(json(str('config')!, 'config'));
+      config = parseModelConfig(input);
     } catch (e) {
       throw new UsageError(`--config: ${(e as Error).message}`);
     }

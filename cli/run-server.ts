@@ -106,9 +106,10 @@ export interface SessionUpload {
 
 /**
  * POST /api/sessions as multipart/form-data (fields `session`, JSON; files `samples`, `archive`).
- * Returns the new session's id when the server names it.
+ * Returns the new session's id and the address people open it at (the server's PUBLIC_URL),
+ * when the server names them.
  */
-export async function uploadSession(fetchImpl: Fetch, server: { url: string; token: string }, upload: SessionUpload): Promise<number | null> {
+export async function uploadSession(fetchImpl: Fetch, server: { url: string; token: string }, upload: SessionUpload): Promise<{ id: number | null; url: string | null }> {
   const form = new FormData();
   form.set('session', JSON.stringify(upload.session));
   form.set('samples', new Blob([upload.samples.slice()], { type: 'application/octet-stream' }), 'samples.bin');
@@ -122,9 +123,9 @@ export async function uploadSession(fetchImpl: Fetch, server: { url: string; tok
   }
   if (res.status === 401) throw new ServerError(`upload refused: the server refused the token: ${(await reason(res)).message}`);
   if (!res.ok) throw new ServerError(`upload refused (${res.status}): ${(await reason(res)).message}`);
-  const body = (await res.json().catch(() => null)) as { session?: { id?: unknown }; id?: unknown } | null;
+  const body = (await res.json().catch(() => null)) as { session?: { id?: unknown }; id?: unknown; url?: unknown } | null;
   const id = body?.session?.id ?? body?.id;
-  return typeof id === 'number' ? id : null;
+  return { id: typeof id === 'number' ? id : null, url: typeof body?.url === 'string' && /^https?:\/\//.test(body.url) ? body.url : null };
 }
 
 /** The upload's sample packing is shared with the Bench page and the server. */

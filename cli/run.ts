@@ -102,14 +102,19 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
     let soak: SoakRun | null = null;
     let current: RunHandle | null = null;
     const stopOnInterrupt = deps.interrupt?.onRequest(() => void current?.abort()) ?? (() => undefined);
+    // A run (or soak pass) that starts after the interrupt came is aborted as it begins.
+    const started = (h: RunHandle): RunHandle => {
+      current = h;
+      if (deps.interrupt?.requested) void h.abort();
+      return h;
+    };
     try {
       if (o.soak) {
         const keepGoing = () => !deps.interrupt?.requested;
-        soak = await soakPasses({ engine, request, model, plan, spec: o.soak, clock, confirm: confirmOffModel(model), log: io.stderr, onPassStart: (h) => (current = h), keepGoing });
+        soak = await soakPasses({ engine, request, model, plan, spec: o.soak, clock, confirm: confirmOffModel(model), log: io.stderr, onPassStart: started, keepGoing });
         result = soak.status === 'complete' ? soak.result : { ...soak.result, status: soak.status, message: soak.message };
       } else {
-        current = engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) });
-        result = await current.done;
+        result = await started(engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) })).done;
       }
     } finally {
       stopOnInterrupt();
@@ -149,12 +154,13 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
       return INTERRUPTED_STATUS;
     }
     let sessionId: number | null = null;
+    let sessionUrl: string | null = null;
     if (o.server && core) {
       // Print the verdict first: a refused upload must not hide what the board did.
       if (!o.json) io.stdout(humanReport(report));
       const summary = jsonSummary(report, null);
       try {
-        sessionId = await uploadSession(fetchImpl, o.server, {
+        ({ id: sessionId, url: sessionUrl } = await uploadSession(fetchImpl, o.server, {
           session: {
             coreId: core.id, coreSlug: core.slug, build: o.build, board: o.board, plan, startedAt: startedAt.toISOString(), endedAt: endedAt.toISOString(),
             transport: { kind: o.device.startsWith('ws') ? 'websocket' : 'serial', device: o.device, baud, crc },
@@ -163,14 +169,15 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
           },
           samples: packSamples(result.codes, result.cos, result.sin, result.answered),
           archive,
-        });
+        }));
       } catch (e) {
         if (o.json) io.stdout(JSON.stringify({ ...summary, upload: { error: (e as Error).message } }, null, 2) + '\n');
         writeJunit(null); // the verdict stands without the session's address
         throw e;
       }
       if (o.json) io.stdout(JSON.stringify(jsonSummary(report, { sessionId }), null, 2) + '\n');
-      else io.stdout(`session uploaded${sessionId !== null ? `: ${o.server.url}/sessions/${sessionId}` : ''}\n`);
+      // The server's own address for it (PUBLIC_URL), else the one the runner was given.
+      else io.stdout(`session uploaded${sessionId !== null ? `: ${sessionUrl ?? `${o.server.url}/sessions/${sessionId}`}` : ''}\n`);
     } else if (o.json) io.stdout(JSON.stringify(jsonSummary(report, null), null, 2) + '\n');
     else io.stdout(humanReport(report));
     writeJunit(o.server && sessionId !== null ? `${o.server.url}/sessions/${sessionId}` : null);

@@ -1,7 +1,7 @@
 import { parseArgs } from 'node:util';
 import { parseModelConfig } from '../shared/numeric';
 import { defaultBoardSettings, type BoardSettings } from './board-session';
-import { parseCoreFault } from './faulty-core';
+import { createSimCore, parseCoreFault } from './faulty-core';
 import { parseLineFaults } from './line-faults';
 import { boardConditionArgs, isFlakyFaultText, parseFlakyFault } from './flaky-options';
 
@@ -57,6 +57,7 @@ export function parseBoardArgs(args: string[]): { port: number; settings: BoardS
   // Wrappers around the core (an intermittent fault) are read before the catalogue entry.
   if (values['core-fault'] !== undefined && isFlakyFaultText(values['core-fault'])) s.flaky = parseFlakyFault(values['core-fault']);
   else if (values['core-fault'] !== undefined) s.coreFault = parseCoreFault(values['core-fault']);
+  if (s.coreFault) createSimCore(s.core, s.coreFault); // a fault the core cannot have is refused now, not at the first connection
   if (values.seed !== undefined) s.seed = int('seed', values.seed, 0, 0xffff_ffff);
   Object.assign(s, boardConditionArgs(values.condition ?? [], s.name));
   const port = values['ws-port'] !== undefined ? int('ws-port', values['ws-port'], 0, 65_535) : 5175;

@@ -21,7 +21,7 @@ try {
     console.warn(`The simulated board could not start on port ${config.mockWsPort}: ${err.message}`);
     return null;
   });
-  if (board) console.log(`Simulated board (reference-16 core, 3,000,000 baud) at ${board.url}\n`);
+  if (board) console.log(`Simulated board for the runner (reference-16 core, 3,000,000 baud) at ${board.url}; ${config.simBoardsMax > 0 ? `the Bench page gets boards of its own from this server (up to ${config.simBoardsMax} at once)` : 'boards hosted for the Bench page are off (SIM_BOARDS_MAX=0)'}.\n`);
   if (server.mailCatcherUrl) console.log(`E-mail is caught locally (admins read it on the outbox page).\n`);
   const stop = () => void Promise.all([server.close(), board?.close()]).then(() => process.exit(0));
   process.once('SIGINT', stop);

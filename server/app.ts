@@ -10,6 +10,7 @@ import { createSmtpMailer, discardingMailer, type Mailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { clientDistDir, dataDir, projectRoot } from './paths';
 import { auditRouter, outboxRouter } from './routes/admin';
+import { CHECK_REPLIES } from './routes/reply';
 import { authRouter, type LoginLimit } from './routes/auth';
 import { boardsRouter } from './routes/boards';
 import { buildsRouter } from './routes/builds';
@@ -65,6 +66,7 @@ export function createApp({
   app.disable('x-powered-by');
   app.set('trust proxy', config.trustProxy);
   app.set('public url', config.publicUrl);
+  app.set(CHECK_REPLIES, config.nodeEnv !== 'production');
   app.use(securityHeaders(config));
   app.use(express.json({ limit: '1mb' }));
 

@@ -4,6 +4,8 @@ import { requireRole } from '../auth';
 import { AuditEntry, OutboxMessage } from '../db/models';
 import { validate } from '../middleware/validate';
 import { pageQuery, queryOf } from './params';
+import { auditListReply, outboxListReply } from '../../shared/contract/misc';
+import { reply } from './reply';
 
 type Page = z.infer<typeof pageQuery>;
 
@@ -13,7 +15,7 @@ export function auditRouter() {
   router.route('/').get(requireRole('admin'), validate({ query: pageQuery }), async (req, res) => {
     const { limit, offset } = queryOf<Page>(req);
     const { rows, count } = await AuditEntry.findAndCountAll({ order: [['id', 'DESC']], limit, offset });
-    res.json({ entries: rows, total: count });
+    reply(res, auditListReply, { entries: rows, total: count });
   });
   return router;
 }
@@ -24,7 +26,7 @@ export function outboxRouter() {
   router.route('/').get(requireRole('admin'), validate({ query: pageQuery }), async (req, res) => {
     const { limit, offset } = queryOf<Page>(req);
     const { rows, count } = await OutboxMessage.findAndCountAll({ order: [['id', 'DESC']], limit, offset });
-    res.json({ messages: rows, total: count });
+    reply(res, outboxListReply, { messages: rows, total: count });
   });
   return router;
 }

@@ -1,11 +1,12 @@
 import { Router } from 'express';
 import { rateLimit } from 'express-rate-limit';
 import type { createPassport } from '../auth/passport';
-import { z } from 'zod';
 import { csrfTokenOf, requireRole } from '../auth';
 import type { User } from '../db/models';
 import { HttpError } from '../http-error';
 import { validate } from '../middleware/validate';
+import { csrfReply, loginBody, loginReply, meReply } from '../../shared/contract/people';
+import { reply } from './reply';
 
 export interface LoginLimit {
   windowMs: number;
@@ -13,9 +14,7 @@ export interface LoginLimit {
   max: number;
 }
 
-const loginBody = z.strictObject({ email: z.email().max(254), password: z.string().min(1).max(200) });
-
-/** /api/auth: the CSRF token, sign-in, sign-out and who am I. */
+/** /api/auth: the CSRF token, sign-in, sign-out, who am I and who is signed in. */
 export function authRouter(passport: ReturnType<typeof createPassport>, limit: LoginLimit) {
   const router = Router();
   const loginLimiter = rateLimit({
@@ -28,7 +27,7 @@ export function authRouter(passport: ReturnType<typeof createPassport>, limit: L
   });
 
   router.route('/csrf').get((req, res) => {
-    res.json({ token: csrfTokenOf(req) });
+    reply(res, csrfReply, { token: csrfTokenOf(req) });
   });
 
   router.route('/login').post(loginLimiter, validate({ body: loginBody }), (req, res, next) => {
@@ -40,7 +39,7 @@ export function authRouter(passport: ReturnType<typeof createPassport>, limit: L
       // token goes with it, so the reply carries the new one.
       req.logIn(user, (loginErr) => {
         if (loginErr) return next(loginErr);
-        res.json({ user: user.toPublic(), csrfToken: csrfTokenOf(req) });
+        reply(res, loginReply, { user: user.toPublic(), csrfToken: csrfTokenOf(req) });
       });
     })(req, res, next);
   });
@@ -53,7 +52,14 @@ export function authRouter(passport: ReturnType<typeof createPassport>, limit: L
   });
 
   router.route('/me').get(requireRole('reviewer'), (req, res) => {
-    res.json({ user: req.user!.toPublic(), via: req.authVia });
+    reply(res, meReply, { user: req.user!.toPublic(), via: req.authVia! });
+  });
+
+  // The browser's question at every page load. Nobody signed in is an answer, not an error, so it
+  // is 200 with null (a 401 would be logged in the browser's console); /me stays 401 for clients
+  // that must be signed in.
+  router.route('/current').get((req, res) => {
+    res.json({ user: req.user ? req.user.toPublic() : null });
   });
 
   return router;

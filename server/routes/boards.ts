@@ -1,5 +1,4 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { currentUser, requireRole } from '../auth';
 import { Board } from '../db/models';
 import { notFound } from '../http-error';
@@ -7,16 +6,9 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { idParams, paramsOf } from './params';
+import { boardBody, boardListReply, boardPatchBody, boardReply } from '../../shared/contract/boards';
+import { reply } from './reply';
 
-const text = (max: number) => z.string().trim().max(max);
-const boardBody = z.strictObject({
-  name: text(120).min(1),
-  serial: text(80),
-  fpgaPart: text(80),
-  adapter: text(120),
-  location: text(120),
-});
-const patchBody = boardBody.partial();
 
 /** /api/boards: read by everyone signed in, written by engineers, deleted by admins. */
 export function boardsRouter({ db }: RouteDeps) {
@@ -25,7 +17,7 @@ export function boardsRouter({ db }: RouteDeps) {
   router
     .route('/')
     .get(requireRole('reviewer'), async (_req, res) => {
-      res.json({ boards: await Board.findAll({ order: [['name', 'ASC']] }) });
+      reply(res, boardListReply, { boards: await Board.findAll({ order: [['name', 'ASC']] }) });
     })
     .post(requireRole('engineer'), validate({ body: boardBody }), async (req, res) => {
       const me = currentUser(req);
@@ -34,7 +26,7 @@ export function boardsRouter({ db }: RouteDeps) {
         await recordAudit(transaction, me.id, 'create', 'board', row.id, req.body);
         return row;
       });
-      res.status(201).json({ board });
+      reply(res, boardReply, { board }, 201);
     });
 
   router
@@ -42,9 +34,9 @@ export function boardsRouter({ db }: RouteDeps) {
     .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
       const board = await Board.findByPk(paramsOf<{ id: number }>(req).id);
       if (!board) throw notFound('Board');
-      res.json({ board });
+      reply(res, boardReply, { board });
     })
-    .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
+    .patch(requireRole('engineer'), validate({ params: idParams, body: boardPatchBody }), async (req, res) => {
       const me = currentUser(req);
       const board = await db.transaction(async (transaction) => {
         const row = await Board.findByPk(paramsOf<{ id: number }>(req).id, { transaction });
@@ -53,7 +45,7 @@ export function boardsRouter({ db }: RouteDeps) {
         await recordAudit(transaction, me.id, 'update', 'board', row.id, req.body);
         return row;
       });
-      res.json({ board });
+      reply(res, boardReply, { board });
     })
     .delete(requireRole('admin'), validate({ params: idParams }), async (req, res) => {
       const me = currentUser(req);

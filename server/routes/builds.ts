@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import { Router, type Request } from 'express';
 import { z } from 'zod';
 import { currentUser, requireRole } from '../auth';
-import { Op } from 'sequelize';
+import { Op, type InferAttributes } from 'sequelize';
 import { Build, Core, Review, User } from '../db/models';
 import { HttpError, notFound } from '../http-error';
 import { sendReviewDecisionMail, sendReviewRequestedMail } from '../mail/messages';
@@ -10,21 +10,29 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import { buildStandings } from '../services/build-status';
 import { bitstreamPath, sanitizeFileName, singleBitstream, type HashedFile } from '../uploads/bitstream-storage';
+import {
+  buildCreateBody,
+  buildDetailReply,
+  buildFileReply,
+  buildListQuery,
+  buildListReply,
+  buildPatchBody,
+  buildReply,
+  reviewBody,
+  reviewListReply,
+  reviewReply,
+  reviewRequestReply,
+  type BuildRecord,
+} from '../../shared/contract/builds';
+import type { Sendable } from '../../shared/contract/check';
 import { mailSafely, type RouteDeps } from './deps';
-import { id, idParams, originOf, paramsOf, queryOf } from './params';
+import { idParams, originOf, paramsOf, queryOf } from './params';
+import { reply } from './reply';
 
-const text = (max: number) => z.string().trim().max(max);
-const createBody = z.strictObject({
-  coreId: id,
-  label: text(120).min(1),
-  sourceRevision: text(80),
-  toolVersion: text(80),
-  clockMHz: z.number().positive().max(10_000),
-  notes: text(10_000).default(''),
-});
-const patchBody = createBody.omit({ coreId: true }).partial();
-const listQuery = z.strictObject({ coreId: id.optional() });
-const reviewBody = z.strictObject({ decision: z.enum(['approve', 'reject']), note: text(10_000).default('') });
+
+/** What the list and detail include besides the build's own columns (see `coreBrief` and `people`). */
+type Included = Sendable<Pick<BuildRecord, 'core' | 'createdBy'>>;
+type WithReviewer = Review & { reviewer: User | null };
 
 /** /api/builds: bitstreams of a core, their files and their reviews. */
 export function buildsRouter({ db, mailer, config, uploadDir }: RouteDeps) {
@@ -40,7 +48,7 @@ export function buildsRouter({ db, mailer, config, uploadDir }: RouteDeps) {
   /** Builds as the API shows them: with their core, author and status (see build-status.ts). */
   const withStanding = async (builds: Build[]) => {
     const standings = await buildStandings(builds.map((b) => b.id));
-    return builds.map((b) => ({ ...b.toJSON(), ...standings.get(b.id)! }));
+    return builds.map((b) => ({ ...b.toJSON<InferAttributes<Build> & Included>(), ...standings.get(b.id)! }));
   };
   /** Other builds holding a file with this SHA-256, so the same bitstream is not taken for two. */
   const duplicatesOf = async (build: Build) =>
@@ -50,21 +58,22 @@ export function buildsRouter({ db, mailer, config, uploadDir }: RouteDeps) {
 
   router
     .route('/')
-    .get(requireRole('reviewer'), validate({ query: listQuery }), async (req, res) => {
-      const { coreId } = queryOf<z.infer<typeof listQuery>>(req);
+    .get(requireRole('reviewer'), validate({ query: buildListQuery }), async (req, res) => {
+      const { coreId } = queryOf<z.infer<typeof buildListQuery>>(req);
       const builds = await Build.findAll({ where: coreId ? { coreId } : {}, include: [coreBrief, people], order: [['id', 'DESC']] });
-      res.json({ builds: await withStanding(builds) });
+      reply(res, buildListReply, { builds: await withStanding(builds) });
     })
-    .post(requireRole('engineer'), validate({ body: createBody }), async (req, res) => {
+    .post(requireRole('engineer'), validate({ body: buildCreateBody }), async (req, res) => {
       const me = currentUser(req);
-      const body = req.body as z.infer<typeof createBody>;
+      const body = req.body as z.infer<typeof buildCreateBody>;
       const build = await db.transaction(async (transaction) => {
         if (!(await Core.findByPk(body.coreId, { transaction }))) throw new HttpError(400, 'invalid', 'body.coreId: no such core');
-        const row = await Build.create({ ...body, createdById: me.id }, { transaction });
+        // No file yet: said outright, so the reply carries the columns a read would.
+        const row = await Build.create({ ...body, createdById: me.id, fileName: null, fileSize: null, sha256: null }, { transaction });
         await recordAudit(transaction, me.id, 'create', 'build', row.id, { coreId: row.coreId, label: row.label });
         return row;
       });
-      res.status(201).json({ build });
+      reply(res, buildReply, { build }, 201);
     });
 
   router
@@ -74,16 +83,16 @@ export function buildsRouter({ db, mailer, config, uploadDir }: RouteDeps) {
       const build = (await Build.findByPk(found.id, { include: [coreBrief, people] }))!;
       const reviews = await reviewsOf(build.id);
       const [shown] = await withStanding([build]);
-      res.json({ build: { ...shown, duplicates: await duplicatesOf(build) }, reviews, standing: reviews[0]?.decision ?? 'unreviewed' });
+      reply(res, buildDetailReply, { build: { ...shown, duplicates: await duplicatesOf(build) }, reviews: reviews as WithReviewer[], standing: reviews[0]?.decision ?? 'unreviewed' });
     })
-    .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
+    .patch(requireRole('engineer'), validate({ params: idParams, body: buildPatchBody }), async (req, res) => {
       const me = currentUser(req);
       const build = await findBuild(req);
       await db.transaction(async (transaction) => {
         await build.update(req.body, { transaction });
         await recordAudit(transaction, me.id, 'update', 'build', build.id, req.body);
       });
-      res.json({ build });
+      reply(res, buildReply, { build });
     })
     .delete(requireRole('admin'), validate({ params: idParams }), async (req, res) => {
       const me = currentUser(req);
@@ -123,14 +132,14 @@ export function buildsRouter({ db, mailer, config, uploadDir }: RouteDeps) {
       } finally {
         await fs.promises.rm(file.path, { force: true });
       }
-      res.json({ build, duplicates: await duplicatesOf(build) });
+      reply(res, buildFileReply, { build, duplicates: await duplicatesOf(build) });
     });
 
   router
     .route('/:id/reviews')
     .get(requireRole('reviewer'), validate({ params: idParams }), async (req, res) => {
       const build = await findBuild(req);
-      res.json({ reviews: await reviewsOf(build.id) });
+      reply(res, reviewListReply, { reviews: (await reviewsOf(build.id)) as WithReviewer[] });
     })
     .post(requireRole('reviewer'), validate({ params: idParams, body: reviewBody }), async (req, res) => {
       const me = currentUser(req);
@@ -147,7 +156,7 @@ export function buildsRouter({ db, mailer, config, uploadDir }: RouteDeps) {
         (await mailSafely(() =>
           sendReviewDecisionMail(mailer, author.email, { build: build.label, core: build.core.name, reviewer: me.name, decision, note, link: buildLink(req, build) }),
         ));
-      res.status(201).json({ review, mailed });
+      reply(res, reviewReply, { review, mailed }, 201);
     });
 
   router.route('/:id/request-review').post(requireRole('engineer'), validate({ params: idParams }), async (req, res) => {
@@ -162,7 +171,7 @@ export function buildsRouter({ db, mailer, config, uploadDir }: RouteDeps) {
       (await mailSafely(() =>
         sendReviewRequestedMail(mailer, reviewers.map((r) => r.email), { build: build.label, core: build.core.name, requestedBy: me.name, link: buildLink(req, build) }),
       ));
-    res.status(202).json({ reviewers: reviewers.length, mailed });
+    reply(res, reviewRequestReply, { reviewers: reviewers.length, mailed }, 202);
   });
 
   return router;

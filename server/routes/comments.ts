@@ -7,9 +7,10 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { id, idParams, paramsOf } from './params';
+import { commentBody, commentListReply, commentReply } from '../../shared/contract/misc';
+import { reply } from './reply';
 
 const sessionParams = z.strictObject({ sessionId: id });
-const commentBody = z.strictObject({ body: z.string().trim().min(1).max(10_000) });
 const withAuthor = [{ model: User, as: 'author', attributes: ['id', 'name'] }];
 
 /** /api/sessions/:sessionId/comments: everyone signed in reads and writes remarks on a session. */
@@ -25,7 +26,8 @@ export function sessionCommentsRouter({ db }: RouteDeps) {
     .route('/')
     .get(requireRole('reviewer'), validate({ params: sessionParams }), async (req, res) => {
       const session = await findSession(req);
-      res.json({ comments: await Comment.findAll({ where: { sessionId: session.id }, include: withAuthor, order: [['id', 'ASC']] }) });
+      const comments = await Comment.findAll({ where: { sessionId: session.id }, include: withAuthor, order: [['id', 'ASC']] });
+      reply(res, commentListReply, { comments: comments as Array<Comment & { author: User | null }> });
     })
     .post(requireRole('reviewer'), validate({ params: sessionParams, body: commentBody }), async (req, res) => {
       const me = currentUser(req);
@@ -35,7 +37,7 @@ export function sessionCommentsRouter({ db }: RouteDeps) {
         await recordAudit(transaction, me.id, 'create', 'comment', row.id, { sessionId: session.id });
         return row;
       });
-      res.status(201).json({ comment });
+      reply(res, commentReply, { comment }, 201);
     });
 
   return router;

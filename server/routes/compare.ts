@@ -1,5 +1,6 @@
 import { Router } from 'express';
-import { z } from 'zod';
+import { compareQuery, compareReply, type CompareQuery } from '../../shared/contract/compare';
+import type { StoredStats } from '../../shared/contract/sessions';
 import { requireRole } from '../auth';
 import { BenchSession, Build, Core } from '../db/models';
 import { notFound } from '../http-error';
@@ -9,32 +10,10 @@ import { diffSessions } from '../services/session-diff';
 import { decodeSamples, type DecodedSamples } from '../services/session-scoring';
 import type { RouteDeps } from './deps';
 import { queryOf } from './params';
-
-const compareQuery = z.strictObject({
-  ids: z
-    .string()
-    .regex(/^\d+(,\d+)*$/, 'a comma-separated list of session ids')
-    .transform((s) => s.split(',').map(Number))
-    .pipe(z.array(z.number().int().positive()).min(2, 'at least 2 session ids').max(6, 'at most 6 session ids'))
-    .refine((ids) => new Set(ids).size === ids.length, 'each session at most once'),
-});
-type CompareQuery = z.infer<typeof compareQuery>;
-
-interface StoredStats {
-  count?: number;
-  overall?: { maxAbsLsb?: number; rmsLsb?: number };
-  cos?: { meanLsb?: number; maxAbsLsb?: number };
-  sin?: { meanLsb?: number; maxAbsLsb?: number };
-  magnitude?: { maxAbs?: number };
-  phase?: { maxAbsRad?: number };
-  mismatches?: { count?: number };
-  coverage?: { share?: number };
-  histogram?: { binsPerLsb: number; edgesLsb: number[]; cos: number[]; sin: number[]; below: number; above: number };
-}
+import { reply } from './reply';
 
 /** The figures a comparison shows beside each session, read from its stored score. */
-function keyStats(stats: unknown) {
-  const s = (stats ?? {}) as StoredStats;
+function keyStats(s: StoredStats) {
   return {
     count: s.count ?? null,
     maxAbsErrorLsb: s.overall?.maxAbsLsb ?? null,
@@ -53,8 +32,8 @@ function keyStats(stats: unknown) {
 const EMPTY: DecodedSamples = { codes: new Float64Array(0), cos: new Int32Array(0), sin: new Int32Array(0) };
 
 /** The stored error histogram, cos and sin counts added together (null when the score has none). */
-function histogramOf(stats: unknown) {
-  const h = (stats as StoredStats | null)?.histogram;
+function histogramOf(stats: StoredStats) {
+  const h = stats.histogram;
   if (!h) return null;
   return { binsPerLsb: h.binsPerLsb, edgesLsb: h.edgesLsb, counts: h.cos.map((c, i) => c + (h.sin[i] ?? 0)), below: h.below, above: h.above };
 }
@@ -80,7 +59,7 @@ export function compareRouter(_deps: RouteDeps) {
     // The diff's bins and angles are those of the first session's core.
     const binner = codeBinner(modelOf(sessions[0]));
 
-    res.json({
+    reply(res, compareReply, {
       sessions: sessions.map((s, k) => {
         const core = cores.get(s.coreId);
         const build = s.buildId !== null ? builds.get(s.buildId) : undefined;
@@ -100,7 +79,7 @@ export function compareRouter(_deps: RouteDeps) {
       }),
       // Codes of another core stand for other angles and values: such a pair is not diffed.
       pairs: sessions.slice(1).map((s, k) => {
-        if (s.coreId !== sessions[0].coreId) return { a: sessions[0].id, b: s.id, sameCore: false, ...diffSessions(EMPTY, EMPTY, undefined, binner) };
+        if (s.coreId !== sessions[0].coreId) return { a: sessions[0].id, b: s.id, sameCore: false, ...diffSessions(EMPTY, EMPTY, undefined, binner), firstDiffering: [] };
         const diff = diffSessions(decoded[0], decoded[k + 1], undefined, binner);
         const firstDiffering = diff.firstDiffering.map((d) => ({ ...d, degrees: binner.degreesOf(d.code) }));
         return { a: sessions[0].id, b: s.id, sameCore: true, ...diff, firstDiffering };

@@ -12,6 +12,8 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { id, paramsOf } from './params';
+import { goldenVectorListReply, goldenVectorReply } from '../../shared/contract/misc';
+import { reply } from './reply';
 
 const coreParams = z.strictObject({ id });
 const setParams = z.strictObject({ id, setId: id });
@@ -38,7 +40,7 @@ export function goldenVectorsRouter({ db, config }: RouteDeps) {
     .get(requireRole('reviewer'), validate({ params: coreParams }), async (req, res) => {
       const { core, model } = await findCore(req);
       const sets = await GoldenVectorSet.findAll({ where: { coreId: core.id }, order: [['id', 'ASC']] });
-      res.json({ sets: sets.map((s) => describe(s, model)) });
+      reply(res, goldenVectorListReply, { sets: sets.map((s) => describe(s, model)) });
     })
     .post(
       requireRole('engineer'),
@@ -69,7 +71,7 @@ export function goldenVectorsRouter({ db, config }: RouteDeps) {
           await recordAudit(transaction, me.id, 'upload', 'golden-vectors', row.id, { coreId: core.id, name: row.name, count: row.count });
           return row;
         });
-        res.status(201).json({ set: describe(set, model) });
+        reply(res, goldenVectorReply, { set: describe(set, model) }, 201);
       },
     );
 

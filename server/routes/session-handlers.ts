@@ -3,7 +3,16 @@
 import { once } from 'node:events';
 import type { Response } from 'express';
 import { idParams } from '../../shared/contract/common';
-import { sessionImportPart, sessionListQuery, sessionPatchBody, sessionUploadPart } from '../../shared/contract/sessions';
+import {
+  sessionDetailReply,
+  sessionImportPart,
+  sessionListQuery,
+  sessionPage,
+  sessionPatchBody,
+  sessionPatchReply,
+  sessionStoredReply,
+  sessionUploadPart,
+} from '../../shared/contract/sessions';
 import { currentUser } from '../auth';
 import { Core } from '../db/models';
 import { HttpError, notFound } from '../http-error';
@@ -16,6 +25,7 @@ import { readSessionPart, uploadedFile } from '../uploads/session-multipart';
 import type { RouteDeps } from './deps';
 import { handler } from './handler';
 import { originOf } from './params';
+import { reply } from './reply';
 
 /** Write `chunks` to `res`, waiting for the socket to drain; stops if the client goes away. */
 async function streamChunks(res: Response, chunks: Iterable<string>): Promise<void> {
@@ -30,7 +40,7 @@ async function streamChunks(res: Response, chunks: Iterable<string>): Promise<vo
 export function sessionHandlers({ db, mailer }: RouteDeps) {
   return {
     list: handler({ query: sessionListQuery }, async ({ query }, _req, res) => {
-      res.json(await listSessions(query));
+      reply(res, sessionPage, await listSessions(query));
     }),
 
     /** Behind sessionUpload: the multipart body is read before this runs. */
@@ -39,7 +49,7 @@ export function sessionHandlers({ db, mailer }: RouteDeps) {
       const samples = uploadedFile(req, 'samples');
       if (!samples) throw new HttpError(400, 'invalid', 'samples: a multipart file named "samples" is required');
       const intake = { db, mailer, origin: originOf(req), operatorId: currentUser(req).id };
-      res.status(201).json(await acceptUpload(intake, part, samples.buffer, uploadedFile(req, 'archive')?.buffer ?? null));
+      reply(res, sessionStoredReply, await acceptUpload(intake, part, samples.buffer, uploadedFile(req, 'archive')?.buffer ?? null), 201);
     }),
 
     /** Behind importUpload. */
@@ -48,15 +58,15 @@ export function sessionHandlers({ db, mailer }: RouteDeps) {
       const file = req.file;
       if (!file) throw new HttpError(400, 'invalid', 'file: a multipart file named "file" (a recorder archive or a CSV) is required');
       const intake = { db, mailer, origin: originOf(req), operatorId: currentUser(req).id };
-      res.status(201).json(await acceptImport(intake, part, file));
+      reply(res, sessionStoredReply, await acceptImport(intake, part, file), 201);
     }),
 
     detail: handler({ params: idParams }, async ({ params }, _req, res) => {
-      res.json(await sessionDetail(params.id));
+      reply(res, sessionDetailReply, await sessionDetail(params.id));
     }),
 
     edit: handler({ params: idParams, body: sessionPatchBody }, async ({ params, body }, req, res) => {
-      res.json(await editSession(db, currentUser(req), params.id, body));
+      reply(res, sessionPatchReply, await editSession(db, currentUser(req), params.id, body));
     }),
 
     remove: handler({ params: idParams }, async ({ params }, req, res) => {
@@ -79,8 +89,7 @@ export function sessionHandlers({ db, mailer }: RouteDeps) {
       const session = await findSession(params.id);
       const core = await Core.findByPk(session.coreId);
       if (!core) throw notFound('Core');
-      const model = core.modelConfig as { angleFormat?: 'turn' | 'rad' };
-      const samples = decodeSamples(session.samples, model.angleFormat ?? 'turn');
+      const samples = decodeSamples(session.samples, core.modelConfig.angleFormat ?? 'turn');
       res.type('text/csv; charset=utf-8').set('content-disposition', `attachment; filename="session-${session.id}.csv"`);
       await streamChunks(res, sessionCsvChunks(core.modelConfig, samples));
     }),

@@ -1,5 +1,4 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { currentUser, requireRole } from '../auth';
 import { newSecretToken, sha256Hex } from '../auth/tokens';
 import { ApiToken } from '../db/models';
@@ -8,8 +7,9 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { idParams, paramsOf } from './params';
+import { tokenCreateBody, tokenCreatedReply, tokenListReply } from '../../shared/contract/people';
+import { reply } from './reply';
 
-const createBody = z.strictObject({ name: z.string().trim().min(1).max(80) });
 
 /** /api/tokens: the caller's own API tokens. The secret is returned once, at creation. */
 export function tokensRouter({ db }: RouteDeps) {
@@ -19,9 +19,9 @@ export function tokensRouter({ db }: RouteDeps) {
     .route('/')
     .get(requireRole('engineer'), async (req, res) => {
       const tokens = await ApiToken.findAll({ where: { userId: currentUser(req).id }, order: [['id', 'ASC']] });
-      res.json({ tokens: tokens.map((t) => t.toPublic()) });
+      reply(res, tokenListReply, { tokens: tokens.map((t) => t.toPublic()) });
     })
-    .post(requireRole('engineer'), validate({ body: createBody }), async (req, res) => {
+    .post(requireRole('engineer'), validate({ body: tokenCreateBody }), async (req, res) => {
       const user = currentUser(req);
       const secret = newSecretToken();
       const token = await db.transaction(async (transaction) => {
@@ -32,7 +32,7 @@ export function tokensRouter({ db }: RouteDeps) {
         await recordAudit(transaction, user.id, 'create', 'api_token', row.id, { name: row.name });
         return row;
       });
-      res.status(201).json({ ...token.toPublic(), token: secret });
+      reply(res, tokenCreatedReply, { ...token.toPublic(), token: secret }, 201);
     });
 
   router.route('/:id').delete(requireRole('engineer'), validate({ params: idParams }), async (req, res) => {

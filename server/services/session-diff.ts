@@ -75,7 +75,9 @@ export function uniqueCodeOrder(codes: Float64Array): Uint32Array {
   return order.subarray(0, kept);
 }
 
-/** Compare `b` against `a` code by code. */
+/** Compare `b` against `a` code by code; with `binning`, `byBin` is always there. */
+export function diffSessions(a: DecodedSamples, b: DecodedSamples, keep: number | undefined, binning: DiffBinning): SessionDiff & Required<Pick<SessionDiff, 'byBin'>>;
+export function diffSessions(a: DecodedSamples, b: DecodedSamples, keep?: number, binning?: DiffBinning): SessionDiff;
 export function diffSessions(a: DecodedSamples, b: DecodedSamples, keep = KEEP_DIFFERING, binning?: DiffBinning): SessionDiff {
   const oa = uniqueCodeOrder(a.codes);
   const ob = uniqueCodeOrder(b.codes);

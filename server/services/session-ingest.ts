@@ -89,8 +89,7 @@ export async function storeSession(
   const buildId = await resolveBuildId(draft, core, transaction);
   const boardId = await resolveBoardId(draft, transaction);
 
-  const model = core.modelConfig as { angleFormat?: 'turn' | 'rad' };
-  const decoded = decodeSamples(samples, model.angleFormat ?? 'turn');
+  const decoded = decodeSamples(samples, core.modelConfig.angleFormat ?? 'turn');
   const { stats, profile } = scoreSamples(core.modelConfig, decoded);
   const checkFailures = typeof draft.link?.checkFailures === 'number' ? draft.link.checkFailures : undefined;
   const spectrum = sessionSpectrum(draft.plan, core.modelConfig, decoded);
@@ -111,8 +110,8 @@ export async function storeSession(
       plan: draft.plan,
       transport: draft.link ? { ...draft.transport, linkFigures: draft.link } : draft.transport,
       deviceInfo: draft.deviceInfo ?? null,
-      stats: stored as unknown as Json,
-      verdict: verdict as Json,
+      stats: stored,
+      verdict,
       profile,
       passed,
       regression: failedLimits.length > 0,

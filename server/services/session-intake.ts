@@ -12,7 +12,7 @@ import { storeSession, type StoredSession } from './session-ingest';
 interface IntakeDeps {
   db: Sequelize;
   mailer: Mailer;
-  /** Where the regression mail's links point. */
+  /** Where links point: the regression mail's and the reply's `url` (PUBLIC_URL when set). */
   origin: string;
   operatorId: number;
 }
@@ -20,7 +20,7 @@ interface IntakeDeps {
 async function accept({ db, mailer, origin }: IntakeDeps, store: (transaction: Transaction) => Promise<StoredSession>) {
   const { row, core, stats, verdict, passed, failedLimits } = await db.transaction(store);
   if (failedLimits.length > 0) await mailRegression(mailer, origin, row, core, failedLimits);
-  return { id: row.id, passed, regression: row.regression, verdict, stats };
+  return { id: row.id, url: `${origin}/sessions/${row.id}`, passed, regression: row.regression, verdict, stats };
 }
 
 /** An upload: the runner's own score fields are dropped, the server scores the samples itself. */

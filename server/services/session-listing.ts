@@ -1,8 +1,9 @@
 // Reading stored sessions as the API shows them: the filtered, paged list and one session's
 // detail, both built by `listed` so a list item and a detail are the same shape.
-import { literal, Op, type WhereOptions } from 'sequelize';
+import { literal, Op, type InferAttributes, type WhereOptions } from 'sequelize';
 import type { Literal } from 'sequelize/types/utils';
-import type { SessionListQuery } from '../../shared/contract/sessions';
+import type { Sendable } from '../../shared/contract/check';
+import type { SessionListItem, SessionListQuery } from '../../shared/contract/sessions';
 import { BenchSession, Board, Build, Core, SessionConditions, User } from '../db/models';
 import { notFound } from '../http-error';
 import { conditionRangeWhere, conditionsView } from './session-conditions';
@@ -20,8 +21,10 @@ const LISTED = {
 };
 /** The detail reads the soak's books as well. */
 const DETAILED = { ...LISTED, include: [...LISTED.include.slice(0, -1), { model: SessionConditions, as: 'conditions' }] };
-const listed = (row: BenchSession, withSoak = false) => ({
-  ...row.toJSON(),
+/** The names LISTED includes (not part of the model's own attributes). */
+type Included = Sendable<Pick<SessionListItem, 'core' | 'build' | 'board' | 'operator'>>;
+const listed = (row: BenchSession, withSoak = false): Sendable<SessionListItem> => ({
+  ...row.toJSON<InferAttributes<BenchSession> & Included>(),
   hasArchive: Boolean(row.get('hasArchive')),
   ...conditionsView(row.get('conditions') as SessionConditions | null, { withSoak }),
 });

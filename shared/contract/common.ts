@@ -1,8 +1,11 @@
 // Small pieces every part of the API contract uses.
 import { z } from 'zod';
 
-/** A row id: a positive integer (coerced, so it also reads path and query strings). */
-export const id = z.coerce.number().int().positive();
+/**
+ * A row id: a positive integer. Path and query strings must be plain decimal digits: a bare
+ * coercion would also read "0x10" as 16, "1e1" as 10 and " 7" as 7.
+ */
+export const id = z.preprocess((v) => (typeof v === 'string' && /^\d+$/.test(v) ? Number(v) : v), z.number().int().positive().max(Number.MAX_SAFE_INTEGER));
 export const idParams = z.strictObject({ id });
 
 /** Free text, trimmed, at most `max` characters. */
@@ -19,3 +22,13 @@ export const jsonObject = z.record(z.string(), z.unknown());
 
 /** A session's tags: at most 20, each 1–40 characters. */
 export const tags = z.array(text(40).min(1)).max(20);
+
+/** Another row as a reply names it. */
+export const named = z.object({ id: z.number().int(), name: z.string() });
+export type Named = z.infer<typeof named>;
+export const coreBrief = z.object({ id: z.number().int(), name: z.string(), slug: z.string() });
+export const buildBrief = z.object({ id: z.number().int(), label: z.string() });
+
+/** An object column checked only for being an object, typed as `T` (its shape is owned elsewhere). */
+export const typedObject = <T extends object>(what: string) =>
+  z.custom<T>((v) => typeof v === 'object' && v !== null && !Array.isArray(v), { message: `${what}: expected an object` });

@@ -1,7 +1,10 @@
-// The sessions API: what /api/sessions accepts.
+// The sessions API: what /api/sessions accepts and what it answers.
 import { z } from 'zod';
-import { flag, id, jsonObject, tags, text } from './common';
+import { limitsSchema } from '../link-engine/limits';
+import type { ScoreSummary } from '../numeric/score';
+import type { ToneFigures } from '../numeric/spectral';
 import { conditionsSchema, CONDITION_RANGES, soakRecordSchema } from '../soak';
+import { buildBrief, coreBrief, flag, id, isoDate, jsonObject, named, tags, text, typedObject } from './common';
 
 /**
  * The `session` part of an upload. The runner also sends its own `stats`, `verdict`, `passed`
@@ -90,3 +93,94 @@ export const sessionPatchBody = z.strictObject({
   baseline: z.literal(true).optional(),
 });
 export type SessionPatchBody = z.infer<typeof sessionPatchBody>;
+
+// ——— Replies ———
+
+/** One limit's outcome; `measured` and `pass` are null when the server could not measure it. */
+export const limitOutcome = z.object({ limit: z.number(), measured: z.number().nullable(), pass: z.boolean().nullable() });
+export type LimitOutcome = z.infer<typeof limitOutcome>;
+
+/** Each limit the core set, judged; a limit the core does not set is absent. */
+export const verdict = z.partialRecord(limitsSchema.keyof(), limitOutcome);
+export type Verdict = z.infer<typeof verdict>;
+
+/** Spectral figures of each channel of a coherent-tone session. */
+export interface SessionSpectrum {
+  cycles: number;
+  cos: ToneFigures;
+  sin: ToneFigures;
+}
+/** The stored score (the scorer's ScoreSummary, with the tone's spectra); `{}` for a session stored without one. */
+export type StoredStats = Partial<ScoreSummary> & { spectrum?: SessionSpectrum };
+export const storedStats = typedObject<StoredStats>('stats');
+
+/** What ran: the plan's `kind` and its own fields (see shared/numeric/plans.ts; imports add theirs). */
+export const sessionPlan = z.looseObject({ kind: z.string().optional() });
+export type SessionPlan = z.infer<typeof sessionPlan>;
+/** How the samples reached the server: the bench page's link, the runner's, or an import. */
+export const sessionTransport = z.looseObject({ kind: z.string().optional(), label: z.string().optional(), source: z.string().optional() });
+export type SessionTransport = z.infer<typeof sessionTransport>;
+
+/** A stored session's columns, without the sample and archive blobs. */
+export const sessionRow = z.object({
+  id: z.number().int(),
+  coreId: z.number().int(),
+  buildId: z.number().int().nullable(),
+  boardId: z.number().int().nullable(),
+  operatorId: z.number().int().nullable(),
+  startedAt: isoDate,
+  endedAt: isoDate.nullable(),
+  plan: sessionPlan,
+  transport: sessionTransport,
+  deviceInfo: jsonObject.nullable(),
+  stats: storedStats,
+  verdict,
+  /** Largest |error| in LSB per 1/64 of the code range (-1: no answer there); null for old rows. */
+  profile: z.array(z.number()).nullable(),
+  passed: z.boolean(),
+  regression: z.boolean(),
+  sampleCount: z.number().int().min(0),
+  notes: z.string(),
+  tags: z.array(z.string()),
+  createdAt: isoDate,
+  updatedAt: isoDate,
+});
+export type SessionRow = z.infer<typeof sessionRow>;
+
+/** A session as the list and the detail show it: its columns, the names of what it belongs to, whether an archive is kept. */
+export const sessionListItem = sessionRow.extend({
+  core: coreBrief,
+  build: buildBrief.nullable(),
+  board: named.nullable(),
+  operator: named.nullable(),
+  hasArchive: z.boolean(),
+  /** Operating conditions (`{}` when none were recorded); a soak's passes and unstable codes (null: not a soak). */
+  conditions: conditionsSchema,
+  soakPasses: z.number().int().nullable(),
+  unstableCodes: z.number().int().nullable(),
+  /** The soak's books: in the detail only (null for a single pass). */
+  soak: soakRecordSchema.nullable().optional(),
+});
+export type SessionListItem = z.infer<typeof sessionListItem>;
+
+/** GET /api/sessions */
+export const sessionPage = z.object({ items: z.array(sessionListItem), total: z.number().int().min(0), page: z.number().int(), pageSize: z.number().int() });
+export type SessionPage = z.infer<typeof sessionPage>;
+
+/** GET /api/sessions/:id */
+export const sessionDetailReply = z.object({ session: sessionListItem });
+
+/** PATCH /api/sessions/:id: the changed columns. */
+export const sessionPatchReply = z.object({ session: sessionRow });
+
+/** POST /api/sessions and /api/sessions/import: the server's own score and verdict of what it stored. */
+export const sessionStoredReply = z.object({
+  id: z.number().int(),
+  /** The session's page (PUBLIC_URL when set, else the address the upload reached). */
+  url: z.string(),
+  passed: z.boolean(),
+  regression: z.boolean(),
+  verdict,
+  stats: storedStats,
+});
+export type SessionStoredReply = z.infer<typeof sessionStoredReply>;

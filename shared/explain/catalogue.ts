@@ -84,6 +84,7 @@ export function defectCandidates(config: ModelConfig, remoteness: Remoteness, of
   }
   faults.push({ kind: 'swap' }, { kind: 'negate', channel: 'cos' }, { kind: 'negate', channel: 'sin' }, { kind: 'wrap' });
   for (const codes of offsetsToTry(config, offsetEstimate)) faults.push({ kind: 'angle-offset', codes });
+  for (let bit = 0; bit < config.angleBits; bit++) for (const value of [1, 0] as const) faults.push({ kind: 'angle-bit', bit, value });
   faults.push({ kind: 'blocking-update' }, { kind: 'zero-direction' });
   if (config.fold) faults.push({ kind: 'fold-sign' });
   return faults.map((fault) => ({ config, fault, remoteness }));

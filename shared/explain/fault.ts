@@ -25,6 +25,8 @@ export type Fault =
   | { kind: 'wrap' }
   /** The angle register off by a constant number of codes (wrapping in its own width). */
   | { kind: 'angle-offset'; codes: number }
+  /** An angle register bit stuck at 0 or 1 (an input left unconnected, say). */
+  | { kind: 'angle-bit'; bit: number; value: 0 | 1 }
   /** The start value K computed for another iteration count (0: no gain compensation at all). */
   | { kind: 'gain'; iterations: number }
   /** y is computed from the already-updated x (a blocking assignment where a non-blocking one belongs). */
@@ -66,6 +68,7 @@ const SPELLINGS = [
   'negate:cos|sin',
   'wrap',
   'angle-offset:±N',
+  'angle-bit:B:0|1',
   'gain:M',
   'blocking-update',
   'zero-direction',
@@ -142,6 +145,9 @@ export function parseFault(text: string): Fault {
     case 'angle-offset':
       arity(1);
       return { kind: 'angle-offset', codes: nonZero(args[0], 'the offset in codes', whole) };
+    case 'angle-bit':
+      arity(2);
+      return { kind: 'angle-bit', bit: uint(args[0], 'the bit', whole), value: Number(oneOf(args[1], ['0', '1'], 'the value', whole)) as 0 | 1 };
     case 'gain':
       if (args.length === 0) return { kind: 'gain', iterations: 2 };
       arity(1);
@@ -176,6 +182,8 @@ export function formatFault(f: Fault): string {
       return `negate:${f.channel}`;
     case 'angle-offset':
       return `angle-offset:${signed(f.codes)}`;
+    case 'angle-bit':
+      return `angle-bit:${f.bit}:${f.value}`;
     case 'gain':
       return `gain:${f.iterations}`;
     default:
@@ -241,6 +249,10 @@ export function checkFault(config: ModelConfig, f: Fault | null): void {
       break;
     case 'angle-offset':
       if (!Number.isInteger(f.codes) || Math.abs(f.codes) >= 2 ** config.angleBits) say(`the offset must be an integer below 2^${config.angleBits} in size`);
+      break;
+    case 'angle-bit':
+      if (!Number.isInteger(f.bit) || f.bit < 0 || f.bit >= config.angleBits) say(`the angle code has only ${config.angleBits} bits (0..${config.angleBits - 1})`);
+      if (f.value !== 0 && f.value !== 1) say('the value must be 0 or 1');
       break;
     case 'gain':
       if (!Number.isInteger(f.iterations) || f.iterations < 0 || f.iterations > 40) say('the iteration count must be 0..40');

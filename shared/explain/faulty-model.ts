@@ -36,6 +36,8 @@ interface Datapath {
   logicalX: boolean;
   logicalY: boolean;
   angleOffset: number;
+  /** An angle register bit stuck: its weight and value, or null. */
+  angleStuck: { bit: number; value: 0 | 1 } | null;
   negateFolded: boolean;
   outWrap: boolean;
   stuck: { cos: boolean; sin: boolean; bit: number; value: number } | null;
@@ -80,6 +82,7 @@ function buildDatapath(config: ModelConfig, fault: Fault | null): Datapath {
     logicalX: logical && f.register === 'x',
     logicalY: logical && f.register === 'y',
     angleOffset: f?.kind === 'angle-offset' ? f.codes : 0,
+    angleStuck: f?.kind === 'angle-bit' ? { bit: f.bit, value: f.value } : null,
     negateFolded: f?.kind !== 'fold-sign',
     outWrap: f?.kind === 'wrap',
     stuck: f?.kind === 'stuck-bit' ? { cos: f.channel !== 'sin', sin: f.channel !== 'cos', bit: f.bit, value: f.value } : null,
@@ -98,10 +101,15 @@ function wrapSigned(v: number, bits: number): number {
   return u >= span / 2 ? u - span : u;
 }
 
-/** The angle code as the (possibly offset) angle register holds it. */
-function offsetCode(p: Datapath, code: number): number {
-  if (p.angleOffset === 0) return code;
+/** The angle code as the angle register holds it: offset, or with a bit stuck, by a defect. */
+function angleRegister(p: Datapath, code: number): number {
   const c = p.config;
+  if (p.angleStuck) {
+    // stick() reads the code's bit pattern and answers a signed code; a `turn` code is unsigned.
+    const v = stick(code, p.angleStuck.bit, p.angleStuck.value, c.angleBits);
+    return c.angleFormat === 'turn' && v < 0 ? v + 2 ** c.angleBits : v;
+  }
+  if (p.angleOffset === 0) return code;
   if (c.angleFormat === 'turn') {
     const span = 2 ** c.angleBits;
     return (((code + p.angleOffset) % span) + span) % span;
@@ -124,7 +132,7 @@ interface Run {
 function run(p: Datapath, code: number, r: Run, steps: CordicStep[] | null): void {
   const c = p.config;
   const t = p.tables;
-  const zRead = readAngle(c, t, offsetCode(p, code));
+  const zRead = readAngle(c, t, angleRegister(p, code));
   let z = zRead;
   let negate = false;
   if (c.fold && z > t.zQuarter) {
@@ -253,10 +261,10 @@ function int32Runner(p: Datapath, r: Run): (code: number) => void {
   const zUnit = 2 ** c.zGuardBits;
   const codeHalf = 2 ** (c.angleBits - 1);
   const codeTurn = 2 ** c.angleBits;
-  const shifted = p.angleOffset !== 0;
+  const moved = p.angleOffset !== 0 || p.angleStuck !== null;
   const outputDefect = p.negateCos || p.negateSin || p.swap || p.stuck !== null;
   return (code) => {
-    const a = shifted ? offsetCode(p, code) : code;
+    const a = moved ? angleRegister(p, code) : code;
     // readAngle for `turn`, inlined as the model does.
     const zRead = turn ? (a >= codeHalf ? a - codeTurn : a) * zUnit : readAngle(c, t, a);
     let z = zRead;

@@ -46,6 +46,8 @@ export function faultWords(f: Fault, config: ModelConfig): string {
       return 'outputs wrap around instead of saturating';
     case 'angle-offset':
       return `angle register off by ${signed(f.codes)} ${Math.abs(f.codes) === 1 ? 'code' : 'codes'}`;
+    case 'angle-bit':
+      return `angle code bit ${f.bit} stuck at ${f.value}`;
     case 'gain':
       return f.iterations === 0 ? 'no gain compensation (start value 1.0)' : `start value computed for ${plural(f.iterations, 'iteration')} instead of ${config.iterations}`;
     case 'blocking-update':

@@ -45,13 +45,20 @@ export interface Explanation {
 }
 
 export interface ExplainOptions {
-  /** Called now and then with hypotheses handled so far and the planned total. */
+  /**
+   * Called now and then with hypotheses handled so far and the planned total; the last call has
+   * done = total = the hypotheses actually tried (fewer than planned when a stage explained all).
+   */
   onProgress?(done: number, total: number): void;
   /** Asked between hypotheses; true ends the search with ExplainStopped. */
   shouldStop?(): boolean;
 }
 
 export const MAX_HYPOTHESES = 10;
+/** Hypotheses kept after the small screen (besides every one that reproduced all of it). */
+const KEEP_AFTER_SMALL = 32;
+/** Hypotheses run on every answer after the large screen (besides every perfect one there). */
+const KEEP_AFTER_LARGE = 6;
 /** The best must reproduce at least this share to count as a partial explanation (rule of thumb, no source). */
 export const PARTLY_SHARE = 0.9;
 
@@ -197,9 +204,12 @@ export function explain(declaredInput: ModelConfig, samples: ExplainSamples, opt
     stop();
     const candidates = stage();
     if (candidates.length === 0) continue;
+    const models = candidates.map(modelOf);
+    // Run on every answer: first those that reproduced all of the large screen, then, unless one
+    // of them reproduces every answer, the best of the rest (for the ranking of partial ones).
     let chosen = candidates.map((_, i) => i);
+    let perfect = chosen;
     if (candidates.length > 1) {
-      const models = candidates.map(modelOf);
       const s1: number[] = [];
       for (let i = 0; i < models.length; i++) {
         if (i % 32 === 0) {
@@ -208,20 +218,22 @@ export function explain(declaredInput: ModelConfig, samples: ExplainSamples, opt
         }
         s1.push(countExact(models[i], l1));
       }
-      const keep1 = survivors(s1, l1.codes.length, 32);
+      const keep1 = survivors(s1, l1.codes.length, KEEP_AFTER_SMALL);
       const s2 = keep1.map((i) => countExact(models[i], l2));
-      chosen = survivors(s2, l2.codes.length, 6).map((j) => keep1[j]);
+      chosen = survivors(s2, l2.codes.length, KEEP_AFTER_LARGE).map((j) => keep1[j]);
+      perfect = keep1.filter((_, j) => s2[j] === l2.codes.length);
     }
-    for (const i of chosen) {
+    const confirm = (i: number) => {
       stop();
-      const c = candidates[i];
-      tried.push({ ...c, order: tried.length, ...fullRun(modelOf(c), full) });
-    }
+      tried.push({ ...candidates[i], order: tried.length, ...fullRun(models[i], full) });
+    };
+    perfect.forEach(confirm);
+    if (!tried.some((t) => t.exact === n)) chosen.filter((i) => !perfect.includes(i)).forEach(confirm);
     done += candidates.length;
     options.onProgress?.(done, total);
     if (tried.some((t) => t.exact === n)) break;
   }
-  options.onProgress?.(total, total);
+  options.onProgress?.(done, done);
   return summarise(declared, n, tried, full);
 }
 

@@ -1,4 +1,4 @@
-import { createBrowserRouter } from 'react-router-dom';
+import { createBrowserRouter, type LoaderFunctionArgs } from 'react-router-dom';
 import { queryClient } from '../lib/query-client';
 import { requireUser } from './require-user';
 import { RootLayout } from './routes/root-layout';
@@ -14,7 +14,9 @@ export const router = createBrowserRouter([
         index: true,
         lazy: async () => {
           const m = await import('./routes/overview');
-          return { Component: m.OverviewRoute, loader: m.overviewLoader(queryClient) };
+          // Signed out, the app opens on the sign-in form: the overview lists the lab's sessions.
+          const overview = m.overviewLoader(queryClient);
+          return { Component: m.OverviewRoute, loader: async (args: LoaderFunctionArgs) => (await requireUser(queryClient)(args)) && overview() };
         },
       },
       {

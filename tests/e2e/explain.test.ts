@@ -9,24 +9,40 @@ const ctx = appAndBrowser();
 const STUCK = 'output bit 0 of cos and sin stuck at 1';
 const SHOTS = process.env.EXPLAIN_SCREENSHOTS;
 
-/** The id of the demo session on build ref16-r3, asked of the API with the page's cookie. */
-function regressionSessionId(page: Page): Promise<number> {
-  return page.evaluate(async () => {
+/** The id of a demo session on `build`, asked of the API with the page's cookie. */
+function sessionOfBuild(page: Page, build: string): Promise<number> {
+  return page.evaluate(async (label) => {
     const { builds } = (await (await fetch('/api/builds')).json()) as { builds: Array<{ id: number; label: string }> };
-    const r3 = builds.find((b) => b.label === 'ref16-r3')!;
-    const { items } = (await (await fetch(`/api/sessions?buildId=${r3.id}`)).json()) as { items: Array<{ id: number }> };
+    const b = builds.find((x) => x.label === label)!;
+    const { items } = (await (await fetch(`/api/sessions?buildId=${b.id}`)).json()) as { items: Array<{ id: number }> };
     return items[0].id;
-  });
+  }, build);
 }
 
 describe('Explain panel', () => {
-  it('names the stuck output bit of ref16-r3, saves the explanation and shows it on the report', async () => {
+  it('can be cancelled, names the stuck output bit of ref16-r3, saves the explanation and shows it on the report and the compare page', async () => {
     const page = await ctx.browser.newPage({ viewport: { width: 1400, height: 1800 } });
     try {
       await signInAs(page, ctx.app, 'engineer', '/sessions');
-      const id = await regressionSessionId(page);
+      const id = await sessionOfBuild(page, 'ref16-r3');
       await page.goto(`${ctx.app.url}/sessions/${id}`);
       const panel = page.getByTestId('explain-panel');
+
+      // Cancel: the samples are held back until Cancel is pressed, so the search is surely still running.
+      let release = () => {};
+      const held = new Promise<void>((r) => (release = r));
+      await page.route('**/api/sessions/*/samples', async (route) => {
+        await held;
+        await route.continue().catch(() => undefined); // the page has given up on it
+      });
+      await panel.getByRole('button', { name: 'Explain in this browser' }).click();
+      await panel.getByRole('progressbar', { name: 'Explaining the answers' }).waitFor();
+      await panel.getByRole('button', { name: 'Cancel' }).click();
+      await panel.getByText('Cancelled; nothing was saved.').waitFor();
+      release();
+      await page.unroute('**/api/sessions/*/samples');
+      expect(await panel.getByTestId('explain-result').count()).toBe(0);
+
       await panel.getByRole('button', { name: 'Explain in this browser' }).click();
       const result = panel.getByTestId('explain-result');
       await result.waitFor({ timeout: 60_000 });
@@ -45,6 +61,16 @@ describe('Explain panel', () => {
       const saved = panel.getByTestId('saved-explanation');
       await saved.waitFor({ timeout: 60_000 });
       expect(await saved.getByTestId('explanation-hypotheses').locator('li').first().textContent()).toContain(STUCK);
+      if (SHOTS) await panel.screenshot({ path: `${SHOTS}/explain-saved.png` });
+
+      // Read back on a fresh page: the saved explanation, and its differences drawn without a new search.
+      await page.reload();
+      const again = page.getByTestId('explain-panel');
+      await again.getByTestId('saved-explanation').waitFor();
+      await again.getByRole('button', { name: 'Show the differences and a trace' }).click();
+      await again.getByTestId('chart-board-minus-hypothesis').locator('canvas').waitFor({ timeout: 60_000 });
+      expect(await again.getByTestId('explain-elapsed').count()).toBe(0);
+      expect(await again.getByTestId('trace-parting').textContent()).toBe('They part at: output.');
 
       await page.goto(`${ctx.app.url}/sessions/${id}/report`);
       const report = page.getByTestId('report-explanation');
@@ -52,6 +78,13 @@ describe('Explain panel', () => {
       expect(await report.getByTestId('explanation-outcome').textContent()).toBe('Explained');
       expect(await report.textContent()).toContain(STUCK);
       if (SHOTS) await page.screenshot({ path: `${SHOTS}/explain-report.png`, fullPage: true });
+
+      // The compare page: the regression's saved explanation beside a clean session of ref16-r2.
+      const clean = await sessionOfBuild(page, 'ref16-r2');
+      await page.goto(`${ctx.app.url}/compare?ids=${id},${clean}`);
+      const lines = page.getByTestId('compare-explanations');
+      await lines.getByTestId(`explanation-${id}`).filter({ hasText: STUCK }).waitFor();
+      expect(await lines.getByTestId(`explanation-${clean}`).textContent()).toMatch(/the core matches its model$/);
     } finally {
       await page.close();
     }

@@ -34,7 +34,7 @@ describe('over plain http from another machine', () => {
   });
   afterAll(() => app?.stop());
 
-  it('shows the serial option disabled with its reason', async () => {
+  it('shows the serial option disabled with its reason, and the hosted board still connects', async () => {
     const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
     await signInAs(page, app, 'engineer', '/bench');
     expect(await page.evaluate(() => window.isSecureContext)).toBe(false);
@@ -45,6 +45,11 @@ describe('over plain http from another machine', () => {
     // The disabled option is described by its reason, for screen readers too.
     expect(await serial.getAttribute('aria-describedby')).toBe('serial-unavailable');
     await page.screenshot({ path: '/tmp/network-http-bench.png', fullPage: true });
+    // The hosted board still works over ws:, allowed by connect-src 'self' alone (CSP Level 3
+    // lets 'self' match ws: and wss: on the page's own host and port).
+    expect(await page.getByLabel('Board address').inputValue()).toBe(`ws://${new URL(app.url).host}/api/sim-board`);
+    await page.getByRole('button', { name: 'Connect' }).click();
+    await expect.poll(() => page.getByTestId('device-info').textContent(), { timeout: 10_000 }).toContain('simulated board');
     await page.close();
   });
 });

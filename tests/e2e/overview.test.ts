@@ -6,7 +6,7 @@ const env = appAndBrowser();
 describe('the overview page in a real browser', () => {
   it('shows the server health read from /api/health', async () => {
     const page = await env.browser.newPage();
-    await page.goto(env.app.url);
+    await signInAs(page, env.app, 'reviewer'); // signed out, / is the sign-in form (signed-out.test.ts)
     await expect.poll(() => page.getByTestId('health-status').textContent()).toBe('OK');
     const version = await page.getByTestId('health-version').textContent();
     const health = (await (await fetch(`${env.app.url}/api/health`)).json()) as { version: string };

@@ -34,20 +34,18 @@ function client(url: string, headers: Record<string, string> = {}) {
 }
 
 /**
- * A client of the one-client server once its slot is free: the server learns of the previous
- * client's close a moment after that client does, and answers 1013 (try again later) until then.
+ * The one-client servers log a line when a connection is over, after freeing their slot: a test
+ * waits for that line before the next client, rather than for a time.
  */
-async function nextClient(url: string, headers: Record<string, string> = {}) {
-  for (let attempt = 0; ; attempt++) {
-    const c = client(url, headers);
-    const first = await Promise.race([c.opened.then(() => 'open'), c.closed]);
-    if (first === 'open') {
-      await new Promise((r) => setTimeout(r, 50));
-      if (c.ws.readyState === WebSocket.OPEN) return c;
-    }
-    if (attempt >= 20) throw new Error('the server never took a new client');
-    await new Promise((r) => setTimeout(r, 50));
-  }
+function connectionEnds() {
+  const waiters: Array<() => void> = [];
+  return {
+    log: (line: string) => {
+      if (/^\[(board|bridge)\] connection \d+ from \S+: /.test(line)) waiters.splice(0).forEach((w) => w());
+    },
+    /** Settles at the next end of a connection (call it before closing). */
+    next: () => new Promise<void>((resolve) => waiters.push(resolve)),
+  };
 }
 
 const until = async (check: () => boolean, ms = 3000) => {
@@ -65,8 +63,9 @@ const garbage = (n: number, seed: number) => {
 
 describe('the simulated board WebSocket under hostile input', () => {
   let server: MockServer;
+  const ends = connectionEnds();
   beforeAll(async () => {
-    server = await startMockServer({ ...defaultBoardSettings(), baud: 12_000_000 }, 0, '127.0.0.1', () => undefined);
+    server = await startMockServer({ ...defaultBoardSettings(), baud: 12_000_000 }, 0, '127.0.0.1', ends.log);
   });
   afterAll(() => server?.close());
 
@@ -93,25 +92,32 @@ describe('the simulated board WebSocket under hostile input', () => {
     expect(nak(0x33)).toEqual({ kind: Kind.Nak, refused: Kind.One, reason: NakReason.BadLength });
     expect(tagged(0x34)!.kind).toBe(Kind.Info);
     expect(c.ws.readyState).toBe(WebSocket.OPEN);
+    const freed = ends.next();
     c.ws.close();
     await c.closed;
+    await freed;
   });
 
   it('closes a client that sends an oversized message with 1009, and then serves a new client correctly', async () => {
     const big = client(server.url);
     await big.opened;
+    const bigFreed = ends.next();
     big.ws.send(new Uint8Array(OVERSIZED));
     expect(await big.closed).toBe(MESSAGE_TOO_BIG);
+    await bigFreed;
 
-    const next = await nextClient(server.url);
+    const next = client(server.url);
+    await next.opened;
     const code = 12_345;
     next.ws.send(encodeMessage({ kind: Kind.One, angleCode: code }, 0x40, DEFAULT_PROFILE));
     await until(() => next.frames.some((f) => f.tag === 0x40));
     const reply = decodePayload(Kind.Results, next.frames.find((f) => f.tag === 0x40)!.payload, DEFAULT_PROFILE);
     const expected = createCordicModel({}).evaluate(code);
     expect(reply).toMatchObject({ kind: Kind.Results, firstIndex: 0, cos: Int32Array.of(expected.cos), sin: Int32Array.of(expected.sin) });
+    const freed = ends.next();
     next.ws.close();
     await next.closed;
+    await freed;
   });
 });
 
@@ -121,6 +127,7 @@ describe('the bench bridge under hostile input', () => {
   type MockPort = Awaited<ReturnType<typeof MockBinding.open>>;
   let bridge: Bridge;
   const opened: { port?: MockPort } = {};
+  const ends = connectionEnds();
 
   beforeAll(async () => {
     MockBinding.createPort('/dev/ttyROBUST0', { echo: false, record: true });
@@ -131,7 +138,7 @@ describe('the bench bridge under hostile input', () => {
         return opened.port;
       },
     };
-    bridge = await startBridge({ device: '/dev/ttyROBUST0', baud: 3_000_000, port: 0, host: '127.0.0.1', token: TOKEN, idleTimeoutS: 60 }, { serialBinding: binding, log: () => undefined });
+    bridge = await startBridge({ device: '/dev/ttyROBUST0', baud: 3_000_000, port: 0, host: '127.0.0.1', token: TOKEN, idleTimeoutS: 60 }, { serialBinding: binding, log: ends.log });
   });
   afterAll(() => bridge?.close());
 
@@ -146,12 +153,14 @@ describe('the bench bridge under hostile input', () => {
     await until(() => recorded() >= junk.length);
     expect(Buffer.from(opened.port!.recording).equals(Buffer.from(junk))).toBe(true);
 
+    const freed = ends.next();
     c.ws.send(new Uint8Array(OVERSIZED));
     expect(await c.closed).toBe(MESSAGE_TOO_BIG);
-    await new Promise((r) => setTimeout(r, 100));
+    await freed; // the bridge has dropped the client, and with it the message
     expect(recorded()).toBe(junk.length); // nothing of the oversized message reached the port
 
-    const next = await nextClient(bridge.url, { authorization: `Bearer ${TOKEN}` });
+    const next = client(bridge.url, { authorization: `Bearer ${TOKEN}` });
+    await next.opened;
     next.ws.send(Uint8Array.of(0xa5, 0x01, 0x07, 0x00));
     await until(() => recorded() >= junk.length + 4);
     const back: Buffer[] = [];
@@ -159,7 +168,9 @@ describe('the bench bridge under hostile input', () => {
     opened.port!.emitData(Buffer.from([0xa5, 0xa0, 0x07]));
     await until(() => Buffer.concat(back).length >= 3);
     expect([...Buffer.concat(back)]).toEqual([0xa5, 0xa0, 0x07]);
+    const nextFreed = ends.next();
     next.ws.close();
     await next.closed;
+    await nextFreed;
   });
 });

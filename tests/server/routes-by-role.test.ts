@@ -13,6 +13,7 @@ const table: Row[] = [
   ['get', '/api/auth/csrf', undefined, 200, 200, 200, 200],
   ['post', '/api/auth/login', {}, 400, 400, 400, 400],
   ['get', '/api/auth/me', undefined, 401, 200, 200, 200],
+  ['get', '/api/auth/current', undefined, 200, 200, 200, 200],
   ['get', '/api/tokens', undefined, 401, 403, 200, 200],
   ['post', '/api/tokens', {}, 401, 403, 400, 400],
   ['delete', `/api/tokens/${NONE}`, undefined, 401, 403, 404, 404],

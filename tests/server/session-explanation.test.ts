@@ -75,6 +75,13 @@ describe('POST /api/sessions/:id/explanation', () => {
     expect(await SessionExplanation.count({ where: { sessionId: session.id } })).toBe(1);
   });
 
+  it('goes with its session when the session is deleted', async () => {
+    const session = await storedSession(packed(stuckBit0));
+    await agents.engineer.post(url(session.id)).expect(201);
+    await agents.admin.delete(`/api/sessions/${session.id}`).expect(204);
+    expect(await SessionExplanation.count({ where: { sessionId: session.id } })).toBe(0);
+  });
+
   it('says a healthy session matches its model', async () => {
     const session = await storedSession(packed(answers()));
     const res = await agents.engineer.post(url(session.id)).expect(201);

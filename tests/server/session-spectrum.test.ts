@@ -41,9 +41,14 @@ describe('the SFDR limit', () => {
     const res = await upload(s).expect(201);
     const sfdr = Math.min(toneFigures(s.cos, plan.cycles).sfdrDbc, toneFigures(s.sin, plan.cycles).sfdrDbc);
     expect(res.body.verdict.minSfdrDb.measured).toBeCloseTo(sfdr, 9);
-    expect(res.body.verdict.minSfdrDb.pass).toBe(sfdr >= 90);
+    // Pinned, not only restated: the default core's 1,021-cycle, 8,192-sample tone reads 98.56 dBc
+    // on cos (the worse channel) and 100.34 dBc on sin, over the 90 dB limit (the same core's
+    // figures are read a second time by a direct DFT in tests/unit/numeric/spectral-dft.test.ts).
+    expect(res.body.verdict.minSfdrDb.measured).toBeCloseTo(98.56, 2);
+    expect(res.body.verdict.minSfdrDb.pass).toBe(true);
     expect(res.body.stats.spectrum.cycles).toBe(1021);
     expect(res.body.stats.spectrum.sin.sfdrDbc).toBeCloseTo(toneFigures(s.sin, plan.cycles).sfdrDbc, 9);
+    expect(res.body.stats.spectrum.sin.sfdrDbc).toBeCloseTo(100.34, 2);
   });
 
   it('is not measured when answers are missing from the tone', async () => {

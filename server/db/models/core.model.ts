@@ -1,6 +1,8 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-type Json = Record<string, unknown>;
+import type { LinkProfileInput } from '../../../shared/contract/cores';
+import type { Limits } from '../../../shared/link-engine/limits';
+import type { ModelConfig } from '../../../shared/numeric/model-config';
 
 /**
  * A sine/cosine core under test: how to talk to it (link profile), the reference-model
@@ -10,9 +12,11 @@ export class Core extends Model<InferAttributes<Core>, InferCreationAttributes<C
   declare id: CreationOptional<number>;
   declare name: string;
   declare slug: string;
-  declare linkProfile: Json;
-  declare modelConfig: Json;
-  declare limits: Json;
+  // The JSON columns, as their schemas (shared/contract/cores.ts) check them on every write (the
+  // link profile as written: rows stored by hand may leave its defaults out).
+  declare linkProfile: LinkProfileInput;
+  declare modelConfig: ModelConfig;
+  declare limits: Limits;
   declare baselineSessionId: number | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;

@@ -4,7 +4,7 @@ import type { Build } from './build.model';
 import type { Core } from './core.model';
 import type { User } from './user.model';
 
-type Json = Record<string, unknown>;
+import type { SessionPlan, SessionTransport, StoredStats, Verdict } from '../../../shared/contract/sessions';
 
 /**
  * One recorded bench session. Named BenchSession in code so it is never confused with the
@@ -20,11 +20,12 @@ export class BenchSession extends Model<InferAttributes<BenchSession>, InferCrea
   declare operatorId: ForeignKey<User['id']> | null;
   declare startedAt: Date;
   declare endedAt: Date | null;
-  declare plan: Json;
-  declare transport: Json;
-  declare deviceInfo: Json | null;
-  declare stats: Json;
-  declare verdict: Json;
+  // The JSON columns, typed from the API contract (shared/contract/sessions.ts).
+  declare plan: SessionPlan;
+  declare transport: SessionTransport;
+  declare deviceInfo: Record<string, unknown> | null;
+  declare stats: StoredStats;
+  declare verdict: Verdict;
   /** Largest |error| in LSB per 1/64 of the code range (-1: no answer there); null for old rows. */
   declare profile: CreationOptional<number[] | null>;
   declare passed: boolean;

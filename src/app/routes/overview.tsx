@@ -24,14 +24,6 @@ export function OverviewRoute() {
             Drive a CORDIC sine/cosine core over its UART link, score every returned code against exact math and a
             bit-accurate model, and keep each bench session with its statistics for review.
           </p>
-          {me.data === null && (
-            <p className="mt-4">
-              <Link to="/sign-in" className="font-bold underline">
-                Sign in
-              </Link>{' '}
-              to see the lab’s sessions and builds.
-            </p>
-          )}
           {me.data && me.data.role !== 'reviewer' && (
             <p className="mt-4">
               <Link to="/bench" className="font-bold underline">

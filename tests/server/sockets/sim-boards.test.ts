@@ -11,7 +11,7 @@ import { Core } from '../../../server/db/models';
 import { boardsBusyReason, idleReason, registerSimBoards, SIM_BOARD_PATH, TRY_AGAIN_LATER } from '../../../server/sockets/sim-boards';
 import { createSocketDispatcher, type SocketDispatcher } from '../../../server/sockets/upgrade';
 import { LinkEngine } from '../../../shared/link-engine/link-engine';
-import { createCordicModel } from '../../../shared/numeric';
+import { createCordicModel, parseModelConfig } from '../../../shared/numeric';
 import { realEngineClock } from '../../support/in-process-board';
 import { testApp, type TestApp } from '../../support/test-app';
 
@@ -96,6 +96,21 @@ describe('server-hosted simulated boards', () => {
     }
   });
 
+  it('closes a connection that sends a message over 64 KiB with 1009 and frees its board', async () => {
+    const boards = await hostedBoards(1);
+    try {
+      const raw = new WebSocket(boards.url);
+      await new Promise((r) => raw.once('open', r));
+      const closed = new Promise<number>((r) => raw.once('close', (code) => r(code)));
+      raw.send(Buffer.alloc(64 * 1024 + 1));
+      // RFC 6455 section 7.4.1: 1009, a message too big to process.
+      expect(await closed).toBe(1009);
+      await expect.poll(() => boards.counts.at(-1)).toBe(0);
+    } finally {
+      await boards.close();
+    }
+  });
+
   it('frees a board with no traffic for the idle time, with a reason', async () => {
     const boards = await hostedBoards(1, 200);
     try {
@@ -110,7 +125,7 @@ describe('server-hosted simulated boards', () => {
   });
 
   it("takes a core's model and link profile from ?core=, and its own settings from the query", async () => {
-    await Core.create({ name: 'Wide core', slug: 'wide-18', linkProfile: { baud: 921_600, crc: 'CRC-8/SMBUS' }, modelConfig: { outBits: 18, outFrac: 16 }, limits: {} });
+    await Core.create({ name: 'Wide core', slug: 'wide-18', linkProfile: { baud: 921_600, crc: 'CRC-8/SMBUS' }, modelConfig: parseModelConfig({ outBits: 18, outFrac: 16 }), limits: {} });
     const boards = await hostedBoards(4);
     try {
       const link = await NodeSocketLink.open(`${boards.url}?core=wide-18`);

@@ -62,13 +62,31 @@ async function openLink() {
   const link = await WebSerialLink.open(port as unknown as SerialPort, defaultSerialSettings(), serial as unknown as Serial);
   const received: number[] = [];
   const warnings: string[] = [];
-  link.onBytes((b) => received.push(...b));
-  link.onWarning((w) => warnings.push(w));
+  // Tests wait for what the link delivers, never for a time.
+  const waiters = new Set<() => void>();
+  const notify = () => [...waiters].forEach((w) => w());
+  link.onBytes((b) => {
+    received.push(...b);
+    notify();
+  });
+  link.onWarning((w) => {
+    warnings.push(w);
+    notify();
+  });
+  /** Settles once `condition` holds, checked whenever bytes or a warning arrive. */
+  const until = (condition: () => boolean) =>
+    new Promise<void>((resolve) => {
+      const check = () => {
+        if (!condition()) return;
+        waiters.delete(check);
+        resolve();
+      };
+      waiters.add(check);
+      check();
+    });
   const closed = new Promise<{ requested: boolean; message: string }>((resolve) => link.onClose(resolve));
-  return { port, serial, link, received, warnings, closed };
+  return { port, serial, link, received, warnings, closed, until };
 }
-
-const tick = () => new Promise((r) => setTimeout(r, 5));
 
 describe('the Web Serial link', () => {
   it('opens the port with the chosen settings and sets DTR and RTS', async () => {
@@ -80,11 +98,11 @@ describe('the Web Serial link', () => {
   });
 
   it('passes received chunks on in order, whatever their size', async () => {
-    const { port, link, received } = await openLink();
+    const { port, link, received, until } = await openLink();
     port.deliver([0xa5]);
     port.deliver([0x81, 0x00, 0x02, 1, 2]);
     port.deliver([3]);
-    await tick();
+    await until(() => received.length >= 7);
     expect(received).toEqual([0xa5, 0x81, 0x00, 0x02, 1, 2, 3]);
     await link.close();
   });
@@ -97,13 +115,13 @@ describe('the Web Serial link', () => {
   });
 
   it('keeps reading after an overrun or framing error and reports it as a warning', async () => {
-    const { port, link, received, warnings } = await openLink();
+    const { port, link, received, warnings, until } = await openLink();
     port.deliver([1, 2]);
-    await tick();
+    await until(() => received.length >= 2);
     port.lineError('BufferOverrunError');
-    await tick();
+    await until(() => warnings.length >= 1);
     port.deliver([3]);
-    await tick();
+    await until(() => received.length >= 3);
     expect(received).toEqual([1, 2, 3]);
     expect(warnings).toHaveLength(1);
     expect(warnings[0]).toContain('BufferOverrunError');
@@ -112,9 +130,9 @@ describe('the Web Serial link', () => {
   });
 
   it('stops with a clear message when the device disconnects mid-run, keeping what arrived', async () => {
-    const { port, serial, link, received, closed } = await openLink();
+    const { port, serial, link, received, closed, until } = await openLink();
     port.deliver([0xa5, 0x90]);
-    await tick();
+    await until(() => received.length >= 2);
     port.unplug(serial);
     const reason = await closed;
     expect(reason.requested).toBe(false);

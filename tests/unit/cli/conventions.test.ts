@@ -48,7 +48,7 @@ describe('the anglebench command', { timeout: 30_000 }, () => {
 
   it.each([
     ['no command', [], /^usage: anglebench <command>/],
-    ['an unknown command', ['launch'], /^error: unknown command "launch" \(known: model, run, bridge\)\nusage: anglebench <command>/],
+    ['an unknown command', ['launch'], /^error: unknown command "launch" \(known: model, run, bridge, explain\)\nusage: anglebench <command>/],
     ['run without --device', ['run', '--plan', 'edges', '--core', 'reference-16'], /^error: --device is required \(see run --help\)\nusage: anglebench run --device/],
     ['run with an unknown option', ['run', '--devcie', 'x'], /^error: Unknown option '--devcie'.*\nusage: anglebench run /],
     ['bridge without --token', ['bridge', '--device', '/dev/ttyUSB0', '--ws-port', '0'], /^error: --token is required.*\nusage: anglebench bridge /],

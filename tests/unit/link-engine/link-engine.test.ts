@@ -4,6 +4,7 @@ import { createCordicModel } from '../../../shared/numeric';
 import { parseLineFaults } from '../../../mock-device/line-faults';
 import { parseCoreFault } from '../../../mock-device/faulty-core';
 import { inProcessBoard, realEngineClock } from '../../support/in-process-board';
+import { manualClock } from '../../support/manual-clock';
 
 const model = createCordicModel({});
 
@@ -96,18 +97,40 @@ describe('the link engine against the simulated board, in process', () => {
   });
 
   it('pauses, resumes and aborts a long sweep', async () => {
-    const { engine, board } = await connect({}, 921_600);
+    // The engine and the board on one manual clock: time moves only when the test moves it.
+    const time = manualClock();
+    const board = inProcessBoard({ baud: 921_600 }, { clock: time.clock });
+    const engine = new LinkEngine({ link: board.link, clock: time.clock, baud: 921_600, timeoutMs: 100 });
+    const step = async (ms: number) => {
+      for (let t = 0; t < ms; t++) {
+        time.advance(1);
+        await new Promise((r) => setImmediate(r));
+      }
+    };
+    /** Moves time on until `p` settles (at most `maxMs` of clock time). */
+    const until = async <T>(p: Promise<T>, maxMs = 1000): Promise<T> => {
+      let settled = false;
+      void p.finally(() => (settled = true)).catch(() => undefined);
+      for (let t = 0; t < maxMs && !settled; t++) await step(1);
+      if (!settled) throw new Error(`still waiting after ${maxMs} ms of clock time`);
+      return p;
+    };
+    await until(engine.hello());
     const run = engine.run({ kind: 'sweep', start: 0, step: 1, count: 65_536 });
-    await new Promise((r) => setTimeout(r, 100));
-    await run.pause();
+    await step(100); // at 921,600 baud, about 2,200 results' worth of line time
+    await until(run.pause());
     const atPause = run.progress().answered;
-    await new Promise((r) => setTimeout(r, 200));
+    expect(atPause).toBeGreaterThan(1000);
+    await step(200);
     expect(run.progress().answered - atPause).toBeLessThan(1500); // what was already on the line
-    await run.resume();
-    await new Promise((r) => setTimeout(r, 100));
-    expect(run.progress().answered).toBeGreaterThan(atPause);
-    await run.abort();
-    const result = await run.done;
+    const afterPause = run.progress().answered;
+    await step(200);
+    expect(run.progress().answered).toBe(afterPause); // the line is quiet while paused
+    await until(run.resume());
+    await step(100);
+    expect(run.progress().answered).toBeGreaterThan(afterPause + 1000);
+    await until(run.abort());
+    const result = await until(run.done);
     expect(result.status).toBe('aborted');
     expect(result.missing.length + result.answered.reduce((a, b) => a + b, 0)).toBe(65_536);
     expect(result.missing.every((m) => m.reason === 'aborted')).toBe(true);

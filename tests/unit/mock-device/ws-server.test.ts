@@ -10,9 +10,22 @@ import { realEngineClock } from '../../support/in-process-board';
 
 let server: MockServer;
 const lines: string[] = [];
+const lineWaiters: Array<{ match: (line: string) => boolean; resolve: (line: string) => void }> = [];
+
+/** The next log line that `match`es, from now on: the board logs a connection once it is over. */
+function nextLine(match: (line: string) => boolean): Promise<string> {
+  return new Promise((resolve) => lineWaiters.push({ match, resolve }));
+}
+const connectionEnded = (line: string) => /^\[board\] connection \d+ from [^ ]+: /.test(line) && !line.includes('refused');
 
 beforeAll(async () => {
-  server = await startMockServer({ ...defaultBoardSettings(), baud: 3_000_000 }, 0, '127.0.0.1', (l) => lines.push(l));
+  server = await startMockServer({ ...defaultBoardSettings(), baud: 3_000_000 }, 0, '127.0.0.1', (l) => {
+    lines.push(l);
+    for (const w of lineWaiters.filter((x) => x.match(l))) {
+      lineWaiters.splice(lineWaiters.indexOf(w), 1);
+      w.resolve(l);
+    }
+  });
 });
 afterAll(() => server.close());
 
@@ -40,8 +53,9 @@ describe('the simulated board over a real WebSocket', () => {
   it('turns a second client away with a clear reason while one is connected', async () => {
     const first = await NodeSocketLink.open(server.url);
     await expect(NodeSocketLink.open(server.url)).rejects.toThrow(/another client/);
+    const freed = nextLine(connectionEnded);
     await first.close();
-    await new Promise((r) => setTimeout(r, 50));
+    await freed; // the board has let the first client go
     const again = await NodeSocketLink.open(server.url);
     await again.close();
   });
@@ -53,16 +67,24 @@ describe('the simulated board over a real WebSocket', () => {
     raw.send('not bytes at all');
     const closed = new Promise<number>((r) => raw.once('close', (code) => r(code)));
     raw.send(Buffer.alloc(200_000));
+    const freed = nextLine(connectionEnded);
     expect(await closed).toBe(1009); // message too big
-    await new Promise((r) => setTimeout(r, 50));
+    await freed;
     const link = await NodeSocketLink.open(server.url);
     const engine = new LinkEngine({ link, clock: realEngineClock });
     expect((await engine.hello()).name).toBe('Anglebench simulated board');
     await link.close();
   });
 
-  it('logs one line per connection', () => {
-    expect(lines.length).toBeGreaterThanOrEqual(4);
+  it('logs one line per connection, when it ends', async () => {
+    const before = lines.length;
+    for (let i = 0; i < 2; i++) {
+      const ended = nextLine(connectionEnded);
+      const link = await NodeSocketLink.open(server.url);
+      await link.close();
+      await ended;
+    }
+    expect(lines.slice(before)).toEqual([expect.stringMatching(/^\[board\] connection \d+ from 127\.0\.0\.1:\d+: /), expect.stringMatching(/^\[board\] connection \d+ from 127\.0\.0\.1:\d+: /)]);
     expect(lines.every((l) => l.startsWith('[board] connection'))).toBe(true);
   });
 });

@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api, ApiError } from '../../../lib/api';
+import { api } from '../../../lib/api';
 
 export type Role = 'reviewer' | 'engineer' | 'admin';
 
@@ -14,14 +14,9 @@ export interface PublicUser {
 
 export const authKeys = { all: ['auth'] as const, me: () => [...authKeys.all, 'me'] as const };
 
-/** Who is signed in, or null when nobody is (the server answers 401). */
+/** Who is signed in, or null when nobody is (answered 200, so a signed-out visit logs no error). */
 export async function getMe(signal?: AbortSignal): Promise<PublicUser | null> {
-  try {
-    return (await api<{ user: PublicUser }>('/api/auth/me', { signal })).user;
-  } catch (err) {
-    if (err instanceof ApiError && err.status === 401) return null;
-    throw err;
-  }
+  return (await api<{ user: PublicUser | null }>('/api/auth/current', { signal })).user;
 }
 
 export const meQueryOptions = () =>

@@ -14,7 +14,7 @@ import type { CoreRecord } from '../../../lib/resources/cores';
 import { useDecideExplanation } from '../api/decide-explanation';
 import { fetchBytes } from '../api/fetch-bytes';
 import { useSaveExplanation } from '../api/save-explanation';
-import type { SessionRecord } from '../api/session-types';
+import type { SessionRecord } from '../../../lib/resources/sessions';
 import { DiffChart } from './diff-chart';
 import { runExplain, type ExplainResult } from './run-explain';
 import { TraceTable } from './trace-table';
@@ -185,10 +185,11 @@ function Result({ phase, sessionId, core, canEdit }: { phase: Extract<Phase, { k
     <div className="grid gap-4" data-testid="explain-result">
       {e && (
         <div className="grid gap-2">
-          <p className="text-xs text-ink-soft">
+          <p className="text-xs text-ink-soft" data-testid="explain-elapsed" data-elapsed-ms={Math.round(result.elapsedMs)}>
             Searched in this browser in {(result.elapsedMs / 1000).toFixed(1)} s over {count(e.answered)} answers.
           </p>
-          <ExplanationSummary explanation={e} />
+          {/* Once saved, the server's own result shows above: not twice. */}
+          {!save.isSuccess && <ExplanationSummary explanation={e} />}
           {canEdit && (
             <div className="flex flex-wrap items-center gap-3">
               <button type="button" className={btnPrimary} disabled={save.isPending} onClick={() => save.mutate()}>

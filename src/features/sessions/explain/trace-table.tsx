@@ -1,5 +1,6 @@
 // One code through the declared model and the hypothesis, stage by stage, the first stage where
 // they part marked.
+import { useEffect, useRef } from 'react';
 import type { CordicTrace } from '../../../../shared/numeric';
 import { alignTraces, type TraceRow } from './trace-rows';
 
@@ -7,12 +8,18 @@ const cell = (r: TraceRow | undefined) => (r ? r.values.map(([n, v]) => `${n} ${
 
 export function TraceTable({ declared, hypothesis, hypothesisLabel }: { declared: CordicTrace; hypothesis: CordicTrace; hypothesisLabel: string }) {
   const { rows, parting } = alignTraces(declared, hypothesis);
+  const box = useRef<HTMLDivElement>(null);
+  const marked = useRef<HTMLTableRowElement>(null);
+  // Bring the first difference into view inside the table's own scroll box (not the page's).
+  useEffect(() => {
+    if (box.current && marked.current) box.current.scrollTop = Math.max(0, marked.current.offsetTop - box.current.clientHeight / 2);
+  }, [parting, declared.code]);
   return (
     <div className="grid gap-1">
       <p className="text-sm" data-testid="trace-parting">
         {parting === null ? 'The declared model and the hypothesis agree at every stage for this code.' : `They part at: ${rows[parting].stage}.`}
       </p>
-      <div className="max-h-96 overflow-auto rounded border border-rule">
+      <div ref={box} className="relative max-h-96 overflow-auto rounded border border-rule">
         <table className="w-full border-collapse font-mono text-xs">
           <caption className="sr-only">Code {declared.code} through the declared model and through {hypothesisLabel}</caption>
           <thead className="sticky top-0 bg-paper text-left">
@@ -27,7 +34,7 @@ export function TraceTable({ declared, hypothesis, hypothesisLabel }: { declared
               const mark = parting !== null && i === parting;
               const after = parting !== null && i > parting;
               return (
-                <tr key={r.key} data-parting={mark || undefined} className={mark ? 'bg-fail-soft font-bold' : after ? 'text-fail' : ''}>
+                <tr key={r.key} ref={mark ? marked : undefined} data-parting={mark || undefined} className={mark ? 'bg-fail-soft font-bold' : after ? 'text-fail' : ''}>
                   <th scope="row" className="whitespace-nowrap px-2 py-0.5 text-left font-sans font-normal">
                     {r.stage}
                     {mark && <span className="ml-1 font-bold">◀ first difference</span>}

@@ -1,0 +1,185 @@
+// `explain`: which configuration deviation or catalogue defect reproduces a core's answers
+// (docs/explain.md). Prints { "declared", "answered", "hypotheses" } as JSON; exit 0 when the best
+// hypothesis reproduces every answer, 1 when none does, 2 on an error (one line on stderr).
+import { readFileSync } from 'node:fs';
+import { parseArgs } from 'node:util';
+import { explain, ExplainInputError, type Explanation } from '../shared/explain';
+import { ArchiveError } from '../shared/link';
+import { samplesFromArchive } from '../shared/link-engine/archive-samples';
+import { parseSampleCsv, SampleCsvError } from '../shared/link-engine/sample-csv';
+import { angleCodeRange, ModelConfigError, outputCodeRange, parseModelConfig, type ModelConfig } from '../shared/numeric';
+import type { CliIo } from './io';
+
+const HELP = `usage: npm run --silent cli -- explain [--config '<json>'] (--samples-file F | --archive F)
+
+  --config JSON       the core's declared model configuration (missing keys take their defaults);
+                      with --archive, the archive's label gives it unless this is given
+  --samples-file F    answers as CSV: the header angle_code,cos_code,sin_code, then one row each
+  --archive F         a capture archive (run --out, or the Bench page's recording)
+
+Prints { "declared", "answered", "hypotheses": [ { "label", "config", "fault", "exact",
+"maxDiffLsb", "equivalent" }, … ] }, best first, at most 10. Exit 0 when the best reproduces every
+answer, 1 when none does, 2 on an error.
+`;
+
+/** A bad command line or input: one line for the user, exit status 2. */
+class UsageError extends Error {}
+
+/** Reads bytes of a file; tests swap it. */
+export interface ExplainDeps {
+  readBytes?(path: string): Uint8Array;
+}
+
+interface Samples {
+  angle: Float64Array;
+  cos: Int32Array;
+  sin: Int32Array;
+  /** Where sample k came from, for messages: "line 7" of the CSV, or "sample 7" of an archive. */
+  where(k: number): string;
+}
+
+function parseConfig(text: string): ModelConfig {
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch {
+    throw new UsageError('config: is not valid JSON');
+  }
+  try {
+    return parseModelConfig(json);
+  } catch (e) {
+    if (e instanceof ModelConfigError) throw new UsageError(`config.${e.message}`);
+    throw e;
+  }
+}
+
+function fileError(what: string, path: string, e: unknown): UsageError {
+  return new UsageError(`${what}: cannot read ${path} (${(e as NodeJS.ErrnoException).code ?? (e as Error).message})`);
+}
+
+function readCsv(path: string, io: CliIo): Samples {
+  let text: string;
+  try {
+    text = io.readFile(path);
+  } catch (e) {
+    throw fileError('samples-file', path, e);
+  }
+  let rows;
+  try {
+    rows = parseSampleCsv(text);
+  } catch (e) {
+    if (e instanceof SampleCsvError) throw new UsageError(`samples-file ${e.message}`);
+    throw e;
+  }
+  // The parser skips blank lines: keep each row's line number for the messages below.
+  const lines: number[] = [];
+  text.replace(/^\uFEFF/, '').split(/\r?\n/).forEach((line, i) => {
+    if (i > 0 && line.trim() !== '') lines.push(i + 1);
+  });
+  return { angle: Float64Array.from(rows.codes), cos: rows.cos, sin: rows.sin, where: (k) => `samples-file line ${lines[k]}` };
+}
+
+function readArchive(path: string, deps: ExplainDeps): Samples & { label: string } {
+  let bytes: Uint8Array;
+  try {
+    bytes = (deps.readBytes ?? readFileSync)(path);
+  } catch (e) {
+    throw fileError('archive', path, e);
+  }
+  try {
+    const found = samplesFromArchive(bytes);
+    return { angle: Float64Array.from(found.codes), cos: found.cos, sin: found.sin, label: found.label, where: (k) => `archive sample ${k + 1}` };
+  } catch (e) {
+    if (e instanceof ArchiveError || e instanceof RangeError) throw new UsageError(`archive: ${path} is not a readable capture archive (${(e as Error).message})`);
+    throw e;
+  }
+}
+
+/** The model configuration a runner archive's label records (`run --out` writes it as `model`). */
+function configFromLabel(label: string): ModelConfig {
+  let o: unknown;
+  try {
+    o = JSON.parse(label);
+  } catch {
+    o = null;
+  }
+  const model = o && typeof o === 'object' && 'model' in o ? (o as { model: unknown }).model : undefined;
+  if (model === undefined) throw new UsageError("archive: its label holds no model configuration; give the core's with --config");
+  try {
+    return parseModelConfig(model);
+  } catch (e) {
+    if (e instanceof ModelConfigError) throw new UsageError(`archive label model.${e.message}`);
+    throw e;
+  }
+}
+
+/** Every code must fit the declared formats; the message names the line (or sample) at fault. */
+function checkRanges(config: ModelConfig, s: Samples): void {
+  const a = angleCodeRange(config);
+  const o = outputCodeRange(config);
+  for (let k = 0; k < s.angle.length; k++) {
+    const v = s.angle[k];
+    if (v < a.min || v > a.max) throw new UsageError(`${s.where(k)}: angle code ${v} is not ${a.min}..${a.max} (${config.angleFormat}, ${config.angleBits} bits)`);
+    for (const [name, c] of [['cos', s.cos[k]], ['sin', s.sin[k]]] as const) {
+      if (c < o.min || c > o.max) throw new UsageError(`${s.where(k)}: ${name} code ${c} is not ${o.min}..${o.max} (${config.outBits} bits)`);
+    }
+  }
+}
+
+/** The command's JSON: the keys outside scripts rely on, in this order. */
+export function explanationJson(e: Explanation): string {
+  const ref = (h: { label: string; config: ModelConfig; fault: unknown }) => ({ label: h.label, config: h.config, fault: h.fault });
+  const hypotheses = e.hypotheses.map((h) => ({ ...ref(h), exact: h.exact, maxDiffLsb: h.maxDiffLsb, equivalent: h.equivalent.map(ref) }));
+  return `${JSON.stringify({ declared: e.declared, answered: e.answered, hypotheses }, null, 2)}\n`;
+}
+
+/** Runs `explain` with its own arguments; returns the exit status. */
+export async function runExplainCommand(argv: string[], io: CliIo, deps: ExplainDeps = {}): Promise<number> {
+  try {
+    const { values } = parseArgs({
+      args: argv,
+      options: {
+        config: { type: 'string' },
+        'samples-file': { type: 'string' },
+        archive: { type: 'string' },
+        help: { type: 'boolean', short: 'h' },
+      },
+      allowPositionals: false,
+      strict: true,
+    });
+    if (values.help) {
+      io.stdout(HELP);
+      return 0;
+    }
+    const given = (['samples-file', 'archive'] as const).filter((k) => values[k] !== undefined);
+    if (given.length !== 1) throw new UsageError(`give exactly one of --samples-file, --archive (got ${given.length ? given.map((k) => `--${k}`).join(', ') : 'none'})`);
+    let config: ModelConfig;
+    let samples: Samples;
+    if (values['samples-file'] !== undefined) {
+      if (values.config === undefined) throw new UsageError("give the core's declared configuration with --config (a CSV does not hold it)");
+      config = parseConfig(values.config);
+      samples = readCsv(values['samples-file'], io);
+    } else {
+      const found = readArchive(values.archive!, deps);
+      if (found.angle.length === 0) throw new UsageError('archive: it holds no answered requests');
+      config = values.config !== undefined ? parseConfig(values.config) : configFromLabel(found.label);
+      samples = found;
+    }
+    checkRanges(config, samples);
+    let explanation: Explanation;
+    try {
+      explanation = explain(config, samples);
+    } catch (e) {
+      if (e instanceof ExplainInputError) throw new UsageError(e.message);
+      throw e;
+    }
+    io.stdout(explanationJson(explanation));
+    return explanation.hypotheses[0].exact === explanation.answered ? 0 : 1;
+  } catch (e) {
+    if (e instanceof UsageError || (e instanceof TypeError && 'code' in e && String(e.code).startsWith('ERR_PARSE_ARGS'))) {
+      io.stderr(`error: ${e.message.split('\n')[0]}\n`);
+      return 2;
+    }
+    throw e;
+  }
+}
