@@ -154,10 +154,10 @@ export const sessionListItem = sessionRow.extend({
   board: named.nullable(),
   operator: named.nullable(),
   hasArchive: z.boolean(),
-  /** Operating conditions (`{}` when none were recorded); a soak's passes and unstable codes (null: not a soak). */
-  conditions: conditionsSchema,
-  soakPasses: z.number().int().nullable(),
-  unstableCodes: z.number().int().nullable(),
+  /** Operating conditions (`{}` when none were recorded); a soak's passes and unstable codes (null: not a soak). Defaults keep older replies readable. */
+  conditions: conditionsSchema.default({}),
+  soakPasses: z.number().int().nullable().default(null),
+  unstableCodes: z.number().int().nullable().default(null),
   /** The soak's books: in the detail only (null for a single pass). */
   soak: soakRecordSchema.nullable().optional(),
 });
