@@ -4,7 +4,7 @@
 // same process, one pass of the reference model over the same codes: the ratio is the search's
 // time ÷ (that pass × the hypotheses tried), what screening on a few codes saves over running
 // every hypothesis on every answer. Then the same answers in the session page's worker in
-// headless Chromium (explain-page.ts): its best time beside Node's, target within 2×.
+// headless Chromium (explain-page.ts): its best warm pass beside Node's best, target within 2×.
 import { createSimCore, parseCoreFault } from '../mock-device/faulty-core';
 import { explain, type Explanation } from '../shared/explain';
 import { createCordicModel, DEFAULT_MODEL_CONFIG } from '../shared/numeric';
@@ -16,8 +16,8 @@ const CODES = 1 << 16;
 /** Best of this many: on a shared machine the fastest pass is the one least disturbed. */
 const PASSES = 5;
 const TARGET_MS = 3000;
-/** Passes in the page: each starts a fresh worker, so fewer than in Node. */
-const PAGE_PASSES = 3;
+/** Passes in the page: the first starts its worker cold, as Node's first pass is. */
+const PAGE_PASSES = 4;
 const MAX_PAGE_RATIO = 2;
 
 function session(spec: string, damage?: (cos: Int32Array) => void) {
@@ -74,15 +74,15 @@ export async function explainBench(): Promise<BenchResult[]> {
     const page = inPage[i];
     // The same answers must give the same best hypothesis, or the two times measure different work.
     if (page.best !== nodeBest[i].best) throw new Error(`${c.name}: the page named "${page.best}", Node "${nodeBest[i].best}"`);
-    const best = Math.min(...page.ms);
-    // Each page pass starts cold; Node's first pass is its coldest, for comparison (the target uses Node's best).
-    console.log(`  ${c.what} in the page's worker: ${page.ms.map((m) => m.toFixed(0)).join(', ')} ms (a fresh worker each pass; Node's first pass ${nodeBest[i].first.toFixed(0)} ms)`);
+    // Best against best, both warm; the cold first passes are printed beside each other.
+    const best = Math.min(...page.ms.slice(1));
+    console.log(`  ${c.what} in the page's worker: ${page.ms.map((m) => m.toFixed(0)).join(', ')} ms; cold first passes: page ${page.ms[0].toFixed(0)} ms, Node ${nodeBest[i].first.toFixed(0)} ms`);
     results.push({
       name: `${c.name}-page`,
       value: best,
       unit: 'ms',
       ratio: best / nodeBest[i].ms,
-      ratioOf: "page worker's best ÷ Node's best, same run",
+      ratioOf: "page worker's best warm pass ÷ Node's best, same run",
       target: `ratio ≤ ${MAX_PAGE_RATIO}`,
       met: best / nodeBest[i].ms <= MAX_PAGE_RATIO,
     });

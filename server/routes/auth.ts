@@ -1,11 +1,11 @@
 import { Router } from 'express';
-import { rateLimit } from 'express-rate-limit';
+import { rateLimit, type Store } from 'express-rate-limit';
 import type { createPassport } from '../auth/passport';
 import { csrfTokenOf, requireRole } from '../auth';
 import type { User } from '../db/models';
 import { HttpError } from '../http-error';
 import { validate } from '../middleware/validate';
-import { csrfReply, loginBody, loginReply, meReply } from '../../shared/contract/people';
+import { csrfReply, currentReply, loginBody, loginReply, meReply } from '../../shared/contract/people';
 import { reply } from './reply';
 
 export interface LoginLimit {
@@ -15,12 +15,14 @@ export interface LoginLimit {
 }
 
 /** /api/auth: the CSRF token, sign-in, sign-out, who am I and who is signed in. */
-export function authRouter(passport: ReturnType<typeof createPassport>, limit: LoginLimit) {
+export function authRouter(passport: ReturnType<typeof createPassport>, limit: LoginLimit, store: Store) {
   const router = Router();
   const loginLimiter = rateLimit({
     windowMs: limit.windowMs,
     limit: limit.max,
     skipSuccessfulRequests: true,
+    // Counted in the database: every server instance on it shares the limit.
+    store,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     handler: (_req, _res, next) => next(new HttpError(429, 'too_many_attempts', 'Too many failed sign-ins; wait a while and try again')),
@@ -59,7 +61,7 @@ export function authRouter(passport: ReturnType<typeof createPassport>, limit: L
   // is 200 with null (a 401 would be logged in the browser's console); /me stays 401 for clients
   // that must be signed in.
   router.route('/current').get((req, res) => {
-    res.json({ user: req.user ? req.user.toPublic() : null });
+    reply(res, currentReply, { user: req.user ? req.user.toPublic() : null });
   });
 
   return router;

@@ -4,6 +4,7 @@ import { literal, Op, type InferAttributes, type WhereOptions } from 'sequelize'
 import type { Literal } from 'sequelize/types/utils';
 import type { Sendable } from '../../shared/contract/check';
 import type { SessionListItem, SessionListQuery } from '../../shared/contract/sessions';
+import { jsonArrayContains } from '../db/dialect';
 import { BenchSession, Board, Build, Core, SessionConditions, User } from '../db/models';
 import { notFound } from '../http-error';
 import { conditionRangeWhere, conditionsView } from './session-conditions';
@@ -36,7 +37,7 @@ function listWhere(q: SessionListQuery): WhereOptions {
   }
   if (q.from || q.to) where.startedAt = { ...(q.from ? { [Op.gte]: q.from } : {}), ...(q.to ? { [Op.lte]: q.to } : {}) };
   const and: unknown[] = [];
-  if (q.tag) and.push(literal(`EXISTS (SELECT 1 FROM json_each("BenchSession"."tags") WHERE json_each.value = ${BenchSession.sequelize!.escape(q.tag)})`));
+  if (q.tag) and.push(jsonArrayContains(BenchSession.sequelize!, '"BenchSession"."tags"', q.tag));
   const ranges = conditionRangeWhere(q);
   if (ranges) and.push(ranges);
   if (and.length > 0) where[Op.and] = and;

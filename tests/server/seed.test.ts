@@ -13,24 +13,27 @@ import { demoAccountsPresent, seedIfEmpty } from '../../server/db/seed';
 import { modelConfigSchema } from '../../server/schemas/core';
 import { tempDatabase } from '../support/temp-db';
 
-const tmp = tempDatabase();
+const tmp = await tempDatabase();
 const columns = (s: BenchSession) => {
   const u = unpackSamples(s.samples, 'turn');
   return [u.codes, u.cos, u.sin] as const;
 };
 let db: Sequelize;
+let seeded: boolean;
+// Seeded once for the whole file, so each test reads the same demo data in any order.
 beforeAll(async () => {
   db = openDatabase(tmp.url);
   await migrate(db);
+  seeded = await seedIfEmpty(db, 'demo-password', 4);
 });
 afterAll(async () => {
   await db.close();
-  tmp.cleanup();
+  await tmp.cleanup();
 });
 
 describe('the demo seed', () => {
   it('fills an empty database once, with one account per role and the default reference core', async () => {
-    expect(await seedIfEmpty(db, 'demo-password', 4)).toBe(true);
+    expect(seeded).toBe(true);
     expect(await seedIfEmpty(db, 'demo-password', 4)).toBe(false);
     expect((await User.findAll()).map((u) => `${u.email} ${u.role}`).sort()).toEqual([
       'admin@anglebench.test admin',
