@@ -1,12 +1,11 @@
 import { Router } from 'express';
-import { rateLimit } from 'express-rate-limit';
+import { rateLimit, type Store } from 'express-rate-limit';
 import type { createPassport } from '../auth/passport';
-import { z } from 'zod';
 import { csrfTokenOf, requireRole } from '../auth';
 import type { User } from '../db/models';
 import { HttpError } from '../http-error';
 import { validate } from '../middleware/validate';
-import { csrfReply, loginReply, meReply } from '../../shared/contract/people';
+import { csrfReply, loginBody, loginReply, meReply } from '../../shared/contract/people';
 import { reply } from './reply';
 
 export interface LoginLimit {
@@ -15,15 +14,15 @@ export interface LoginLimit {
   max: number;
 }
 
-const loginBody = z.strictObject({ email: z.email().max(254), password: z.string().min(1).max(200) });
-
 /** /api/auth: the CSRF token, sign-in, sign-out, who am I and who is signed in. */
-export function authRouter(passport: ReturnType<typeof createPassport>, limit: LoginLimit) {
+export function authRouter(passport: ReturnType<typeof createPassport>, limit: LoginLimit, store: Store) {
   const router = Router();
   const loginLimiter = rateLimit({
     windowMs: limit.windowMs,
     limit: limit.max,
     skipSuccessfulRequests: true,
+    // Counted in the database: every server instance on it shares the limit.
+    store,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     handler: (_req, _res, next) => next(new HttpError(429, 'too_many_attempts', 'Too many failed sign-ins; wait a while and try again')),
