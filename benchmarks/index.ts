@@ -2,6 +2,7 @@
 // with its side-by-side ratio, and writes benchmarks/results/latest.json. Exit 1 if any target is
 // missed, 2 for an unknown name or a benchmark that failed to run.
 import { loadavg } from 'node:os';
+import { postgresFor } from './postgres';
 import { markdownTable, printResult, writeResults, type BenchResult } from './report';
 
 type Bench = () => Promise<BenchResult[]>;
@@ -28,6 +29,13 @@ async function main(): Promise<number> {
   const names = asked.length > 0 ? asked : Object.keys(BENCHES);
   // Every figure here is wall time on a shared machine: say how busy it was.
   const load = () => loadavg().map((l) => l.toFixed(1)).join(' / ');
+  let stopPostgres: () => Promise<void>;
+  try {
+    stopPostgres = await postgresFor(names);
+  } catch (e) {
+    console.error(`bench: PostgreSQL is needed for ${names.join(', ')} and could not start: ${(e as Error).message}`);
+    return 2;
+  }
   const results: BenchResult[] = [];
   let failed = false;
   for (const name of names) {
@@ -43,6 +51,7 @@ async function main(): Promise<number> {
     }
     console.log(`(${name}: ${((performance.now() - t0) / 1000).toFixed(1)} s)`);
   }
+  await stopPostgres();
   console.log(`\n${markdownTable(results)}\n\nwrote ${writeResults(results)}`);
   if (failed) return 2;
   return results.some((r) => r.met === false) ? 1 : 0;

@@ -1,11 +1,12 @@
 // ingest: the runner's upload of a 1,048,576-sample session (POST /api/sessions, multipart, bearer
 // token), which the server decodes, scores with the core's model, judges and stores, timed from
-// request to 201. Beside it: the same samples bytes inserted as one blob with bare sqlite3.
-import fs from 'node:fs';
-import os from 'node:os';
+// request to 201 — on SQLite and on PostgreSQL in the same run. Beside each: the same samples
+// bytes inserted as one blob by that database's bare driver (sqlite3 into a WAL-mode file, pg
+// into a bytea column of a fresh database).
 import path from 'node:path';
-import sqlite3 from 'sqlite3';
 import { uploadSession } from '../cli/run-server';
+import { tempDatabase } from '../tests/support/temp-db';
+import { BENCH_DIALECTS, bareDriver, type BenchDialect } from './bare-driver';
 import type { BenchResult } from './report';
 import { bigExhaustiveSamples, startBenchServer } from './server-fixture';
 import { median, timeMs } from './timing';
@@ -13,32 +14,28 @@ import { median, timeMs } from './timing';
 const RUNS = 3;
 const TARGET_MS = 1500;
 
-const run = (db: sqlite3.Database, sql: string, params: unknown[] = []) =>
-  new Promise<void>((resolve, reject) => db.run(sql, params, (err) => (err ? reject(err) : resolve())));
-
-/** Milliseconds per bare INSERT of `bytes` as one blob into a fresh WAL-mode SQLite file. */
-async function bareBlobInserts(bytes: Uint8Array, runs: number): Promise<number[]> {
-  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'anglebench-bench-'));
-  const db = await new Promise<sqlite3.Database>((resolve, reject) => {
-    const d = new sqlite3.Database(path.join(dir, 'bare.sqlite'), (err) => (err ? reject(err) : resolve(d)));
-  });
+/** Milliseconds per bare INSERT of `bytes` as one blob into a fresh database of `dialect`. */
+async function bareBlobInserts(dialect: BenchDialect, bytes: Uint8Array, runs: number): Promise<{ driver: string; times: number[] }> {
+  const tmp = await tempDatabase({ dialect });
+  const url = dialect === 'sqlite' ? `sqlite:${path.join(tmp.dir, 'bare.sqlite')}` : tmp.url;
+  const db = await bareDriver(url);
   try {
-    // The app's own pragmas (server/db/connection.ts), so the two sides write the same way.
-    await run(db, 'PRAGMA journal_mode = WAL');
-    await run(db, 'CREATE TABLE blobs (id INTEGER PRIMARY KEY, samples BLOB NOT NULL)');
+    // SQLite with the app's own journal (server/db/connection.ts), so the two sides write the same way.
+    if (dialect === 'sqlite') await db.query('PRAGMA journal_mode = WAL');
+    await db.query(dialect === 'sqlite' ? 'CREATE TABLE blobs (id INTEGER PRIMARY KEY, samples BLOB NOT NULL)' : 'CREATE TABLE blobs (id serial PRIMARY KEY, samples bytea NOT NULL)');
+    const insert = dialect === 'sqlite' ? 'INSERT INTO blobs (samples) VALUES (?)' : 'INSERT INTO blobs (samples) VALUES ($1)';
     const buf = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
     const times: number[] = [];
-    for (let i = 0; i < runs; i++) times.push(await timeMs(() => run(db, 'INSERT INTO blobs (samples) VALUES (?)', [buf])));
-    return times;
+    for (let i = 0; i < runs; i++) times.push(await timeMs(() => db.query(insert, [buf])));
+    return { driver: db.name, times };
   } finally {
-    await new Promise((r) => db.close(r));
-    fs.rmSync(dir, { recursive: true, force: true });
+    await db.close();
+    await tmp.cleanup();
   }
 }
 
-export async function ingestBench(): Promise<BenchResult[]> {
-  const samples = bigExhaustiveSamples();
-  const server = await startBenchServer();
+async function ingestOn(dialect: BenchDialect, samples: ReturnType<typeof bigExhaustiveSamples>): Promise<BenchResult> {
+  const server = await startBenchServer(dialect);
   try {
     const session = {
       coreSlug: server.bigCore.slug,
@@ -54,21 +51,26 @@ export async function ingestBench(): Promise<BenchResult[]> {
       times.push(await timeMs(async () => ({ id } = await uploadSession(fetch, { url: server.url, token: server.token }, { session, samples: samples.packed, archive: new Uint8Array(0) }))));
       if (id === null) throw new Error('the upload returned no session id');
     }
-    const bare = await bareBlobInserts(samples.packed, RUNS);
+    const bare = await bareBlobInserts(dialect, samples.packed, RUNS);
     const ms = median(times);
-    console.log(`  ${samples.packed.length.toLocaleString('en-US')} B of samples; uploads ${times.map((t) => t.toFixed(0)).join(', ')} ms; bare blob inserts ${bare.map((t) => t.toFixed(1)).join(', ')} ms`);
-    return [
-      {
-        name: 'ingest',
-        value: ms,
-        unit: 'ms per 1,048,576-sample upload',
-        ratio: ms / median(bare),
-        ratioOf: 'upload time ÷ bare sqlite3 INSERT of the same bytes as one blob',
-        target: `< ${TARGET_MS} ms`,
-        met: ms < TARGET_MS,
-      },
-    ];
+    console.log(`  ${dialect}: ${samples.packed.length.toLocaleString('en-US')} B of samples; uploads ${times.map((t) => t.toFixed(0)).join(', ')} ms; bare ${bare.driver} blob inserts ${bare.times.map((t) => t.toFixed(1)).join(', ')} ms`);
+    return {
+      name: `ingest@${dialect}`,
+      value: ms,
+      unit: 'ms per 1,048,576-sample upload',
+      ratio: ms / median(bare.times),
+      ratioOf: `upload time ÷ bare ${bare.driver} INSERT of the same bytes as one blob`,
+      target: `< ${TARGET_MS} ms`,
+      met: ms < TARGET_MS,
+    };
   } finally {
     await server.close();
   }
+}
+
+export async function ingestBench(): Promise<BenchResult[]> {
+  const samples = bigExhaustiveSamples();
+  const results: BenchResult[] = [];
+  for (const dialect of BENCH_DIALECTS) results.push(await ingestOn(dialect, samples));
+  return results;
 }

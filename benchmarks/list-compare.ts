@@ -1,14 +1,15 @@
 // list-compare: the sessions table and the compare view against a database holding 10,000
 // sessions (seeded straight through the models in one transaction, small samples blobs), called
-// as the page calls them (signed-in cookie). Beside the list: the same SELECT … LIMIT 25 that
-// Sequelize generates, run with bare sqlite3 on the same file. Beside the compare: a bare loop
-// over the two sessions' typed arrays.
-import sqlite3 from 'sqlite3';
+// as the page calls them (signed-in cookie) — on SQLite and on PostgreSQL in the same run. Beside
+// the list: the same SELECT … LIMIT 25 that Sequelize generates, run by that database's bare
+// driver (sqlite3 or pg) on the same database. Beside the compare: a bare loop over the two
+// sessions' typed arrays.
 import { Op, type WhereOptions } from 'sequelize';
 import { ScoreAccumulator } from '../shared/numeric';
 import { packSamples } from '../shared/link-engine/sample-pack';
 import { BenchSession, Board, Build, Core } from '../server/db/models';
 import { modelConfigSchema } from '../server/schemas/core';
+import { BENCH_DIALECTS, bareDriver, type BenchDialect } from './bare-driver';
 import type { BenchResult } from './report';
 import { bigExhaustiveSamples, startBenchServer, type BenchServer } from './server-fixture';
 import { median, quantile, timeMs } from './timing';
@@ -138,11 +139,17 @@ async function selectSql(f: ListFilter): Promise<string> {
 
 export async function listCompareBench(): Promise<BenchResult[]> {
   const big = bigExhaustiveSamples();
-  const server = await startBenchServer();
+  const results: BenchResult[] = [];
+  for (const dialect of BENCH_DIALECTS) results.push(...(await listCompareOn(dialect, big)));
+  return results;
+}
+
+async function listCompareOn(dialect: BenchDialect, big: ReturnType<typeof bigExhaustiveSamples>): Promise<BenchResult[]> {
+  const server = await startBenchServer(dialect);
   try {
     const t0 = performance.now();
     const seeded = await seed(server);
-    console.log(`  seeded ${SESSIONS.toLocaleString('en-US')} sessions in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
+    console.log(`  ${dialect}: seeded ${SESSIONS.toLocaleString('en-US')} sessions in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
     const headers = await server.cookieHeaders();
 
     // --- the list
@@ -158,19 +165,16 @@ export async function listCompareBench(): Promise<BenchResult[]> {
       if (status !== 200) throw new Error(`GET /api/sessions?${queryString(f)} answered ${status}`);
     }
     const sqls = await Promise.all(list.map(selectSql));
-    const storage = server.t.config.databaseUrl.slice('sqlite:'.length);
-    const bare = await new Promise<sqlite3.Database>((resolve, reject) => {
-      const d = new sqlite3.Database(storage, sqlite3.OPEN_READONLY, (err) => (err ? reject(err) : resolve(d)));
-    });
+    const bare = await bareDriver(server.t.config.databaseUrl, { readOnly: true });
     const bareMs: number[] = [];
     try {
-      for (const sql of sqls) bareMs.push(await timeMs(() => new Promise((resolve, reject) => bare.all(sql, (err, rows) => (err ? reject(err) : resolve(rows))))));
+      for (const sql of sqls) bareMs.push(await timeMs(() => bare.query(sql)));
     } finally {
-      await new Promise((r) => bare.close(r));
+      await bare.close();
     }
     const p50 = quantile(listMs, 0.5);
     const p95 = quantile(listMs, 0.95);
-    console.log(`  list: p50 ${p50.toFixed(1)} ms, p95 ${p95.toFixed(1)} ms, max ${Math.max(...listMs).toFixed(1)} ms; bare SELECT p50 ${quantile(bareMs, 0.5).toFixed(2)} ms, p95 ${quantile(bareMs, 0.95).toFixed(2)} ms`);
+    console.log(`  ${dialect} list: p50 ${p50.toFixed(1)} ms, p95 ${p95.toFixed(1)} ms, max ${Math.max(...listMs).toFixed(1)} ms; bare ${bare.name} SELECT p50 ${quantile(bareMs, 0.5).toFixed(2)} ms, p95 ${quantile(bareMs, 0.95).toFixed(2)} ms`);
 
     // --- the compare: two 1,048,576-sample sessions; the second answers 1 LSB high on every 97th code
     const cosB = big.cos.slice();
@@ -211,13 +215,13 @@ export async function listCompareBench(): Promise<BenchResult[]> {
     }
     if (sink !== COMPARE_RUNS * (expected + 1)) throw new Error('bare diff loop miscounted');
     const cmp = median(compareMs);
-    console.log(`  compare: ${compareMs.map((m) => m.toFixed(0)).join(', ')} ms; bare diff loop ${median(loopMs).toFixed(2)} ms`);
+    console.log(`  ${dialect} compare: ${compareMs.map((m) => m.toFixed(0)).join(', ')} ms; bare diff loop ${median(loopMs).toFixed(2)} ms`);
 
     const bareP95 = quantile(bareMs, 0.95);
     return [
-      { name: 'list-p50', value: p50, unit: 'ms per GET /api/sessions', ratio: p50 / quantile(bareMs, 0.5), ratioOf: 'p50 ÷ bare sqlite3 SELECT … LIMIT 25 p50', target: null, met: null },
-      { name: 'list-p95', value: p95, unit: 'ms per GET /api/sessions', ratio: p95 / bareP95, ratioOf: 'p95 ÷ bare sqlite3 SELECT … LIMIT 25 p95', target: '< 100 ms', met: p95 < 100 },
-      { name: 'compare', value: cmp, unit: 'ms per GET /api/compare (2 × 1,048,576 samples)', ratio: cmp / median(loopMs), ratioOf: 'compare time ÷ bare typed-array diff loop', target: '< 500 ms', met: cmp < 500 },
+      { name: `list-p50@${dialect}`, value: p50, unit: 'ms per GET /api/sessions', ratio: p50 / quantile(bareMs, 0.5), ratioOf: `p50 ÷ bare ${bare.name} SELECT … LIMIT 25 p50`, target: null, met: null },
+      { name: `list-p95@${dialect}`, value: p95, unit: 'ms per GET /api/sessions', ratio: p95 / bareP95, ratioOf: `p95 ÷ bare ${bare.name} SELECT … LIMIT 25 p95`, target: '< 100 ms', met: p95 < 100 },
+      { name: `compare@${dialect}`, value: cmp, unit: 'ms per GET /api/compare (2 × 1,048,576 samples)', ratio: cmp / median(loopMs), ratioOf: 'compare time ÷ bare typed-array diff loop', target: '< 500 ms', met: cmp < 500 },
     ];
   } finally {
     await server.close();

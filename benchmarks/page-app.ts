@@ -51,7 +51,7 @@ async function buildClient(): Promise<void> {
 /** Builds the production client and serves it with the API; sign in with the demo accounts. */
 export async function startPageApp(): Promise<PageApp> {
   await buildClient();
-  const tmp = tempDatabase();
+  const tmp = await tempDatabase();
   const config = loadConfig({ NODE_ENV: 'production', DATABASE_URL: tmp.url, SESSION_SECRET: 'bench-secret-0123456789abcdef' }, path.join(tmp.dir, 'session-secret'));
   const db = openDatabase(config.databaseUrl);
   await migrate(db);
@@ -68,7 +68,7 @@ export async function startPageApp(): Promise<PageApp> {
       mailer.close();
       await catcher.close();
       await db.close();
-      tmp.cleanup();
+      await tmp.cleanup();
     },
   };
 }

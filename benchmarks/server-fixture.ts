@@ -1,5 +1,5 @@
-// The real app (createApp over a fresh migrated SQLite file, as the server tests build it) on a
-// loopback port, with a 20-bit core whose exhaustive run is 1,048,576 samples, and helpers to
+// The real app (createApp over a fresh migrated database, SQLite file or PostgreSQL, as the
+// server tests build it) on a loopback port, with a 20-bit core whose exhaustive run is 1,048,576 samples, and helpers to
 // call it the two ways clients do: a bearer token (the runner) or a signed-in cookie (the page).
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
@@ -8,6 +8,7 @@ import { packSamples } from '../shared/link-engine/sample-pack';
 import { Core } from '../server/db/models';
 import { modelConfigSchema } from '../server/schemas/core';
 import { testApp, TEST_PASSWORD, type TestApp } from '../tests/support/test-app';
+import type { BenchDialect } from './bare-driver';
 
 /** 2^20 codes: a 20-bit binary-angle core's exhaustive run. */
 export const BIG_SESSION_SAMPLES = 1 << 20;
@@ -24,8 +25,8 @@ export interface BenchServer {
   close(): Promise<void>;
 }
 
-export async function startBenchServer(): Promise<BenchServer> {
-  const t = await testApp();
+export async function startBenchServer(dialect: BenchDialect): Promise<BenchServer> {
+  const t = await testApp({ dialect });
   const http: Server = createServer(t.app);
   await new Promise<void>((r) => http.listen(0, '127.0.0.1', r));
   const url = `http://127.0.0.1:${(http.address() as AddressInfo).port}`;

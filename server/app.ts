@@ -12,6 +12,7 @@ import { clientDistDir, dataDir, projectRoot } from './paths';
 import { auditRouter, outboxRouter } from './routes/admin';
 import { CHECK_REPLIES } from './routes/reply';
 import { authRouter, type LoginLimit } from './routes/auth';
+import { SignInAttemptStore } from './auth/sign-in-attempt-store';
 import { boardsRouter } from './routes/boards';
 import { buildsRouter } from './routes/builds';
 import { commentsRouter, sessionCommentsRouter } from './routes/comments';
@@ -73,7 +74,7 @@ export function createApp({
   const { passport, authenticateUpgrade } = installAuth(app, config);
   const sockets = createSocketDispatcher({ authenticate: authenticateUpgrade, allowedOrigins: config.publicUrl ? [new URL(config.publicUrl).origin] : [] });
   registerSimBoards(sockets, config);
-  app.use('/api/auth', authRouter(passport, loginLimit));
+  app.use('/api/auth', authRouter(passport, loginLimit, new SignInAttemptStore(db)));
   app.use('/api/tokens', tokensRouter(deps));
   app.use('/api/users', usersRouter(deps));
   app.use('/api/invitations', invitationsRouter(deps));

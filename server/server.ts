@@ -4,6 +4,7 @@ import { createServer as createHttpsServer } from 'node:https';
 import { createApp } from './app';
 import type { Config } from './config';
 import { openDatabase } from './db/connection';
+import { withStartupLock } from './db/dialect';
 import { migrate } from './db/migrator';
 import { demoAccountsPresent, seedIfEmpty } from './db/seed';
 import { startMailCatcher, type MailCatcher } from './mail/catcher';
@@ -26,8 +27,10 @@ export interface RunningServer {
 export async function startServer(config: Config): Promise<RunningServer> {
   const db = openDatabase(config.databaseUrl);
   await db.authenticate();
-  await migrate(db);
-  await seedIfEmpty(db, config.demoPassword);
+  await withStartupLock(db, async () => {
+    await migrate(db);
+    await seedIfEmpty(db, config.demoPassword);
+  });
   let catcher: MailCatcher | undefined;
   if (!config.smtpUrl) catcher = await startMailCatcher(db);
   const mailer = createSmtpMailer(config.smtpUrl ?? catcher!.url);

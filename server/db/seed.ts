@@ -23,7 +23,10 @@ export async function seedIfEmpty(db: Sequelize, password: string, bcryptCost = 
   const passwordHash = await hashPassword(password, bcryptCost);
   await db.transaction(async (transaction) => {
     const opts = { transaction };
-    const [admin, engineer, reviewer] = await Promise.all(DEMO_ACCOUNTS.map((a) => User.create({ ...a, passwordHash }, opts)));
+    // One after another: a transaction is one connection, and PostgreSQL's takes one query at a time.
+    const accounts: User[] = [];
+    for (const a of DEMO_ACCOUNTS) accounts.push(await User.create({ ...a, passwordHash }, opts));
+    const [admin, engineer, reviewer] = accounts;
 
     const reference = await Core.create(
       {

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { rateLimit } from 'express-rate-limit';
+import { rateLimit, type Store } from 'express-rate-limit';
 import type { createPassport } from '../auth/passport';
 import { z } from 'zod';
 import { csrfTokenOf, requireRole } from '../auth';
@@ -18,12 +18,14 @@ export interface LoginLimit {
 const loginBody = z.strictObject({ email: z.email().max(254), password: z.string().min(1).max(200) });
 
 /** /api/auth: the CSRF token, sign-in, sign-out, who am I and who is signed in. */
-export function authRouter(passport: ReturnType<typeof createPassport>, limit: LoginLimit) {
+export function authRouter(passport: ReturnType<typeof createPassport>, limit: LoginLimit, store: Store) {
   const router = Router();
   const loginLimiter = rateLimit({
     windowMs: limit.windowMs,
     limit: limit.max,
     skipSuccessfulRequests: true,
+    // Counted in the database: every server instance on it shares the limit.
+    store,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     handler: (_req, _res, next) => next(new HttpError(429, 'too_many_attempts', 'Too many failed sign-ins; wait a while and try again')),

@@ -59,6 +59,8 @@ export function invitationsRouter({ db, mailer, bcryptCost }: RouteDeps) {
       const invitation = await Invitation.findOne({
         where: { tokenHash: sha256Hex(token), usedAt: null, expiresAt: { [Op.gt]: new Date() } },
         transaction,
+        // Two instances taking the same token at once: the second waits, then finds it used.
+        lock: transaction.LOCK.UPDATE,
       });
       if (!invitation) throw new HttpError(400, 'bad_invitation', 'body.token: this invitation is unknown, used or expired');
       if (await User.findOne({ where: { email: invitation.email }, transaction })) {

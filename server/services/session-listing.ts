@@ -4,6 +4,7 @@ import { literal, Op, type InferAttributes, type WhereOptions } from 'sequelize'
 import type { Literal } from 'sequelize/types/utils';
 import type { Sendable } from '../../shared/contract/check';
 import type { SessionListItem, SessionListQuery } from '../../shared/contract/sessions';
+import { jsonArrayContains } from '../db/dialect';
 import { BenchSession, Board, Build, Core, User } from '../db/models';
 import { notFound } from '../http-error';
 
@@ -30,7 +31,7 @@ function listWhere(q: SessionListQuery): WhereOptions {
     if (q[key] !== undefined) where[key] = q[key];
   }
   if (q.from || q.to) where.startedAt = { ...(q.from ? { [Op.gte]: q.from } : {}), ...(q.to ? { [Op.lte]: q.to } : {}) };
-  if (q.tag) where[Op.and] = literal(`EXISTS (SELECT 1 FROM json_each("BenchSession"."tags") WHERE json_each.value = ${BenchSession.sequelize!.escape(q.tag)})`);
+  if (q.tag) where[Op.and] = jsonArrayContains(BenchSession.sequelize!, '"BenchSession"."tags"', q.tag);
   return where as WhereOptions;
 }
 

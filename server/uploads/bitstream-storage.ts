@@ -1,5 +1,6 @@
 import { createHash, randomUUID } from 'node:crypto';
 import fs from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 import { Transform } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
@@ -18,13 +19,19 @@ export interface HashedFile extends Express.Multer.File {
  * renames the temporary file into place once the database agrees; multer removes it on failure.
  */
 const INCOMING = '.incoming-';
+/**
+ * Whose upload a temporary file is: this host and process. Instances sharing one upload folder
+ * (several servers on one PostgreSQL) must not remove each other's uploads in flight.
+ */
+const OWNER = `${os.hostname().replace(/[^A-Za-z0-9.]/g, '_')}-${process.pid}`;
+const ABANDONED_AFTER_MS = 24 * 60 * 60 * 1000;
 
 class HashingDiskStorage implements multer.StorageEngine {
   constructor(private readonly dir: string) {}
 
   _handleFile(_req: Request, file: Express.Multer.File, cb: (error?: unknown, info?: Partial<HashedFile>) => void): void {
     fs.mkdirSync(this.dir, { recursive: true });
-    const tmp = path.join(this.dir, `${INCOMING}${randomUUID()}`);
+    const tmp = path.join(this.dir, `${INCOMING}${OWNER}-${randomUUID()}`);
     const hash = createHash('sha256');
     let size = 0;
     const hasher = new Transform({
@@ -47,7 +54,9 @@ class HashingDiskStorage implements multer.StorageEngine {
 
 /**
  * Removes the temporary files of uploads a killed server never finished; run at start, before
- * the server takes uploads (one server owns its upload folder). Returns how many it removed.
+ * the server takes uploads. A file is abandoned when the process that wrote it (named in the file
+ * name) is gone from this host, or — written elsewhere, or by an older version — when it is over
+ * a day old. Returns how many it removed.
  */
 export function removeAbandonedUploads(dir: string): number {
   let names: string[];
@@ -56,9 +65,29 @@ export function removeAbandonedUploads(dir: string): number {
   } catch {
     return 0; // no folder yet: nothing was ever uploaded
   }
-  const abandoned = names.filter((n) => n.startsWith(INCOMING));
+  const host = os.hostname().replace(/[^A-Za-z0-9.]/g, '_');
+  const abandoned = names.filter((n) => {
+    if (!n.startsWith(INCOMING)) return false;
+    const owner = /^(.+)-(\d+)-[0-9a-f-]{36}$/.exec(n.slice(INCOMING.length));
+    if (owner && owner[1] === host) return !processAlive(Number(owner[2]));
+    try {
+      return Date.now() - fs.statSync(path.join(dir, n)).mtimeMs > ABANDONED_AFTER_MS;
+    } catch {
+      return false; // finished and renamed meanwhile
+    }
+  });
   for (const n of abandoned) fs.rmSync(path.join(dir, n), { force: true });
   return abandoned.length;
+}
+
+function processAlive(pid: number): boolean {
+  if (pid === process.pid) return true;
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (err) {
+    return (err as NodeJS.ErrnoException).code === 'EPERM'; // alive, someone else's
+  }
 }
 
 /**

@@ -44,7 +44,7 @@ export interface RunningApp {
  */
 export async function startApp(env: Record<string, string> = {}): Promise<RunningApp> {
   const port = await freePort();
-  const db = tempDatabase();
+  const db = await tempDatabase();
   const child: ChildProcess = spawn(process.execPath, [path.join(projectRoot, 'node_modules/tsx/dist/cli.mjs'), 'server/index.ts'], {
     cwd: projectRoot,
     env: { ...process.env, NODE_ENV: 'production', PORT: String(port), DATABASE_URL: db.url, UPLOAD_DIR: path.join(db.dir, 'uploads'), SESSION_SECRET: 'e2e-secret-0123456789abcdef', ...env },
@@ -64,7 +64,7 @@ export async function startApp(env: Record<string, string> = {}): Promise<Runnin
       await exited;
       clearTimeout(timer);
     }
-    db.cleanup();
+    await db.cleanup();
   };
 
   // Generous: first start migrates and seeds the demo (a few seconds alone), and CI machines are busy.

@@ -1,5 +1,5 @@
-// The server killed with SIGKILL in the middle of uploads, then started again on the same SQLite
-// file: the database opens, passes its integrity check, and holds exactly the sessions whose
+// The server killed with SIGKILL in the middle of uploads, then started again on the same
+// database (SQLite file or PostgreSQL): the database opens, passes its integrity check (SQLite), and holds exactly the sessions whose
 // upload was answered (nothing from the upload cut off half-way), and a bitstream cut off
 // half-way leaves no temporary file once the server is back.
 import fs from 'node:fs';
@@ -10,20 +10,20 @@ import { tempDatabase } from '../support/temp-db';
 import { modelSamples, sessionForm, sessionPart, signInOverHttp, type HttpSession } from './support/http-session';
 import { startServerProcess, uploadDirOf, type ServerProcess } from './support/server-process';
 
-const tmp = tempDatabase();
+const tmp = await tempDatabase();
 let server: ServerProcess | null = null;
 
 afterAll(async () => {
   await server?.stop();
-  tmp.cleanup();
+  await tmp.cleanup();
 });
 
-/** What the file holds, read with the server down: integrity check and session rows. */
+/** What the database holds, read with the server down: SQLite's integrity check and the session rows. */
 async function inspectDatabase() {
   const db = openDatabase(tmp.url);
   try {
-    const [check] = (await db.query('PRAGMA integrity_check')) as [Array<{ integrity_check: string }>, unknown];
-    const [rows] = (await db.query('SELECT id, notes, sampleCount, length(samples) AS bytes FROM sessions ORDER BY id')) as [
+    const [check] = tmp.dialect === 'sqlite' ? ((await db.query('PRAGMA integrity_check')) as [Array<{ integrity_check: string }>, unknown]) : await postgresIndexCheck(db);
+    const [rows] = (await db.query('SELECT id, notes, "sampleCount", length(samples) AS bytes FROM sessions ORDER BY id')) as [
       Array<{ id: number; notes: string; sampleCount: number; bytes: number }>,
       unknown,
     ];
@@ -31,6 +31,20 @@ async function inspectDatabase() {
   } finally {
     await db.close();
   }
+}
+
+/**
+ * PostgreSQL's nearest to SQLite's integrity check: amcheck verifies every index of `sessions`
+ * against its table (a missing or stray entry raises an error).
+ */
+async function postgresIndexCheck(db: ReturnType<typeof openDatabase>): Promise<[Array<{ integrity_check: string }>, unknown]> {
+  await db.query('CREATE EXTENSION IF NOT EXISTS amcheck');
+  const [checked] = (await db.query(
+    `SELECT bt_index_check(i.indexrelid, true) FROM pg_index i JOIN pg_class c ON c.oid = i.indexrelid JOIN pg_am a ON a.oid = c.relam
+     WHERE i.indrelid = 'sessions'::regclass AND a.amname = 'btree'`,
+  )) as [unknown[], unknown];
+  if (checked.length === 0) throw new Error('no index of sessions was checked');
+  return [[{ integrity_check: 'ok' }], null];
 }
 
 const sessionCount = async (s: HttpSession) => ((await (await s.fetch('/api/sessions?pageSize=1')).json()) as { total: number }).total;
@@ -70,7 +84,7 @@ async function partialUpload(s: HttpSession, path: string, head: string, fileMiB
 let ids: { coreId: number; buildId: number | null; boardId: number | null };
 
 beforeAll(async () => {
-  server = await startServerProcess(tmp.url);
+  server = await startServerProcess(tmp);
 });
 
 describe('the server killed during uploads', () => {
@@ -94,7 +108,7 @@ describe('the server killed during uploads', () => {
     expect(afterKill.rows).toHaveLength(before);
     expect(afterKill.rows.some((r) => r.notes === 'half an upload')).toBe(false);
 
-    server = await startServerProcess(tmp.url);
+    server = await startServerProcess(tmp);
     const again = await signInOverHttp(server.url, 'engineer@anglebench.test', 'anglebench');
     expect(await sessionCount(again)).toBe(before);
     const next = await again.fetch('/api/sessions', { method: 'POST', body: sessionForm(sessionPart(ids, 'after the restart'), modelSamples(4096)) });
@@ -134,7 +148,7 @@ describe('the server killed during uploads', () => {
     expect(burst.every((r) => r.sampleCount === 16_384 && r.bytes === samples.length)).toBe(true);
     console.info(`[crash] burst of 12: ${acknowledged} answered 201 before the kill, ${burst.length} stored, outcomes ${JSON.stringify(outcomes)}`);
 
-    server = await startServerProcess(tmp.url);
+    server = await startServerProcess(tmp);
     const again = await signInOverHttp(server.url, 'engineer@anglebench.test', 'anglebench');
     expect(await sessionCount(again)).toBe(before + burst.length);
   });
@@ -143,7 +157,7 @@ describe('the server killed during uploads', () => {
     const engineer = await signInOverHttp(server!.url, 'engineer@anglebench.test', 'anglebench');
     const build = ((await (await engineer.fetch('/api/builds')).json()) as { builds: Array<{ id: number; sha256: string | null }> }).builds[0];
     const { ended } = await partialUpload(engineer, `/api/builds/${build.id}/file`, fileFieldHead('file', 'top.bit'), 32, 4, 0xa5);
-    const dir = uploadDirOf(tmp.url);
+    const dir = uploadDirOf(tmp);
     const incoming = () => (fs.existsSync(dir) ? fs.readdirSync(dir).filter((n) => n.startsWith('.incoming-')) : []);
     const deadline = Date.now() + 10_000;
     while (incoming().length === 0 && Date.now() < deadline) await new Promise((r) => setTimeout(r, 20));
@@ -151,7 +165,7 @@ describe('the server killed during uploads', () => {
     expect(await ended).toMatch(/^error: /);
     expect(incoming()).toHaveLength(1); // what the kill left behind
 
-    server = await startServerProcess(tmp.url);
+    server = await startServerProcess(tmp);
     expect(incoming()).toEqual([]);
     expect(server.output()).toMatch(/Removed 1 unfinished bitstream upload/);
     const again = await signInOverHttp(server.url, 'engineer@anglebench.test', 'anglebench');

@@ -7,7 +7,7 @@ import { openDatabase } from '../../server/db/connection';
 import { migrate } from '../../server/db/migrator';
 import { tempDatabase } from '../support/temp-db';
 
-const tmp = tempDatabase();
+const tmp = await tempDatabase();
 const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: tmp.url, SESSION_SECRET: 'x'.repeat(32) });
 let db: Sequelize;
 
@@ -17,7 +17,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await db.close();
-  tmp.cleanup();
+  await tmp.cleanup();
 });
 
 describe('GET /api/health', () => {
@@ -25,12 +25,14 @@ describe('GET /api/health', () => {
     const res = await request(createApp({ config, db })).get('/api/health').expect(200);
     expect(res.body.status).toBe('ok');
     expect(res.body.version).toMatch(/^\d+\.\d+\.\d+/);
-    expect(res.body.database).toMatchObject({ status: 'ok', dialect: 'sqlite' });
+    expect(res.body.database).toMatchObject({ status: 'ok', dialect: tmp.dialect });
+    // The server's own version: SQLite's library (3.x) or PostgreSQL's (e.g. 15.18 (Debian …)).
+    expect(res.body.database.serverVersion).toMatch(tmp.dialect === 'sqlite' ? /^3\.\d+\.\d+$/ : /^\d+\.\d+/);
     expect(typeof res.body.database.migrations).toBe('number');
   });
 
   it('reports a degraded service with 503 when the database is gone', async () => {
-    const other = openDatabase(tempDatabase().url);
+    const other = openDatabase(tmp.url);
     await other.close();
     const res = await request(createApp({ config, db: other })).get('/api/health').expect(503);
     expect(res.body.status).toBe('degraded');
@@ -38,7 +40,7 @@ describe('GET /api/health', () => {
   });
 });
 
-describe('the SQLite connection', () => {
+describe.runIf(tmp.dialect === 'sqlite')('the SQLite connection', () => {
   it('runs in WAL mode with a busy timeout', async () => {
     const [mode] = (await db.query('PRAGMA journal_mode', { type: 'SELECT' })) as Array<{ journal_mode: string }>;
     expect(mode.journal_mode).toBe('wal');

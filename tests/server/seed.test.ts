@@ -12,7 +12,7 @@ import { demoAccountsPresent, seedIfEmpty } from '../../server/db/seed';
 import { modelConfigSchema } from '../../server/schemas/core';
 import { tempDatabase } from '../support/temp-db';
 
-const tmp = tempDatabase();
+const tmp = await tempDatabase();
 const columns = (s: BenchSession) => {
   const u = unpackSamples(s.samples, 'turn');
   return [u.codes, u.cos, u.sin] as const;
@@ -24,7 +24,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await db.close();
-  tmp.cleanup();
+  await tmp.cleanup();
 });
 
 describe('the demo seed', () => {

@@ -8,7 +8,7 @@ import { tempDatabase } from '../support/temp-db';
 
 // Migration 0007 rebuilds `sessions` with its BLOBs last, so reading the other columns never
 // walks a session's samples. It runs over a database that already holds the demo.
-const tmp = tempDatabase();
+const tmp = await tempDatabase({ dialect: 'sqlite' });
 let db: Sequelize;
 beforeAll(async () => {
   db = openDatabase(tmp.url);
@@ -18,7 +18,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await db.close();
-  tmp.cleanup();
+  await tmp.cleanup();
 });
 
 describe('migration 0007 (session BLOBs last)', () => {

@@ -18,8 +18,8 @@ export type Agent = ReturnType<typeof request.agent>;
  * The app over a fresh migrated database, with the local mail catcher as its mailer, bitstreams
  * in the temporary folder, a cheap bcrypt cost and one user per role (password TEST_PASSWORD).
  */
-export async function testApp(options: { uploadLimitBytes?: number; loginLimit?: LoginLimit; env?: Record<string, string> } = {}) {
-  const tmp = tempDatabase();
+export async function testApp(options: { uploadLimitBytes?: number; loginLimit?: LoginLimit; env?: Record<string, string>; dialect?: 'sqlite' | 'postgres' } = {}) {
+  const tmp = await tempDatabase({ dialect: options.dialect });
   const config = loadConfig(
     { NODE_ENV: 'test', DATABASE_URL: tmp.url, SESSION_SECRET: 'x'.repeat(32), UPLOAD_LIMIT_BYTES: String(options.uploadLimitBytes ?? 64 * 1024 * 1024), ...options.env },
     path.join(tmp.dir, 'session-secret'),
@@ -67,7 +67,7 @@ export async function testApp(options: { uploadLimitBytes?: number; loginLimit?:
       mailer.close();
       await catcher.close();
       await db.close();
-      tmp.cleanup();
+      await tmp.cleanup();
     },
   };
 }

@@ -1,9 +1,10 @@
-// The production server as a child process on a given database file, the way `npm start` runs
-// it, so a test can kill it with SIGKILL and start it again on the same file.
+// The production server as a child process on a given database, the way `npm start` runs it, so
+// a test can kill it with SIGKILL and start it again on the same database (or run two at once).
 import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
 import { projectRoot } from '../../../server/paths';
 import { freePort } from '../../e2e/harness';
+import type { TempDatabase } from '../../support/temp-db';
 
 export interface ServerProcess {
   url: string;
@@ -15,14 +16,14 @@ export interface ServerProcess {
   stop(): Promise<void>;
 }
 
-/** Bitstreams go beside the database file, so each test's server has its own folder. */
-export const uploadDirOf = (databaseUrl: string) => path.join(path.dirname(databaseUrl.replace(/^sqlite:/, '')), 'uploads');
+/** Bitstreams go in the test database's folder, so each test's servers share their own. */
+export const uploadDirOf = (database: Pick<TempDatabase, 'dir'>) => path.join(database.dir, 'uploads');
 
-export async function startServerProcess(databaseUrl: string): Promise<ServerProcess> {
+export async function startServerProcess(database: Pick<TempDatabase, 'url' | 'dir'>): Promise<ServerProcess> {
   const port = await freePort();
   const child = spawn(process.execPath, [path.join(projectRoot, 'node_modules/tsx/dist/cli.mjs'), 'server/index.ts'], {
     cwd: projectRoot,
-    env: { ...process.env, NODE_ENV: 'production', PORT: String(port), DATABASE_URL: databaseUrl, UPLOAD_DIR: uploadDirOf(databaseUrl), SESSION_SECRET: 'robustness-secret-0123456789' },
+    env: { ...process.env, NODE_ENV: 'production', PORT: String(port), DATABASE_URL: database.url, UPLOAD_DIR: uploadDirOf(database), SESSION_SECRET: 'robustness-secret-0123456789' },
     stdio: ['ignore', 'pipe', 'pipe'],
     detached: true,
   });

@@ -1,0 +1,18 @@
+// The server-side benchmarks measure SQLite and PostgreSQL in the same run. Unless
+// ANGLEBENCH_TEST_PG already names a cluster, a throwaway one is started for the run — with
+// PostgreSQL's durable defaults (fsync on), as SQLite syncs its own writes — and removed after.
+import os from 'node:os';
+import { startCluster } from '../scripts/postgres-cluster';
+
+const NEEDS_POSTGRES = new Set(['ingest', 'list-compare']);
+
+/** Starts a cluster if one of `names` needs it; resolves to what stops it again. */
+export async function postgresFor(names: string[]): Promise<() => Promise<void>> {
+  if (!names.some((n) => NEEDS_POSTGRES.has(n)) || process.env.ANGLEBENCH_TEST_PG) return async () => undefined;
+  const cluster = await startCluster({ durable: true });
+  process.env.ANGLEBENCH_TEST_PG = cluster.adminUrl;
+  for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP'] as const) {
+    process.once(signal, () => void cluster.stop().finally(() => process.exit(128 + os.constants.signals[signal])));
+  }
+  return cluster.stop;
+}
