@@ -85,7 +85,7 @@ export async function storeSession(
   const boardId = await resolveBoardId(draft, transaction);
 
   const decoded = decodeSamples(samples, core.modelConfig.angleFormat ?? 'turn');
-  const { stats, profile } = scoreSamples(core.modelConfig, decoded);
+  const { stats, profile, envelope } = scoreSamples(core.modelConfig, decoded);
   const checkFailures = typeof draft.link?.checkFailures === 'number' ? draft.link.checkFailures : undefined;
   const spectrum = sessionSpectrum(draft.plan, core.modelConfig, decoded);
   const sfdrDb = spectrum ? Math.min(spectrum.cos.sfdrDbc, spectrum.sin.sfdrDbc) : undefined;
@@ -108,6 +108,7 @@ export async function storeSession(
       stats: stored,
       verdict,
       profile,
+      envelope,
       passed,
       regression: failedLimits.length > 0,
       sampleCount: decoded.codes.length,

@@ -10,7 +10,7 @@ import { notFound } from '../http-error';
 
 /** Without the blobs, with whether an archive is kept and the names a list shows. */
 const LISTED = {
-  attributes: { exclude: ['samples', 'archive'], include: [[literal('"BenchSession"."archive" IS NOT NULL'), 'hasArchive']] as [Literal, string][] },
+  attributes: { exclude: ['samples', 'archive', 'envelope'], include: [[literal('"BenchSession"."archive" IS NOT NULL'), 'hasArchive']] as [Literal, string][] },
   include: [
     { model: Core, as: 'core', attributes: ['id', 'name', 'slug'] },
     { model: Build, as: 'build', attributes: ['id', 'label'] },
@@ -57,7 +57,7 @@ export async function sessionDetail(id: number) {
 
 /** A stored session with (default) or without its blobs. @throws HttpError 404 */
 export async function findSession(id: number, { blobs = true } = {}): Promise<BenchSession> {
-  const session = await BenchSession.findByPk(id, blobs ? {} : { attributes: { exclude: ['samples', 'archive'] } });
+  const session = await BenchSession.findByPk(id, blobs ? {} : { attributes: { exclude: ['samples', 'archive', 'envelope'] } });
   if (!session) throw notFound('Session');
   return session;
 }

@@ -3,6 +3,7 @@
 // core's limits. Nothing the client computed is trusted.
 import { SamplePackError, unpackSamples, type UnpackedSamples } from '../../shared/link-engine/sample-pack';
 import { HttpError } from '../http-error';
+import { ENVELOPE_BINS, type EnvelopeBounds } from './error-envelope';
 import { modelConfigSchema, limitsSchema } from '../schemas/core';
 import { planCodes, planSchema, PROFILE_BINS, SpectralError, toneFigures, type ToneFigures } from '../../shared/numeric';
 import { ScoreAccumulator, type ScoreSummary } from '../../shared/numeric/score';
@@ -27,11 +28,12 @@ export function decodeSamples(bytes: Uint8Array, angleFormat: 'turn' | 'rad'): D
  * Score decoded samples with the core's model, with the 64-bin error profile the session list draws.
  * @throws HttpError 400 for codes the model refuses.
  */
-export function scoreSamples(modelConfig: unknown, samples: DecodedSamples): { stats: ScoreSummary; profile: number[] } {
+export function scoreSamples(modelConfig: unknown, samples: DecodedSamples): { stats: ScoreSummary; profile: number[]; envelope: EnvelopeBounds } {
   const config = modelConfigSchema.parse(modelConfig);
   try {
-    const acc = new ScoreAccumulator(config, { profileBins: PROFILE_BINS }).add(samples.codes, samples.cos, samples.sin);
-    return { stats: acc.summary(), profile: acc.profile()! };
+    // The compare view's error envelope is kept too, so comparing never scores the samples again.
+    const acc = new ScoreAccumulator(config, { profileBins: PROFILE_BINS, envelopeBins: ENVELOPE_BINS }).add(samples.codes, samples.cos, samples.sin);
+    return { stats: acc.summary(), profile: acc.profile()!, envelope: acc.envelope()! };
   } catch (err) {
     throw new HttpError(400, 'bad_samples', `samples: ${(err as Error).message}`);
   }
