@@ -7,7 +7,7 @@
 import { Op, type WhereOptions } from 'sequelize';
 import { ScoreAccumulator } from '../shared/numeric';
 import { packSamples } from '../shared/link-engine/sample-pack';
-import { BenchSession, Board, Build, Core } from '../server/db/models';
+import { BenchSession, Board, Build, Core, SessionEnvelope } from '../server/db/models';
 import { modelConfigSchema } from '../server/schemas/core';
 import { BENCH_DIALECTS, bareDriver, type BenchDialect } from './bare-driver';
 import type { BenchResult } from './report';
@@ -182,17 +182,19 @@ async function listCompareOn(dialect: BenchDialect, big: ReturnType<typeof bigEx
     const cosB = big.cos.slice();
     for (let i = 0; i < cosB.length; i += 97) cosB[i] = Math.min(cosB[i] + 1, 32767);
     const ones = new Uint8Array(big.codes.length).fill(1);
-    // Stored as ingest stores them: with the score and the envelope the compare reads.
-    const row = (samples: Uint8Array, passed: boolean) => {
+    // Stored as an upload stores them: with the score, and the envelope the compare reads.
+    const stored = async (samples: Uint8Array, passed: boolean) => {
       const { stats, profile, envelope } = scoreSamples(BIG_CORE_CONFIG, decodeSamples(samples, 'turn'));
-      return {
+      const session = await BenchSession.create({
         coreId: server.bigCore.id, buildId: null, boardId: null, operatorId: server.t.users.engineer.id, startedAt: new Date(), endedAt: null,
-        plan: { kind: 'exhaustive' }, transport: { kind: 'websocket' }, deviceInfo: null, stats: stats as unknown as StoredStats, verdict: {}, profile, envelope, passed,
+        plan: { kind: 'exhaustive' }, transport: { kind: 'websocket' }, deviceInfo: null, stats: stats as unknown as StoredStats, verdict: {}, profile, passed,
         sampleCount: big.codes.length, samples: Buffer.from(samples), archive: null,
-      };
+      });
+      await SessionEnvelope.create({ sessionId: session.id, bounds: envelope });
+      return session;
     };
-    const a = await BenchSession.create(row(big.packed, true));
-    const b = await BenchSession.create(row(packSamples(big.codes, cosB, big.sin, ones), false));
+    const a = await stored(big.packed, true);
+    const b = await stored(packSamples(big.codes, cosB, big.sin, ones), false);
     const compareMs: number[] = [];
     let differing = -1;
     const cpu0 = process.cpuUsage();

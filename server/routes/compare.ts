@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { compareQuery, compareReply, type CompareQuery } from '../../shared/contract/compare';
 import type { StoredStats } from '../../shared/contract/sessions';
 import { requireRole } from '../auth';
-import { BenchSession, Build, Core } from '../db/models';
+import { BenchSession, Build, Core, SessionEnvelope } from '../db/models';
 import { notFound } from '../http-error';
 import { validate } from '../middleware/validate';
 import { codeBinner, envelopeFromBounds, errorEnvelope } from '../services/error-envelope';
@@ -55,9 +55,12 @@ export function compareRouter(_deps: RouteDeps) {
     const builds = new Map((buildIds.length ? await Build.findAll({ where: { id: buildIds } }) : []).map((b) => [b.id, b]));
 
     const modelOf = (s: BenchSession) => (cores.get(s.coreId)?.modelConfig ?? {}) as { angleFormat?: 'turn' | 'rad' };
-    // The envelope scored at ingest; a session stored before envelopes were kept is scored here.
-    const envelopeOf = (s: BenchSession) =>
-      s.envelope ? envelopeFromBounds(modelOf(s), s.envelope) : errorEnvelope(modelOf(s), decodeSamples(s.samples, modelOf(s).angleFormat ?? 'turn'));
+    // The envelope kept at intake; a session stored without one (the demo, older rows) is scored here.
+    const kept = new Map((await SessionEnvelope.findAll({ where: { sessionId: ids } })).map((e) => [e.sessionId, e.bounds]));
+    const envelopeOf = (s: BenchSession) => {
+      const bounds = kept.get(s.id);
+      return bounds ? envelopeFromBounds(modelOf(s), bounds) : errorEnvelope(modelOf(s), decodeSamples(s.samples, modelOf(s).angleFormat ?? 'turn'));
+    };
     // The diff's bins and angles are those of the first session's core.
     const binner = codeBinner(modelOf(sessions[0]));
 

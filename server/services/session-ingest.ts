@@ -6,6 +6,7 @@ import { BenchSession, Board, Build, Core } from '../db/models';
 import { HttpError } from '../http-error';
 import { recordAudit } from './audit';
 import { decodeSamples, judgeSession, regressedLimits, scoreSamples, sessionSpectrum, type LimitKey, type SessionSpectrum, type Verdict } from './session-scoring';
+import type { EnvelopeBounds } from './error-envelope';
 import type { ScoreSummary } from '../../shared/numeric/score';
 
 type Json = Record<string, unknown>;
@@ -37,6 +38,8 @@ export interface StoredSession {
   verdict: Verdict;
   passed: boolean;
   failedLimits: LimitKey[];
+  /** The compare view's error envelope, for the caller to keep (session-intake.ts). */
+  envelope: EnvelopeBounds;
 }
 
 /** The core a draft names. @throws HttpError 400 naming the field. */
@@ -108,7 +111,6 @@ export async function storeSession(
       stats: stored,
       verdict,
       profile,
-      envelope,
       passed,
       regression: failedLimits.length > 0,
       sampleCount: decoded.codes.length,
@@ -120,5 +122,5 @@ export async function storeSession(
     { transaction },
   );
   await recordAudit(transaction, operatorId, audit.action, 'session', row.id, { coreId: core.id, sampleCount: row.sampleCount, passed, regression: row.regression });
-  return { row, core, stats: stored, verdict, passed, failedLimits };
+  return { row, core, stats: stored, verdict, passed, failedLimits, envelope };
 }

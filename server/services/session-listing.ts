@@ -10,7 +10,7 @@ import { notFound } from '../http-error';
 
 /** Without the blobs, with whether an archive is kept and the names a list shows. */
 const LISTED = {
-  attributes: { exclude: ['samples', 'archive', 'envelope'], include: [[literal('"BenchSession"."archive" IS NOT NULL'), 'hasArchive']] as [Literal, string][] },
+  attributes: { exclude: ['samples', 'archive'], include: [[literal('"BenchSession"."archive" IS NOT NULL'), 'hasArchive']] as [Literal, string][] },
   include: [
     { model: Core, as: 'core', attributes: ['id', 'name', 'slug'] },
     { model: Build, as: 'build', attributes: ['id', 'label'] },
@@ -38,13 +38,18 @@ function listWhere(q: SessionListQuery): WhereOptions {
 /** One page of sessions matching the filters, newest first unless `sort` says otherwise. */
 export async function listSessions(q: SessionListQuery) {
   const column = q.sort.replace('-', '');
-  const { rows, count } = await BenchSession.findAndCountAll({
-    ...LISTED,
-    where: listWhere(q),
-    order: [[column, q.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']],
-    limit: q.pageSize,
-    offset: (q.page - 1) * q.pageSize,
-  });
+  const where = listWhere(q);
+  // The total counts the sessions table alone: the joined names never change how many rows match.
+  const [rows, count] = await Promise.all([
+    BenchSession.findAll({
+      ...LISTED,
+      where,
+      order: [[column, q.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']],
+      limit: q.pageSize,
+      offset: (q.page - 1) * q.pageSize,
+    }),
+    BenchSession.count({ where }),
+  ]);
   return { items: rows.map(listed), total: count, page: q.page, pageSize: q.pageSize };
 }
 
@@ -57,7 +62,7 @@ export async function sessionDetail(id: number) {
 
 /** A stored session with (default) or without its blobs. @throws HttpError 404 */
 export async function findSession(id: number, { blobs = true } = {}): Promise<BenchSession> {
-  const session = await BenchSession.findByPk(id, blobs ? {} : { attributes: { exclude: ['samples', 'archive', 'envelope'] } });
+  const session = await BenchSession.findByPk(id, blobs ? {} : { attributes: { exclude: ['samples', 'archive'] } });
   if (!session) throw notFound('Session');
   return session;
 }

@@ -28,8 +28,6 @@ export class BenchSession extends Model<InferAttributes<BenchSession>, InferCrea
   declare verdict: Verdict;
   /** Largest |error| in LSB per 1/64 of the code range (-1: no answer there); null for old rows. */
   declare profile: CreationOptional<number[] | null>;
-  /** The compare view's error envelope, kept at ingest (server/services/error-envelope.ts); null for old rows. */
-  declare envelope: CreationOptional<{ lo: (number | null)[]; hi: (number | null)[] } | null>;
   declare passed: boolean;
   declare regression: CreationOptional<boolean>;
   declare sampleCount: number;
@@ -57,7 +55,6 @@ export function initBenchSession(sequelize: Sequelize) {
       stats: { type: DataTypes.JSON, allowNull: false },
       verdict: { type: DataTypes.JSON, allowNull: false },
       profile: { type: DataTypes.JSON, allowNull: true },
-      envelope: { type: DataTypes.JSON, allowNull: true },
       passed: { type: DataTypes.BOOLEAN, allowNull: false },
       regression: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       sampleCount: { type: DataTypes.INTEGER, allowNull: false, validate: { min: 0 } },
