@@ -14,6 +14,8 @@ export type LimitKey = keyof Limits;
 
 export type DecodedSamples = UnpackedSamples;
 
+const SCORE_BATCH = 65_536;
+
 /** Unpack uploaded samples. @throws HttpError 400 when the length is not a whole number of samples. */
 export function decodeSamples(bytes: Uint8Array, angleFormat: 'turn' | 'rad'): DecodedSamples {
   try {
@@ -32,7 +34,14 @@ export function scoreSamples(modelConfig: unknown, samples: DecodedSamples): { s
   const config = modelConfigSchema.parse(modelConfig);
   try {
     // The compare view's error envelope is kept too, so comparing never scores the samples again.
-    const acc = new ScoreAccumulator(config, { profileBins: PROFILE_BINS, envelopeBins: ENVELOPE_BINS }).add(samples.codes, samples.cos, samples.sin);
+    const acc = new ScoreAccumulator(config, { profileBins: PROFILE_BINS, envelopeBins: ENVELOPE_BINS });
+    // In batches: the scorer's per-answer scratch stays a few MiB (cache-sized, no GC churn) where
+    // one batch of a million answers allocated ~60 MiB per upload. Its sums run in answer order
+    // across batches, so the statistics are the same to the last bit.
+    const { codes, cos, sin } = samples;
+    for (let start = 0; start < codes.length; start += SCORE_BATCH) {
+      acc.add(codes.subarray(start, start + SCORE_BATCH), cos.subarray(start, start + SCORE_BATCH), sin.subarray(start, start + SCORE_BATCH), start);
+    }
     return { stats: acc.summary(), profile: acc.profile()!, envelope: acc.envelope()! };
   } catch (err) {
     throw new HttpError(400, 'bad_samples', `samples: ${(err as Error).message}`);

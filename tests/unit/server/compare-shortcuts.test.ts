@@ -8,6 +8,8 @@ import { codeBinner, envelopeFromBounds, errorEnvelope } from '../../../server/s
 import { diffPacked, diffSessions } from '../../../server/services/session-diff';
 import { decodeSamples, scoreSamples } from '../../../server/services/session-scoring';
 import { modelConfigSchema } from '../../../server/schemas/core';
+import { PROFILE_BINS } from '../../../shared/numeric';
+import { ScoreAccumulator } from '../../../shared/numeric/score';
 
 function lcg(seed: number) {
   let s = seed >>> 0;
@@ -74,4 +76,18 @@ describe('diffPacked', () => {
       expect(diffPacked(a, shifted, 'turn', 7, binner)).toEqual(diffSessions(decodeSamples(a, 'turn'), decodeSamples(b, 'turn'), 7, binner));
     });
   }
+});
+
+describe('scoring at intake in batches', () => {
+  it('gives the statistics of one batch to the last bit (three batches and a part)', () => {
+    const config = modelConfigSchema.parse({ angleBits: 18 });
+    const rnd = lcg(9);
+    const codes = Array.from({ length: 3 * 65_536 + 1234 }, () => rnd(2 ** 18));
+    const decoded = decodeSamples(pack(codes, answers(config, codes, 4)), config.angleFormat);
+    const whole = new ScoreAccumulator(config, { profileBins: PROFILE_BINS }).add(decoded.codes, decoded.cos, decoded.sin);
+    const scored = scoreSamples(config, decoded);
+    expect(scored.stats.mismatches.count).toBeGreaterThan(0);
+    expect(scored.stats).toEqual(whole.summary());
+    expect(scored.profile).toEqual(whole.profile());
+  });
 });
