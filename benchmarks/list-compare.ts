@@ -1,4 +1,4 @@
-// list-compare: the sessions table and the compare view against a database holding 10,000
+// list-compare: the sessions table and the compare view against a database holding 100,000
 // sessions (seeded straight through the models in one transaction, small samples blobs), called
 // as the page calls them (signed-in cookie) — on SQLite and on PostgreSQL in the same run. Beside
 // the list: the same SELECT … LIMIT 25 that Sequelize generates, run by that database's bare
@@ -16,7 +16,7 @@ import type { StoredStats } from '../shared/contract/sessions';
 import { BIG_CORE_CONFIG, bigExhaustiveSamples, startBenchServer, type BenchServer } from './server-fixture';
 import { median, quantile, timeMs } from './timing';
 
-const SESSIONS = 10_000;
+const SESSIONS = 100_000;
 const LIST_CALLS = 200;
 const COMPARE_RUNS = 5;
 const DAY_MS = 86_400_000;
