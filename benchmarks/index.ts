@@ -16,7 +16,7 @@ const BENCHES: Record<string, Bench> = {
   ingest: async () => (await import('./ingest')).ingestBench(),
   'list-compare': async () => (await import('./list-compare')).listCompareBench(),
   page: async () => (await import('./page')).pageBench(),
-  'explain-browser': async () => (await import('./explain-browser')).explainBrowserBench(),
+  station: async () => (await import('./station')).stationBench(),
 };
 
 async function main(): Promise<number> {

@@ -24,6 +24,7 @@ const HELP = `${USAGE}
   --idle-timeout-s S   let a client go after S seconds without a byte either way (default 600)
 
 Runs until interrupted; exits 2 when the port cannot be opened or goes away.
+With --server URL the bridge dials the team server as a station instead (bridge --server URL --help).
 `;
 
 /** Close codes (RFC 6455 registry): 1008 policy violation, 1013 try again later, 1011 server error. */

@@ -3,6 +3,7 @@
 import { runModelCommand } from './model';
 import { runRunCommand } from './run';
 import { runBridgeCommand } from './bridge';
+import { runStationCommand } from './station';
 import { runExplainCommand } from './explain';
 import type { CliIo } from './io';
 import { nodeIo } from './io';
@@ -13,7 +14,11 @@ type Command = (argv: string[], io: CliIo) => Promise<number>;
 const COMMANDS: Record<string, { run: Command; summary: string }> = {
   model: { run: runModelCommand, summary: 'evaluate the reference model for given angle codes and print JSON' },
   run: { run: (argv, io) => runRunCommand(argv, io), summary: 'run a bench plan against a board, print the verdict (exit 0 pass, 1 fail, 2 error)' },
-  bridge: { run: (argv, io) => runBridgeCommand(argv, io), summary: 'offer one serial port to a browser elsewhere over WebSocket, guarded by a token' },
+  bridge: {
+    // With --server the bridge dials the team server as a station; without, it listens itself.
+    run: (argv, io) => (argv.some((a) => a === '--server' || a.startsWith('--server=')) ? runStationCommand(argv, io) : runBridgeCommand(argv, io)),
+    summary: 'offer one serial port over WebSocket: listening, guarded by a token, or with --server as a station of the team server',
+  },
   explain: { run: (argv, io) => runExplainCommand(argv, io), summary: 'find the configuration deviation or defect that reproduces a core\'s answers (exit 0 found, 1 not, 2 error)' },
 };
 

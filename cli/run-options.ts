@@ -13,7 +13,8 @@ export const RUN_USAGE = 'usage: anglebench run --device <serial path | ws://hos
 export const RUN_HELP = `${RUN_USAGE}
        (from a checkout: npm run --silent cli -- run …)
 
-  --device D       a serial port (/dev/ttyUSB0, COM3) or a WebSocket device (ws://127.0.0.1:5175/)
+  --device D       a serial port (/dev/ttyUSB0, COM3), a WebSocket device (ws://127.0.0.1:5175/)
+                   or a station on the server (station:NAME; needs --server and --token)
   --baud N         line rate, 9600..12000000 (default: the core's link profile, else 3000000)
   --crc NAME       frame check, e.g. CRC-8/AUTOSAR (default: the core's link profile, else CRC-8/SMBUS)
   --plan P         exhaustive | sweep:START,STEP,COUNT | random:COUNT,SEED | edges | tone:M,N | file:PATH
@@ -175,6 +176,7 @@ export function parseRunArgs(argv: string[]): RunOptions {
   const serverUrl = str('server');
   const token = str('token');
   if ((serverUrl === undefined) !== (token === undefined)) throw new UsageError('--server and --token go together');
+  if (str('device')!.startsWith('station:') && serverUrl === undefined) throw new UsageError(`--device ${str('device')} needs --server and --token: a station is reached through the team server`);
   if (serverUrl !== undefined && !urlSchema.safeParse(serverUrl).success) throw new UsageError(`--server must be an http(s) URL, got "${serverUrl}"`);
   let config: ModelConfigInput | null = null;
   if (str('config') !== undefined) {

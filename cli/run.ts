@@ -73,7 +73,7 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
 
   let link: ByteLink;
   try {
-    link = await openDevice(o.device, baud, deps);
+    link = await openDevice(o.device, baud, { ...deps, server: o.server });
   } catch (e) {
     throw new RunError((e as Error).message);
   }

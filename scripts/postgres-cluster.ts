@@ -56,7 +56,8 @@ function installWithApt(): void {
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
   try {
     execFileSync('apt-get', ['update', '-qq'], { stdio: ['ignore', 'ignore', 'inherit'], env });
-    execFileSync('apt-get', ['install', '-y', '-qq', 'postgresql'], { stdio: ['ignore', 'ignore', 'inherit'], env });
+    // confold: keep the createcluster.conf written above instead of asking about it.
+    execFileSync('apt-get', ['install', '-y', '-qq', '-o', 'Dpkg::Options::=--force-confdef', '-o', 'Dpkg::Options::=--force-confold', 'postgresql'], { stdio: ['ignore', 'ignore', 'inherit'], env });
   } catch (err) {
     throw new PostgresUnavailable(`apt-get install postgresql failed: ${(err as Error).message.split('\n')[0]}`);
   }
@@ -96,10 +97,12 @@ export async function startCluster(options: { log?: (line: string) => void; dura
   const root = fs.mkdtempSync(path.join(os.tmpdir(), 'anglebench-pg-'));
   const dataDir = path.join(root, 'data');
   let server: ChildProcess | undefined;
+  let watchdog: ChildProcess | undefined;
   let stopped = false;
   const stop = async () => {
     if (stopped) return;
     stopped = true;
+    watchdog?.kill('SIGKILL');
     if (server && server.exitCode === null && server.signalCode === null) {
       const exited = new Promise<void>((r) => server!.once('exit', () => r()));
       server.kill('SIGINT'); // fast shutdown: disconnects clients, no checkpoint wait for us
@@ -132,6 +135,7 @@ export async function startCluster(options: { log?: (line: string) => void; dura
       ['-D', dataDir, '-p', String(port), '-k', root, '-c', 'listen_addresses=127.0.0.1', '-c', 'max_connections=200', ...fast],
       { ...asOwner, cwd: root, stdio: ['ignore', 'pipe', 'pipe'] },
     );
+    watchdog = startWatchdog(server.pid!, root);
     server.stdout!.on('data', (d) => (log += d));
     server.stderr!.on('data', (d) => {
       log += d;
@@ -157,4 +161,22 @@ export async function startCluster(options: { log?: (line: string) => void; dura
     await stop();
     throw err;
   }
+}
+
+/**
+ * A shell outside this process that stops the cluster and removes its folder if this process
+ * dies without doing so itself (SIGKILL, or a runner such as tsx killing it on a signal): checked
+ * once a second. `stop` kills the watchdog first when it does the work itself.
+ */
+function startWatchdog(postgresPid: number, root: string): ChildProcess {
+  const script = [
+    'while kill -0 "$1" 2>/dev/null; do sleep 1; done',
+    'kill -INT "$2" 2>/dev/null',
+    'i=0; while kill -0 "$2" 2>/dev/null && [ $i -lt 20 ]; do sleep 0.5; i=$((i+1)); done',
+    'kill -KILL "$2" 2>/dev/null',
+    'rm -rf "$3"',
+  ].join('; ');
+  const child = spawn('sh', ['-c', script, 'anglebench-pg-watchdog', String(process.pid), String(postgresPid), root], { detached: true, stdio: 'ignore' });
+  child.unref();
+  return child;
 }

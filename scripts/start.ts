@@ -11,7 +11,7 @@ try {
   const config = loadConfig();
   await buildClientIfStale();
   const server = await startServer(config);
-  console.log(`\nAnglebench is running at ${server.url}\n`);
+  console.log(`\nAnglebench is running at ${server.url}${config.publicUrl ? ` (people use ${config.publicUrl})` : ''}\n`);
   if (server.demoAccounts.length) {
     const password = process.env.DEMO_PASSWORD ? 'the DEMO_PASSWORD you set' : config.demoPassword;
     console.log(`Demo sign-ins (password: ${password}):\n${server.demoAccounts.map((a) => `  ${a}`).join('\n')}\n`);

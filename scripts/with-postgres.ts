@@ -13,20 +13,34 @@ import { PostgresUnavailable, startCluster, type Cluster } from './postgres-clus
 const dash = process.argv.indexOf('--');
 const command = dash === -1 ? process.argv.slice(2) : process.argv.slice(dash + 1);
 
-let cluster: Cluster;
+let child: ChildProcess | undefined;
+let finishing: Promise<void> | undefined;
+let cluster: Cluster | undefined;
+
+// A signal while the cluster starts is kept and acted on once it has (and can be stopped).
+let interrupted: number | undefined;
+const onSignal = (signal: NodeJS.Signals) => {
+  const code = 128 + os.constants.signals[signal];
+  if (cluster) void finish(code);
+  else interrupted ??= code;
+};
+for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP'] as const) process.on(signal, onSignal);
+
 try {
   cluster = await startCluster();
 } catch (err) {
-  console.error(err instanceof PostgresUnavailable ? `PostgreSQL: ${err.message}` : `PostgreSQL could not start: ${(err as Error).message}`);
-  process.exit(1);
+  console.error(err instanceof PostgresUnavailable ? `with-postgres: ${err.message}` : `with-postgres: PostgreSQL could not start: ${(err as Error).message}`);
+  process.exit(interrupted ?? 1);
 }
+if (interrupted !== undefined) await finish(interrupted);
 
-let child: ChildProcess | undefined;
-let finishing = false;
-/** Stop the command (if any) first, so it does not fail on a vanished database, then the cluster. */
+/**
+ * Stop the command (if any) first, so it does not fail on a vanished database, then the cluster;
+ * exit with the first code given. Called again (the command exiting because we stopped it), it
+ * waits for the first call's work.
+ */
 async function finish(code: number): Promise<never> {
-  if (!finishing) {
-    finishing = true;
+  finishing ??= (async () => {
     if (child && child.exitCode === null && child.signalCode === null) {
       const exited = new Promise((r) => child!.once('exit', r));
       child.kill('SIGTERM');
@@ -34,11 +48,12 @@ async function finish(code: number): Promise<never> {
       await exited;
       clearTimeout(timer);
     }
-    await cluster.stop();
-  }
-  process.exit(code);
+    await cluster?.stop();
+    process.exit(code);
+  })();
+  await finishing;
+  return process.exit(code);
 }
-for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP'] as const) process.on(signal, () => void finish(128 + os.constants.signals[signal]));
 process.on('uncaughtException', (err) => {
   console.error(err);
   void finish(1);

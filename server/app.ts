@@ -29,6 +29,7 @@ import { usersRouter } from './routes/users';
 import { securityHeaders } from './security-headers';
 import { createSocketDispatcher } from './sockets/upgrade';
 import { registerSimBoards } from './sockets/sim-boards';
+import { installStations, type StationOptions } from './stations';
 
 export interface AppDeps {
   config: Config;
@@ -43,6 +44,8 @@ export interface AppDeps {
   bcryptCost?: number;
   /** Failed sign-ins allowed per address (default 10 in 15 minutes). */
   loginLimit?: LoginLimit;
+  /** The station relay's clock and idle timeout (tests shorten it). */
+  stations?: StationOptions;
 }
 
 const version = (JSON.parse(fs.readFileSync(path.join(projectRoot, 'package.json'), 'utf8')) as { version: string }).version;
@@ -59,6 +62,7 @@ export function createApp({
   uploadDir = path.join(dataDir, 'uploads'),
   bcryptCost = DEFAULT_BCRYPT_COST,
   loginLimit = { windowMs: 15 * 60 * 1000, max: 10 },
+  stations,
 }: AppDeps) {
   initModels(db);
   const deps: RouteDeps = { config, db, mailer, uploadDir, bcryptCost };
@@ -74,6 +78,7 @@ export function createApp({
   const { passport, authenticateUpgrade } = installAuth(app, config);
   const sockets = createSocketDispatcher({ authenticate: authenticateUpgrade, allowedOrigins: config.publicUrl ? [new URL(config.publicUrl).origin] : [] });
   registerSimBoards(sockets, config);
+  installStations(app, sockets, stations);
   app.use('/api/auth', authRouter(passport, loginLimit, new SignInAttemptStore(db)));
   app.use('/api/tokens', tokensRouter(deps));
   app.use('/api/users', usersRouter(deps));

@@ -1,12 +1,11 @@
 import { Router } from 'express';
 import { rateLimit, type Store } from 'express-rate-limit';
 import type { createPassport } from '../auth/passport';
-import { z } from 'zod';
 import { csrfTokenOf, requireRole } from '../auth';
 import type { User } from '../db/models';
 import { HttpError } from '../http-error';
 import { validate } from '../middleware/validate';
-import { csrfReply, loginReply, meReply } from '../../shared/contract/people';
+import { csrfReply, loginBody, loginReply, meReply } from '../../shared/contract/people';
 import { reply } from './reply';
 
 export interface LoginLimit {
@@ -14,8 +13,6 @@ export interface LoginLimit {
   /** Failed sign-ins allowed per address and window; successful ones do not count. */
   max: number;
 }
-
-const loginBody = z.strictObject({ email: z.email().max(254), password: z.string().min(1).max(200) });
 
 /** /api/auth: the CSRF token, sign-in, sign-out, who am I and who is signed in. */
 export function authRouter(passport: ReturnType<typeof createPassport>, limit: LoginLimit, store: Store) {

@@ -1,5 +1,4 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { currentUser, requireRole } from '../auth';
 import { Board } from '../db/models';
 import { notFound } from '../http-error';
@@ -7,18 +6,9 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { idParams, paramsOf } from './params';
-import { boardListReply, boardReply } from '../../shared/contract/boards';
+import { boardBody, boardListReply, boardPatchBody, boardReply } from '../../shared/contract/boards';
 import { reply } from './reply';
 
-const text = (max: number) => z.string().trim().max(max);
-const boardBody = z.strictObject({
-  name: text(120).min(1),
-  serial: text(80),
-  fpgaPart: text(80),
-  adapter: text(120),
-  location: text(120),
-});
-const patchBody = boardBody.partial();
 
 /** /api/boards: read by everyone signed in, written by engineers, deleted by admins. */
 export function boardsRouter({ db }: RouteDeps) {
@@ -46,7 +36,7 @@ export function boardsRouter({ db }: RouteDeps) {
       if (!board) throw notFound('Board');
       reply(res, boardReply, { board });
     })
-    .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
+    .patch(requireRole('engineer'), validate({ params: idParams, body: boardPatchBody }), async (req, res) => {
       const me = currentUser(req);
       const board = await db.transaction(async (transaction) => {
         const row = await Board.findByPk(paramsOf<{ id: number }>(req).id, { transaction });

@@ -10,24 +10,25 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import { buildStandings } from '../services/build-status';
 import { bitstreamPath, sanitizeFileName, singleBitstream, type HashedFile } from '../uploads/bitstream-storage';
-import { buildDetailReply, buildFileReply, buildListReply, buildReply, reviewListReply, reviewReply, reviewRequestReply, type BuildRecord } from '../../shared/contract/builds';
+import {
+  buildCreateBody,
+  buildDetailReply,
+  buildFileReply,
+  buildListQuery,
+  buildListReply,
+  buildPatchBody,
+  buildReply,
+  reviewBody,
+  reviewListReply,
+  reviewReply,
+  reviewRequestReply,
+  type BuildRecord,
+} from '../../shared/contract/builds';
 import type { Sendable } from '../../shared/contract/check';
 import { mailSafely, type RouteDeps } from './deps';
-import { id, idParams, originOf, paramsOf, queryOf } from './params';
+import { idParams, originOf, paramsOf, queryOf } from './params';
 import { reply } from './reply';
 
-const text = (max: number) => z.string().trim().max(max);
-const createBody = z.strictObject({
-  coreId: id,
-  label: text(120).min(1),
-  sourceRevision: text(80),
-  toolVersion: text(80),
-  clockMHz: z.number().positive().max(10_000),
-  notes: text(10_000).default(''),
-});
-const patchBody = createBody.omit({ coreId: true }).partial();
-const listQuery = z.strictObject({ coreId: id.optional() });
-const reviewBody = z.strictObject({ decision: z.enum(['approve', 'reject']), note: text(10_000).default('') });
 
 /** What the list and detail include besides the build's own columns (see `coreBrief` and `people`). */
 type Included = Sendable<Pick<BuildRecord, 'core' | 'createdBy'>>;
@@ -57,14 +58,14 @@ export function buildsRouter({ db, mailer, config, uploadDir }: RouteDeps) {
 
   router
     .route('/')
-    .get(requireRole('reviewer'), validate({ query: listQuery }), async (req, res) => {
-      const { coreId } = queryOf<z.infer<typeof listQuery>>(req);
+    .get(requireRole('reviewer'), validate({ query: buildListQuery }), async (req, res) => {
+      const { coreId } = queryOf<z.infer<typeof buildListQuery>>(req);
       const builds = await Build.findAll({ where: coreId ? { coreId } : {}, include: [coreBrief, people], order: [['id', 'DESC']] });
       reply(res, buildListReply, { builds: await withStanding(builds) });
     })
-    .post(requireRole('engineer'), validate({ body: createBody }), async (req, res) => {
+    .post(requireRole('engineer'), validate({ body: buildCreateBody }), async (req, res) => {
       const me = currentUser(req);
-      const body = req.body as z.infer<typeof createBody>;
+      const body = req.body as z.infer<typeof buildCreateBody>;
       const build = await db.transaction(async (transaction) => {
         if (!(await Core.findByPk(body.coreId, { transaction }))) throw new HttpError(400, 'invalid', 'body.coreId: no such core');
         // No file yet: said outright, so the reply carries the columns a read would.
@@ -84,7 +85,7 @@ export function buildsRouter({ db, mailer, config, uploadDir }: RouteDeps) {
       const [shown] = await withStanding([build]);
       reply(res, buildDetailReply, { build: { ...shown, duplicates: await duplicatesOf(build) }, reviews: reviews as WithReviewer[], standing: reviews[0]?.decision ?? 'unreviewed' });
     })
-    .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
+    .patch(requireRole('engineer'), validate({ params: idParams, body: buildPatchBody }), async (req, res) => {
       const me = currentUser(req);
       const build = await findBuild(req);
       await db.transaction(async (transaction) => {

@@ -7,11 +7,10 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { id, idParams, paramsOf } from './params';
-import { commentListReply, commentReply } from '../../shared/contract/misc';
+import { commentBody, commentListReply, commentReply } from '../../shared/contract/misc';
 import { reply } from './reply';
 
 const sessionParams = z.strictObject({ sessionId: id });
-const commentBody = z.strictObject({ body: z.string().trim().min(1).max(10_000) });
 const withAuthor = [{ model: User, as: 'author', attributes: ['id', 'name'] }];
 
 /** /api/sessions/:sessionId/comments: everyone signed in reads and writes remarks on a session. */

@@ -1,34 +1,14 @@
 import { Router, type Request } from 'express';
-import { z } from 'zod';
 import { currentUser, requireRole } from '../auth';
 import { Core, CoreWatcher, User } from '../db/models';
 import { notFound } from '../http-error';
 import { validate } from '../middleware/validate';
-import { limitsSchema, linkProfileSchema, modelConfigSchema } from '../schemas/core';
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { idParams, paramsOf } from './params';
-import { coreDetailReply, coreListReply, coreReply } from '../../shared/contract/cores';
+import { coreCreateBody, coreDetailReply, coreListReply, corePatchBody, coreReply } from '../../shared/contract/cores';
 import { reply } from './reply';
 
-const slug = z.string().regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'use lower-case letters, digits and single hyphens').max(64);
-const createBody = z.strictObject({
-  name: z.string().trim().min(1).max(120),
-  slug,
-  linkProfile: linkProfileSchema.default(linkProfileSchema.parse({})),
-  modelConfig: modelConfigSchema.default(modelConfigSchema.parse({})),
-  limits: limitsSchema.default({}),
-});
-const patchBody = z
-  .strictObject({
-    name: z.string().trim().min(1).max(120),
-    slug,
-    linkProfile: linkProfileSchema,
-    modelConfig: modelConfigSchema,
-    limits: limitsSchema,
-    baselineSessionId: z.number().int().positive().nullable(),
-  })
-  .partial();
 
 /** /api/cores: the cores under test, their model configuration, limits and watchers. */
 export function coresRouter({ db }: RouteDeps) {
@@ -44,7 +24,7 @@ export function coresRouter({ db }: RouteDeps) {
     .get(requireRole('reviewer'), async (_req, res) => {
       reply(res, coreListReply, { cores: await Core.findAll({ order: [['name', 'ASC']] }) });
     })
-    .post(requireRole('engineer'), validate({ body: createBody }), async (req, res) => {
+    .post(requireRole('engineer'), validate({ body: coreCreateBody }), async (req, res) => {
       const me = currentUser(req);
       const core = await db.transaction(async (transaction) => {
         const row = await Core.create({ ...req.body, baselineSessionId: null }, { transaction });
@@ -65,7 +45,7 @@ export function coresRouter({ db }: RouteDeps) {
       const watchers = users.map((u) => ({ id: u.id, name: u.name }));
       reply(res, coreDetailReply, { core, watchers, watching: watchers.some((w) => w.id === me.id) });
     })
-    .patch(requireRole('engineer'), validate({ params: idParams, body: patchBody }), async (req, res) => {
+    .patch(requireRole('engineer'), validate({ params: idParams, body: corePatchBody }), async (req, res) => {
       const me = currentUser(req);
       const core = await findCore(req);
       await db.transaction(async (transaction) => {

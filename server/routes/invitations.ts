@@ -4,24 +4,18 @@ import { z } from 'zod';
 import { currentUser, requireRole } from '../auth';
 import { hashPassword } from '../auth/passwords';
 import { newSecretToken, sha256Hex } from '../auth/tokens';
-import { Invitation, ROLES, User } from '../db/models';
+import { Invitation, User } from '../db/models';
 import { HttpError } from '../http-error';
 import { sendInvitationMail } from '../mail/messages';
 import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import { mailSafely, type RouteDeps } from './deps';
 import { originOf } from './params';
-import { invitationListReply, invitationReply, userReply } from '../../shared/contract/people';
+import { invitationAcceptBody, invitationCreateBody, invitationListReply, invitationReply, userReply } from '../../shared/contract/people';
 import { reply } from './reply';
 
 const INVITATION_TTL_MS = 7 * 24 * 60 * 60 * 1000;
 
-const createBody = z.strictObject({ email: z.email().max(254), name: z.string().trim().max(120).optional(), role: z.enum(ROLES) });
-const acceptBody = z.strictObject({
-  token: z.string().min(10).max(200),
-  name: z.string().trim().min(1).max(120),
-  password: z.string().min(8, 'must be at least 8 characters').max(200),
-});
 
 /** /api/invitations: admins invite by e-mail; the invited person accepts with the mailed token. */
 export function invitationsRouter({ db, mailer, bcryptCost }: RouteDeps) {
@@ -33,7 +27,7 @@ export function invitationsRouter({ db, mailer, bcryptCost }: RouteDeps) {
       const invitations = await Invitation.findAll({ order: [['id', 'DESC']] });
       reply(res, invitationListReply, { invitations: invitations.map((i) => i.toPublic()) });
     })
-    .post(requireRole('admin'), validate({ body: createBody }), async (req, res) => {
+    .post(requireRole('admin'), validate({ body: invitationCreateBody }), async (req, res) => {
       const me = currentUser(req);
       const email = (req.body.email as string).toLowerCase();
       const name = (req.body.name as string | undefined) || null;
@@ -52,8 +46,8 @@ export function invitationsRouter({ db, mailer, bcryptCost }: RouteDeps) {
       reply(res, invitationReply, { invitation: invitation.toPublic(), mailed }, 201);
     });
 
-  router.route('/accept').post(validate({ body: acceptBody }), async (req, res) => {
-    const { token, name, password } = req.body as z.infer<typeof acceptBody>;
+  router.route('/accept').post(validate({ body: invitationAcceptBody }), async (req, res) => {
+    const { token, name, password } = req.body as z.infer<typeof invitationAcceptBody>;
     const passwordHash = await hashPassword(password, bcryptCost);
     const user = await db.transaction(async (transaction) => {
       const invitation = await Invitation.findOne({

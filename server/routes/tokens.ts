@@ -1,5 +1,4 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { currentUser, requireRole } from '../auth';
 import { newSecretToken, sha256Hex } from '../auth/tokens';
 import { ApiToken } from '../db/models';
@@ -8,10 +7,9 @@ import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { idParams, paramsOf } from './params';
-import { tokenCreatedReply, tokenListReply } from '../../shared/contract/people';
+import { tokenCreateBody, tokenCreatedReply, tokenListReply } from '../../shared/contract/people';
 import { reply } from './reply';
 
-const createBody = z.strictObject({ name: z.string().trim().min(1).max(80) });
 
 /** /api/tokens: the caller's own API tokens. The secret is returned once, at creation. */
 export function tokensRouter({ db }: RouteDeps) {
@@ -23,7 +21,7 @@ export function tokensRouter({ db }: RouteDeps) {
       const tokens = await ApiToken.findAll({ where: { userId: currentUser(req).id }, order: [['id', 'ASC']] });
       reply(res, tokenListReply, { tokens: tokens.map((t) => t.toPublic()) });
     })
-    .post(requireRole('engineer'), validate({ body: createBody }), async (req, res) => {
+    .post(requireRole('engineer'), validate({ body: tokenCreateBody }), async (req, res) => {
       const user = currentUser(req);
       const secret = newSecretToken();
       const token = await db.transaction(async (transaction) => {

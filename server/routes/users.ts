@@ -1,19 +1,15 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { currentUser, hasRole, requireRole } from '../auth';
-import { ROLES, User } from '../db/models';
+import { User } from '../db/models';
 import { HttpError, notFound } from '../http-error';
 import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { idParams, paramsOf } from './params';
-import { userListReply, userReply } from '../../shared/contract/people';
+import { userListReply, userPatchBody, userReply } from '../../shared/contract/people';
 import { reply } from './reply';
 
-const patchBody = z
-  .strictObject({ name: z.string().trim().min(1).max(120), role: z.enum(ROLES), disabled: z.boolean() })
-  .partial()
-  .refine((b) => Object.keys(b).length > 0, { message: 'give at least one of name, role, disabled' });
 
 /** /api/users: admins list and change accounts; everyone may read their own. */
 export function usersRouter({ db }: RouteDeps) {
@@ -34,10 +30,10 @@ export function usersRouter({ db }: RouteDeps) {
       if (!user) throw notFound('User');
       reply(res, userReply, { user: user.toPublic() });
     })
-    .patch(requireRole('admin'), validate({ params: idParams, body: patchBody }), async (req, res) => {
+    .patch(requireRole('admin'), validate({ params: idParams, body: userPatchBody }), async (req, res) => {
       const me = currentUser(req);
       const { id } = paramsOf<{ id: number }>(req);
-      const changes = req.body as z.infer<typeof patchBody>;
+      const changes = req.body as z.infer<typeof userPatchBody>;
       // An admin cannot lock themselves out: another admin has to demote or disable them.
       if (id === me.id && (changes.disabled === true || (changes.role !== undefined && changes.role !== 'admin'))) {
         throw new HttpError(409, 'self_lockout', 'You cannot disable your own account or take away your own admin role; ask another admin');

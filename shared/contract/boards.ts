@@ -1,6 +1,17 @@
 // The boards API: the lab's FPGA boards.
 import { z } from 'zod';
-import { isoDate } from './common';
+import { isoDate, text } from './common';
+
+/** POST /api/boards */
+export const boardBody = z.strictObject({
+  name: text(120).min(1),
+  serial: text(80),
+  fpgaPart: text(80),
+  adapter: text(120),
+  location: text(120),
+});
+/** PATCH /api/boards/:id */
+export const boardPatchBody = boardBody.partial();
 
 export const boardRecord = z.object({
   id: z.number().int(),

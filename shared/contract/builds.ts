@@ -1,10 +1,26 @@
 // The builds API: bitstreams of a core, their files and their reviews.
 import { z } from 'zod';
-import { coreBrief, isoDate, named } from './common';
+import { coreBrief, id, isoDate, named, text } from './common';
 
 /** See server/services/build-status.ts for the rules. */
 export const buildStatus = z.enum(['untested', 'passing', 'failing', 'approved', 'rejected']);
 export type BuildStatus = z.infer<typeof buildStatus>;
+
+/** POST /api/builds */
+export const buildCreateBody = z.strictObject({
+  coreId: id,
+  label: text(120).min(1),
+  sourceRevision: text(80),
+  toolVersion: text(80),
+  clockMHz: z.number().positive().max(10_000),
+  notes: text(10_000).default(''),
+});
+/** PATCH /api/builds/:id */
+export const buildPatchBody = buildCreateBody.omit({ coreId: true }).partial();
+/** GET /api/builds: of one core, or of all. */
+export const buildListQuery = z.strictObject({ coreId: id.optional() });
+/** POST /api/builds/:id/reviews */
+export const reviewBody = z.strictObject({ decision: z.enum(['approve', 'reject']), note: text(10_000).default('') });
 
 export const buildRow = z.object({
   id: z.number().int(),

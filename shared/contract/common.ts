@@ -25,6 +25,7 @@ export const tags = z.array(text(40).min(1)).max(20);
 
 /** Another row as a reply names it. */
 export const named = z.object({ id: z.number().int(), name: z.string() });
+export type Named = z.infer<typeof named>;
 export const coreBrief = z.object({ id: z.number().int(), name: z.string(), slug: z.string() });
 export const buildBrief = z.object({ id: z.number().int(), label: z.string() });
 

@@ -12,6 +12,28 @@ export const linkProfileSchema = z.strictObject({
 export type LinkProfile = z.output<typeof linkProfileSchema>;
 export type LinkProfileInput = z.input<typeof linkProfileSchema>;
 
+const slug = z.string().regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'use lower-case letters, digits and single hyphens').max(64);
+
+/** POST /api/cores: what is left out is the `reference-16` default. */
+export const coreCreateBody = z.strictObject({
+  name: z.string().trim().min(1).max(120),
+  slug,
+  linkProfile: linkProfileSchema.default(linkProfileSchema.parse({})),
+  modelConfig: modelConfigSchema.default(modelConfigSchema.parse({})),
+  limits: limitsSchema.default({}),
+});
+/** PATCH /api/cores/:id */
+export const corePatchBody = z
+  .strictObject({
+    name: z.string().trim().min(1).max(120),
+    slug,
+    linkProfile: linkProfileSchema,
+    modelConfig: modelConfigSchema,
+    limits: limitsSchema,
+    baselineSessionId: z.number().int().positive().nullable(),
+  })
+  .partial();
+
 /** A core's row; its JSON columns are stored as their schemas parse them. */
 export const coreRecord = z.object({
   id: z.number().int(),

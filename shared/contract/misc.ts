@@ -2,6 +2,9 @@
 import { z } from 'zod';
 import { isoDate, jsonObject, named } from './common';
 
+/** POST /api/sessions/:id/comments */
+export const commentBody = z.strictObject({ body: z.string().trim().min(1).max(10_000) });
+
 export const comment = z.object({
   id: z.number().int(),
   sessionId: z.number().int(),
@@ -40,7 +43,7 @@ export const goldenVectorReply = z.object({ set: goldenVectorSet });
 export const healthReply = z.object({
   status: z.enum(['ok', 'degraded']),
   version: z.string(),
-  database: z.looseObject({ status: z.enum(['ok', 'down']), dialect: z.string(), message: z.string().optional(), migrations: z.number().int() }),
+  database: z.looseObject({ status: z.enum(['ok', 'down']), dialect: z.string(), serverVersion: z.string().optional(), message: z.string().optional(), migrations: z.number().int() }),
   uptimeS: z.number(),
 });
 export type HealthReply = z.infer<typeof healthReply>;

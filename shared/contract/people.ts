@@ -5,6 +5,24 @@ import { isoDate } from './common';
 export const role = z.enum(['reviewer', 'engineer', 'admin']);
 export type Role = z.infer<typeof role>;
 
+/** POST /api/auth/login */
+export const loginBody = z.strictObject({ email: z.email().max(254), password: z.string().min(1).max(200) });
+/** PATCH /api/users/:id: at least one of the three. */
+export const userPatchBody = z
+  .strictObject({ name: z.string().trim().min(1).max(120), role, disabled: z.boolean() })
+  .partial()
+  .refine((b) => Object.keys(b).length > 0, { message: 'give at least one of name, role, disabled' });
+/** POST /api/invitations */
+export const invitationCreateBody = z.strictObject({ email: z.email().max(254), name: z.string().trim().max(120).optional(), role });
+/** POST /api/invitations/accept: the mailed token, the new account's name and password. */
+export const invitationAcceptBody = z.strictObject({
+  token: z.string().min(10).max(200),
+  name: z.string().trim().min(1).max(120),
+  password: z.string().min(8, 'must be at least 8 characters').max(200),
+});
+/** POST /api/tokens */
+export const tokenCreateBody = z.strictObject({ name: z.string().trim().min(1).max(80) });
+
 /** A user as the API shows one (never the password hash). */
 export const publicUser = z.object({ id: z.number().int(), email: z.string(), name: z.string(), role, disabled: z.boolean(), createdAt: isoDate });
 export type PublicUser = z.infer<typeof publicUser>;

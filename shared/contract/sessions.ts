@@ -147,5 +147,13 @@ export const sessionDetailReply = z.object({ session: sessionListItem });
 export const sessionPatchReply = z.object({ session: sessionRow });
 
 /** POST /api/sessions and /api/sessions/import: the server's own score and verdict of what it stored. */
-export const sessionStoredReply = z.object({ id: z.number().int(), passed: z.boolean(), regression: z.boolean(), verdict, stats: storedStats });
+export const sessionStoredReply = z.object({
+  id: z.number().int(),
+  /** The session's page (PUBLIC_URL when set, else the address the upload reached). */
+  url: z.string(),
+  passed: z.boolean(),
+  regression: z.boolean(),
+  verdict,
+  stats: storedStats,
+});
 export type SessionStoredReply = z.infer<typeof sessionStoredReply>;

@@ -1,3 +1,6 @@
+import type { z } from 'zod';
+import { checkContract } from '../../shared/contract/check';
+
 /** An error reply of the Anglebench API, `{ error: { code, message } }`, as a typed error. */
 export class ApiError extends Error {
   constructor(
@@ -57,6 +60,17 @@ export async function api<T>(path: string, init: ApiRequest = {}): Promise<T> {
     forgetCsrfToken();
     return send<T>(path, init, await csrfTokenForWrites());
   }
+}
+
+/**
+ * `api` for a reply the contract describes (shared/contract): typed from `schema` and, in
+ * development, checked against it, so a renamed or missing field throws a ContractError naming
+ * it instead of showing an empty page. The value is returned as received, not re-parsed.
+ */
+export async function apiReply<S extends z.ZodType>(schema: S, path: string, init: ApiRequest = {}): Promise<z.output<S>> {
+  const value = await api<unknown>(path, init);
+  if (import.meta.env.DEV) checkContract(schema, value, `The reply to ${(init.method ?? 'GET').toUpperCase()} ${path}`);
+  return value as z.output<S>;
 }
 
 async function send<T>(path: string, init: ApiRequest, csrf: string | null): Promise<T> {

@@ -43,7 +43,8 @@ export interface RunningApp {
  * (and everything it started) for sure.
  */
 export async function startApp(env: Record<string, string> = {}): Promise<RunningApp> {
-  const port = await freePort();
+  // env.PORT (with env.DATABASE_URL) starts a server again where an earlier one ran: a restart.
+  const port = env.PORT ? Number(env.PORT) : await freePort();
   const db = await tempDatabase();
   const child: ChildProcess = spawn(process.execPath, [path.join(projectRoot, 'node_modules/tsx/dist/cli.mjs'), 'server/index.ts'], {
     cwd: projectRoot,
@@ -132,6 +133,67 @@ export function appAndBrowser(env: Record<string, string> = {}): { readonly app:
     },
     get browser() {
       return browser!;
+    },
+  };
+}
+
+/** A personal API token of a demo account, made through the API as the Account page makes one. */
+export async function demoApiToken(app: RunningApp, who: DemoRole, name = 'test token'): Promise<string> {
+  const cookies = (res: Response) => res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  const csrf = await fetch(`${app.url}/api/auth/csrf`);
+  const { token: csrfToken } = (await csrf.json()) as { token: string };
+  const login = await fetch(`${app.url}/api/auth/login`, {
+    method: 'POST',
+    headers: { cookie: cookies(csrf), 'x-csrf-token': csrfToken, 'content-type': 'application/json' },
+    body: JSON.stringify({ email: `${who}@anglebench.test`, password: 'anglebench' }),
+  });
+  if (!login.ok) throw new Error(`sign-in as ${who} failed: ${login.status}`);
+  const { csrfToken: sessionCsrf } = (await login.json()) as { csrfToken: string };
+  const made = await fetch(`${app.url}/api/tokens`, {
+    method: 'POST',
+    headers: { cookie: cookies(login), 'x-csrf-token': sessionCsrf, 'content-type': 'application/json' },
+    body: JSON.stringify({ name }),
+  });
+  if (made.status !== 201) throw new Error(`making an API token failed: ${made.status}`);
+  return ((await made.json()) as { token: string }).token;
+}
+
+export interface StationProcess {
+  /** Settles once the station says it is online; rejects if it exits first. */
+  online: Promise<void>;
+  log(): string;
+  /** SIGKILL: the lab PC gone without a word. */
+  kill(): void;
+  /** SIGTERM, and wait until it has exited. */
+  stop(): Promise<void>;
+}
+
+/** `anglebench bridge --server …` as its own process: a station dialling `server`. */
+export function startStationProcess(server: string, token: string, device: string, name: string, baud = 3_000_000): StationProcess {
+  const child: ChildProcess = spawn(
+    process.execPath,
+    [path.join(projectRoot, 'node_modules/tsx/dist/cli.mjs'), 'cli/index.ts', 'bridge', '--server', server, '--token', token, '--device', device, '--name', name, '--baud', String(baud)],
+    // Its own process group: tsx runs the command in a child, and a signal must reach both.
+    { cwd: projectRoot, stdio: ['ignore', 'pipe', 'pipe'], detached: true },
+  );
+  let log = '';
+  child.stdout!.on('data', (d) => (log += d));
+  child.stderr!.on('data', (d) => (log += d));
+  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
+  const online = new Promise<void>((resolve, reject) => {
+    child.stdout!.on('data', () => log.includes('online at') && resolve());
+    child.once('exit', (code) => reject(new Error(`the station exited with ${code}:\n${log}`)));
+  });
+  online.catch(() => undefined); // a station killed on purpose rejects it with nobody waiting
+  const running = () => child.exitCode === null && child.signalCode === null;
+  return {
+    online,
+    log: () => log,
+    kill: () => void (running() && process.kill(-child.pid!, 'SIGKILL')),
+    stop: async () => {
+      if (!running()) return;
+      process.kill(-child.pid!, 'SIGTERM');
+      await exited;
     },
   };
 }

@@ -104,6 +104,15 @@ describe('over HTTPS with a certificate from npm run cert', () => {
     await context.close();
   }, 120_000);
 
+  it('says a bridge outside BRIDGE_ORIGINS is blocked by the server, not unreachable', async () => {
+    const { context, page } = await engineerOnBench();
+    await page.getByLabel('Bench bridge (network)').check();
+    await page.getByLabel('Bridge address').fill('wss://bay3-pc.lab.test:5180/');
+    await page.getByRole('button', { name: 'Connect' }).click();
+    await expect.poll(() => page.getByRole('alert').textContent(), { timeout: 10_000 }).toMatch(/does not let the page connect to wss:\/\/bay3-pc\.lab\.test:5180: an administrator can add it to BRIDGE_ORIGINS/);
+    await context.close();
+  });
+
   it('runs two browsers on hosted boards at once, each bit-exact; with SIM_BOARDS_MAX=2 a third gets the refusal', async () => {
     const a = await engineerOnBench();
     const b = await engineerOnBench();

@@ -8,21 +8,29 @@ type App = ReturnType<typeof createApp>;
 
 export interface ListeningApp {
   url: string;
+  port: number;
   /** The same address as ws:// or wss://. */
   wsUrl: string;
   close(): Promise<void>;
 }
 
-/** Listen on 127.0.0.1 (over TLS when `tls` is given) with the app's WebSocket routes attached. */
-export async function listen(app: App, tls?: { cert: Buffer; key: Buffer }): Promise<ListeningApp> {
+/**
+ * Listen on 127.0.0.1 (over TLS when `tls` is given) with the app's WebSocket routes attached; on
+ * `port` to start a server again where an earlier one ran (a restart), else on a free one.
+ */
+export async function listen(app: App, tls?: { cert: Buffer; key: Buffer }, port = 0): Promise<ListeningApp> {
   const server: Server = tls ? createHttpsServer(tls, app) : createServer(app);
   app.sockets.attach(server);
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  const { port } = server.address() as AddressInfo;
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(port, '127.0.0.1', resolve);
+  });
+  const { port: at } = server.address() as AddressInfo;
   const scheme = tls ? 'https' : 'http';
   return {
-    url: `${scheme}://127.0.0.1:${port}`,
-    wsUrl: `${tls ? 'wss' : 'ws'}://127.0.0.1:${port}`,
+    url: `${scheme}://127.0.0.1:${at}`,
+    port: at,
+    wsUrl: `${tls ? 'wss' : 'ws'}://127.0.0.1:${at}`,
     close: async () => {
       const closed = new Promise<void>((resolve) => server.close(() => resolve()));
       await app.sockets.close();

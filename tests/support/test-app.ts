@@ -9,6 +9,7 @@ import { initModels, User, type Role } from '../../server/db/models';
 import { startMailCatcher } from '../../server/mail/catcher';
 import { createSmtpMailer } from '../../server/mail/mailer';
 import type { LoginLimit } from '../../server/routes/auth';
+import type { StationOptions } from '../../server/stations';
 import { tempDatabase } from './temp-db';
 
 export const TEST_PASSWORD = 'test-password-1';
@@ -18,7 +19,7 @@ export type Agent = ReturnType<typeof request.agent>;
  * The app over a fresh migrated database, with the local mail catcher as its mailer, bitstreams
  * in the temporary folder, a cheap bcrypt cost and one user per role (password TEST_PASSWORD).
  */
-export async function testApp(options: { uploadLimitBytes?: number; loginLimit?: LoginLimit; env?: Record<string, string>; dialect?: 'sqlite' | 'postgres' } = {}) {
+export async function testApp(options: { uploadLimitBytes?: number; loginLimit?: LoginLimit; env?: Record<string, string>; stations?: StationOptions; dialect?: 'sqlite' | 'postgres' } = {}) {
   const tmp = await tempDatabase({ dialect: options.dialect });
   const config = loadConfig(
     { NODE_ENV: 'test', DATABASE_URL: tmp.url, SESSION_SECRET: 'x'.repeat(32), UPLOAD_LIMIT_BYTES: String(options.uploadLimitBytes ?? 64 * 1024 * 1024), ...options.env },
@@ -30,7 +31,7 @@ export async function testApp(options: { uploadLimitBytes?: number; loginLimit?:
   const catcher = await startMailCatcher(db);
   const mailer = createSmtpMailer(catcher.url);
   const uploadDir = path.join(tmp.dir, 'uploads');
-  const app = createApp({ config, db, mailer, uploadDir, bcryptCost: 4, loginLimit: options.loginLimit });
+  const app = createApp({ config, db, mailer, uploadDir, bcryptCost: 4, loginLimit: options.loginLimit, stations: options.stations });
 
   const passwordHash = await hashPassword(TEST_PASSWORD, 4);
   const users = {} as Record<Role, User>;
@@ -58,6 +59,7 @@ export async function testApp(options: { uploadLimitBytes?: number; loginLimit?:
     app,
     db,
     config,
+    mailer,
     uploadDir,
     users,
     visitor,

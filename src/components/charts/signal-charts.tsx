@@ -21,7 +21,7 @@ export interface SignalChartsProps {
   /** Canvas height in CSS px (the XY chart is as wide as its plotting area is high). */
   heightPx?: number;
   className?: string;
-  /** Off where the page already titles the chart (the printed report); still read by screen readers. */
+  /** Off where the page already titles the chart in a section of its own (the printed report). */
   showTitles?: boolean;
 }
 
@@ -32,8 +32,11 @@ export function SignalCharts({ charts, feed, heightPx = 220, className = 'grid g
   useEffect(() => {
     const ids = key.split(',') as ChartId[];
     const extents = ids.map(() => 1.1);
+    // The elements of this effect's lifetime: React clears the refs on unmount before the cleanup
+    // below disconnects the observer, and a resize can land in between.
+    const els = ids.map((_, i) => boxes.current[i]!);
     const plots = ids.map((id, i) => {
-      const box = boxes.current[i]!;
+      const box = els[i];
       const spec = CHART_SPECS[id];
       if (id !== 'xy') return new uPlot({ ...spec.options, width: box.clientWidth, height: heightPx, legend: { show: true, live: false } }, [[]], box);
       const range = (): uPlot.Range.MinMax => [-extents[i], extents[i]];
@@ -43,8 +46,8 @@ export function SignalCharts({ charts, feed, heightPx = 220, className = 'grid g
         box,
       );
     });
-    const ro = new ResizeObserver(() => ids.forEach((id, i) => id !== 'xy' && plots[i].setSize({ width: boxes.current[i]!.clientWidth, height: heightPx })));
-    boxes.current.forEach((b) => b && ro.observe(b));
+    const ro = new ResizeObserver(() => ids.forEach((id, i) => id !== 'xy' && plots[i].setSize({ width: els[i].clientWidth, height: heightPx })));
+    els.forEach((b) => ro.observe(b));
     let raf = 0;
     let first = true;
     const tick = () => {
@@ -71,12 +74,21 @@ export function SignalCharts({ charts, feed, heightPx = 220, className = 'grid g
 
   return (
     <div className={className}>
-      {charts.map((id, i) => (
-        <section key={id} aria-label={CHART_SPECS[id].title} className={`${panel} min-w-0 break-inside-avoid`}>
-          <h3 className={showTitles ? panelTitle : 'sr-only'}>{CHART_SPECS[id].title}</h3>
-          <div data-testid={CHART_SPECS[id].testId} ref={(el) => void (boxes.current[i] = el)} className={id === 'xy' ? 'flex min-w-0 justify-center' : 'min-w-0'} />
-        </section>
-      ))}
+      {charts.map((id, i) => {
+        const plot = <div data-testid={CHART_SPECS[id].testId} ref={(el) => void (boxes.current[i] = el)} className={id === 'xy' ? 'flex min-w-0 justify-center' : 'min-w-0'} />;
+        // Untitled, the chart sits in a section of the caller's that names it: a second landmark
+        // of the same name would only repeat it.
+        return showTitles ? (
+          <section key={id} aria-label={CHART_SPECS[id].title} className={`${panel} min-w-0 break-inside-avoid`}>
+            <h3 className={panelTitle}>{CHART_SPECS[id].title}</h3>
+            {plot}
+          </section>
+        ) : (
+          <div key={id} className={`${panel} min-w-0 break-inside-avoid`}>
+            {plot}
+          </div>
+        );
+      })}
     </div>
   );
 }

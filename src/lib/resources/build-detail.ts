@@ -1,20 +1,15 @@
 // One build with the other builds holding the same bitstream: read by the build's own page and
 // by a session's report (for the bitstream's SHA-256), so both share one cached copy.
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../api';
-import { buildKeys, type BuildRecord } from './builds';
-
-export interface BuildRef {
-  id: number;
-  label: string;
-}
+import { buildDetailReply, type BuildDetailReply } from '../../../shared/contract/builds';
+import { apiReply } from '../api';
+import { buildKeys } from './builds';
 
 /** GET /api/builds/:id `build`: the record and the builds whose file has the same SHA-256. */
-export interface BuildDetail extends BuildRecord {
-  duplicates: BuildRef[];
-}
+export type BuildDetail = BuildDetailReply['build'];
+export type BuildRef = BuildDetail['duplicates'][number];
 
-export const getBuild = async (id: number, signal?: AbortSignal) => (await api<{ build: BuildDetail }>(`/api/builds/${id}`, { signal })).build;
+export const getBuild = async (id: number, signal?: AbortSignal) => (await apiReply(buildDetailReply, `/api/builds/${id}`, { signal })).build;
 
 // The app's default stale time, as the list (builds.ts): its status follows new sessions.
 export const buildQueryOptions = (id: number) => queryOptions({ queryKey: buildKeys.detail(id), queryFn: ({ signal }) => getBuild(id, signal) });

@@ -2,40 +2,15 @@
 // builds register, the bench's build picker and the sessions filter share one copy of
 // GET /api/builds and an upload or review anywhere refreshes all of them.
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../api';
-
-/** See server/services/build-status.ts for the rules. */
-export type BuildStatus = 'untested' | 'passing' | 'failing' | 'approved' | 'rejected';
-
-export interface Named {
-  id: number;
-  name: string;
-}
+import { buildListReply } from '../../../shared/contract/builds';
+import { apiReply } from '../api';
 
 /**
- * A build as GET /api/builds and GET /api/builds/:id return it (server/routes/builds.ts: the
- * model's columns, its core and author, and the standing derived from its sessions and reviews).
+ * A build as GET /api/builds and GET /api/builds/:id return it: the model's columns, its core and
+ * author, and the standing derived from its sessions and reviews (server/services/build-status.ts).
  */
-export interface BuildRecord {
-  id: number;
-  coreId: number;
-  core?: { id: number; name: string; slug: string };
-  label: string;
-  sourceRevision: string;
-  toolVersion: string;
-  clockMHz: number;
-  notes: string;
-  fileName: string | null;
-  fileSize: number | null;
-  sha256: string | null;
-  createdById: number | null;
-  createdBy?: Named | null;
-  createdAt: string;
-  updatedAt: string;
-  status: BuildStatus;
-  sessionCount: number;
-  lastSessionAt: string | null;
-}
+export type { BuildRecord, BuildStatus } from '../../../shared/contract/builds';
+export type { Named } from '../../../shared/contract/common';
 
 /** Every query about builds lives under `buildKeys.all`, so invalidating it reaches all of them. */
 export const buildKeys = {
@@ -49,9 +24,9 @@ export const buildKeys = {
 };
 
 /** Every build, newest first; of one core when `coreId` is set. */
-export async function getBuilds(coreId: number | null, signal?: AbortSignal): Promise<BuildRecord[]> {
+export async function getBuilds(coreId: number | null, signal?: AbortSignal) {
   const query = coreId === null ? '' : `?coreId=${encodeURIComponent(coreId)}`;
-  return (await api<{ builds: BuildRecord[] }>(`/api/builds${query}`, { signal })).builds;
+  return (await apiReply(buildListReply, `/api/builds${query}`, { signal })).builds;
 }
 
 // The app's default stale time (src/lib/query-client.ts), not the minute of cores and boards: a

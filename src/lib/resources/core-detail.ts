@@ -1,23 +1,16 @@
 // One core with its watchers: read by the core's own page and by a session's pages (for the
 // model configuration and limits that score it), so both share one cached copy.
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../api';
-import { coreKeys, type CoreRecord } from './cores';
+import { coreDetailReply } from '../../../shared/contract/cores';
+import { apiReply } from '../api';
+import { coreKeys } from './cores';
 import { RESOURCE_STALE_MS } from './stale';
 
-export interface Watcher {
-  id: number;
-  name: string;
-}
-
 /** GET /api/cores/:id: the core, who watches it, and whether the caller does. */
-export interface CoreDetail {
-  core: CoreRecord;
-  watchers: Watcher[];
-  watching: boolean;
-}
+export type { CoreDetailReply as CoreDetail } from '../../../shared/contract/cores';
+export type { Named as Watcher } from '../../../shared/contract/common';
 
-export const getCore = (id: number, signal?: AbortSignal) => api<CoreDetail>(`/api/cores/${id}`, { signal });
+export const getCore = (id: number, signal?: AbortSignal) => apiReply(coreDetailReply, `/api/cores/${id}`, { signal });
 
 export const coreQueryOptions = (id: number) => queryOptions({ queryKey: coreKeys.detail(id), queryFn: ({ signal }) => getCore(id, signal), staleTime: RESOURCE_STALE_MS });
 

@@ -99,3 +99,19 @@ describe('the WebSocket upgrade dispatcher', () => {
     }
   });
 });
+
+describe('the upgrade behind a proxy that rewrites Host', () => {
+  it("lets a cookie in from PUBLIC_URL's origin, and still no other", async () => {
+    const t = await testApp({ env: { PUBLIC_URL: 'https://bench.lab.example' } });
+    const server = await listen(t.app);
+    try {
+      const cookie = await signInCookie(server.url, t.users.engineer.email, TEST_PASSWORD);
+      const url = `${server.wsUrl}${SIM_BOARD_PATH}`;
+      expect((await handshake(url, { cookie, origin: 'https://bench.lab.example' })).status).toBe(101);
+      expect((await handshake(url, { cookie, origin: 'https://bench.lab.example.evil.test' })).status).toBe(403);
+    } finally {
+      await server.close();
+      await t.close();
+    }
+  });
+});

@@ -1,5 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runRunCommand } from '../../../cli/run';
+import { explanationText } from '../../../cli/run-explain';
+import { parseModelConfig } from '../../../shared/numeric';
 import { defaultBoardSettings } from '../../../mock-device/board-session';
 import { parseCoreFault } from '../../../mock-device/faulty-core';
 import { startMockServer, type MockServer } from '../../../mock-device/ws-server';
@@ -56,5 +58,31 @@ describe('run --explain', { timeout: 60_000 }, () => {
     const plain = captureIo();
     await runRunCommand(['--device', healthy.url, ...FAST, ...PLAN, '--json'], plain);
     expect(JSON.parse(plain.out)).not.toHaveProperty('explanation');
+  });
+});
+
+describe('explanationText', () => {
+  it('gives the largest difference left when the best does not reproduce every answer, and its equivalents', () => {
+    const config = parseModelConfig({});
+    const text = explanationText({
+      declared: config,
+      answered: 2000,
+      outcome: 'partly-explained',
+      rest: 'scattered',
+      summary: 'Nearly explained.',
+      hypotheses: [
+        { label: 'iteration 3 turns the wrong way', config, fault: { kind: 'sign-slip', iteration: 3 }, exact: 1990, maxDiffLsb: 4, equivalent: [{ label: 'twin', config, fault: null }] },
+        { label: 'the declared model', config, fault: null, exact: 12, maxDiffLsb: 900, equivalent: [] },
+      ],
+    });
+    expect(text).toBe(
+      [
+        'explanation: Nearly explained.',
+        '  1. iteration 3 turns the wrong way: reproduces 1,990 of 2,000 answers exactly, largest difference left 4 LSB',
+        '     same answers as: twin',
+        '  2. the declared model: reproduces 12 of 2,000 answers exactly, largest difference left 900 LSB',
+        '',
+      ].join('\n'),
+    );
   });
 });

@@ -6,7 +6,27 @@ import { buildKeys, buildsQueryOptions } from '../../../src/lib/resources/builds
 import { coreKeys } from '../../../src/lib/resources/cores';
 import { serveJson } from '../../support/serve-json';
 
-const build = { id: 4, coreId: 7, label: 'ref16-r4', sourceRevision: 'a1b2', toolVersion: '1.0', clockMHz: 100, status: 'passing', sessionCount: 2 };
+// Whole records, as the server sends them: the client checks replies against the contract.
+const build = {
+  id: 4,
+  coreId: 7,
+  core: { id: 7, name: 'Reference 16', slug: 'reference-16' },
+  label: 'ref16-r4',
+  sourceRevision: 'a1b2',
+  toolVersion: '1.0',
+  clockMHz: 100,
+  notes: '',
+  fileName: null,
+  fileSize: null,
+  sha256: null,
+  createdById: 1,
+  createdBy: { id: 1, name: 'Ines' },
+  createdAt: '2026-03-01T09:00:00.000Z',
+  updatedAt: '2026-03-01T09:00:00.000Z',
+  status: 'passing',
+  sessionCount: 2,
+  lastSessionAt: '2026-03-02T10:00:00.000Z',
+};
 const other = { ...build, id: 5, coreId: 8, label: 'wide24-r1' };
 
 const serve = (replies: Record<string, unknown>) => serveJson(replies, 'No such build');

@@ -3,10 +3,13 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { boardKeys, boardsQueryOptions } from '../../../src/lib/resources/boards';
 import { coreQueryOptions } from '../../../src/lib/resources/core-detail';
 import { coreKeys, coresQueryOptions } from '../../../src/lib/resources/cores';
+import { modelConfigSchema } from '../../../shared/numeric/model-config';
 import { serveJson } from '../../support/serve-json';
 
-const core = { id: 7, name: 'Reference 16', slug: 'reference-16', baselineSessionId: null };
-const board = { id: 2, name: 'Bench A', serial: 'S-1', fpgaPart: '', adapter: '', location: '', createdAt: '', updatedAt: '' };
+// Whole records, as the server sends them: the client checks replies against the contract.
+const at = '2026-03-01T09:00:00.000Z';
+const core = { id: 7, name: 'Reference 16', slug: 'reference-16', linkProfile: { baud: 3_000_000, crc: 'CRC-8/SMBUS' }, modelConfig: modelConfigSchema.parse({}), limits: {}, baselineSessionId: null, createdAt: at, updatedAt: at };
+const board = { id: 2, name: 'Bench A', serial: 'S-1', fpgaPart: '', adapter: '', location: '', createdAt: at, updatedAt: at };
 
 const serve = serveJson;
 

@@ -1,24 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
+import { postSession, sessionKeys, type SessionStoredReply } from '../../../lib/resources/sessions';
 import type { RunRecord } from '../live/bench-controller';
 import { packSamples } from '../../../../shared/link-engine/sample-pack';
 
-export const sessionKeys = { all: ['sessions'] as const };
-
-export interface LimitOutcome {
-  limit: number;
-  measured: number | null;
-  pass: boolean | null;
-}
-
+export type { LimitOutcome } from '../../../lib/resources/sessions';
 /** The server's reply: it scores the samples itself and judges them against the core's limits. */
-export interface SavedSession {
-  id: number;
-  passed: boolean;
-  regression: boolean;
-  verdict: Record<string, LimitOutcome | undefined>;
-  stats: unknown;
-}
+export type SavedSession = SessionStoredReply;
 
 export interface SaveSessionInput {
   record: RunRecord;
@@ -52,7 +39,7 @@ export function saveSession(input: SaveSessionInput): Promise<SavedSession> {
   form.set('session', JSON.stringify(session));
   form.set('samples', new Blob([packSamples(record.codes, record.cos, record.sin, record.answered)], { type: 'application/octet-stream' }), 'samples.bin');
   if (input.archive) form.set('archive', input.archive, 'capture.abrc');
-  return api<SavedSession>('/api/sessions', { method: 'POST', body: form });
+  return postSession(form);
 }
 
 export function useSaveSession() {

@@ -7,6 +7,10 @@ import { COMMON_BAUD_RATES, MAX_BAUD, MIN_BAUD, recommendedBufferSize, type Seri
 import { browserFacts, hostedBoardUrl, serialSupport } from '../transport/browser-links';
 import { WebSerialLink } from '../transport/web-serial-link';
 import { SocketLink } from '../transport/socket-link';
+import { openStationLink } from '../transport/station-link';
+import { StationPicker } from './station-picker';
+import { queryClient } from '../../../lib/query-client';
+import { stationKeys, type StationListing } from '../../../lib/resources/stations';
 import { SerialCaution, serialCautionSeen } from './serial-caution';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 
@@ -14,7 +18,8 @@ const wsUrl = z.string().trim().regex(/^wss?:\/\/\S+$/, 'A ws:// or wss:// addre
 
 const connectSchema = z
   .object({
-    transport: z.enum(['simulated', 'bridge', 'serial']),
+    transport: z.enum(['simulated', 'bridge', 'serial', 'station']),
+    station: z.string().nullish(),
     simulatedUrl: z.string(),
     bridgeUrl: z.string(),
     bridgeToken: z.string().trim().max(500),
@@ -32,6 +37,7 @@ const connectSchema = z
   .superRefine((v, ctx) => {
     const url = v.transport === 'simulated' ? ['simulatedUrl', v.simulatedUrl] : v.transport === 'bridge' ? ['bridgeUrl', v.bridgeUrl] : null;
     if (url && !wsUrl.safeParse(url[1]).success) ctx.addIssue({ code: 'custom', path: [url[0]], message: 'Enter a ws:// or wss:// address' });
+    if (v.transport === 'station' && !v.station) ctx.addIssue({ code: 'custom', path: ['station'], message: 'Choose a free station' });
     if (v.transport === 'serial' && v.baud === 'custom') {
       const b = Number(v.customBaud);
       if (!Number.isInteger(b) || b < MIN_BAUD || b > MAX_BAUD) ctx.addIssue({ code: 'custom', path: ['customBaud'], message: `A whole rate from ${MIN_BAUD.toLocaleString()} to ${MAX_BAUD.toLocaleString()}` });
@@ -76,6 +82,10 @@ export function ConnectPanel({ controller, snap }: { controller: BenchController
 
   const connect = (v: z.output<typeof connectSchema>) => {
     if (v.transport === 'simulated') return controller.connect(() => SocketLink.open(v.simulatedUrl.trim()), `Simulated board ${v.simulatedUrl}`, 3_000_000);
+    if (v.transport === 'station' && v.station) {
+      const station = queryClient.getQueryData<StationListing[]>(stationKeys.list())?.find((s) => s.name === v.station);
+      return controller.connect(() => openStationLink(v.station!), `Station ${v.station}`, station?.baud ?? 3_000_000);
+    }
     if (v.transport === 'bridge') {
       const url = new URL(v.bridgeUrl.trim());
       if (v.bridgeToken) url.searchParams.set('token', v.bridgeToken);
@@ -130,6 +140,9 @@ export function ConnectPanel({ controller, snap }: { controller: BenchController
               <input type="radio" value="simulated" {...register('transport')} /> Simulated board (on this server)
             </label>
             <label className="flex items-center gap-2">
+              <input type="radio" value="station" {...register('transport')} /> Station (a board on a lab PC, through this server)
+            </label>
+            <label className="flex items-center gap-2">
               <input type="radio" value="bridge" {...register('transport')} /> Bench bridge (network)
             </label>
             <label className="flex items-center gap-2">
@@ -149,6 +162,7 @@ export function ConnectPanel({ controller, snap }: { controller: BenchController
               {errors.simulatedUrl && <span className={fieldError}>{errors.simulatedUrl.message}</span>}
             </label>
           )}
+          {transport === 'station' && <StationPicker reg={register('station')} error={errors.station?.message} />}
           {transport === 'bridge' && (
             <>
               <label className={label}>

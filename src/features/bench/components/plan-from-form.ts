@@ -1,7 +1,7 @@
 // The plan form's fields, turned into a plan of the numeric core. Angles may be typed in degrees,
 // radians, turns or raw codes; lists are pasted with commas, spaces or new lines between.
 import { z } from 'zod';
-import { degreesToAngleCode, radiansToAngleCode, turnsToAngleCode, type AngleFormat, type Plan } from '../../../../shared/numeric';
+import { assertAngleCode, degreesToAngleCode, radiansToAngleCode, turnsToAngleCode, type AngleFormat, type Plan } from '../../../../shared/numeric';
 
 export const PLAN_KINDS = [
   ['exhaustive', 'Every code'],
@@ -44,22 +44,45 @@ export class PlanFieldError extends Error {
   }
 }
 
+// Numbers as people type them. Number() alone would also take "", "0x10", "0b1" and "Infinity".
+const DECIMAL = /^[+-]?(\d+(\.\d*)?|\.\d+)(e[+-]?\d+)?$/i;
+const WHOLE = /^[+-]?\d+$/;
+
 function toCode(f: AngleFormat, unit: PlanForm['unit'], text: string, field: keyof PlanForm): number {
-  const v = Number(text.trim());
-  if (text.trim() === '' || !Number.isFinite(v)) throw new PlanFieldError(field, `“${text.trim()}” is not a number`);
+  const t = text.trim();
+  if (t === '') throw new PlanFieldError(field, 'Type an angle');
+  if (!DECIMAL.test(t)) throw new PlanFieldError(field, `“${t}” is not a number`);
+  const v = Number(t);
+  if (!Number.isFinite(v)) throw new PlanFieldError(field, `“${t}” is too large`);
   try {
-    if (unit === 'code') return v;
+    if (unit === 'code') {
+      assertAngleCode(f, v);
+      return v;
+    }
     return unit === 'deg' ? degreesToAngleCode(f, v) : unit === 'rad' ? radiansToAngleCode(f, v) : turnsToAngleCode(f, v);
   } catch (e) {
     throw new PlanFieldError(field, (e as Error).message);
   }
 }
 
-function int(text: string, field: keyof PlanForm): number {
-  const v = Number(text.trim());
-  if (!Number.isInteger(v)) throw new PlanFieldError(field, 'A whole number');
+function int(text: string, field: keyof PlanForm, min: number, max: number): number {
+  const t = text.trim();
+  const v = WHOLE.test(t) ? Number(t) : NaN;
+  if (!Number.isSafeInteger(v) || v < min || v > max) throw new PlanFieldError(field, `A whole number from ${min.toLocaleString('en-US')} to ${max.toLocaleString('en-US')}`);
   return v;
 }
+
+/** The form field a plan's key stands for (PlanError.key of shared/numeric's bindPlan), if any. */
+export function planFieldOf(key: string): keyof PlanForm | null {
+  if (key === 'code') return 'angle';
+  if (key.startsWith('codes')) return 'list';
+  return (['start', 'step', 'count', 'seed', 'cycles', 'samples'] as const).find((k) => k === key) ?? null;
+}
+
+// The plan's own bounds (shared/numeric/plans.ts): counts to 2^32, seeds of 32 bits.
+const MAX_COUNT = 2 ** 32;
+const MAX_SEED = 2 ** 32 - 1;
+const MAX_STEP = 2 ** 31 - 1;
 
 /** @throws PlanFieldError naming the field at fault. */
 export function planFromForm(v: PlanForm, f: AngleFormat): Plan {
@@ -75,10 +98,10 @@ export function planFromForm(v: PlanForm, f: AngleFormat): Plan {
       return { kind: 'list', codes: items.map((t) => toCode(f, v.unit, t, 'list')) };
     }
     case 'sweep':
-      return { kind: 'sweep', start: toCode(f, v.unit, v.start, 'start'), step: int(v.step, 'step'), count: int(v.count, 'count') };
+      return { kind: 'sweep', start: toCode(f, v.unit, v.start, 'start'), step: int(v.step, 'step', -MAX_STEP - 1, MAX_STEP), count: int(v.count, 'count', 1, MAX_COUNT) };
     case 'random':
-      return { kind: 'random', seed: int(v.seed, 'seed'), count: int(v.count, 'count') };
+      return { kind: 'random', seed: int(v.seed, 'seed', 0, MAX_SEED), count: int(v.count, 'count', 1, MAX_COUNT) };
     case 'tone':
-      return { kind: 'tone', cycles: int(v.cycles, 'cycles'), samples: int(v.samples, 'samples') };
+      return { kind: 'tone', cycles: int(v.cycles, 'cycles', 1, MAX_COUNT), samples: int(v.samples, 'samples', 8, 2 ** 24) };
   }
 }

@@ -3,7 +3,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { bindPlan, parseModelConfig, PlanError } from '../../../../shared/numeric';
 import type { BenchController, BenchSnapshot } from '../live/bench-controller';
-import { ANGLE_UNITS, defaultPlanForm, PLAN_KINDS, planFormSchema, PlanFieldError, planFromForm, type PlanForm } from './plan-from-form';
+import { ANGLE_UNITS, defaultPlanForm, PLAN_KINDS, planFieldOf, planFormSchema, PlanFieldError, planFromForm, type PlanForm } from './plan-from-form';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 
 /** The core profile to score against, prefilled from INFO; the fields INFO does not carry keep the model's defaults. */
@@ -35,7 +35,11 @@ export function RunPanel({ controller, snap }: { controller: BenchController; sn
       controller.startRun(plan, config);
     } catch (e) {
       if (e instanceof PlanFieldError) setProblem({ field: e.field, message: e.message });
-      else if (e instanceof PlanError) setProblem({ field: null, message: e.message });
+      else if (e instanceof PlanError) {
+        // Shown by the field it is about, without the plan's own key in front.
+        const field = planFieldOf(e.key);
+        setProblem({ field, message: field ? e.message.slice(e.key.length + 2) : e.message });
+      }
       else setProblem({ field: null, message: (e as Error).message });
     }
   };

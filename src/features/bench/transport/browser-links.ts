@@ -40,7 +40,10 @@ export const browserFacts = (): BrowserFacts => ({
 /** The path of the server-hosted simulated boards (server/sockets/sim-boards.ts). */
 export const HOSTED_BOARD_PATH = '/api/sim-board';
 
-/** The hosted board on the server this page came from: wss: under HTTPS, ws: under http. */
-export function hostedBoardUrl(location: Pick<Location, 'protocol' | 'host'>): string {
-  return `${location.protocol === 'https:' ? 'wss:' : 'ws:'}//${location.host}${HOSTED_BOARD_PATH}`;
+/** A WebSocket address on the server this page came from: wss: under HTTPS, ws: under http. */
+export function sameOriginSocketUrl(location: Pick<Location, 'protocol' | 'host'>, path: string): string {
+  return `${location.protocol === 'https:' ? 'wss:' : 'ws:'}//${location.host}${path}`;
 }
+
+/** The hosted board on the server this page came from. */
+export const hostedBoardUrl = (location: Pick<Location, 'protocol' | 'host'>) => sameOriginSocketUrl(location, HOSTED_BOARD_PATH);

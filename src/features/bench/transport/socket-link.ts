@@ -22,8 +22,12 @@ export class SocketLink extends ByteLinkBase {
 
   private requested = false;
 
-  /** Connect to `url` (a bridge token goes in its query string); reject with a plain reason. */
-  static open(url: string, timeoutMs = 5000): Promise<SocketLink> {
+  /**
+   * Connect to `url` (a bridge token goes in its query string); reject with a plain reason. With
+   * `ready`, the link opens only once a text message passes it (a station's relay says when the
+   * station is this browser's), so a refusal arrives as its close reason.
+   */
+  static open(url: string, timeoutMs = 5000, ready?: (text: string) => boolean): Promise<SocketLink> {
     return new Promise((resolve, reject) => {
       let socket: WebSocket;
       try {
@@ -32,16 +36,36 @@ export class SocketLink extends ByteLinkBase {
         reject(new Error(`Not a WebSocket address: ${url} (${(err as Error).message})`));
         return;
       }
+      // The page's CSP lets it reach its own server and the BRIDGE_ORIGINS only; a blocked
+      // address fails like an unreachable one, so say which it was.
+      const onViolation = (e: SecurityPolicyViolationEvent) => {
+        if (e.effectiveDirective !== 'connect-src' || !e.blockedURI.startsWith(new URL(url).origin)) return;
+        settle();
+        socket.close();
+        reject(new Error(`This server does not let the page connect to ${new URL(url).origin}: an administrator can add it to BRIDGE_ORIGINS`));
+      };
+      document.addEventListener('securitypolicyviolation', onViolation);
+      const settle = () => {
+        clearTimeout(timer);
+        document.removeEventListener('securitypolicyviolation', onViolation);
+      };
       const timer = setTimeout(() => {
+        settle();
         socket.close();
         reject(new Error(`No answer from ${url} within ${timeoutMs / 1000} s`));
       }, timeoutMs);
-      socket.addEventListener('open', () => {
-        clearTimeout(timer);
+      const opened = () => {
+        settle();
+        socket.removeEventListener('message', onMessage);
         resolve(new SocketLink(socket));
-      });
+      };
+      const onMessage = (e: MessageEvent) => {
+        if (typeof e.data === 'string' && ready?.(e.data)) opened();
+      };
+      if (ready) socket.addEventListener('message', onMessage);
+      else socket.addEventListener('open', opened);
       socket.addEventListener('close', (e) => {
-        clearTimeout(timer);
+        settle();
         reject(new Error(`Could not connect to ${url}${e.reason ? `: ${e.reason}` : ''}`));
       });
     });

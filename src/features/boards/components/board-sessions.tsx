@@ -1,10 +1,11 @@
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { btn, fieldError } from '../../../components/ui';
-import { PAGE_SIZE, useBoardSessions, type BoardSession } from '../api/get-board-sessions';
+import type { SessionRecord } from '../../../lib/resources/sessions';
+import { PAGE_SIZE, useBoardSessions } from '../api/get-board-sessions';
 
 /** The verdict in words, never colour alone. */
-function verdictWords(s: BoardSession): string {
+function verdictWords(s: SessionRecord): string {
   if (s.passed) return 'Pass';
   return s.regression ? 'Fail — regression' : 'Fail';
 }

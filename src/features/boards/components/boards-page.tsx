@@ -4,6 +4,7 @@ import { Link, useNavigate } from 'react-router-dom';
 import { btnPrimary, fieldError, panel, panelTitle } from '../../../components/ui';
 import { useBoards, type BoardRecord } from '../../../lib/resources/boards';
 import { BoardForm } from './board-form';
+import { StationsPanel } from './stations-panel';
 
 const columns: PlainColumn<BoardRecord>[] = [
   {
@@ -54,6 +55,7 @@ export function BoardsPage({ canEdit }: { canEdit: boolean }) {
       {boards.isError && <p role="alert" className={fieldError}>The boards could not be loaded: {boards.error.message}</p>}
       {boards.data?.length === 0 && <p className="text-ink-soft">No boards registered yet.</p>}
       {boards.data && boards.data.length > 0 && <BoardsTable boards={boards.data} />}
+      <StationsPanel />
     </div>
   );
 }

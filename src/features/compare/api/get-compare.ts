@@ -1,14 +1,13 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
-import type { CompareReply } from './compare-types';
+import { compareReply } from '../../../../shared/contract/compare';
+import { apiReply } from '../../../lib/api';
 
 export const compareKeys = {
   all: ['compare'] as const,
   of: (ids: number[]) => [...compareKeys.all, ids.join(',')] as const,
-  recent: (coreId: number | null) => ['sessions', 'recent', coreId] as const,
 };
 
-export const getCompare = (ids: number[], signal?: AbortSignal) => api<CompareReply>(`/api/compare?ids=${ids.join(',')}`, { signal });
+export const getCompare = (ids: number[], signal?: AbortSignal) => apiReply(compareReply, `/api/compare?ids=${ids.join(',')}`, { signal });
 
 /** Stored sessions never change their samples, so a comparison stays good for a while. */
 export const compareQueryOptions = (ids: number[]) =>

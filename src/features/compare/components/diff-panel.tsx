@@ -39,7 +39,8 @@ function PairSummary({ pair, a, b }: { pair: ComparedPair; a: ComparedSession; b
         </p>
       )}
       {pair.firstDiffering.length > 0 && (
-        <div className="max-h-64 overflow-auto rounded border border-rule">
+        // Scrolls on its own: focusable and named, so a keyboard can reach and scroll it.
+        <div tabIndex={0} role="region" aria-label={`First differing codes, ${title} (scrolls)`} className="max-h-64 overflow-auto rounded border border-rule">
           <table className="w-full text-xs" aria-label={`First differing codes, ${title}`}>
             <caption className="sr-only">The first {pair.firstDiffering.length} differing codes in code order</caption>
             <thead className="sticky top-0 bg-panel text-left text-ink-soft">

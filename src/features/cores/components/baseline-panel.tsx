@@ -1,6 +1,6 @@
 import { Link } from 'react-router-dom';
 import { btn, fieldError } from '../../../components/ui';
-import { useBaselineSession } from '../api/get-baseline-session';
+import { useSession } from '../../../lib/resources/sessions';
 import { useUpdateCore } from '../api/update-core';
 import { LIMITS } from './core-meanings';
 import type { LimitKey } from '../../../../shared/link-engine/limits';
@@ -9,7 +9,8 @@ const num = (v: number) => v.toLocaleString('en-US', { maximumFractionDigits: 4 
 
 /** The session new ones are measured against; engineers may clear it (setting one is done from a session). */
 export function BaselinePanel({ coreId, sessionId, canEdit }: { coreId: number; sessionId: number | null; canEdit: boolean }) {
-  const session = useBaselineSession(sessionId);
+  // The session's own detail query: its page and this panel share one copy.
+  const session = useSession(sessionId);
   const update = useUpdateCore(coreId);
   if (sessionId === null) {
     return <p className="text-sm text-ink-soft">No baseline. Mark a passing session as the baseline from its session page.</p>;

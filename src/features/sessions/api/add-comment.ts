@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { api } from '../../../lib/api';
 import type { SessionComment } from './get-comments';
-import { sessionKeys } from './session-keys';
+import { sessionKeys } from '../../../lib/resources/sessions';
 
 export const addCommentInput = z.object({ body: z.string().trim().min(1, 'Write something first').max(10_000, 'A comment is limited to 10,000 characters') });
 export type AddCommentInput = z.infer<typeof addCommentInput>;

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api';
-import { sessionKeys } from './session-keys';
+import { sessionKeys } from '../../../lib/resources/sessions';
 
 export const deleteComment = (commentId: number) => api<void>(`/api/comments/${commentId}`, { method: 'DELETE' });
 

@@ -1,18 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
-import { sessionKeys } from './session-keys';
+import { apiReply } from '../../../lib/api';
+import { commentListReply, type SessionComment } from '../../../../shared/contract/misc';
+import { sessionKeys } from '../../../lib/resources/sessions';
 
-export interface SessionComment {
-  id: number;
-  sessionId: number;
-  authorId: number | null;
-  body: string;
-  createdAt: string;
-  author?: { id: number; name: string } | null;
-}
+export type { SessionComment };
 
 export const getComments = async (sessionId: number, signal?: AbortSignal) =>
-  (await api<{ comments: SessionComment[] }>(`/api/sessions/${sessionId}/comments`, { signal })).comments;
+  (await apiReply(commentListReply, `/api/sessions/${sessionId}/comments`, { signal })).comments;
 
 export const commentsQueryOptions = (sessionId: number) =>
   queryOptions({ queryKey: sessionKeys.comments(sessionId), queryFn: ({ signal }) => getComments(sessionId, signal) });

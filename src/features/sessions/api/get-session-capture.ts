@@ -3,7 +3,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { replayArchive, type Archive, type Direction } from '../../../../shared/link';
 import { fetchBytes } from './fetch-bytes';
-import { sessionKeys } from './session-keys';
+import { sessionKeys } from '../../../lib/resources/sessions';
 
 export interface SessionCapture {
   archive: Archive;

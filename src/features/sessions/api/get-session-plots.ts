@@ -5,7 +5,7 @@ import type { ModelConfig } from '../../../../shared/numeric';
 import { runStoredScore } from '../scoring/run-stored-score';
 import { scoringProgress } from '../scoring/scoring-progress';
 import { fetchBytes } from './fetch-bytes';
-import { sessionKeys } from './session-keys';
+import { sessionKeys } from '../../../lib/resources/sessions';
 
 export async function getSessionPlots(id: number, config: ModelConfig, signal?: AbortSignal) {
   const bytes = await fetchBytes(`/api/sessions/${id}/samples`, signal);

@@ -1,5 +1,5 @@
 import { Link } from 'react-router-dom';
-import type { SessionRecord } from '../api/session-types';
+import type { SessionRecord } from '../../../lib/resources/sessions';
 
 export const dateTime = (iso: string | null | undefined) => (iso ? new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'medium' }) : '—');
 /** Shorter, for table rows. */

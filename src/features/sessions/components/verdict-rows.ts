@@ -1,7 +1,7 @@
 // A session's verdict per limit, in words: what each limit is, what was measured, and by how
 // much it was met or missed (margin > 0: met with room; < 0: missed by that much).
 import { LIMIT_MEANINGS } from '../../../../shared/link-engine/limits';
-import type { LimitOutcome, Verdict } from '../api/session-types';
+import type { LimitOutcome, Verdict } from '../../../lib/resources/sessions';
 
 export const LIMIT_META: Record<string, { name: string; unit: string; atMost: boolean }> = LIMIT_MEANINGS;
 const ORDER = Object.keys(LIMIT_META);

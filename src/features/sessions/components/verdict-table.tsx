@@ -1,4 +1,4 @@
-import type { Verdict } from '../api/session-types';
+import type { Verdict } from '../../../lib/resources/sessions';
 import { formatNumber, verdictRows, type Outcome } from './verdict-rows';
 
 const OUTCOME: Record<Outcome, { words: string; cls: string }> = {

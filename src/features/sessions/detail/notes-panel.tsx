@@ -4,7 +4,7 @@ import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 import { useUpdateSession } from '../api/update-session';
-import type { SessionRecord } from '../api/session-types';
+import type { SessionRecord } from '../../../lib/resources/sessions';
 
 export const splitTags = (v: string) => [...new Set(v.split(',').map((t) => t.trim()).filter(Boolean))];
 

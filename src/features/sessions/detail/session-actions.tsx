@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { btn, fieldError, panel, panelTitle } from '../../../components/ui';
 import type { CoreRecord } from '../../../lib/resources/cores';
-import type { SessionRecord } from '../api/session-types';
+import type { SessionRecord } from '../../../lib/resources/sessions';
 import { useUpdateSession } from '../api/update-session';
 
 const linkBtn = `${btn} inline-block no-underline`;

@@ -4,7 +4,7 @@ import { SignalCharts, staticFeed } from '../../../components/charts/signal-char
 import { panel } from '../../../components/ui';
 import type { ModelConfig } from '../../../../shared/numeric';
 import { useSessionPlots } from '../api/get-session-plots';
-import type { SessionRecord } from '../api/session-types';
+import type { SessionRecord } from '../../../lib/resources/sessions';
 import { scoringProgress } from '../scoring/scoring-progress';
 
 const CHARTS = ['values', 'xy', 'errorCos', 'errorSin', 'histogram'] as const;

@@ -2,7 +2,7 @@ import { Link } from 'react-router-dom';
 import { panel, panelTitle } from '../../../components/ui';
 import { useMe } from '../../auth/api/get-me';
 import { useCore } from '../../../lib/resources/core-detail';
-import { useSession } from '../api/get-session';
+import { useSession } from '../../../lib/resources/sessions';
 import { CapturePane } from '../capture/capture-pane';
 import { LocalBoundary } from '../components/local-boundary';
 import { SessionFacts } from '../components/session-facts';

@@ -14,7 +14,7 @@ import type { CoreRecord } from '../../../lib/resources/cores';
 import { useDecideExplanation } from '../api/decide-explanation';
 import { fetchBytes } from '../api/fetch-bytes';
 import { useSaveExplanation } from '../api/save-explanation';
-import type { SessionRecord } from '../api/session-types';
+import type { SessionRecord } from '../../../lib/resources/sessions';
 import { DiffChart } from './diff-chart';
 import { runExplain, type ExplainResult } from './run-explain';
 import { TraceTable } from './trace-table';
@@ -22,7 +22,7 @@ import { TraceTable } from './trace-table';
 type Phase =
   | { kind: 'idle' }
   | { kind: 'running'; done: number; total: number; search: boolean }
-  | { kind: 'done'; result: ExplainResult; best: HypothesisRef; search: boolean }
+  | { kind: 'done'; result: ExplainResult; best: HypothesisRef; search: boolean; run: number }
   | { kind: 'cancelled' }
   | { kind: 'error'; message: string };
 
@@ -33,6 +33,7 @@ export function ExplainPanel({ session, core, canEdit }: { session: SessionRecor
   const stored = useExplanation(session.id);
   const [phase, setPhase] = useState<Phase>({ kind: 'idle' });
   const abort = useRef<AbortController | null>(null);
+  const runs = useRef(0);
   useEffect(() => () => abort.current?.abort(), []);
 
   const start = async (hypothesis: HypothesisRef | null) => {
@@ -47,7 +48,7 @@ export function ExplainPanel({ session, core, canEdit }: { session: SessionRecor
       const bytes = await fetchBytes(`/api/sessions/${session.id}/samples`, controller.signal);
       const result = await runExplain(bytes, declared, hypothesis, (done, total) => setPhase({ kind: 'running', done, total, search }), controller.signal);
       const best = hypothesis ?? result.explanation!.hypotheses[0] ?? { label: 'the declared model', config: declared, fault: null };
-      setPhase({ kind: 'done', result, best, search });
+      setPhase({ kind: 'done', result, best, search, run: ++runs.current });
     } catch (err) {
       if (controller.signal.aborted) setPhase({ kind: 'cancelled' });
       else setPhase({ kind: 'error', message: (err as Error).message });
@@ -185,7 +186,7 @@ function Result({ phase, sessionId, core, canEdit }: { phase: Extract<Phase, { k
     <div className="grid gap-4" data-testid="explain-result">
       {e && (
         <div className="grid gap-2">
-          <p className="text-xs text-ink-soft" data-testid="explain-elapsed" data-elapsed-ms={Math.round(result.elapsedMs)}>
+          <p className="text-xs text-ink-soft" data-testid="explain-elapsed" data-elapsed-ms={Math.round(result.elapsedMs)} data-run={phase.run}>
             Searched in this browser in {(result.elapsedMs / 1000).toFixed(1)} s over {count(e.answered)} answers.
           </p>
           {/* Once saved, the server's own result shows above: not twice. */}

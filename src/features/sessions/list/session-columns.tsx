@@ -2,7 +2,7 @@
 // shown as the server sent it.
 import { createColumnHelper, rowPaginationFeature, rowSelectionFeature, rowSortingFeature, tableFeatures } from '@tanstack/react-table';
 import { Link } from 'react-router-dom';
-import type { SessionRecord } from '../api/session-types';
+import type { SessionRecord } from '../../../lib/resources/sessions';
 import { shortDateTime } from '../components/session-facts';
 import { RegressionBadge, VerdictBadge } from '../components/verdict-badges';
 import { Sparkline } from './sparkline';

@@ -1,6 +1,7 @@
 // The Sessions list's filters, sort and page, kept in the address bar so a filtered list can be
 // shared and reloaded. Parsing is forgiving (a bad value is dropped, not an error page); the API
 // query is built from the parsed form only.
+import { sessionListSearch, type SessionListParams } from '../../../lib/resources/sessions';
 
 export const SORTS = ['-startedAt', 'startedAt', '-id', 'id'] as const;
 export type SortKey = (typeof SORTS)[number];
@@ -100,24 +101,24 @@ export function filtersToSearch(f: SessionFilters): URLSearchParams {
   return p;
 }
 
-/** The GET /api/sessions query string for these filters (without the leading "?"). */
-export function filtersToApiQuery(f: SessionFilters): string {
-  const p = new URLSearchParams();
-  if (f.coreId !== null) p.set('coreId', String(f.coreId));
-  if (f.buildId !== null) p.set('buildId', String(f.buildId));
-  if (f.boardId !== null) p.set('boardId', String(f.boardId));
-  if (f.operatorId !== null) p.set('operatorId', String(f.operatorId));
-  if (f.verdict !== null) p.set('passed', String(f.verdict === 'pass'));
-  if (f.regression !== null) p.set('regression', String(f.regression));
-  if (f.tag !== null) p.set('tag', f.tag);
+/** The GET /api/sessions parameters for these filters. */
+export function filtersToListParams(f: SessionFilters): SessionListParams {
+  const p: SessionListParams = {};
+  if (f.coreId !== null) p.coreId = f.coreId;
+  if (f.buildId !== null) p.buildId = f.buildId;
+  if (f.boardId !== null) p.boardId = f.boardId;
+  if (f.operatorId !== null) p.operatorId = f.operatorId;
+  if (f.verdict !== null) p.passed = f.verdict === 'pass';
+  if (f.regression !== null) p.regression = f.regression;
+  if (f.tag !== null) p.tag = f.tag;
   // Whole local days: from its midnight up to (not including) the midnight after `to`.
-  if (f.from !== null) p.set('from', localDay(f.from, 0).toISOString());
-  if (f.to !== null) p.set('to', new Date(localDay(f.to, 1).getTime() - 1).toISOString());
-  p.set('sort', f.sort);
-  p.set('page', String(f.page));
-  p.set('pageSize', String(f.pageSize));
-  return p.toString();
+  if (f.from !== null) p.from = localDay(f.from, 0).toISOString();
+  if (f.to !== null) p.to = new Date(localDay(f.to, 1).getTime() - 1).toISOString();
+  return { ...p, sort: f.sort, page: f.page, pageSize: f.pageSize };
 }
+
+/** The GET /api/sessions query string for these filters (without the leading "?"). */
+export const filtersToApiQuery = (f: SessionFilters): string => sessionListSearch(filtersToListParams(f));
 
 /** Change some filters; any change but the page itself goes back to page 1. */
 export function withFilters(f: SessionFilters, patch: Partial<SessionFilters>): SessionFilters {

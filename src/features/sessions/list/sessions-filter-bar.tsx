@@ -3,7 +3,7 @@ import { btn, input, label } from '../../../components/ui';
 import { useBoards } from '../../../lib/resources/boards';
 import { useBuildList } from '../../../lib/resources/builds';
 import { useCores } from '../../../lib/resources/cores';
-import type { Named } from '../api/session-types';
+import type { Named } from '../../../lib/resources/sessions';
 import { activeFilterCount, DEFAULT_FILTERS, type SessionFilters } from './session-filters';
 
 const idValue = (v: number | null) => (v === null ? '' : String(v));

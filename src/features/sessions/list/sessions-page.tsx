@@ -4,7 +4,7 @@ import { useNavigate, useSearchParams } from 'react-router-dom';
 import { btn, btnPrimary } from '../../../components/ui';
 import { useCores } from '../../../lib/resources/cores';
 import { useSessions } from '../api/get-sessions';
-import type { Named } from '../api/session-types';
+import type { Named } from '../../../lib/resources/sessions';
 import { MAX_COMPARE } from './session-columns';
 import { activeFilterCount, DEFAULT_FILTERS, filtersFromSearch, filtersToSearch, withFilters, type SessionFilters } from './session-filters';
 import { SessionsFilterBar } from './sessions-filter-bar';

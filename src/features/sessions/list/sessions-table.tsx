@@ -1,6 +1,6 @@
 import { useTable, type RowSelectionState, type SortingState, type Updater } from '@tanstack/react-table';
 import { useMemo } from 'react';
-import type { SessionRecord } from '../api/session-types';
+import type { SessionRecord } from '../../../lib/resources/sessions';
 import { MAX_COMPARE, sessionColumns, tableFeaturesUsed } from './session-columns';
 import { PAGE_SIZES, type SessionFilters, type SortKey } from './session-filters';
 import { btn, input } from '../../../components/ui';

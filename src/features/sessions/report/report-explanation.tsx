@@ -2,7 +2,7 @@
 // whose answers all equal the model, that the core matches its model.
 import { ExplanationSummary } from '../../../components/explanation-summary';
 import { useExplanation } from '../../../lib/resources/explanations';
-import type { SessionRecord } from '../api/session-types';
+import type { SessionRecord } from '../../../lib/resources/sessions';
 
 export function ReportExplanation({ session, className }: { session: SessionRecord; className: string }) {
   const saved = useExplanation(session.id);

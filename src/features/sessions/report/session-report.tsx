@@ -6,7 +6,7 @@ import { SignalCharts, staticFeed } from '../../../components/charts/signal-char
 import { btnPrimary } from '../../../components/ui';
 import { useBuild } from '../../../lib/resources/build-detail';
 import { useCore } from '../../../lib/resources/core-detail';
-import { useSession } from '../api/get-session';
+import { useSession } from '../../../lib/resources/sessions';
 import { ReportExplanation } from './report-explanation';
 import { useSessionPlots } from '../api/get-session-plots';
 import { SessionFacts } from '../components/session-facts';
