@@ -17,6 +17,7 @@ import { boardsRouter } from './routes/boards';
 import { buildsRouter } from './routes/builds';
 import { commentsRouter, sessionCommentsRouter } from './routes/comments';
 import { compareRouter } from './routes/compare';
+import { conditionGridRouter } from './routes/condition-grid';
 import { coresRouter } from './routes/cores';
 import type { RouteDeps } from './routes/deps';
 import { goldenVectorsRouter } from './routes/golden-vectors';
@@ -92,6 +93,7 @@ export function createApp({
   app.use('/api/sessions', sessionsRouter(deps));
   app.use('/api/comments', commentsRouter(deps));
   app.use('/api/compare', compareRouter(deps));
+  app.use('/api/condition-grid', conditionGridRouter());
   app.use('/api/audit', auditRouter());
   app.use('/api/outbox', outboxRouter());
   app.use('/api', apiNotFound);

@@ -6,6 +6,7 @@ import { limitsSchema, linkProfileSchema, modelConfigSchema } from '../schemas/c
 import { recordAudit } from '../services/audit';
 import { Board, Build, Core, CoreWatcher, initModels, Review, User, type Role } from './models';
 import { seedDemoSessions, seedGoldenVectors } from './seed-sessions';
+import { seedThermalSweep } from './seed-thermal';
 
 // Builds are dated before the sessions that ran on them (server/db/seed-sessions.ts).
 const daysAgo = (days: number) => new Date(Date.now() - days * 86_400_000);
@@ -73,6 +74,7 @@ export async function seedIfEmpty(db: Sequelize, password: string, bcryptCost = 
       opts,
     );
     const sessions = await seedDemoSessions(transaction, engineer.id, { reference, mixer, builds, boards });
+    sessions.push(...(await seedThermalSweep(transaction, engineer.id, { core: reference, build: builds[1], board: boards[2] })));
     await Review.create({ buildId: builds[1].id, reviewerId: reviewer.id, decision: 'approve', note: 'Sweep and edge set within limits on both benches.' }, opts);
     await seedGoldenVectors(reference, transaction);
     // The reviewer hears of reference-16's regressions.

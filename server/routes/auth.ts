@@ -5,7 +5,7 @@ import { csrfTokenOf, requireRole } from '../auth';
 import type { User } from '../db/models';
 import { HttpError } from '../http-error';
 import { validate } from '../middleware/validate';
-import { csrfReply, loginBody, loginReply, meReply } from '../../shared/contract/people';
+import { csrfReply, currentReply, loginBody, loginReply, meReply } from '../../shared/contract/people';
 import { reply } from './reply';
 
 export interface LoginLimit {
@@ -61,7 +61,7 @@ export function authRouter(passport: ReturnType<typeof createPassport>, limit: L
   // is 200 with null (a 401 would be logged in the browser's console); /me stays 401 for clients
   // that must be signed in.
   router.route('/current').get((req, res) => {
-    res.json({ user: req.user ? req.user.toPublic() : null });
+    reply(res, currentReply, { user: req.user ? req.user.toPublic() : null });
   });
 
   return router;

@@ -2,7 +2,7 @@
 import type { Mailer } from '../mail/mailer';
 import { sendRegressionMail } from '../mail/messages';
 import { BenchSession, Build, Core, CoreWatcher, User } from '../db/models';
-import { mailSafely } from '../routes/deps';
+import { mailSafely } from '../mail/safely';
 
 /** Tell the core's enabled watchers which limits `row` failed; `origin` is where links point. */
 export async function mailRegression(mailer: Mailer, origin: string, row: BenchSession, core: Core, failedLimits: string[]): Promise<void> {

@@ -8,6 +8,8 @@ import { recordAudit } from './audit';
 import { decodeSamples, judgeSession, regressedLimits, scoreSamples, sessionSpectrum, type LimitKey, type SessionSpectrum, type Verdict } from './session-scoring';
 import type { EnvelopeBounds } from './error-envelope';
 import type { ScoreSummary } from '../../shared/numeric/score';
+import type { Conditions, SoakRecord } from '../../shared/soak';
+import { saveSessionConditions } from './session-conditions';
 
 type Json = Record<string, unknown>;
 
@@ -28,6 +30,9 @@ export interface SessionDraft {
   tags?: string[];
   /** Link figures the runner or bench page reported (retries, check failures…). */
   link?: Json;
+  /** Operating conditions and a soak's books (session_conditions). */
+  conditions?: Conditions;
+  soak?: SoakRecord;
 }
 
 export interface StoredSession {
@@ -93,7 +98,7 @@ export async function storeSession(
   const spectrum = sessionSpectrum(draft.plan, core.modelConfig, decoded);
   const sfdrDb = spectrum ? Math.min(spectrum.cos.sfdrDbc, spectrum.sin.sfdrDbc) : undefined;
   const stored = spectrum ? { ...stats, spectrum } : stats;
-  const { verdict, passed } = judgeSession(core.limits, stats, { checkFailures, sfdrDb });
+  const { verdict, passed } = judgeSession(core.limits, stats, { checkFailures, sfdrDb, unstableCodes: draft.soak?.unstable.count });
   const baseline = core.baselineSessionId ? await BenchSession.findByPk(core.baselineSessionId, { attributes: ['id', 'verdict'], transaction }) : null;
   const failedLimits = baseline ? regressedLimits(baseline.verdict, verdict) : [];
 
@@ -121,6 +126,7 @@ export async function storeSession(
     },
     { transaction },
   );
+  await saveSessionConditions(transaction, row.id, draft.conditions, draft.soak);
   await recordAudit(transaction, operatorId, audit.action, 'session', row.id, { coreId: core.id, sampleCount: row.sampleCount, passed, regression: row.regression });
   return { row, core, stats: stored, verdict, passed, failedLimits, envelope };
 }

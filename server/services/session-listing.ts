@@ -5,8 +5,9 @@ import type { Literal } from 'sequelize/types/utils';
 import type { Sendable } from '../../shared/contract/check';
 import type { SessionListItem, SessionListQuery } from '../../shared/contract/sessions';
 import { jsonArrayContains } from '../db/dialect';
-import { BenchSession, Board, Build, Core, User } from '../db/models';
+import { BenchSession, Board, Build, Core, SessionConditions, User } from '../db/models';
 import { notFound } from '../http-error';
+import { conditionRangeWhere, conditionsView } from './session-conditions';
 
 /** Without the blobs, with whether an archive is kept and the names a list shows. */
 const LISTED = {
@@ -16,13 +17,17 @@ const LISTED = {
     { model: Build, as: 'build', attributes: ['id', 'label'] },
     { model: Board, as: 'board', attributes: ['id', 'name'] },
     { model: User, as: 'operator', attributes: ['id', 'name'] },
+    { model: SessionConditions, as: 'conditions', attributes: { exclude: ['soak'] } },
   ],
 };
+/** The detail reads the soak's books as well. */
+const DETAILED = { ...LISTED, include: [...LISTED.include.slice(0, -1), { model: SessionConditions, as: 'conditions' }] };
 /** The names LISTED includes (not part of the model's own attributes). */
 type Included = Sendable<Pick<SessionListItem, 'core' | 'build' | 'board' | 'operator'>>;
-const listed = (row: BenchSession): Sendable<SessionListItem> => ({
+const listed = (row: BenchSession, withSoak = false): Sendable<SessionListItem> => ({
   ...row.toJSON<InferAttributes<BenchSession> & Included>(),
   hasArchive: Boolean(row.get('hasArchive')),
+  ...conditionsView(row.get('conditions') as SessionConditions | null, { withSoak }),
 });
 
 function listWhere(q: SessionListQuery): WhereOptions {
@@ -31,7 +36,11 @@ function listWhere(q: SessionListQuery): WhereOptions {
     if (q[key] !== undefined) where[key] = q[key];
   }
   if (q.from || q.to) where.startedAt = { ...(q.from ? { [Op.gte]: q.from } : {}), ...(q.to ? { [Op.lte]: q.to } : {}) };
-  if (q.tag) where[Op.and] = jsonArrayContains(BenchSession.sequelize!, '"BenchSession"."tags"', q.tag);
+  const and: unknown[] = [];
+  if (q.tag) and.push(jsonArrayContains(BenchSession.sequelize!, '"BenchSession"."tags"', q.tag));
+  const ranges = conditionRangeWhere(q);
+  if (ranges) and.push(ranges);
+  if (and.length > 0) where[Op.and] = and;
   return where as WhereOptions;
 }
 
@@ -48,14 +57,14 @@ export async function listSessions(q: SessionListQuery) {
     BenchSession.count({ where }),
   ]);
   const rows = page.length ? await BenchSession.findAll({ ...LISTED, where: { id: page.map((r) => r.id) }, order }) : [];
-  return { items: rows.map(listed), total: count, page: q.page, pageSize: q.pageSize };
+  return { items: rows.map((row) => listed(row)), total: count, page: q.page, pageSize: q.pageSize };
 }
 
 /** One session with its names, without the blobs. @throws HttpError 404 */
 export async function sessionDetail(id: number) {
-  const session = await BenchSession.findByPk(id, LISTED);
+  const session = await BenchSession.findByPk(id, DETAILED);
   if (!session) throw notFound('Session');
-  return { session: listed(session) };
+  return { session: listed(session, true) };
 }
 
 /** A stored session with (default) or without its blobs. @throws HttpError 404 */

@@ -42,21 +42,20 @@ function offlineWhy(code: number, reason: string): string {
 
 export function registerStationSockets(sockets: SocketDispatcher, registry: StationRegistry, pingMs = STATION_PING_MS) {
   const registrations = new WeakMap<IncomingMessage, StationRegistration>();
-  const alive = new WeakMap<WebSocket, boolean>();
-  const watched = new Set<WebSocket>();
+  // Pings sent since the last pong, per socket: two unanswered and the peer is taken as gone.
+  const unanswered = new Map<WebSocket, number>();
   const watch = (ws: WebSocket) => {
-    watched.add(ws);
-    alive.set(ws, true);
-    ws.on('pong', () => alive.set(ws, true));
-    ws.on('close', () => watched.delete(ws));
+    unanswered.set(ws, 0);
+    ws.on('pong', () => unanswered.set(ws, 0));
+    ws.on('close', () => unanswered.delete(ws));
   };
   const pinger = setInterval(() => {
-    for (const ws of watched) {
-      if (alive.get(ws) === false) {
+    for (const [ws, n] of unanswered) {
+      if (n >= 2) {
         ws.terminate();
         continue;
       }
-      alive.set(ws, false);
+      unanswered.set(ws, n + 1);
       ws.ping();
     }
   }, pingMs);

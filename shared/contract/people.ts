@@ -39,6 +39,9 @@ export const loginReply = z.object({ user: publicUser, csrfToken: z.string() });
 /** GET /api/auth/me: who is signed in, and whether by the sign-in cookie or an API token. */
 export const meReply = z.object({ user: publicUser, via: z.enum(['session', 'token']) });
 export type MeReply = z.infer<typeof meReply>;
+/** GET /api/auth/current: who is signed in, or null when nobody is (200 either way). */
+export const currentReply = z.object({ user: publicUser.nullable() });
+export type CurrentReply = z.infer<typeof currentReply>;
 
 export const invitation = z.object({
   id: z.number().int(),

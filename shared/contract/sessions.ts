@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { limitsSchema } from '../link-engine/limits';
 import type { ScoreSummary } from '../numeric/score';
 import type { ToneFigures } from '../numeric/spectral';
+import { conditionsSchema, CONDITION_RANGES, soakRecordSchema } from '../soak';
 import { buildBrief, coreBrief, flag, id, isoDate, jsonObject, named, tags, text, typedObject } from './common';
 
 /**
@@ -26,6 +27,9 @@ export const sessionUploadPart = z
     notes: text(10_000).default(''),
     tags: tags.default([]),
     link: jsonObject.optional(),
+    /** Operating conditions (shared/soak/conditions.ts) and, for a soak, its books. */
+    conditions: conditionsSchema.optional(),
+    soak: soakRecordSchema.optional(),
     stats: z.unknown().optional(),
     verdict: z.unknown().optional(),
     passed: z.unknown().optional(),
@@ -48,6 +52,22 @@ export const sessionImportPart = z
   .refine((s) => s.coreId !== undefined || s.coreSlug !== undefined, { path: ['coreId'], message: 'coreId or coreSlug is required' });
 export type SessionImportPart = z.infer<typeof sessionImportPart>;
 
+/** Condition filter names of the list, each a bound of one named condition's range. */
+export const CONDITION_FILTERS = {
+  temperatureMin: ['temperature_c', 'min'],
+  temperatureMax: ['temperature_c', 'max'],
+  vccintMin: ['vccint_v', 'min'],
+  vccintMax: ['vccint_v', 'max'],
+  clockMin: ['clock_mhz', 'min'],
+  clockMax: ['clock_mhz', 'max'],
+} as const;
+export type ConditionFilter = keyof typeof CONDITION_FILTERS;
+
+function conditionRangeFilters() {
+  const bound = (name: keyof typeof CONDITION_RANGES) => z.coerce.number().min(CONDITION_RANGES[name].min).max(CONDITION_RANGES[name].max).optional();
+  return Object.fromEntries(Object.entries(CONDITION_FILTERS).map(([key, [name]]) => [key, bound(name)])) as Record<ConditionFilter, ReturnType<typeof bound>>;
+}
+
 /** GET /api/sessions: filters, order and page. */
 export const sessionListQuery = z.strictObject({
   coreId: id.optional(),
@@ -59,6 +79,7 @@ export const sessionListQuery = z.strictObject({
   tag: text(40).min(1).optional(),
   from: z.coerce.date().optional(),
   to: z.coerce.date().optional(),
+  ...conditionRangeFilters(),
   sort: z.enum(['startedAt', '-startedAt', 'id', '-id']).default('-startedAt'),
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(25),
@@ -133,6 +154,12 @@ export const sessionListItem = sessionRow.extend({
   board: named.nullable(),
   operator: named.nullable(),
   hasArchive: z.boolean(),
+  /** Operating conditions (`{}` when none were recorded); a soak's passes and unstable codes (null: not a soak). Defaults keep older replies readable. */
+  conditions: conditionsSchema.default({}),
+  soakPasses: z.number().int().nullable().default(null),
+  unstableCodes: z.number().int().nullable().default(null),
+  /** The soak's books: in the detail only (null for a single pass). */
+  soak: soakRecordSchema.nullable().optional(),
 });
 export type SessionListItem = z.infer<typeof sessionListItem>;
 

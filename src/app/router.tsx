@@ -43,6 +43,10 @@ export const router = createBrowserRouter([
         lazy: async () => ({ Component: (await import('./routes/session-report')).SessionReportRoute, loader: requireUser(queryClient) }),
       },
       {
+        path: 'conditions',
+        lazy: async () => ({ Component: (await import('./routes/condition-grid')).ConditionGridRoute, loader: requireUser(queryClient) }),
+      },
+      {
         path: 'compare',
         lazy: async () => ({ Component: (await import('./routes/compare')).CompareRoute, loader: requireUser(queryClient) }),
       },

@@ -45,8 +45,17 @@ describe('two runs on one bench connection', () => {
     await page.getByRole('button', { name: 'Save session' }).click();
     const form = page.getByRole('form', { name: 'Save session' });
     await expect.poll(() => form.getByLabel('Core').inputValue()).not.toBe('');
+    // Operating conditions, with the caution once; a value out of range is refused on its field.
+    expect(await form.getByRole('note').filter({ hasText: 'rated temperature, supply or clock' }).count()).toBe(1);
+    await form.getByLabel('Temperature (°C)').fill('400');
+    await form.getByRole('button', { name: 'Save', exact: true }).click();
+    await expect.poll(() => form.getByText('temperature_c must be -70..200 °C, got 400').count()).toBe(1);
+    await form.getByLabel('Temperature (°C)').fill('55');
+    await form.getByLabel('Supply, VCCINT (V)').fill('0.95');
+    await form.getByLabel(/^Other conditions/).fill('chamber=TC-2');
     await form.getByRole('button', { name: 'Save', exact: true }).click();
     await page.waitForURL(/\/sessions\/\d+$/, { timeout: 20_000 });
+    await expect.poll(() => page.getByLabel('Recorded conditions').innerText()).toMatch(/Temperature\s+55 °C[\s\S]*Core supply\s+0\.95 V[\s\S]*chamber\s+TC-2/);
     const id = Number(new URL(page.url()).pathname.split('/').pop());
     await page.waitForTimeout(500);
     await page.screenshot({ path: '/tmp/bench-runs-saved.png', fullPage: true });

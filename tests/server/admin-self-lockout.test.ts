@@ -1,4 +1,5 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { User } from '../../server/db/models';
 import { testApp, type Agent, type TestApp } from '../support/test-app';
 
 let t: TestApp;
@@ -9,6 +10,10 @@ beforeAll(async () => {
   admin = await t.signInAs('admin');
 });
 afterAll(() => t.close());
+// Every test starts from the team as created: one admin, one engineer, one enabled reviewer.
+beforeEach(async () => {
+  for (const role of ['admin', 'engineer', 'reviewer'] as const) await User.update({ role, disabled: false }, { where: { id: t.users[role].id } });
+});
 
 describe('an admin cannot lock themselves out', () => {
   it('refuses to disable their own account, even with another admin on the team', async () => {
@@ -35,7 +40,8 @@ describe('an admin cannot lock themselves out', () => {
   });
 
   it('lets another admin demote them', async () => {
-    const second = await t.signIn(t.users.engineer.email); // made admin in the first test
+    await admin.patch(`/api/users/${t.users.engineer.id}`).send({ role: 'admin' }).expect(200);
+    const second = await t.signIn(t.users.engineer.email);
     const res = await second.patch(`/api/users/${t.users.admin.id}`).send({ role: 'engineer' }).expect(200);
     expect(res.body.user.role).toBe('engineer');
   });

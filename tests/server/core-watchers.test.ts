@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { benchFixtures } from '../support/fixtures';
 import { testApp, type Agent, type TestApp } from '../support/test-app';
 
@@ -14,6 +14,11 @@ beforeAll(async () => {
   engineer = await t.signInAs('engineer');
 });
 afterAll(() => t.close());
+// Each test starts from nobody watching, so none depends on another having run first.
+beforeEach(async () => {
+  await reviewer.delete(`/api/cores/${coreId}/watch`).expect(204);
+  await engineer.delete(`/api/cores/${coreId}/watch`).expect(204);
+});
 
 describe('GET /api/cores/:id lists who watches the core', () => {
   it('starts with nobody watching', async () => {
@@ -35,6 +40,7 @@ describe('GET /api/cores/:id lists who watches the core', () => {
   });
 
   it('lists every watcher by name, and drops one who stops watching', async () => {
+    await reviewer.put(`/api/cores/${coreId}/watch`).expect(204);
     await engineer.put(`/api/cores/${coreId}/watch`).expect(204);
     await engineer.put(`/api/cores/${coreId}/watch`).expect(204); // twice is still once
     const both = await engineer.get(`/api/cores/${coreId}`).expect(200);
@@ -48,7 +54,10 @@ describe('GET /api/cores/:id lists who watches the core', () => {
   });
 
   it('never shows a watcher’s e-mail or password hash', async () => {
+    await reviewer.put(`/api/cores/${coreId}/watch`).expect(204);
+    await engineer.put(`/api/cores/${coreId}/watch`).expect(204);
     const res = await reviewer.get(`/api/cores/${coreId}`).expect(200);
+    expect(res.body.watchers).toHaveLength(2);
     for (const w of res.body.watchers) expect(Object.keys(w).sort()).toEqual(['id', 'name']);
   });
 });

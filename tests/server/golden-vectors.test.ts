@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { AuditEntry, Core, GoldenVectorSet } from '../../server/db/models';
 import { modelConfigSchema } from '../../server/schemas/core';
 import { createCordicModel } from '../../shared/numeric';
@@ -32,6 +32,8 @@ beforeAll(async () => {
   reviewer = await t.signInAs('reviewer');
 });
 afterAll(() => t.close());
+// Each test starts with no sets, so the list it reads is its own in any order.
+beforeEach(() => GoldenVectorSet.destroy({ where: {} }));
 
 describe('golden vectors of a core', () => {
   it('are uploaded as CSV and summarised: count, distinct codes, coverage of the code range, agreement with the model', async () => {

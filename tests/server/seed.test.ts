@@ -5,7 +5,8 @@ import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
 import { openDatabase } from '../../server/db/connection';
 import { migrate } from '../../server/db/migrator';
-import { BenchSession, Board, Build, Core, GoldenVectorSet, Review, User } from '../../server/db/models';
+import { BenchSession, Board, Build, Core, GoldenVectorSet, Review, SessionConditions, User } from '../../server/db/models';
+import { conditionGrid } from '../../server/services/condition-grid';
 import { unpackSamples } from '../../shared/link-engine/sample-pack';
 import { ScoreAccumulator } from '../../shared/numeric/score';
 import { demoAccountsPresent, seedIfEmpty } from '../../server/db/seed';
@@ -18,9 +19,12 @@ const columns = (s: BenchSession) => {
   return [u.codes, u.cos, u.sin] as const;
 };
 let db: Sequelize;
+let seeded: boolean;
+// Seeded once for the whole file, so each test reads the same demo data in any order.
 beforeAll(async () => {
   db = openDatabase(tmp.url);
   await migrate(db);
+  seeded = await seedIfEmpty(db, 'demo-password', 4);
 });
 afterAll(async () => {
   await db.close();
@@ -29,7 +33,7 @@ afterAll(async () => {
 
 describe('the demo seed', () => {
   it('fills an empty database once, with one account per role and the default reference core', async () => {
-    expect(await seedIfEmpty(db, 'demo-password', 4)).toBe(true);
+    expect(seeded).toBe(true);
     expect(await seedIfEmpty(db, 'demo-password', 4)).toBe(false);
     expect((await User.findAll()).map((u) => `${u.email} ${u.role}`).sort()).toEqual([
       'admin@anglebench.test admin',
@@ -46,7 +50,8 @@ describe('the demo seed', () => {
   });
 
   it('holds a dozen scored sessions from the model and the board’s faults: one regression, a passing baseline per core', async () => {
-    const sessions = await BenchSession.findAll({ order: [['startedAt', 'ASC']] });
+    // The thermal sweep's soaks are checked on their own below.
+    const sessions = (await BenchSession.findAll({ order: [['startedAt', 'ASC']] })).filter((s) => !s.tags.includes('soak'));
     expect(sessions).toHaveLength(12);
     const regressions = sessions.filter((s) => s.regression);
     expect(regressions).toHaveLength(1);
@@ -74,6 +79,24 @@ describe('the demo seed', () => {
     expect(new ScoreAccumulator(reference!.modelConfig).add(codes.codes, codes.cos, codes.sin).summary().mismatches.count).toBe(0);
     const approved = await Review.findOne({ where: { decision: 'approve' } });
     expect(sessions.find((s) => s.id === reference!.baselineSessionId)?.buildId).toBe(approved?.buildId);
+  });
+
+  it('holds a thermal sweep of soaks on ref16-r2 that passes at 25 and 55 °C and is unstable at 85 °C on the lowest supply', async () => {
+    const build = await Build.findOne({ where: { label: 'ref16-r2' } });
+    const grid = await conditionGrid({ buildId: build!.id, x: 'temperature_c', y: 'vccint_v' });
+    expect(grid.xs).toEqual([25, 55, 85]);
+    expect(grid.ys).toEqual([0.9, 0.95, 1.0]);
+    const verdicts = Object.fromEntries(grid.cells.map((c) => [`${c.x}/${c.y}`, c.verdict]));
+    expect(verdicts).toEqual({
+      '25/0.9': 'pass', '55/0.9': 'pass', '85/0.9': 'unstable',
+      '25/0.95': 'pass', '55/0.95': 'pass', '85/0.95': 'pass',
+      '25/1': 'pass', '55/1': 'pass', '85/1': 'pass',
+    });
+    const hot = grid.sessions.find((s) => s.x === 85 && s.y === 0.9)!;
+    expect(hot.unstableCodes).toBeGreaterThan(5);
+    const row = await SessionConditions.findOne({ where: { sessionId: hot.id } });
+    expect(row!.soak!.unstable.codes.every((u) => u.answers.length >= 2)).toBe(true);
+    expect(row!.soak!.summary.passes).toBe(5);
   });
 
   it('lets the demo accounts sign in with the demo password', async () => {

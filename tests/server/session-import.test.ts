@@ -116,22 +116,35 @@ describe('POST /api/sessions/import', () => {
 });
 
 describe('GET /api/sessions list items', () => {
+  // A core and two imports of their own (a tagged CSV, then an archive), so these tests read the
+  // same rows whatever ran before them.
+  let listCore: Core;
+  let listBuild: Build;
+  beforeAll(async () => {
+    listCore = await Core.create({ name: 'Listed core', slug: 'listed-core', linkProfile: {}, modelConfig: config, limits: { maxAbsErrorLsb: 4 }, baselineSessionId: null });
+    listBuild = await Build.create({ coreId: listCore.id, label: 'imp-2', sourceRevision: 'cafe', toolVersion: 't', clockMHz: 100, createdById: t.users.engineer.id });
+    await importFile(engineer, toCsv(answers()), 'listed.csv', { coreId: listCore.id, buildId: listBuild.id, tags: ['listed-rtl-sim'] }).expect(201);
+    await importFile(engineer, Buffer.from(listCapture(CODES, config, 5)), 'listed.abrc', { coreId: listCore.id }).expect(201);
+  });
+
   it('name their core, build, board and operator, say whether an archive is kept and carry the error profile', async () => {
-    const res = await reviewer.get(`/api/sessions?coreId=${core.id}&sort=id`).expect(200);
+    const res = await reviewer.get(`/api/sessions?coreId=${listCore.id}&sort=id`).expect(200);
+    expect(res.body.total).toBe(2);
     const [csv, archived] = res.body.items;
-    expect(csv).toMatchObject({ core: { id: core.id, name: 'Import core', slug: 'import-core' }, build: { id: build.id, label: 'imp-1' }, board: null, operator: { name: 'Test engineer' }, hasArchive: false });
+    expect(csv).toMatchObject({ core: { id: listCore.id, name: 'Listed core', slug: 'listed-core' }, build: { id: listBuild.id, label: 'imp-2' }, board: null, operator: { name: 'Test engineer' }, hasArchive: false });
     expect(archived.hasArchive).toBe(true);
     const a = answers();
     expect(csv.profile).toHaveLength(PROFILE_BINS);
     expect(csv.profile).toEqual(errorProfile(config, a.codes, a.cos, a.sin));
     const detail = await reviewer.get(`/api/sessions/${archived.id}`).expect(200);
-    expect(detail.body.session).toMatchObject({ hasArchive: true, core: { slug: 'import-core' } });
+    expect(detail.body.session).toMatchObject({ hasArchive: true, core: { slug: 'listed-core' } });
   });
 
   it('filter by tag, exactly', async () => {
-    const tagged = await reviewer.get('/api/sessions?tag=rtl-sim').expect(200);
+    const tagged = await reviewer.get('/api/sessions?tag=listed-rtl-sim').expect(200);
     expect(tagged.body.total).toBe(1);
-    expect((await reviewer.get('/api/sessions?tag=rtl').expect(200)).body.total).toBe(0);
+    expect(tagged.body.items[0].core.id).toBe(listCore.id);
+    expect((await reviewer.get('/api/sessions?tag=listed-rtl').expect(200)).body.total).toBe(0);
     expect((await reviewer.get(`/api/sessions?tag=${encodeURIComponent("x' OR 1=1 --")}`).expect(200)).body.total).toBe(0);
   });
 });

@@ -135,31 +135,55 @@ describe('POST /api/sessions', () => {
 });
 
 describe('GET /api/sessions', () => {
+  // Five sessions of their own, on a day no other test uses, so the counts hold in any order:
+  // two on listCore (one failing), three on listOther (a passing baseline, a pass, a regression).
+  const DAY = { from: '2031-05-01T00:00:00Z', to: '2031-05-01T23:59:59Z' };
+  const onDay = (query = '') => `/api/sessions?from=${DAY.from}&to=${DAY.to}${query ? `&${query}` : ''}`;
+  let listCore: Core;
+  let listOther: Core;
+  let listBuild: Build;
+  let withoutArchive: number;
+  beforeAll(async () => {
+    const limits = { maxAbsErrorLsb: 4, maxModelMismatches: 0 };
+    listCore = await Core.create({ name: 'List core', slug: 'list-core', linkProfile: {}, modelConfig: config, limits, baselineSessionId: null });
+    listOther = await Core.create({ name: 'List other', slug: 'list-other', linkProfile: {}, modelConfig: config, limits, baselineSessionId: null });
+    listBuild = await Build.create({ coreId: listCore.id, label: 'l1', sourceRevision: 'beef', toolVersion: 't', clockMHz: 100, createdById: t.users.engineer.id });
+    const at = (minute: number) => ({ startedAt: `2031-05-01T09:0${minute}:00.000Z`, endedAt: `2031-05-01T09:0${minute}:30.000Z` });
+    withoutArchive = (await upload(engineer, run().packed, { coreId: listCore.id, buildId: listBuild.id, ...at(0) }).expect(201)).body.id;
+    await upload(engineer, run([[10, 40]]).packed, { coreId: listCore.id, buildId: listBuild.id, ...at(1) }).expect(201);
+    const base = await upload(engineer, run().packed, { coreId: listOther.id, buildId: null, ...at(2) }).expect(201);
+    await listOther.update({ baselineSessionId: base.body.id });
+    await upload(engineer, run().packed, { coreId: listOther.id, buildId: null, ...at(3) }).expect(201);
+    await upload(engineer, run([[3, 40]]).packed, { coreId: listOther.id, buildId: null, ...at(4) }).expect(201);
+  });
+
   it('filters by core, passed and regression and pages the result without BLOBs', async () => {
-    const all = await reviewer.get('/api/sessions').expect(200);
+    const all = await reviewer.get(onDay()).expect(200);
     expect(all.body).toMatchObject({ total: 5, page: 1, pageSize: 25 });
     expect(all.body.items[0].samples).toBeUndefined();
-    const ofOther = await reviewer.get(`/api/sessions?coreId=${other.id}`).expect(200);
+    const ofOther = await reviewer.get(onDay(`coreId=${listOther.id}`)).expect(200);
     expect(ofOther.body.total).toBe(3);
-    const failed = await reviewer.get('/api/sessions?passed=false').expect(200);
+    const failed = await reviewer.get(onDay('passed=false')).expect(200);
     expect(failed.body.total).toBe(2);
-    const regressions = await reviewer.get('/api/sessions?regression=true').expect(200);
+    const regressions = await reviewer.get(onDay('regression=true')).expect(200);
     expect(regressions.body.total).toBe(1);
-    const byBuild = await reviewer.get(`/api/sessions?buildId=${build.id}&boardId=${board.id}&operatorId=${t.users.engineer.id}`).expect(200);
+    const byBuild = await reviewer.get(onDay(`buildId=${listBuild.id}&boardId=${board.id}&operatorId=${t.users.engineer.id}`)).expect(200);
     expect(byBuild.body.total).toBe(2);
 
-    const page1 = await reviewer.get('/api/sessions?sort=id&pageSize=2&page=1').expect(200);
-    const page3 = await reviewer.get('/api/sessions?sort=id&pageSize=2&page=3').expect(200);
+    const page1 = await reviewer.get(onDay('sort=id&pageSize=2&page=1')).expect(200);
+    const page3 = await reviewer.get(onDay('sort=id&pageSize=2&page=3')).expect(200);
     expect(page1.body.items.map((s: { id: number }) => s.id)).toEqual([all.body.items[4].id, all.body.items[3].id]);
     expect(page3.body.items).toHaveLength(1);
     expect(page3.body.total).toBe(5);
   });
 
   it('filters by start date', async () => {
-    const none = await reviewer.get('/api/sessions?from=2026-03-02T00:00:00Z').expect(200);
+    const none = await reviewer.get('/api/sessions?from=2031-05-02T00:00:00Z&to=2031-05-31T00:00:00Z').expect(200);
     expect(none.body.total).toBe(0);
-    const some = await reviewer.get('/api/sessions?from=2026-03-01T00:00:00Z&to=2026-03-01T23:59:59Z').expect(200);
+    const some = await reviewer.get(onDay()).expect(200);
     expect(some.body.total).toBe(5);
+    const firstTwo = await reviewer.get(`/api/sessions?from=${DAY.from}&to=2031-05-01T09:01:00Z`).expect(200);
+    expect(firstTwo.body.total).toBe(2);
   });
 
   it('refuses a page size over 100 and unknown filters with 400', async () => {
@@ -169,8 +193,8 @@ describe('GET /api/sessions', () => {
 
   it('answers 404 for an unknown session and for a session without an archive', async () => {
     await reviewer.get('/api/sessions/999999').expect(404);
-    const list = await reviewer.get(`/api/sessions?coreId=${other.id}`).expect(200);
-    await reviewer.get(`/api/sessions/${list.body.items[0].id}/archive`).expect(404);
+    await reviewer.get(`/api/sessions/${withoutArchive}`).expect(200);
+    await reviewer.get(`/api/sessions/${withoutArchive}/archive`).expect(404);
   });
 });
 

@@ -20,7 +20,11 @@ import { manualClock } from '../support/manual-clock';
 import { realEngineClock } from '../support/in-process-board';
 import { testApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
 import { listen, signInCookie, type ListeningApp } from '../support/listening-app';
-import { mockSerialBoard } from '../unit/cli/run-support';
+import { captureIo, mockSerialBoard } from '../unit/cli/run-support';
+import { runRunCommand } from '../../cli/run';
+import { createInterrupt } from '../../cli/interrupt';
+import { Core } from '../../server/db/models';
+import { modelConfigSchema } from '../../server/schemas/core';
 import { makeLabCertificate } from '../../scripts/lab-certificate';
 
 /** A WebSocket client that keeps what it hears: the upgrade's outcome, binary and text messages, the close. */
@@ -86,7 +90,7 @@ async function driver(headers: Record<string, string>, name = REG.name) {
 }
 
 beforeEach(async () => {
-  t = await testApp({ stations: { clock: clock.clock, idleTimeoutMs: 60_000, pingMs: 100 } });
+  t = await testApp({ stations: { clock: clock.clock, idleTimeoutMs: 60_000 } });
   srv = await listen(t.app);
   for (const role of ['reviewer', 'engineer', 'admin'] as const) tokens[role] = await makeToken(role);
 });
@@ -187,6 +191,9 @@ describe('stations on the server', { timeout: 30_000 }, () => {
 
 describe('a station whose connection went half-open', () => {
   it('is dropped after two unanswered pings, and its driver closed with the reason', async () => {
+    // A relay pinging every 50 ms, on the same database (the default is 15 s).
+    await srv.close();
+    srv = await listen(createApp({ config: t.config, db: t.db, mailer: t.mailer, uploadDir: t.uploadDir, bcryptCost: 4, stations: { pingMs: 50 } }));
     const silent = client(connectUrl(srv.wsUrl), bearer('engineer'), false); // answers no ping, like a dead peer
     await silent.note('registered');
     const d = await driver(bearer('admin'));
@@ -227,6 +234,21 @@ describe('the CLI station through the relay', { timeout: 60_000 }, () => {
     expect(result.sin).toEqual(sin);
     await link.close();
     expect(lines.some((l) => l.includes('driven by Test admin'))).toBe(true);
+  });
+
+  it('is driven by `run --device station:NAME`: the runner\'s verdict passes and the session is uploaded', async () => {
+    await Core.create({ name: 'Station core', slug: 'station-core', linkProfile: { baud: 12_000_000 }, modelConfig: modelConfigSchema.parse({}), limits: { maxModelMismatches: 0 }, baselineSessionId: null });
+    board = await startMockServer({ ...defaultBoardSettings(), baud: 12_000_000 }, 0, '127.0.0.1', () => undefined);
+    station = await startStation({ server: srv.url, token: tokens.engineer, device: board.url, name: 'Run bay', baud: 12_000_000, ca: null, insecure: false }, { log: () => undefined });
+    await until(() => station!.online);
+    const io = captureIo();
+    const status = await runRunCommand(['--device', 'station:Run bay', '--server', srv.url, '--token', tokens.engineer, '--plan', 'sweep:0,7,4096', '--core', 'station-core', '--json'], io, { interrupt: createInterrupt() });
+    expect(io.err).not.toMatch(/^error:/m);
+    expect(status).toBe(0);
+    const summary = JSON.parse(io.out) as { verdict: { passed: boolean }; sessionId: number | null };
+    expect(summary).toMatchObject({ verdict: { passed: true } });
+    const sessions = await fetch(`${srv.url}/api/sessions`, { headers: bearer('reviewer') }).then((r) => r.json() as Promise<{ items: { sampleCount: number }[] }>);
+    expect(sessions.items.map((x) => x.sampleCount)).toEqual([4096]);
   });
 
   it('carries a run from a serial port (serialport\'s mock binding) unchanged', async () => {

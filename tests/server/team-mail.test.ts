@@ -62,8 +62,19 @@ describe('reviews', () => {
 
 describe('the audit log', () => {
   it('records each change with who made it', async () => {
+    // Its own invitation and review, so it reads the same in any order.
+    await admin.post('/api/invitations').send({ email: 'audited.colleague@lab.test', role: 'engineer' }).expect(201);
+    const token = /\/invite\/(\S+)/.exec((await outbox()).find((m) => m.to.includes('audited.colleague@lab.test'))!.text)![1];
+    await (await t.visitor()).post('/api/invitations/accept').send({ token, name: 'Audited Colleague', password: 'a-long-password' }).expect(201);
+    await (await t.signInAs('engineer')).post(`/api/builds/${buildId}/request-review`).expect(202);
+    await (await t.signInAs('reviewer')).post(`/api/builds/${buildId}/reviews`).send({ decision: 'approve', note: 'Audited' }).expect(201);
+
     const res = await admin.get('/api/audit').expect(200);
-    const actions = (res.body.entries as Array<{ action: string; entity: string; userId: number }>).map((e) => `${e.action} ${e.entity}`);
-    expect(actions).toEqual(expect.arrayContaining(['create invitation', 'accept invitation', 'request_review build', 'approve build']));
+    const entries = res.body.entries as Array<{ action: string; entity: string; userId: number }>;
+    const by = (action: string, entity: string) => entries.find((e) => e.action === action && e.entity === entity)?.userId;
+    expect(by('create', 'invitation')).toBe(t.users.admin.id);
+    expect(by('accept', 'invitation')).toEqual(expect.any(Number));
+    expect(by('request_review', 'build')).toBe(t.users.engineer.id);
+    expect(by('approve', 'build')).toBe(t.users.reviewer.id);
   });
 });

@@ -9,6 +9,7 @@ const nav: Array<{ to: string; label: string; end: boolean; hideFor?: Role[] }> 
   { to: '/bench', label: 'Bench', end: false, hideFor: ['reviewer'] },
   { to: '/sessions', label: 'Sessions', end: false },
   { to: '/compare', label: 'Compare', end: false },
+  { to: '/conditions', label: 'Conditions', end: false },
   { to: '/builds', label: 'Builds', end: false },
   { to: '/cores', label: 'Cores', end: false },
   { to: '/boards', label: 'Boards', end: false },

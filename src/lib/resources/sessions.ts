@@ -35,12 +35,22 @@ export interface SessionListParams {
   /** ISO 8601 instants, both inclusive. */
   from?: string;
   to?: string;
+  /** Condition ranges, both bounds inclusive. */
+  temperatureMin?: number;
+  temperatureMax?: number;
+  vccintMin?: number;
+  vccintMax?: number;
+  clockMin?: number;
+  clockMax?: number;
   sort?: '-startedAt' | 'startedAt' | '-id' | 'id';
   page?: number;
   pageSize?: number;
 }
 
-const PARAM_ORDER = ['coreId', 'buildId', 'boardId', 'operatorId', 'passed', 'regression', 'tag', 'from', 'to', 'sort', 'page', 'pageSize'] as const;
+const PARAM_ORDER = [
+  'coreId', 'buildId', 'boardId', 'operatorId', 'passed', 'regression', 'tag', 'from', 'to',
+  'temperatureMin', 'temperatureMax', 'vccintMin', 'vccintMax', 'clockMin', 'clockMax', 'sort', 'page', 'pageSize',
+] as const;
 
 /** The query string of a list request (without "?"), its parameters always in one order. */
 export function sessionListSearch(params: SessionListParams): string {

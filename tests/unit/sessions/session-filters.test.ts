@@ -5,7 +5,7 @@ const parse = (q: string) => filtersFromSearch(new URLSearchParams(q));
 
 describe('Sessions list filters in the address bar', () => {
   it('reads every filter from its search param', () => {
-    expect(parse('core=2&build=5&board=3&operator=7&verdict=fail&regression=yes&tag=e2e&from=2026-03-01&to=2026-03-31&sort=id&page=3&size=50')).toEqual({
+    expect(parse('core=2&build=5&board=3&operator=7&verdict=fail&regression=yes&tag=e2e&from=2026-03-01&to=2026-03-31&temperatureMin=-40&vccintMax=0.95&sort=id&page=3&size=50')).toEqual({
       coreId: 2,
       buildId: 5,
       boardId: 3,
@@ -15,10 +15,24 @@ describe('Sessions list filters in the address bar', () => {
       tag: 'e2e',
       from: '2026-03-01',
       to: '2026-03-31',
+      temperatureMin: -40,
+      temperatureMax: null,
+      vccintMin: null,
+      vccintMax: 0.95,
+      clockMin: null,
+      clockMax: null,
       sort: 'id',
       page: 3,
       pageSize: 50,
     });
+  });
+
+  it('passes condition ranges to the API under the same names and drops ones that are not numbers', () => {
+    const f = parse('temperatureMin=85&temperatureMax=85&clockMin=abc');
+    expect(f.clockMin).toBeNull();
+    const q = new URLSearchParams(filtersToApiQuery(f));
+    expect([q.get('temperatureMin'), q.get('temperatureMax'), q.get('clockMin')]).toEqual(['85', '85', null]);
+    expect(activeFilterCount(f)).toBe(2);
   });
 
   it('drops values it cannot use instead of failing', () => {

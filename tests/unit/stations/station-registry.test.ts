@@ -1,3 +1,4 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { closeReason, StationRegistry, type DriverHandle, type RelayPeer, type StationHandle } from '../../../server/stations/station-registry';
 import type { StationNote } from '../../../shared/stations/wire';
@@ -128,5 +129,25 @@ describe('StationRegistry', () => {
     expect(new TextEncoder().encode(long).length).toBeLessThanOrEqual(123);
     expect(long.endsWith('…')).toBe(true);
     expect(closeReason('short')).toBe('short');
+  });
+});
+
+describe('StationRegistry relaying', () => {
+  it('fast-check: any interleaving of chunks either way arrives unchanged, in order, at the other end', () => {
+    const chunk = fc.uint8Array({ minLength: 0, maxLength: 300 });
+    fc.assert(
+      fc.property(fc.array(fc.tuple(fc.boolean(), chunk), { maxLength: 60 }), (steps) => {
+        const { registry } = setup();
+        const sp = peer();
+        const dp = peer();
+        const station = ok(registry.online(ada, reg, sp)) as StationHandle;
+        const driver = ok(registry.drive(reg.name, bo, dp)) as DriverHandle;
+        const concat = (parts: Uint8Array[]) => Uint8Array.from(parts.flatMap((p) => [...p]));
+        for (const [toBoard, bytes] of steps) (toBoard ? driver.toDevice : station.fromDevice)(bytes);
+        expect(concat(sp.sent)).toEqual(concat(steps.filter(([d]) => d).map(([, b]) => b)));
+        expect(concat(dp.sent)).toEqual(concat(steps.filter(([d]) => !d).map(([, b]) => b)));
+      }),
+      { numRuns: 300 },
+    );
   });
 });

@@ -1,19 +1,14 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
+import { tokenCreatedReply, tokenListReply } from '../../../../shared/contract/people';
+import { api, apiReply } from '../../../lib/api';
 
-export interface ApiTokenRecord {
-  id: number;
-  name: string;
-  /** The first characters of the secret, to tell tokens apart. */
-  prefix: string;
-  lastUsedAt: string | null;
-  createdAt: string;
-}
+/** A token as the API shows it: `prefix` is the first characters of the secret, to tell tokens apart. */
+export type { ApiToken as ApiTokenRecord } from '../../../../shared/contract/people';
 
 const tokenKeys = { all: ['api-tokens'] as const };
 
 export const apiTokensQueryOptions = () =>
-  queryOptions({ queryKey: tokenKeys.all, queryFn: async ({ signal }) => (await api<{ tokens: ApiTokenRecord[] }>('/api/tokens', { signal })).tokens });
+  queryOptions({ queryKey: tokenKeys.all, queryFn: async ({ signal }) => (await apiReply(tokenListReply, '/api/tokens', { signal })).tokens });
 
 export const useApiTokens = () => useQuery(apiTokensQueryOptions());
 
@@ -21,7 +16,7 @@ export const useApiTokens = () => useQuery(apiTokensQueryOptions());
 export function useCreateApiToken() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (name: string) => api<ApiTokenRecord & { token: string }>('/api/tokens', { method: 'POST', body: { name } }),
+    mutationFn: (name: string) => apiReply(tokenCreatedReply, '/api/tokens', { method: 'POST', body: { name } }),
     onSuccess: () => qc.invalidateQueries({ queryKey: tokenKeys.all }),
   });
 }

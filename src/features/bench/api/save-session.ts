@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { postSession, sessionKeys, type SessionStoredReply } from '../../../lib/resources/sessions';
 import type { RunRecord } from '../live/bench-controller';
 import { packSamples } from '../../../../shared/link-engine/sample-pack';
+import type { Conditions } from '../../../../shared/soak';
 
 export type { LimitOutcome } from '../../../lib/resources/sessions';
 /** The server's reply: it scores the samples itself and judges them against the core's limits. */
@@ -14,6 +15,8 @@ export interface SaveSessionInput {
   boardId: number | null;
   notes: string;
   tags: string[];
+  /** Operating conditions from the save form; left out when none were given. */
+  conditions?: Conditions;
   /** Link figures of the run, when known (check failures count towards the verdict). */
   link?: Record<string, unknown> | null;
   /** A capture archive, when the page recorded one. */
@@ -33,6 +36,7 @@ export function saveSession(input: SaveSessionInput): Promise<SavedSession> {
     deviceInfo: record.info ? { ...record.info } : null,
     notes: input.notes,
     tags: input.tags,
+    ...(input.conditions && Object.keys(input.conditions).length > 0 ? { conditions: input.conditions } : {}),
     ...(input.link ? { link: input.link } : {}),
   };
   const form = new FormData();

@@ -11,6 +11,7 @@ import { useSaveSession, type LimitOutcome, type SavedSession } from '../api/sav
 import type { BenchController, BenchSnapshot } from '../live/bench-controller';
 import { answeredCount } from '../../../../shared/link-engine/sample-pack';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
+import { checkConditionForm, conditionFormFields, ConditionFields, conditionsOfForm, emptyConditionForm } from './condition-fields';
 
 const DEFAULT_CORE_SLUG = 'reference-16';
 
@@ -23,7 +24,8 @@ const saveFormSchema = z.object({
     .string()
     .refine((v) => splitTags(v).length <= 20, 'At most 20 tags')
     .refine((v) => splitTags(v).every((t) => t.length <= 40), 'Each tag is at most 40 characters'),
-});
+  ...conditionFormFields,
+}).superRefine(checkConditionForm);
 type SaveForm = z.infer<typeof saveFormSchema>;
 
 function splitTags(v: string): string[] {
@@ -39,6 +41,7 @@ const LIMIT_NAMES: Record<string, { name: string; unit: string; atMost: boolean 
   maxModelMismatches: { name: 'Model mismatches', unit: '', atMost: true },
   maxLinkErrors: { name: 'Link errors', unit: '', atMost: true },
   minCoveragePct: { name: 'Coverage', unit: '%', atMost: false },
+  maxUnstableCodes: { name: 'Unstable codes', unit: '', atMost: true },
 };
 
 const num = (v: number) => (Number.isInteger(v) ? v.toLocaleString('en-US') : v.toLocaleString('en-US', { maximumFractionDigits: 4 }));
@@ -99,7 +102,7 @@ export function SaveSessionPanel({ controller, snap }: { controller: BenchContro
   const boards = useBoards();
   const { register, handleSubmit, watch, setValue, getValues, reset, formState } = useForm<SaveForm>({
     resolver: zodResolver(saveFormSchema),
-    defaultValues: { coreId: '', buildId: '', boardId: '', notes: '', tags: '' },
+    defaultValues: { coreId: '', buildId: '', boardId: '', notes: '', tags: '', ...emptyConditionForm },
   });
   const coreId = watch('coreId');
   const builds = useCoreBuilds(coreId ? Number(coreId) : null);
@@ -133,6 +136,7 @@ export function SaveSessionPanel({ controller, snap }: { controller: BenchContro
         boardId: v.boardId ? Number(v.boardId) : null,
         notes: v.notes.trim(),
         tags: splitTags(v.tags),
+        conditions: conditionsOfForm(v),
         link: run.figures ? { ...run.figures } : null,
         archive: record.archive ? new Blob([record.archive.slice()], { type: 'application/octet-stream' }) : null,
       },
@@ -215,6 +219,7 @@ export function SaveSessionPanel({ controller, snap }: { controller: BenchContro
               <input className={input} {...register('tags')} placeholder="nightly, rev-b" />
               {errors.tags && <span className={fieldError}>{errors.tags.message}</span>}
             </label>
+            <ConditionFields register={(k) => register(k)} errors={errors} />
           </fieldset>
           {save.isError && (
             <p role="alert" className={fieldError}>

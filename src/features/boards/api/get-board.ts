@@ -1,8 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
-import { boardKeys, type BoardRecord } from '../../../lib/resources/boards';
+import { boardReply } from '../../../../shared/contract/boards';
+import { apiReply } from '../../../lib/api';
+import { boardKeys } from '../../../lib/resources/boards';
 
-export const getBoard = async (id: number, signal?: AbortSignal) => (await api<{ board: BoardRecord }>(`/api/boards/${id}`, { signal })).board;
+export const getBoard = async (id: number, signal?: AbortSignal) => (await apiReply(boardReply, `/api/boards/${id}`, { signal })).board;
 
 export const boardQueryOptions = (id: number) => queryOptions({ queryKey: boardKeys.detail(id), queryFn: ({ signal }) => getBoard(id, signal) });
 

@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { api } from '../../../lib/api';
-import { boardKeys, type BoardRecord } from '../../../lib/resources/boards';
+import { boardReply } from '../../../../shared/contract/boards';
+import { apiReply } from '../../../lib/api';
+import { boardKeys } from '../../../lib/resources/boards';
 
 const text = (max: number) => z.string().trim().max(max, `At most ${max} characters`);
 
@@ -17,7 +18,7 @@ export type BoardInput = z.infer<typeof boardInputSchema>;
 
 /** Create (no id) or update (id) a board. */
 export const saveBoard = async ({ id, input }: { id: number | null; input: BoardInput }) =>
-  (await api<{ board: BoardRecord }>(id === null ? '/api/boards' : `/api/boards/${id}`, { method: id === null ? 'POST' : 'PATCH', body: input })).board;
+  (await apiReply(boardReply, id === null ? '/api/boards' : `/api/boards/${id}`, { method: id === null ? 'POST' : 'PATCH', body: input })).board;
 
 export function useSaveBoard() {
   const qc = useQueryClient();

@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { api } from '../../../lib/api';
-import { buildKeys, type BuildRecord } from '../../../lib/resources/builds';
+import { buildReply } from '../../../../shared/contract/builds';
+import { apiReply } from '../../../lib/api';
+import { buildKeys } from '../../../lib/resources/builds';
 
 const text = (max: number, what: string) => z.string().trim().max(max, `${what} is limited to ${max} characters`);
 
@@ -20,9 +21,10 @@ export const newBuildSchema = z.object({
 });
 export type NewBuildForm = z.infer<typeof newBuildSchema>;
 
-export async function createBuild(v: NewBuildForm): Promise<BuildRecord> {
+/** The new build's own columns (its standing comes with the next list or detail read). */
+export async function createBuild(v: NewBuildForm) {
   const body = { coreId: Number(v.coreId), label: v.label, sourceRevision: v.sourceRevision, toolVersion: v.toolVersion, clockMHz: Number(v.clockMHz), notes: v.notes };
-  return (await api<{ build: BuildRecord }>('/api/builds', { method: 'POST', body })).build;
+  return (await apiReply(buildReply, '/api/builds', { method: 'POST', body })).build;
 }
 
 export function useCreateBuild() {

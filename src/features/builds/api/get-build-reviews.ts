@@ -1,21 +1,14 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
-import { buildKeys, type Named } from '../../../lib/resources/builds';
+import { reviewListReply } from '../../../../shared/contract/builds';
+import { apiReply } from '../../../lib/api';
+import { buildKeys } from '../../../lib/resources/builds';
 
-/** One decision on a build (server/routes/builds.ts reviewsOf). */
-export interface ReviewRecord {
-  id: number;
-  buildId: number;
-  reviewerId: number | null;
-  reviewer?: Named | null;
-  decision: 'approve' | 'reject';
-  note: string;
-  createdAt: string;
-}
+/** One decision on a build, with its reviewer. */
+export type { Review as ReviewRecord } from '../../../../shared/contract/builds';
 
 /** A build's review trail, newest first. */
-export async function getBuildReviews(id: number, signal?: AbortSignal): Promise<ReviewRecord[]> {
-  return (await api<{ reviews: ReviewRecord[] }>(`/api/builds/${id}/reviews`, { signal })).reviews;
+export async function getBuildReviews(id: number, signal?: AbortSignal) {
+  return (await apiReply(reviewListReply, `/api/builds/${id}/reviews`, { signal })).reviews;
 }
 
 export const buildReviewsQueryOptions = (id: number) =>

@@ -1,9 +1,10 @@
 import { useMutation } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
+import { reviewRequestReply } from '../../../../shared/contract/builds';
+import { apiReply } from '../../../lib/api';
 
 // Nothing cached to refresh: the server only mails the reviewers and records it in the audit log.
 
 /** Ask every reviewer to look at a build; `reviewers` is how many were asked, `mailed` whether the mail went. */
-export const requestReview = (buildId: number) => api<{ reviewers: number; mailed: boolean }>(`/api/builds/${buildId}/request-review`, { method: 'POST' });
+export const requestReview = (buildId: number) => apiReply(reviewRequestReply, `/api/builds/${buildId}/request-review`, { method: 'POST' });
 
 export const useRequestReview = (buildId: number) => useMutation({ mutationFn: () => requestReview(buildId) });

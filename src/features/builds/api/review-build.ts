@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { api } from '../../../lib/api';
+import { reviewReply } from '../../../../shared/contract/builds';
+import { apiReply } from '../../../lib/api';
 import { buildKeys } from '../../../lib/resources/builds';
-import type { ReviewRecord } from './get-build-reviews';
 
 export const reviewSchema = z.object({
   decision: z.enum(['approve', 'reject']),
@@ -12,7 +12,7 @@ export type ReviewInput = z.infer<typeof reviewSchema>;
 
 /** A reviewer's decision; the server mails the build's author (`mailed` says whether it could). */
 export const reviewBuild = (buildId: number, body: ReviewInput) =>
-  api<{ review: ReviewRecord; mailed: boolean }>(`/api/builds/${buildId}/reviews`, { method: 'POST', body });
+  apiReply(reviewReply, `/api/builds/${buildId}/reviews`, { method: 'POST', body });
 
 export function useReviewBuild(buildId: number) {
   const qc = useQueryClient();

@@ -1,13 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { z } from 'zod';
+import { buildFileReply } from '../../../../shared/contract/builds';
+import { checkContract } from '../../../../shared/contract/check';
 import { ApiError, csrfTokenForWrites } from '../../../lib/api';
-import type { BuildRef } from '../../../lib/resources/build-detail';
-import { buildKeys, type BuildRecord } from '../../../lib/resources/builds';
+import { buildKeys } from '../../../lib/resources/builds';
 
-export interface UploadReply {
-  build: BuildRecord;
-  /** Other builds whose bitstream has the same SHA-256. */
-  duplicates: BuildRef[];
-}
+/** The build's columns and the other builds whose bitstream has the same SHA-256. */
+export type UploadReply = z.infer<typeof buildFileReply>;
 
 export interface UploadInput {
   buildId: number;
@@ -36,7 +35,11 @@ export async function uploadBitstream({ buildId, file, onProgress }: UploadInput
       } catch {
         body = undefined;
       }
-      if (xhr.status >= 200 && xhr.status < 300) return resolve(body as UploadReply);
+      if (xhr.status >= 200 && xhr.status < 300) {
+        // As apiReply does (this upload goes through XHR for its progress events).
+        if (import.meta.env.DEV) checkContract(buildFileReply, body, `The reply to POST /api/builds/${buildId}/file`);
+        return resolve(body as UploadReply);
+      }
       const err = (body as { error?: { code?: string; message?: string } } | undefined)?.error;
       reject(new ApiError(xhr.status, err?.code ?? `http_${xhr.status}`, err?.message ?? `${xhr.status} ${xhr.statusText}`));
     };

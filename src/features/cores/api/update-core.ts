@@ -1,13 +1,14 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
+import { coreReply } from '../../../../shared/contract/cores';
+import { apiReply } from '../../../lib/api';
 import type { CorePayload } from '../components/core-form-schema';
-import { coreKeys, type CoreRecord } from '../../../lib/resources/cores';
+import { coreKeys } from '../../../lib/resources/cores';
 
 /** What PATCH /api/cores/:id takes: any of the form's parts, or a baseline change. */
 export type CorePatch = Partial<CorePayload> & { baselineSessionId?: number | null };
 
 export const updateCore = async (id: number, body: CorePatch) =>
-  (await api<{ core: CoreRecord }>(`/api/cores/${id}`, { method: 'PATCH', body })).core;
+  (await apiReply(coreReply, `/api/cores/${id}`, { method: 'PATCH', body })).core;
 
 export function useUpdateCore(id: number) {
   const qc = useQueryClient();

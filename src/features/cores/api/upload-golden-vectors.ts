@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { api } from '../../../lib/api';
+import { goldenVectorReply } from '../../../../shared/contract/misc';
+import { apiReply } from '../../../lib/api';
 import { coreKeys } from '../../../lib/resources/cores';
-import type { GoldenVectorSet } from './get-golden-vectors';
 
 /** The upload form: a name and one chosen file (a file input's value is a FileList). */
 export const uploadGoldenVectorsSchema = z.object({
@@ -20,7 +20,7 @@ export async function uploadGoldenVectors(coreId: number, input: UploadGoldenVec
   const form = new FormData();
   form.set('name', input.name);
   form.set('file', input.file, input.file.name);
-  return (await api<{ set: GoldenVectorSet }>(`/api/cores/${coreId}/golden-vectors`, { method: 'POST', body: form })).set;
+  return (await apiReply(goldenVectorReply, `/api/cores/${coreId}/golden-vectors`, { method: 'POST', body: form })).set;
 }
 
 export function useUploadGoldenVectors(coreId: number) {

@@ -1,16 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
+import { healthReply } from '../../../../shared/contract/misc';
+import { apiReply } from '../../../lib/api';
 
-export interface Health {
-  status: 'ok' | 'degraded';
-  version: string;
-  database: { status: 'ok' | 'down'; dialect: string; migrations: number; message?: string };
-  uptimeS: number;
-}
+export type { HealthReply as Health } from '../../../../shared/contract/misc';
 
 export const healthKeys = { all: ['health'] as const };
 
-export const getHealth = (signal?: AbortSignal) => api<Health>('/api/health', { signal });
+export const getHealth = (signal?: AbortSignal) => apiReply(healthReply, '/api/health', { signal });
 
 export const healthQueryOptions = () =>
   queryOptions({ queryKey: healthKeys.all, queryFn: ({ signal }) => getHealth(signal), refetchInterval: 15_000 });

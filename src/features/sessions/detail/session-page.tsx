@@ -15,6 +15,7 @@ import { NotesPanel } from './notes-panel';
 import { SessionActions } from './session-actions';
 import { SessionCharts } from './session-charts';
 import { SettingsPanel } from './settings-panel';
+import { SoakPanel } from '../soak/soak-panel';
 
 /** One stored session: what ran, how it scored, the plots, the capture, and the talk about it. */
 export function SessionPage({ id }: { id: number }) {
@@ -65,6 +66,7 @@ export function SessionPage({ id }: { id: number }) {
             </h2>
             <VerdictTable verdict={s.verdict} />
           </section>
+          <SoakPanel conditions={s.conditions} soak={s.soak} modelConfig={core.data?.core.modelConfig} />
           <LocalBoundary what="plots">
             <SessionCharts session={s} config={core.data?.core.modelConfig} />
           </LocalBoundary>

@@ -19,7 +19,8 @@ export function TraceTable({ declared, hypothesis, hypothesisLabel }: { declared
       <p className="text-sm" data-testid="trace-parting">
         {parting === null ? 'The declared model and the hypothesis agree at every stage for this code.' : `They part at: ${rows[parting].stage}.`}
       </p>
-      <div ref={box} className="relative max-h-96 overflow-auto rounded border border-rule">
+      {/* Scrolls on its own: focusable and named, so a keyboard can reach and scroll it. */}
+      <div ref={box} tabIndex={0} role="region" aria-label={`Code ${declared.code}, stage by stage (scrolls)`} className="relative max-h-96 overflow-auto rounded border border-rule">
         <table className="w-full border-collapse font-mono text-xs">
           <caption className="sr-only">Code {declared.code} through the declared model and through {hypothesisLabel}</caption>
           <thead className="sticky top-0 bg-paper text-left">

@@ -19,6 +19,13 @@ export interface SessionFilters {
   /** Local calendar days, YYYY-MM-DD, both inclusive. */
   from: string | null;
   to: string | null;
+  /** Condition ranges, both bounds inclusive (the address bar and the API use the same names). */
+  temperatureMin: number | null;
+  temperatureMax: number | null;
+  vccintMin: number | null;
+  vccintMax: number | null;
+  clockMin: number | null;
+  clockMax: number | null;
   sort: SortKey;
   page: number;
   pageSize: number;
@@ -34,6 +41,12 @@ export const DEFAULT_FILTERS: SessionFilters = {
   tag: null,
   from: null,
   to: null,
+  temperatureMin: null,
+  temperatureMax: null,
+  vccintMin: null,
+  vccintMax: null,
+  clockMin: null,
+  clockMax: null,
   sort: '-startedAt',
   page: 1,
   pageSize: 25,
@@ -46,6 +59,10 @@ const positiveInt = (v: string | null): number | null => {
   const n = Number(v);
   return n >= 1 && Number.isSafeInteger(n) ? n : null;
 };
+
+export const CONDITION_FILTER_KEYS = ['temperatureMin', 'temperatureMax', 'vccintMin', 'vccintMax', 'clockMin', 'clockMax'] as const;
+
+const decimal = (v: string | null): number | null => (v !== null && /^-?\d+(\.\d+)?$/.test(v.trim()) ? Number(v) : null);
 
 const day = (v: string | null): string | null => (v !== null && DAY.test(v) && !Number.isNaN(localDay(v, 0).getTime()) ? v : null);
 
@@ -74,6 +91,7 @@ export function filtersFromSearch(params: URLSearchParams): SessionFilters {
     tag: tag ? tag.slice(0, 40) : null,
     from: day(params.get('from')),
     to: day(params.get('to')),
+    ...(Object.fromEntries(CONDITION_FILTER_KEYS.map((k) => [k, decimal(params.get(k))])) as Record<(typeof CONDITION_FILTER_KEYS)[number], number | null>),
     sort: sort && SORTS.includes(sort) ? sort : DEFAULT_FILTERS.sort,
     page: positiveInt(params.get('page')) ?? 1,
     pageSize: size && (PAGE_SIZES as readonly number[]).includes(size) ? size : DEFAULT_FILTERS.pageSize,
@@ -95,6 +113,7 @@ export function filtersToSearch(f: SessionFilters): URLSearchParams {
   put('tag', f.tag);
   put('from', f.from);
   put('to', f.to);
+  for (const k of CONDITION_FILTER_KEYS) put(k, f[k]);
   put('sort', f.sort, DEFAULT_FILTERS.sort);
   put('page', f.page, 1);
   put('size', f.pageSize, DEFAULT_FILTERS.pageSize);
@@ -114,6 +133,7 @@ export function filtersToListParams(f: SessionFilters): SessionListParams {
   // Whole local days: from its midnight up to (not including) the midnight after `to`.
   if (f.from !== null) p.from = localDay(f.from, 0).toISOString();
   if (f.to !== null) p.to = new Date(localDay(f.to, 1).getTime() - 1).toISOString();
+  for (const k of CONDITION_FILTER_KEYS) if (f[k] !== null) p[k] = f[k];
   return { ...p, sort: f.sort, page: f.page, pageSize: f.pageSize };
 }
 
@@ -127,5 +147,5 @@ export function withFilters(f: SessionFilters, patch: Partial<SessionFilters>): 
 
 /** How many filters narrow the list (sort and page aside). */
 export function activeFilterCount(f: SessionFilters): number {
-  return (['coreId', 'buildId', 'boardId', 'operatorId', 'verdict', 'regression', 'tag', 'from', 'to'] as const).filter((k) => f[k] !== null).length;
+  return (['coreId', 'buildId', 'boardId', 'operatorId', 'verdict', 'regression', 'tag', 'from', 'to', ...CONDITION_FILTER_KEYS] as const).filter((k) => f[k] !== null).length;
 }

@@ -5,6 +5,7 @@ import { useBuildList } from '../../../lib/resources/builds';
 import { useCores } from '../../../lib/resources/cores';
 import type { Named } from '../../../lib/resources/sessions';
 import { activeFilterCount, DEFAULT_FILTERS, type SessionFilters } from './session-filters';
+import { ConditionRangeFilters } from './condition-range-filters';
 
 const idValue = (v: number | null) => (v === null ? '' : String(v));
 const toId = (v: string) => (v === '' ? null : Number(v));
@@ -112,6 +113,7 @@ export function SessionsFilterBar({ filters, onFilters, operators }: Props) {
         To
         <input type="date" className={input} value={filters.to ?? ''} onChange={(e) => onFilters({ to: e.target.value || null })} />
       </label>
+      <ConditionRangeFilters filters={filters} onFilters={onFilters} />
       <button type="button" className={btn} disabled={activeFilterCount(filters) === 0} onClick={() => onFilters({ ...DEFAULT_FILTERS, sort: filters.sort, pageSize: filters.pageSize })}>
         Clear filters
       </button>

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { api } from '../../../lib/api';
-import type { Invitation } from './get-invitations';
+import { invitationReply } from '../../../../shared/contract/people';
+import { apiReply } from '../../../lib/api';
 import { teamKeys } from './keys';
 
 export const invitationInputSchema = z.object({
@@ -13,7 +13,7 @@ export type InvitationInput = z.infer<typeof invitationInputSchema>;
 
 /** POST /api/invitations: `mailed` is false when the invitation was stored but the mail failed. */
 export const createInvitation = (input: InvitationInput) =>
-  api<{ invitation: Invitation; mailed: boolean }>('/api/invitations', { method: 'POST', body: input });
+  apiReply(invitationReply, '/api/invitations', { method: 'POST', body: input });
 
 export function useCreateInvitation() {
   const qc = useQueryClient();

@@ -1,21 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
-import type { Role } from './get-users';
+import { invitationListReply } from '../../../../shared/contract/people';
+import { apiReply } from '../../../lib/api';
 import { teamKeys } from './keys';
 
-export interface Invitation {
-  id: number;
-  email: string;
-  /** Who it is for, as the admin wrote it; the invitee chooses their own account name. */
-  name: string | null;
-  role: Role;
-  expiresAt: string;
-  usedAt: string | null;
-  invitedById: number | null;
-  createdAt: string;
-}
+/** `name`: who it is for, as the admin wrote it; the invitee chooses their own account name. */
+export type { Invitation } from '../../../../shared/contract/people';
 
-export const getInvitations = async (signal?: AbortSignal) => (await api<{ invitations: Invitation[] }>('/api/invitations', { signal })).invitations;
+export const getInvitations = async (signal?: AbortSignal) => (await apiReply(invitationListReply, '/api/invitations', { signal })).invitations;
 
 export const invitationsQueryOptions = () => queryOptions({ queryKey: teamKeys.invitations(), queryFn: ({ signal }) => getInvitations(signal) });
 

@@ -1,20 +1,14 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
+import { userListReply, type Role } from '../../../../shared/contract/people';
+import { apiReply } from '../../../lib/api';
 import { teamKeys } from './keys';
 
-export type Role = 'reviewer' | 'engineer' | 'admin';
+export type { PublicUser as TeamUser, Role } from '../../../../shared/contract/people';
 export const ROLES: readonly Role[] = ['reviewer', 'engineer', 'admin'];
 
-export interface TeamUser {
-  id: number;
-  email: string;
-  name: string;
-  role: Role;
-  disabled: boolean;
-  createdAt: string;
-}
 
-export const getUsers = async (signal?: AbortSignal) => (await api<{ users: TeamUser[] }>('/api/users', { signal })).users;
+
+export const getUsers = async (signal?: AbortSignal) => (await apiReply(userListReply, '/api/users', { signal })).users;
 
 export const usersQueryOptions = () => queryOptions({ queryKey: teamKeys.users(), queryFn: ({ signal }) => getUsers(signal) });
 
