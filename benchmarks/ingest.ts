@@ -12,7 +12,7 @@ import { bigExhaustiveSamples, startBenchServer } from './server-fixture';
 import { median, timeMs } from './timing';
 
 const RUNS = 3;
-const TARGET_MS = 1500;
+const TARGET_RATIO = 3;
 
 /** Milliseconds per bare INSERT of `bytes` as one blob into a fresh database of `dialect`. */
 async function bareBlobInserts(dialect: BenchDialect, bytes: Uint8Array, runs: number): Promise<{ driver: string; times: number[] }> {
@@ -55,13 +55,14 @@ async function ingestOn(dialect: BenchDialect, samples: ReturnType<typeof bigExh
     const ms = median(times);
     console.log(`  ${dialect}: ${samples.packed.length.toLocaleString('en-US')} B of samples; uploads ${times.map((t) => t.toFixed(0)).join(', ')} ms; bare ${bare.driver} blob inserts ${bare.times.map((t) => t.toFixed(1)).join(', ')} ms`);
     return {
-      name: `ingest@${dialect}`,
+      // SQLite's figure keeps the name outside scripts read; PostgreSQL's is marked.
+      name: dialect === 'sqlite' ? 'ingest' : `ingest@${dialect}`,
       value: ms,
       unit: 'ms per 1,048,576-sample upload',
       ratio: ms / median(bare.times),
       ratioOf: `upload time ÷ bare ${bare.driver} INSERT of the same bytes as one blob`,
-      target: `< ${TARGET_MS} ms`,
-      met: ms < TARGET_MS,
+      target: `ratio ≤ ${TARGET_RATIO}`,
+      met: ms / median(bare.times) <= TARGET_RATIO,
     };
   } finally {
     await server.close();

@@ -1,4 +1,4 @@
-// list-compare: the sessions table and the compare view against a database holding 10,000
+// list-compare: the sessions table and the compare view against a database holding 100,000
 // sessions (seeded straight through the models in one transaction, small samples blobs), called
 // as the page calls them (signed-in cookie) — on SQLite and on PostgreSQL in the same run. Beside
 // the list: the same SELECT … LIMIT 25 that Sequelize generates, run by that database's bare
@@ -7,14 +7,16 @@
 import { Op, type WhereOptions } from 'sequelize';
 import { ScoreAccumulator } from '../shared/numeric';
 import { packSamples } from '../shared/link-engine/sample-pack';
-import { BenchSession, Board, Build, Core } from '../server/db/models';
+import { BenchSession, Board, Build, Core, SessionEnvelope } from '../server/db/models';
 import { modelConfigSchema } from '../server/schemas/core';
 import { BENCH_DIALECTS, bareDriver, type BenchDialect } from './bare-driver';
 import type { BenchResult } from './report';
-import { bigExhaustiveSamples, startBenchServer, type BenchServer } from './server-fixture';
+import { decodeSamples, scoreSamples } from '../server/services/session-scoring';
+import type { StoredStats } from '../shared/contract/sessions';
+import { BIG_CORE_CONFIG, bigExhaustiveSamples, startBenchServer, type BenchServer } from './server-fixture';
 import { median, quantile, timeMs } from './timing';
 
-const SESSIONS = 10_000;
+const SESSIONS = 100_000;
 const LIST_CALLS = 200;
 const COMPARE_RUNS = 5;
 const DAY_MS = 86_400_000;
@@ -180,15 +182,22 @@ async function listCompareOn(dialect: BenchDialect, big: ReturnType<typeof bigEx
     const cosB = big.cos.slice();
     for (let i = 0; i < cosB.length; i += 97) cosB[i] = Math.min(cosB[i] + 1, 32767);
     const ones = new Uint8Array(big.codes.length).fill(1);
-    const row = (samples: Uint8Array, passed: boolean) => ({
-      coreId: server.bigCore.id, buildId: null, boardId: null, operatorId: server.t.users.engineer.id, startedAt: new Date(), endedAt: null,
-      plan: { kind: 'exhaustive' }, transport: { kind: 'websocket' }, deviceInfo: null, stats: {}, verdict: {}, passed,
-      sampleCount: big.codes.length, samples: Buffer.from(samples), archive: null,
-    });
-    const a = await BenchSession.create(row(big.packed, true));
-    const b = await BenchSession.create(row(packSamples(big.codes, cosB, big.sin, ones), false));
+    // Stored as an upload stores them: with the score, and the envelope the compare reads.
+    const stored = async (samples: Uint8Array, passed: boolean) => {
+      const { stats, profile, envelope } = scoreSamples(BIG_CORE_CONFIG, decodeSamples(samples, 'turn'));
+      const session = await BenchSession.create({
+        coreId: server.bigCore.id, buildId: null, boardId: null, operatorId: server.t.users.engineer.id, startedAt: new Date(), endedAt: null,
+        plan: { kind: 'exhaustive' }, transport: { kind: 'websocket' }, deviceInfo: null, stats: stats as unknown as StoredStats, verdict: {}, profile, passed,
+        sampleCount: big.codes.length, samples: Buffer.from(samples), archive: null,
+      });
+      await SessionEnvelope.create({ sessionId: session.id, bounds: envelope });
+      return session;
+    };
+    const a = await stored(big.packed, true);
+    const b = await stored(packSamples(big.codes, cosB, big.sin, ones), false);
     const compareMs: number[] = [];
     let differing = -1;
+    const cpu0 = process.cpuUsage();
     for (let i = 0; i < COMPARE_RUNS; i++) {
       compareMs.push(await timeMs(async () => {
         const res = await fetch(`${server.url}/api/compare?ids=${a.id},${b.id}`, { headers });
@@ -196,6 +205,8 @@ async function listCompareOn(dialect: BenchDialect, big: ReturnType<typeof bigEx
         differing = ((await res.json()) as { pairs: { differing: number }[] }).pairs[0].differing;
       }));
     }
+    const cpu = process.cpuUsage(cpu0);
+    const compareCpuMs = (cpu.user + cpu.system) / 1000 / COMPARE_RUNS;
     const expected = Math.ceil(big.codes.length / 97);
     if (differing !== expected) throw new Error(`compare found ${differing} differing codes, ${expected} expected`);
     let sink = 0;
@@ -215,13 +226,15 @@ async function listCompareOn(dialect: BenchDialect, big: ReturnType<typeof bigEx
     }
     if (sink !== COMPARE_RUNS * (expected + 1)) throw new Error('bare diff loop miscounted');
     const cmp = median(compareMs);
-    console.log(`  ${dialect} compare: ${compareMs.map((m) => m.toFixed(0)).join(', ')} ms; bare diff loop ${median(loopMs).toFixed(2)} ms`);
+    console.log(`  ${dialect} compare: ${compareMs.map((m) => m.toFixed(0)).join(', ')} ms (${compareCpuMs.toFixed(0)} ms CPU each, server and client in this process); bare diff loop ${median(loopMs).toFixed(2)} ms`);
 
     const bareP95 = quantile(bareMs, 0.95);
+    // SQLite's figures keep the names outside scripts read; PostgreSQL's are marked.
+    const named = (figure: string) => (dialect === 'sqlite' ? figure : `${figure}@${dialect}`);
     return [
-      { name: `list-p50@${dialect}`, value: p50, unit: 'ms per GET /api/sessions', ratio: p50 / quantile(bareMs, 0.5), ratioOf: `p50 ÷ bare ${bare.name} SELECT … LIMIT 25 p50`, target: null, met: null },
-      { name: `list-p95@${dialect}`, value: p95, unit: 'ms per GET /api/sessions', ratio: p95 / bareP95, ratioOf: `p95 ÷ bare ${bare.name} SELECT … LIMIT 25 p95`, target: '< 100 ms', met: p95 < 100 },
-      { name: `compare@${dialect}`, value: cmp, unit: 'ms per GET /api/compare (2 × 1,048,576 samples)', ratio: cmp / median(loopMs), ratioOf: 'compare time ÷ bare typed-array diff loop', target: '< 500 ms', met: cmp < 500 },
+      { name: named('list-p50'), value: p50, unit: 'ms per GET /api/sessions', ratio: p50 / quantile(bareMs, 0.5), ratioOf: `p50 ÷ bare ${bare.name} SELECT … LIMIT 25 p50`, target: null, met: null },
+      { name: named('list-p95'), value: p95, unit: 'ms per GET /api/sessions', ratio: p95 / bareP95, ratioOf: `p95 ÷ bare ${bare.name} SELECT … LIMIT 25 p95`, target: 'ratio ≤ 3', met: p95 / bareP95 <= 3 },
+      { name: named('compare'), value: cmp, unit: 'ms per GET /api/compare (2 × 1,048,576 samples)', ratio: cmp / median(loopMs), ratioOf: 'compare time ÷ bare typed-array diff loop', target: 'ratio ≤ 20', met: cmp / median(loopMs) <= 20 },
     ];
   } finally {
     await server.close();

@@ -2,11 +2,11 @@ import { Router } from 'express';
 import { compareQuery, compareReply, type CompareQuery } from '../../shared/contract/compare';
 import type { StoredStats } from '../../shared/contract/sessions';
 import { requireRole } from '../auth';
-import { BenchSession, Build, Core } from '../db/models';
+import { BenchSession, Build, Core, SessionEnvelope } from '../db/models';
 import { notFound } from '../http-error';
 import { validate } from '../middleware/validate';
-import { codeBinner, errorEnvelope } from '../services/error-envelope';
-import { diffSessions } from '../services/session-diff';
+import { codeBinner, envelopeFromBounds, errorEnvelope } from '../services/error-envelope';
+import { diffPacked, diffSessions } from '../services/session-diff';
 import { decodeSamples, type DecodedSamples } from '../services/session-scoring';
 import type { RouteDeps } from './deps';
 import { queryOf } from './params';
@@ -44,7 +44,7 @@ export function compareRouter(_deps: RouteDeps) {
 
   router.get('/', requireRole('reviewer'), validate({ query: compareQuery }), async (req, res) => {
     const { ids } = queryOf<CompareQuery>(req);
-    const rows = await BenchSession.findAll({ where: { id: ids } });
+    const rows = await BenchSession.findAll({ where: { id: ids }, attributes: { exclude: ['archive'] } });
     const byId = new Map(rows.map((r) => [r.id, r]));
     const missing = ids.find((i) => !byId.has(i));
     if (missing !== undefined) throw notFound(`Session ${missing}`);
@@ -55,12 +55,17 @@ export function compareRouter(_deps: RouteDeps) {
     const builds = new Map((buildIds.length ? await Build.findAll({ where: { id: buildIds } }) : []).map((b) => [b.id, b]));
 
     const modelOf = (s: BenchSession) => (cores.get(s.coreId)?.modelConfig ?? {}) as { angleFormat?: 'turn' | 'rad' };
-    const decoded: DecodedSamples[] = sessions.map((s) => decodeSamples(s.samples, modelOf(s).angleFormat ?? 'turn'));
+    // The envelope kept at intake; a session stored without one (the demo, older rows) is scored here.
+    const kept = new Map((await SessionEnvelope.findAll({ where: { sessionId: ids } })).map((e) => [e.sessionId, e.bounds]));
+    const envelopeOf = (s: BenchSession) => {
+      const bounds = kept.get(s.id);
+      return bounds ? envelopeFromBounds(modelOf(s), bounds) : errorEnvelope(modelOf(s), decodeSamples(s.samples, modelOf(s).angleFormat ?? 'turn'));
+    };
     // The diff's bins and angles are those of the first session's core.
     const binner = codeBinner(modelOf(sessions[0]));
 
     reply(res, compareReply, {
-      sessions: sessions.map((s, k) => {
+      sessions: sessions.map((s) => {
         const core = cores.get(s.coreId);
         const build = s.buildId !== null ? builds.get(s.buildId) : undefined;
         return {
@@ -74,13 +79,13 @@ export function compareRouter(_deps: RouteDeps) {
           verdict: s.verdict,
           stats: keyStats(s.stats),
           histogram: histogramOf(s.stats),
-          errorEnvelope: errorEnvelope(modelOf(s), decoded[k]),
+          errorEnvelope: envelopeOf(s),
         };
       }),
       // Codes of another core stand for other angles and values: such a pair is not diffed.
-      pairs: sessions.slice(1).map((s, k) => {
+      pairs: sessions.slice(1).map((s) => {
         if (s.coreId !== sessions[0].coreId) return { a: sessions[0].id, b: s.id, sameCore: false, ...diffSessions(EMPTY, EMPTY, undefined, binner), firstDiffering: [] };
-        const diff = diffSessions(decoded[0], decoded[k + 1], undefined, binner);
+        const diff = diffPacked(sessions[0].samples, s.samples, modelOf(sessions[0]).angleFormat ?? 'turn', undefined, binner);
         const firstDiffering = diff.firstDiffering.map((d) => ({ ...d, degrees: binner.degreesOf(d.code) }));
         return { a: sessions[0].id, b: s.id, sameCore: true, ...diff, firstDiffering };
       }),

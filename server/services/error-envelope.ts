@@ -31,7 +31,7 @@ export function codeBinner(modelConfig: ModelConfigInput, bins = ENVELOPE_BINS) 
 
 /** The error envelope of decoded samples under the core's model configuration (exact math side). */
 export function errorEnvelope(modelConfig: ModelConfigInput, s: DecodedSamples, bins = ENVELOPE_BINS): ErrorEnvelope {
-  const { config, binOf, centreDegrees } = codeBinner(modelConfig, bins);
+  const { config, binOf } = codeBinner(modelConfig, bins);
   const scale = 2 ** config.outFrac;
   const lo = new Float64Array(bins).fill(Infinity);
   const hi = new Float64Array(bins).fill(-Infinity);
@@ -50,10 +50,24 @@ export function errorEnvelope(modelConfig: ModelConfigInput, s: DecodedSamples, 
       if (high > hi[b]) hi[b] = high;
     }
   }
-  const round = (v: number) => (Number.isFinite(v) ? Math.round(v * 1000) / 1000 : null);
+  const finite = (v: number) => (Number.isFinite(v) ? v : null);
+  return envelopeFromBounds(modelConfig, { lo: Array.from(lo, finite), hi: Array.from(hi, finite) });
+}
+
+/** Lowest and highest signed error per bin, null where no answer fell: what ingest stores. */
+export interface EnvelopeBounds {
+  lo: (number | null)[];
+  hi: (number | null)[];
+}
+
+/** The envelope the page draws from bounds, stored at ingest or computed from the samples. */
+export function envelopeFromBounds(modelConfig: ModelConfigInput, bounds: EnvelopeBounds): ErrorEnvelope {
+  const bins = bounds.lo.length;
+  const { centreDegrees } = codeBinner(modelConfig, bins);
+  const round = (v: number | null) => (v === null ? null : Math.round(v * 1000) / 1000);
   return {
     degrees: Array.from({ length: bins }, (_, b) => Math.round(centreDegrees(b) * 1000) / 1000),
-    lo: Array.from(lo, round),
-    hi: Array.from(hi, round),
+    lo: bounds.lo.map(round),
+    hi: bounds.hi.map(round),
   };
 }

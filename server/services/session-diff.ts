@@ -1,7 +1,8 @@
 // Bit-exact comparison of two sessions' answers on the angle codes both covered. Each side is
 // put in code order through a typed index array, then the two orders are merged; nothing is
 // allocated per sample beyond those arrays, so million-sample sessions stay cheap.
-import type { DecodedSamples } from './session-scoring';
+import { SAMPLE_BYTES } from '../../shared/link-engine/sample-pack';
+import { decodeSamples, type DecodedSamples } from './session-scoring';
 
 /** One code both sessions answered, differently. */
 export interface DifferingCode {
@@ -118,4 +119,84 @@ export function diffSessions(a: DecodedSamples, b: DecodedSamples, keep = KEEP_D
   }
   if (byBin) out.byBin = byBin;
   return out;
+}
+
+/** The packed samples' columns read in place: codes, cos and sin at stride 3 (no copy when aligned). */
+interface PackedColumns {
+  codes: Uint32Array | Int32Array;
+  values: Int32Array;
+  n: number;
+}
+
+const LITTLE_ENDIAN = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1;
+
+function packedColumns(bytes: Uint8Array, angleFormat: 'turn' | 'rad'): PackedColumns | null {
+  if (!LITTLE_ENDIAN || bytes.length % SAMPLE_BYTES !== 0) return null;
+  // A blob read from the database may sit at any offset: copy it once to align it.
+  const aligned = bytes.byteOffset % 4 === 0 ? bytes : bytes.slice();
+  const n = aligned.length / SAMPLE_BYTES;
+  const words = aligned.length / 4;
+  const values = new Int32Array(aligned.buffer, aligned.byteOffset, words);
+  const codes = angleFormat === 'turn' ? new Uint32Array(aligned.buffer, aligned.byteOffset, words) : values;
+  return { codes, values, n };
+}
+
+function ascending(c: PackedColumns): boolean {
+  const { codes, n } = c;
+  for (let i = 1, at = 3; i < n; i++, at += 3) if (codes[at - 3] > codes[at]) return false;
+  return true;
+}
+
+/**
+ * diffSessions on packed samples (shared/link-engine/sample-pack.ts). Where both sessions answered
+ * in code order (sweeps, exhaustive runs) the two blobs are merged in one pass in place, without
+ * decoding them into columns; otherwise they are decoded and diffed by diffSessions. Same answer.
+ */
+export function diffPacked(a: Uint8Array, b: Uint8Array, angleFormat: 'turn' | 'rad', keep: number | undefined, binning: DiffBinning): SessionDiff & Required<Pick<SessionDiff, 'byBin'>> {
+  const pa = packedColumns(a, angleFormat);
+  const pb = packedColumns(b, angleFormat);
+  if (!pa || !pb || !ascending(pa) || !ascending(pb)) {
+    return diffSessions(decodeSamples(a, angleFormat), decodeSamples(b, angleFormat), keep, binning);
+  }
+  const limit = keep ?? KEEP_DIFFERING;
+  const out: SessionDiff = { common: 0, differing: 0, maxAbsDiffLsb: 0, firstDiffering: [] };
+  const byBin = { differing: new Array<number>(binning.bins).fill(0), maxAbsDiffLsb: new Array<number>(binning.bins).fill(0) };
+  const { codes: codesA, values: va, n: na } = pa;
+  const { codes: codesB, values: vb, n: nb } = pb;
+  const endA = na * 3;
+  const endB = nb * 3;
+  let i = 0;
+  let j = 0;
+  while (i < endA && j < endB) {
+    const ca = codesA[i];
+    const cb = codesB[j];
+    if (ca < cb) {
+      i += 3;
+      continue;
+    }
+    if (cb < ca) {
+      j += 3;
+      continue;
+    }
+    out.common++;
+    const dCos = Math.abs(va[i + 1] - vb[j + 1]);
+    const dSin = Math.abs(va[i + 2] - vb[j + 2]);
+    if (dCos !== 0 || dSin !== 0) {
+      out.differing++;
+      const d = dCos > dSin ? dCos : dSin;
+      if (d > out.maxAbsDiffLsb) out.maxAbsDiffLsb = d;
+      const bin = binning.binOf(ca);
+      byBin.differing[bin]++;
+      if (d > byBin.maxAbsDiffLsb[bin]) byBin.maxAbsDiffLsb[bin] = d;
+      if (out.firstDiffering.length < limit) {
+        out.firstDiffering.push({ code: ca, a: { cos: va[i + 1], sin: va[i + 2] }, b: { cos: vb[j + 1], sin: vb[j + 2] } });
+      }
+    }
+    // A code answered more than once: its first answer stands, as in uniqueCodeOrder.
+    i += 3;
+    while (i < endA && codesA[i] === ca) i += 3;
+    j += 3;
+    while (j < endB && codesB[j] === cb) j += 3;
+  }
+  return { ...out, byBin };
 }

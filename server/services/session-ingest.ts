@@ -6,6 +6,7 @@ import { BenchSession, Board, Build, Core } from '../db/models';
 import { HttpError } from '../http-error';
 import { recordAudit } from './audit';
 import { decodeSamples, judgeSession, regressedLimits, scoreSamples, sessionSpectrum, type LimitKey, type SessionSpectrum, type Verdict } from './session-scoring';
+import type { EnvelopeBounds } from './error-envelope';
 import type { ScoreSummary } from '../../shared/numeric/score';
 import type { Conditions, SoakRecord } from '../../shared/soak';
 import { saveSessionConditions } from './session-conditions';
@@ -42,6 +43,8 @@ export interface StoredSession {
   verdict: Verdict;
   passed: boolean;
   failedLimits: LimitKey[];
+  /** The compare view's error envelope, for the caller to keep (session-intake.ts). */
+  envelope: EnvelopeBounds;
 }
 
 /** The core a draft names. @throws HttpError 400 naming the field. */
@@ -90,7 +93,7 @@ export async function storeSession(
   const boardId = await resolveBoardId(draft, transaction);
 
   const decoded = decodeSamples(samples, core.modelConfig.angleFormat ?? 'turn');
-  const { stats, profile } = scoreSamples(core.modelConfig, decoded);
+  const { stats, profile, envelope } = scoreSamples(core.modelConfig, decoded);
   const checkFailures = typeof draft.link?.checkFailures === 'number' ? draft.link.checkFailures : undefined;
   const spectrum = sessionSpectrum(draft.plan, core.modelConfig, decoded);
   const sfdrDb = spectrum ? Math.min(spectrum.cos.sfdrDbc, spectrum.sin.sfdrDbc) : undefined;
@@ -125,5 +128,5 @@ export async function storeSession(
   );
   await saveSessionConditions(transaction, row.id, draft.conditions, draft.soak);
   await recordAudit(transaction, operatorId, audit.action, 'session', row.id, { coreId: core.id, sampleCount: row.sampleCount, passed, regression: row.regression });
-  return { row, core, stats: stored, verdict, passed, failedLimits };
+  return { row, core, stats: stored, verdict, passed, failedLimits, envelope };
 }

@@ -3,6 +3,7 @@
 // then the one reply both give.
 import type { Sequelize, Transaction } from 'sequelize';
 import type { SessionImportPart, SessionUploadPart } from '../../shared/contract/sessions';
+import { SessionEnvelope } from '../db/models';
 import type { Mailer } from '../mail/mailer';
 import { sanitizeFileName } from '../uploads/bitstream-storage';
 import { mailRegression } from './regression-mail';
@@ -18,7 +19,12 @@ interface IntakeDeps {
 }
 
 async function accept({ db, mailer, origin }: IntakeDeps, store: (transaction: Transaction) => Promise<StoredSession>) {
-  const { row, core, stats, verdict, passed, failedLimits } = await db.transaction(store);
+  const { row, core, stats, verdict, passed, failedLimits } = await db.transaction(async (transaction) => {
+    const stored = await store(transaction);
+    // Kept so the compare view reads it instead of scoring the samples again.
+    await SessionEnvelope.create({ sessionId: stored.row.id, bounds: stored.envelope }, { transaction });
+    return stored;
+  });
   if (failedLimits.length > 0) await mailRegression(mailer, origin, row, core, failedLimits);
   return { id: row.id, url: `${origin}/sessions/${row.id}`, passed, regression: row.regression, verdict, stats };
 }

@@ -47,13 +47,16 @@ function listWhere(q: SessionListQuery): WhereOptions {
 /** One page of sessions matching the filters, newest first unless `sort` says otherwise. */
 export async function listSessions(q: SessionListQuery) {
   const column = q.sort.replace('-', '');
-  const { rows, count } = await BenchSession.findAndCountAll({
-    ...LISTED,
-    where: listWhere(q),
-    order: [[column, q.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']],
-    limit: q.pageSize,
-    offset: (q.page - 1) * q.pageSize,
-  });
+  const where = listWhere(q);
+  const order: [string, 'ASC' | 'DESC'][] = [[column, q.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']];
+  // The page's ids first, from the sessions table and its indices alone; then those rows with
+  // their names. Joining first made a deep page join every row it skipped. The total counts the
+  // sessions table alone: the joined names never change how many rows match.
+  const [page, count] = await Promise.all([
+    BenchSession.findAll({ attributes: ['id'], where, order, limit: q.pageSize, offset: (q.page - 1) * q.pageSize, raw: true }),
+    BenchSession.count({ where }),
+  ]);
+  const rows = page.length ? await BenchSession.findAll({ ...LISTED, where: { id: page.map((r) => r.id) }, order }) : [];
   return { items: rows.map((row) => listed(row)), total: count, page: q.page, pageSize: q.pageSize };
 }
 

@@ -3,6 +3,7 @@
 // core's limits. Nothing the client computed is trusted.
 import { SamplePackError, unpackSamples, type UnpackedSamples } from '../../shared/link-engine/sample-pack';
 import { HttpError } from '../http-error';
+import { ENVELOPE_BINS, type EnvelopeBounds } from './error-envelope';
 import { modelConfigSchema, limitsSchema } from '../schemas/core';
 import { planCodes, planSchema, PROFILE_BINS, SpectralError, toneFigures, type ToneFigures } from '../../shared/numeric';
 import { ScoreAccumulator, type ScoreSummary } from '../../shared/numeric/score';
@@ -12,6 +13,8 @@ type Limits = z.infer<typeof limitsSchema>;
 export type LimitKey = keyof Limits;
 
 export type DecodedSamples = UnpackedSamples;
+
+const SCORE_BATCH = 65_536;
 
 /** Unpack uploaded samples. @throws HttpError 400 when the length is not a whole number of samples. */
 export function decodeSamples(bytes: Uint8Array, angleFormat: 'turn' | 'rad'): DecodedSamples {
@@ -27,11 +30,19 @@ export function decodeSamples(bytes: Uint8Array, angleFormat: 'turn' | 'rad'): D
  * Score decoded samples with the core's model, with the 64-bin error profile the session list draws.
  * @throws HttpError 400 for codes the model refuses.
  */
-export function scoreSamples(modelConfig: unknown, samples: DecodedSamples): { stats: ScoreSummary; profile: number[] } {
+export function scoreSamples(modelConfig: unknown, samples: DecodedSamples): { stats: ScoreSummary; profile: number[]; envelope: EnvelopeBounds } {
   const config = modelConfigSchema.parse(modelConfig);
   try {
-    const acc = new ScoreAccumulator(config, { profileBins: PROFILE_BINS }).add(samples.codes, samples.cos, samples.sin);
-    return { stats: acc.summary(), profile: acc.profile()! };
+    // The compare view's error envelope is kept too, so comparing never scores the samples again.
+    const acc = new ScoreAccumulator(config, { profileBins: PROFILE_BINS, envelopeBins: ENVELOPE_BINS });
+    // In batches: the scorer's per-answer scratch stays a few MiB (cache-sized, no GC churn) where
+    // one batch of a million answers allocated ~60 MiB per upload. Its sums run in answer order
+    // across batches, so the statistics are the same to the last bit.
+    const { codes, cos, sin } = samples;
+    for (let start = 0; start < codes.length; start += SCORE_BATCH) {
+      acc.add(codes.subarray(start, start + SCORE_BATCH), cos.subarray(start, start + SCORE_BATCH), sin.subarray(start, start + SCORE_BATCH), start);
+    }
+    return { stats: acc.summary(), profile: acc.profile()!, envelope: acc.envelope()! };
   } catch (err) {
     throw new HttpError(400, 'bad_samples', `samples: ${(err as Error).message}`);
   }

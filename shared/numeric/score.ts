@@ -55,6 +55,8 @@ export interface ScoreOptions {
   keepMismatches?: number;
   /** Also keep the largest |error| per this many equal bins of the code range (see profile()). */
   profileBins?: number;
+  /** Also keep the lowest and highest signed error (cos and sin together) per this many bins (see envelope()). */
+  envelopeBins?: number;
 }
 
 /** Marks a profile bin no answer fell in. */
@@ -75,6 +77,9 @@ export class ScoreAccumulator {
   private readonly profileMax: Float64Array | null;
   private readonly profileMin: number;
   private readonly profileScale: number;
+  private readonly envelopeLo: Float64Array | null;
+  private readonly envelopeHi: Float64Array | null;
+  private readonly codeCount: number;
   private readonly outMin: number;
   private readonly outMax: number;
   private mismatchCount = 0;
@@ -103,6 +108,10 @@ export class ScoreAccumulator {
     this.profileMax = bins > 0 ? new Float64Array(bins).fill(PROFILE_EMPTY) : null;
     this.profileMin = range.min;
     this.profileScale = bins / (range.max - range.min + 1);
+    const envelopeBins = options.envelopeBins ?? 0;
+    this.envelopeLo = envelopeBins > 0 ? new Float64Array(envelopeBins).fill(Infinity) : null;
+    this.envelopeHi = envelopeBins > 0 ? new Float64Array(envelopeBins).fill(-Infinity) : null;
+    this.codeCount = range.count;
     ({ min: this.outMin, max: this.outMax } = outputCodeRange(this.config));
   }
 
@@ -144,6 +153,7 @@ export class ScoreAccumulator {
     this.cosHist.addAll(errCos, n);
     this.sinHist.addAll(errSin, n);
     if (this.profileMax) this.addProfile(codes, n);
+    if (this.envelopeLo) this.addEnvelope(codes, n);
     this.coverage.addAll(codes, n);
     this.nextIndex = Math.max(this.nextIndex, firstIndex + n);
     return this;
@@ -175,6 +185,24 @@ export class ScoreAccumulator {
     }
   }
 
+  // The bin rule of server/services/error-envelope.ts (codeBinner), so a stored envelope equals one
+  // computed from the samples later.
+  private addEnvelope(codes: ArrayLike<number>, n: number): void {
+    const lo = this.envelopeLo!;
+    const hi = this.envelopeHi!;
+    const bins = lo.length;
+    const { profileMin: min, codeCount: count, errCos, errSin } = this;
+    for (let k = 0; k < n; k++) {
+      const b = Math.min(bins - 1, Math.max(0, Math.floor(((codes[k] - min) / count) * bins)));
+      const eCos = errCos[k];
+      const eSin = errSin[k];
+      const low = eCos < eSin ? eCos : eSin;
+      const high = eCos < eSin ? eSin : eCos;
+      if (low < lo[b]) lo[b] = low;
+      if (high > hi[b]) hi[b] = high;
+    }
+  }
+
   private keepMismatch(m: Mismatch): void {
     if (this.first.length >= this.keep && m.index >= this.first[this.first.length - 1].index) return;
     let at = this.first.length;
@@ -196,6 +224,12 @@ export class ScoreAccumulator {
     if (this.profileMax && o.profileMax && o.profileMax.length === this.profileMax.length) {
       for (let b = 0; b < this.profileMax.length; b++) this.profileMax[b] = Math.max(this.profileMax[b], o.profileMax[b]);
     }
+    if (this.envelopeLo && o.envelopeLo && o.envelopeLo.length === this.envelopeLo.length) {
+      for (let b = 0; b < this.envelopeLo.length; b++) {
+        this.envelopeLo[b] = Math.min(this.envelopeLo[b], o.envelopeLo[b]);
+        this.envelopeHi![b] = Math.max(this.envelopeHi![b], o.envelopeHi![b]);
+      }
+    }
     this.mismatchCount += o.mismatchCount;
     this.maxDiff = Math.max(this.maxDiff, o.maxDiff);
     for (const m of o.first) this.keepMismatch(m);
@@ -209,6 +243,16 @@ export class ScoreAccumulator {
    */
   profile(): number[] | null {
     return this.profileMax ? Array.from(this.profileMax) : null;
+  }
+
+  /**
+   * Per bin of the code range the lowest and highest signed error (cos or sin, in LSB), null where
+   * no answer fell; null unless `envelopeBins` was given.
+   */
+  envelope(): { lo: (number | null)[]; hi: (number | null)[] } | null {
+    if (!this.envelopeLo || !this.envelopeHi) return null;
+    const finite = (v: number) => (Number.isFinite(v) ? v : null);
+    return { lo: Array.from(this.envelopeLo, finite), hi: Array.from(this.envelopeHi, finite) };
   }
 
   /** The statistics so far, as plain data. */

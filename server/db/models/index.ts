@@ -13,12 +13,14 @@ import { Review, initReview } from './review.model';
 import { BenchSession, initBenchSession } from './session.model';
 import { SessionExplanation, initSessionExplanation } from './session-explanation.model';
 import { SessionConditions, initSessionConditions } from './session-conditions.model';
+import { SessionEnvelope, initSessionEnvelope } from './session-envelope.model';
 import { User, initUser } from './user.model';
 import { WebSession, initWebSession } from './web-session.model';
 
 export { ApiToken, AuditEntry, Board, Build, Comment, Core, CoreWatcher, GoldenVectorSet, Invitation, OutboxMessage, Review, BenchSession, User, WebSession };
 export { SessionExplanation };
 export { SessionConditions };
+export { SessionEnvelope };
 export { EXPLANATION_DECISIONS, type ExplanationDecision } from './session-explanation.model';
 export { ROLES, type Role } from './user.model';
 export { DECISIONS, type Decision } from './review.model';
@@ -33,7 +35,7 @@ export function initModels(sequelize: Sequelize) {
   for (const init of [
     initUser, initInvitation, initApiToken, initWebSession, initAuditEntry, initOutboxMessage, initCore, initCoreWatcher,
     initBoard, initBuild, initReview, initGoldenVectorSet, initBenchSession, initComment,
-    initSessionExplanation, initSessionConditions,
+    initSessionExplanation, initSessionConditions, initSessionEnvelope,
   ]) {
     init(sequelize);
   }
