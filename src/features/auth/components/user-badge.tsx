@@ -5,8 +5,8 @@ import { useLogout } from '../api/logout';
 /** Who is signed in, with a sign-out button; a sign-in link when nobody is. */
 export function UserBadge() {
   const me = useMe();
-  const logout = useLogout();
   const navigate = useNavigate();
+  const logout = useLogout(() => navigate('/sign-in'));
   if (me.isPending) return null;
   if (!me.data)
     return (
@@ -22,7 +22,7 @@ export function UserBadge() {
       <button
         type="button"
         disabled={logout.isPending}
-        onClick={() => logout.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
+        onClick={() => logout.mutate()}
         className="rounded border border-paper/30 px-3 py-1 text-paper/90 hover:bg-white/10"
       >
         Sign out
