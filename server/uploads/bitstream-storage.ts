@@ -69,24 +69,50 @@ export function removeAbandonedUploads(dir: string): number {
   const abandoned = names.filter((n) => {
     if (!n.startsWith(INCOMING)) return false;
     const owner = /^(.+)-(\d+)-[0-9a-f-]{36}$/.exec(n.slice(INCOMING.length));
-    if (owner && owner[1] === host) return !processAlive(Number(owner[2]));
+    let lastWriteMs: number;
     try {
-      return Date.now() - fs.statSync(path.join(dir, n)).mtimeMs > ABANDONED_AFTER_MS;
+      lastWriteMs = fs.statSync(path.join(dir, n)).mtimeMs;
     } catch {
       return false; // finished and renamed meanwhile
     }
+    if (owner && owner[1] === host && !writerAlive(Number(owner[2]), lastWriteMs)) return true;
+    return Date.now() - lastWriteMs > ABANDONED_AFTER_MS;
   });
   for (const n of abandoned) fs.rmSync(path.join(dir, n), { force: true });
   return abandoned.length;
 }
 
-function processAlive(pid: number): boolean {
+/**
+ * Whether the process that wrote an upload may still be writing it. PIDs are reused (pid_max is
+ * often 32,768, and a PostgreSQL server starts a process per connection), so a live PID counts
+ * only if that process is no zombie and started before the file's last write (Linux's /proc; with
+ * no /proc, a live PID counts).
+ */
+function writerAlive(pid: number, lastWriteMs: number): boolean {
   if (pid === process.pid) return true;
   try {
     process.kill(pid, 0);
-    return true;
   } catch (err) {
-    return (err as NodeJS.ErrnoException).code === 'EPERM'; // alive, someone else's
+    if ((err as NodeJS.ErrnoException).code !== 'EPERM') return false; // EPERM: alive, someone else's
+  }
+  const startedMs = processStartMs(pid);
+  if (startedMs === 'zombie') return false;
+  // Start times are known to about a second (boot time is given in whole seconds).
+  return startedMs === null || startedMs <= lastWriteMs + 1500;
+}
+
+function processStartMs(pid: number): number | 'zombie' | null {
+  try {
+    const stat = fs.readFileSync(`/proc/${pid}/stat`, 'utf8');
+    // After the command name in parentheses: state (field 3) … starttime (field 22), in clock ticks.
+    const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+    if (fields[0] === 'Z' || fields[0] === 'X') return 'zombie';
+    const bootS = Number(/^btime (\d+)$/m.exec(fs.readFileSync('/proc/stat', 'utf8'))?.[1]);
+    const ticks = Number(fields[19]);
+    if (!Number.isFinite(bootS) || !Number.isFinite(ticks)) return null;
+    return bootS * 1000 + (ticks / 100) * 1000; // USER_HZ is 100 on Linux: common practice, no source
+  } catch {
+    return null;
   }
 }
 
