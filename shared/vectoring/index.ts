@@ -1,0 +1,7 @@
+// The vectoring cores' public API: configuration, model, exact reference, scoring and plans.
+// Everything outside shared/vectoring imports from here.
+export { ModelConfigError, PlanError, ScoringError } from '../numeric/errors';
+export { VectorInputError } from './errors';
+export { DEFAULT_VECTOR_CONFIG, inputRange, parseVectorConfig, vectorConfigSchema, type VectorConfig, type VectorConfigInput } from './vector-config';
+export { buildVectorTables, type VectorTables } from './vector-tables';
+export { angleOutputRange, createVectorModel, magnitudeRange, type AngleMagnitude, type VectorModel } from './vector-model';
