@@ -5,3 +5,4 @@ export { VectorInputError } from './errors';
 export { DEFAULT_VECTOR_CONFIG, inputRange, parseVectorConfig, vectorConfigSchema, type VectorConfig, type VectorConfigInput } from './vector-config';
 export { buildVectorTables, type VectorTables } from './vector-tables';
 export { angleOutputRange, createVectorModel, magnitudeRange, type AngleMagnitude, type VectorModel } from './vector-model';
+export { exactVector, exactVectorInto, idealVectorCodes, nominalGain } from './vector-exact';
