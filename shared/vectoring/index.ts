@@ -6,3 +6,12 @@ export { DEFAULT_VECTOR_CONFIG, inputRange, parseVectorConfig, vectorConfigSchem
 export { buildVectorTables, type VectorTables } from './vector-tables';
 export { angleOutputRange, createVectorModel, magnitudeRange, type AngleMagnitude, type VectorModel } from './vector-model';
 export { exactVector, exactVectorInto, idealVectorCodes, nominalGain } from './vector-exact';
+export { DEFAULT_VECTOR_COVERAGE, VectorCoverage, type Occupancy, type VectorCoverageOptions, type VectorCoverageSummary } from './vector-coverage';
+export {
+  VectorScoreAccumulator,
+  wrapAngleError,
+  type VectorErrorSummary,
+  type VectorMismatch,
+  type VectorScoreOptions,
+  type VectorScoreSummary,
+} from './vector-score';
