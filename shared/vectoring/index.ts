@@ -15,3 +15,14 @@ export {
   type VectorScoreOptions,
   type VectorScoreSummary,
 } from './vector-score';
+export {
+  bindVectorPlan,
+  edgePairs,
+  MAX_EXHAUSTIVE_IN_BITS,
+  MAX_VECTOR_PLAN_POINTS,
+  planVectors,
+  vectorPlanInto,
+  vectorPlanSchema,
+  type BoundVectorPlan,
+  type VectorPlan,
+} from './vector-plans';
