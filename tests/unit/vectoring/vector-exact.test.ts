@@ -48,7 +48,7 @@ describe('the exact reference of a vectoring core', () => {
 
   it('gives the tabulated arctangents in radians', () => {
     // atan(1/2), atan(2), atan(3), atan(1/5): digits from memory, recomputed with decimal.js
-    // (docs/references.md "CORDIC, vectoring mode"); atan 1 = π/4 (Abramowitz & Stegun 4.4, closed form).
+    // (docs/references.md "CORDIC, vectoring mode"); atan 1 = π/4 (Abramowitz & Stegun chapter 4, closed form).
     const c = parseVectorConfig({ angleFormat: 'rad', angleBits: 31, angleFrac: 28 });
     const rad = (x: number, y: number) => exactVector(c, x, y).angle / 2 ** 28;
     const table: [number, number, string][] = [

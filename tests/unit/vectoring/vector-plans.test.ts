@@ -30,7 +30,7 @@ describe('vectoring plans', () => {
 
   it('circle: the requested number of points on the circle, the axes and diagonals exact', () => {
     const c = planVectors({ kind: 'circle', radius: 1000, points: 8 }, { inBits: 12 });
-    // cos and sin of k·45°: 707.1 rounds to 707 (√2/2 = 0.70710678, Abramowitz & Stegun 4.3, closed form).
+    // cos and sin of k·45°: 707.1 rounds to 707 (√2/2 = 0.70710678, Abramowitz & Stegun chapter 4, closed form).
     expect(Array.from(c.xs)).toEqual([1000, 707, 0, -707, -1000, -707, 0, 707]);
     expect(Array.from(c.ys)).toEqual([0, 707, 1000, 707, 0, -707, -1000, -707]);
     const many = planVectors({ kind: 'circle', radius: 2047, points: 5000 }, { inBits: 12 });
