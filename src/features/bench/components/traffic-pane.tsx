@@ -1,18 +1,20 @@
-// Raw line traffic in an xterm. Drained a few times a second with a line budget, so a fast run
-// cannot flood the page; the scroll-back is bounded, and a plain-text copy of it (TrafficLines)
-// serves find and copy.
+// Raw line traffic in an xterm. Drained a few times a second (in the page's frame slots) with a
+// budget of a few screens of lines, so a fast run cannot flood the page; the scroll-back is
+// bounded, and a plain-text copy of it (TrafficLines) serves find and copy.
 import { FitAddon } from '@xterm/addon-fit';
 import { Terminal } from '@xterm/xterm';
 import '@xterm/xterm/css/xterm.css';
 import { useEffect, useRef, useState } from 'react';
 import type { TrafficLog } from '../live/traffic-log';
+import { slotGate } from '../live/frame-slot';
 import { TrafficLines } from '../live/traffic-lines';
 import { C, copyOrDownload, formatTraffic } from './traffic-format';
 import { btn, input, panel, panelTitle } from '../../../components/ui';
 
 const SCROLLBACK_LINES = 5000;
-const WRITE_EVERY_MS = 200;
-const LINES_PER_WRITE = 200;
+/** Lines written per frame slot: a few screens of the pane, at least this many. */
+const SCREENS_PER_WRITE = 3;
+const MIN_LINES_PER_WRITE = 60;
 
 export function TrafficPane({ log }: { log: TrafficLog }) {
   const box = useRef<HTMLDivElement>(null);
@@ -41,16 +43,18 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
     const ro = new ResizeObserver(() => fit.fit());
     ro.observe(box.current!);
     let raf = 0;
-    let lastWrite = 0;
+    const due = slotGate();
     const tick = (now: number) => {
-      if (!paused.current && now - lastWrite >= WRITE_EVERY_MS) {
-        lastWrite = now;
+      // Written in the frames the charts and figures change in, and no more lines than the pane
+      // shows in a few screens: lines nobody could read are counted, not formatted or parsed.
+      if (due(now) && !paused.current) {
         const { entries, dropped } = log.drain();
+        const budget = Math.max(MIN_LINES_PER_WRITE, t.rows * SCREENS_PER_WRITE);
         const out: string[] = [];
         let skipped = dropped;
         for (const e of entries) {
-          if (out.length >= LINES_PER_WRITE) skipped++;
-          else out.push(...formatTraffic(e));
+          if (out.length >= budget) skipped++;
+          else out.push(...formatTraffic(e, budget - out.length));
         }
         if (skipped) out.push(`${C.dim}… ${skipped.toLocaleString('en-US')} entries not shown (traffic faster than the pane)${C.off}`);
         for (const l of out) lines.push(l);
