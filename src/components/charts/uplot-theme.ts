@@ -17,22 +17,47 @@ export const axis = (label?: string): uPlot.Axis => ({ stroke: INK, font: FONT, 
 const DOT = 3;
 
 /**
- * Dots as small filled squares, one rectangle each in a single path: a canvas fills thousands of
- * rectangles in the time it takes to trace as many circles, and at 3 px the two look alike.
+ * Dots as small filled squares in one path, merged per pixel column: the squares of one column
+ * that touch or overlap become one rectangle covering the same pixels. A chart of thousands of
+ * points (a stored session's hundreds of thousands) then fills about one rectangle per column
+ * and distinct row, not a circle per point; at 3 px a square and a circle look alike.
  */
 const squareDots: uPlot.Series.Points.PathBuilder = (u, seriesIdx, idx0, idx1) => {
   const xs = u.data[0];
   const ys = u.data[seriesIdx];
   const scale = u.series[seriesIdx].scale ?? 'y';
-  const side = DOT * devicePixelRatio;
+  const side = Math.max(1, Math.round(DOT * devicePixelRatio));
   const fill = new Path2D();
+  // The column being gathered and its rows (top edges of the squares), emitted when it changes.
+  let column = NaN;
+  const tops: number[] = [];
+  const emit = () => {
+    if (tops.length === 0) return;
+    tops.sort((a, b) => a - b);
+    let from = tops[0];
+    let to = from + side;
+    for (let k = 1; k < tops.length; k++) {
+      if (tops[k] <= to) to = Math.max(to, tops[k] + side);
+      else {
+        fill.rect(column, from, side, to - from);
+        from = tops[k];
+        to = from + side;
+      }
+    }
+    fill.rect(column, from, side, to - from);
+    tops.length = 0;
+  };
   for (let i = idx0; i <= idx1; i++) {
     const y = ys[i];
     if (y == null) continue;
     const px = Math.round(u.valToPos(xs[i], 'x', true) - side / 2);
-    const py = Math.round(u.valToPos(y, scale, true) - side / 2);
-    fill.rect(px, py, side, side);
+    if (px !== column) {
+      emit();
+      column = px;
+    }
+    tops.push(Math.round(u.valToPos(y, scale, true) - side / 2));
   }
+  emit();
   return { fill, stroke: null };
 };
 

@@ -1,5 +1,5 @@
 // Raw line traffic in an xterm. Drained a few times a second (in the page's frame slots) with a
-// budget of a few screens of lines, so a fast run cannot flood the page; the scroll-back is
+// budget of a screen of lines, so a fast run cannot flood the page; the scroll-back is
 // bounded, and a plain-text copy of it (TrafficLines) serves find and copy.
 import { FitAddon } from '@xterm/addon-fit';
 import { Terminal } from '@xterm/xterm';
@@ -12,9 +12,9 @@ import { C, copyOrDownload, formatTraffic } from './traffic-format';
 import { btn, input, panel, panelTitle } from '../../../components/ui';
 
 const SCROLLBACK_LINES = 5000;
-/** Lines written per frame slot: a few screens of the pane, at least this many. */
-const SCREENS_PER_WRITE = 3;
-const MIN_LINES_PER_WRITE = 60;
+/** Lines written per frame slot: a screen of the pane, at least this many. */
+const SCREENS_PER_WRITE = 1;
+const MIN_LINES_PER_WRITE = 24;
 
 export function TrafficPane({ log }: { log: TrafficLog }) {
   const box = useRef<HTMLDivElement>(null);
@@ -46,7 +46,7 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
     const due = slotGate();
     const tick = (now: number) => {
       // Written in the frames the charts and figures change in, and no more lines than the pane
-      // shows in a few screens: lines nobody could read are counted, not formatted or parsed.
+      // shows at once: lines nobody could read are counted, not formatted or parsed.
       if (due(now) && !paused.current) {
         const { entries, dropped } = log.drain();
         const budget = Math.max(MIN_LINES_PER_WRITE, t.rows * SCREENS_PER_WRITE);
