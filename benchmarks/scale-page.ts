@@ -5,11 +5,10 @@
 // and the end for what stays). The save is timed from the click to the session's own page.
 import { chromium } from 'playwright-core';
 import { startBoardProcess } from './board-process';
-import { answered, connect, cpuOf, fpsOver, frames, signIn } from './page';
+import { answered, connect, cpuOf, fpsOver, frames, LINE_BOUND, signIn } from './page';
 import { startPageApp } from './page-app';
 import type { BenchResult } from './report';
 
-const BAUD = 12_000_000;
 const ANGLE_BITS = 22;
 const CODES = 2 ** ANGLE_BITS;
 const MIN_FPS = 30;
@@ -21,7 +20,7 @@ const CORE = { name: 'Scale check, 22-bit', slug: 'scale-check-22', modelConfig:
 
 export async function scalePageBench(): Promise<BenchResult[]> {
   const app = await startPageApp();
-  const board = await startBoardProcess(BAUD, ['--core', JSON.stringify(CORE.modelConfig)]);
+  const board = await startBoardProcess(12_000_000, ['--core', JSON.stringify(CORE.modelConfig)]);
   const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     headless: true,
@@ -105,7 +104,7 @@ export async function scalePageBench(): Promise<BenchResult[]> {
         target: `≤ ${MAX_LATE_GROWTH_MB} MB growth over the second half (after GC)`,
         met: heapMid !== null && heapEnd - heapMid <= MAX_LATE_GROWTH_MB,
       },
-      { name: `scale-page-results-rate${at}`, value: rate, unit: 'results/s, click to Complete', ratio: rate / ((BAUD / 10) / (257 / 62)), ratioOf: 'results/s ÷ the line bound at 12,000,000 baud', target: null, met: null },
+      { name: `scale-page-results-rate${at}`, value: rate, unit: 'results/s, click to Complete', ratio: rate / LINE_BOUND, ratioOf: 'results/s ÷ the line bound at 12,000,000 baud', target: null, met: null },
       { name: `scale-page-save${at}`, value: saveMs, unit: 'ms from Save to the session page', ratio: null, ratioOf: outcome === null ? 'saved' : `not saved: ${outcome}`, target: 'saved', met: outcome === null },
     ];
   } finally {

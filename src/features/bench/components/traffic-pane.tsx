@@ -1,25 +1,22 @@
-// Raw line traffic in an xterm. Drained a few times a second (in the page's frame slots) with a
-// budget of a screen of lines, so a fast run cannot flood the page; the scroll-back is
-// bounded, and a plain-text copy of it (TrafficLines) serves find and copy.
-import { FitAddon } from '@xterm/addon-fit';
-import { Terminal } from '@xterm/xterm';
-import '@xterm/xterm/css/xterm.css';
+// Raw line traffic. Drained a few times a second (in the page's frame slots) with a budget of a
+// screen of lines, so a fast run cannot flood the page; the kept lines are bounded, and only the
+// rows in view exist in the page (TrafficView). Their plain text (TrafficLines) serves find and copy.
 import { useEffect, useRef, useState } from 'react';
 import type { TrafficLog } from '../live/traffic-log';
 import { slotGate } from '../live/frame-slot';
 import { TrafficLines } from '../live/traffic-lines';
 import { C, copyOrDownload, formatTraffic } from './traffic-format';
+import { ROW_PX, TrafficView } from './traffic-view';
 import { btn, input, panel, panelTitle } from '../../../components/ui';
 
-const SCROLLBACK_LINES = 5000;
+const KEPT_LINES = 5000;
 /** Lines written per frame slot: a screen of the pane, at least this many. */
-const SCREENS_PER_WRITE = 1;
 const MIN_LINES_PER_WRITE = 24;
 
 export function TrafficPane({ log }: { log: TrafficLog }) {
   const box = useRef<HTMLDivElement>(null);
-  const term = useRef<Terminal | null>(null);
-  const [lines] = useState(() => new TrafficLines(SCROLLBACK_LINES));
+  const view = useRef<TrafficView | null>(null);
+  const [lines] = useState(() => new TrafficLines(KEPT_LINES));
   const paused = useRef(false);
   const [isPaused, setPaused] = useState(false);
   const [query, setQuery] = useState('');
@@ -27,29 +24,19 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
   const [copyNote, setCopyNote] = useState('');
 
   useEffect(() => {
-    const t = new Terminal({
-      scrollback: SCROLLBACK_LINES,
-      fontFamily: '"JetBrains Mono", monospace',
-      fontSize: 12,
-      disableStdin: true,
-      convertEol: true,
-      theme: { background: '#1f2a2e', foreground: '#f6f3ec', cursor: '#1f2a2e', selectionBackground: '#e0b84a', selectionForeground: '#1f2a2e' },
-    });
-    const fit = new FitAddon();
-    t.loadAddon(fit);
-    t.open(box.current!);
-    fit.fit();
-    term.current = t;
-    const ro = new ResizeObserver(() => fit.fit());
+    const v = new TrafficView(box.current!, lines);
+    view.current = v;
+    v.render(true);
+    const ro = new ResizeObserver(() => v.render(false));
     ro.observe(box.current!);
     let raf = 0;
     const due = slotGate();
     const tick = (now: number) => {
       // Written in the frames the charts and figures change in, and no more lines than the pane
-      // shows at once: lines nobody could read are counted, not formatted or parsed.
+      // shows at once: lines nobody could read are counted, not formatted.
       if (due(now) && !paused.current) {
         const { entries, dropped } = log.drain();
-        const budget = Math.max(MIN_LINES_PER_WRITE, t.rows * SCREENS_PER_WRITE);
+        const budget = Math.max(MIN_LINES_PER_WRITE, Math.ceil(box.current!.clientHeight / ROW_PX));
         const out: string[] = [];
         let skipped = dropped;
         for (const e of entries) {
@@ -57,8 +44,11 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
           else out.push(...formatTraffic(e, budget - out.length));
         }
         if (skipped) out.push(`${C.dim}… ${skipped.toLocaleString('en-US')} entries not shown (traffic faster than the pane)${C.off}`);
-        for (const l of out) lines.push(l);
-        if (out.length) t.write(out.join('\r\n') + '\r\n');
+        if (out.length) {
+          const follow = v.atEnd;
+          v.push(out);
+          v.render(follow);
+        }
       }
       raf = requestAnimationFrame(tick);
     };
@@ -66,21 +56,13 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
     return () => {
       cancelAnimationFrame(raf);
       ro.disconnect();
-      t.dispose();
-      term.current = null;
+      v.dispose();
+      view.current = null;
     };
   }, [log, lines]);
 
-  /** Select line `n`'s hit in the terminal and scroll it into view. */
-  const show = (n: number, column: number) => {
-    const t = term.current;
-    if (!t) return;
-    // The terminal holds the last scrollback + rows lines (plus the empty cursor line).
-    const trimmed = Math.max(0, lines.written + 1 - (SCROLLBACK_LINES + t.rows));
-    const row = n - trimmed;
-    t.scrollToLine(Math.max(0, row - Math.floor(t.rows / 2)));
-    t.select(column, row, query.length);
-  };
+  /** Bring line `n`'s hit into view, marked. */
+  const show = (n: number, column: number) => view.current?.show(n, column, query.length);
 
   const find = (direction: 1 | -1) => {
     const from = hit && hit !== 'none' ? hit.line : direction === 1 ? -1 : lines.written;
@@ -91,14 +73,7 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
   };
 
   const copy = async (what: 'visible' | 'all') => {
-    const t = term.current;
-    let text = lines.text();
-    if (what === 'visible' && t) {
-      const b = t.buffer.active;
-      const rows: string[] = [];
-      for (let y = b.viewportY; y < b.viewportY + t.rows; y++) rows.push(b.getLine(y)?.translateToString(true) ?? '');
-      text = rows.join('\n').trimEnd();
-    }
+    const text = what === 'visible' && view.current ? view.current.visibleText() : lines.text();
     const how = await copyOrDownload(text, 'line-traffic.txt');
     setCopyNote(how === 'copied' ? `Copied ${what === 'all' ? 'the kept traffic' : 'the visible lines'}.` : 'The clipboard is not available here, so the text was downloaded as line-traffic.txt.');
   };
@@ -126,8 +101,7 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
           type="button"
           className={btn}
           onClick={() => {
-            term.current?.reset();
-            lines.clear();
+            view.current?.clear();
             setHit(null);
           }}
         >
@@ -175,7 +149,8 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
           {hit === 'none' ? 'Not found' : hit ? `${hit.index} of ${hit.total}` : ''}
         </span>
       </form>
-      <div ref={box} className="h-64 min-w-0 overflow-hidden rounded bg-ink p-1" />
+      {/* Focusable, so the kept lines scroll from the keyboard too. */}
+      <div ref={box} role="region" aria-label="Kept traffic" tabIndex={0} className="relative h-64 min-w-0 overflow-auto rounded bg-ink p-1 font-mono text-xs leading-4 text-paper" />
       <p className="mt-1 min-h-4 text-xs text-ink-soft" aria-live="polite">
         {copyNote}
       </p>
