@@ -1,17 +1,22 @@
-// Raw line traffic. Drained a few times a second (in the page's frame slots) with a budget of a
-// screen of lines, so a fast run cannot flood the page; the kept lines are bounded, and only the
+// Raw line traffic. Drained a few times a second (in the page's frame slots) with a budget of
+// lines, so a fast run cannot flood the page; the kept lines are bounded, and only the
 // rows in view exist in the page (TrafficView). Their plain text (TrafficLines) serves find and copy.
 import { useEffect, useRef, useState } from 'react';
 import type { TrafficLog } from '../live/traffic-log';
 import { slotGate } from '../live/frame-slot';
 import { TrafficLines } from '../live/traffic-lines';
 import { C, copyOrDownload, formatTraffic } from './traffic-format';
-import { ROW_PX, TrafficView } from './traffic-view';
+import { TrafficView } from './traffic-view';
 import { btn, input, panel, panelTitle } from '../../../components/ui';
 
 const KEPT_LINES = 5000;
-/** Lines written per frame slot: a screen of the pane, at least this many. */
-const MIN_LINES_PER_WRITE = 24;
+/**
+ * Lines kept per frame slot, and hex rows per chunk of bytes: at full speed a chunk holds
+ * thousands of bytes, and its first rows (then how many more) leave room for the frames decoded
+ * from it. Only the rows in view are ever built in the page, so kept lines cost only their text.
+ */
+const LINES_PER_WRITE = 200;
+const ROWS_PER_CHUNK = 16;
 
 export function TrafficPane({ log }: { log: TrafficLog }) {
   const box = useRef<HTMLDivElement>(null);
@@ -32,16 +37,15 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
     let raf = 0;
     const due = slotGate();
     const tick = (now: number) => {
-      // Written in the frames the charts and figures change in, and no more lines than the pane
-      // shows at once: lines nobody could read are counted, not formatted.
+      // Written in the frames the charts and figures change in, within a budget of lines: what is
+      // past it is counted, not formatted.
       if (due(now) && !paused.current) {
         const { entries, dropped } = log.drain();
-        const budget = Math.max(MIN_LINES_PER_WRITE, Math.ceil(box.current!.clientHeight / ROW_PX));
         const out: string[] = [];
         let skipped = dropped;
         for (const e of entries) {
-          if (out.length >= budget) skipped++;
-          else out.push(...formatTraffic(e, budget - out.length));
+          if (out.length >= LINES_PER_WRITE) skipped++;
+          else out.push(...formatTraffic(e, ROWS_PER_CHUNK));
         }
         if (skipped) out.push(`${C.dim}… ${skipped.toLocaleString('en-US')} entries not shown (traffic faster than the pane)${C.off}`);
         if (out.length) {
