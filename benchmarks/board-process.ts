@@ -14,9 +14,10 @@ export interface BoardProcess {
   stop(): Promise<void>;
 }
 
-export async function startBoardProcess(baud: number): Promise<BoardProcess> {
+/** `args`: more of `npm run mock`'s options, e.g. ['--core', '{"angleBits":22}']. */
+export async function startBoardProcess(baud: number, args: string[] = []): Promise<BoardProcess> {
   const port = await freePort();
-  const child: ChildProcess = spawn(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), 'mock-device/index.ts', '--ws-port', String(port), '--baud', String(baud)], {
+  const child: ChildProcess = spawn(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), 'mock-device/index.ts', '--ws-port', String(port), '--baud', String(baud), ...args], {
     cwd: root,
     stdio: ['ignore', 'pipe', 'pipe'],
   });

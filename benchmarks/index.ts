@@ -16,6 +16,7 @@ const BENCHES: Record<string, Bench> = {
   ingest: async () => (await import('./ingest')).ingestBench(),
   'list-compare': async () => (await import('./list-compare')).listCompareBench(),
   page: async () => (await import('./page')).pageBench(),
+  'scale-page': async () => (await import('./scale-page')).scalePageBench(),
   station: async () => (await import('./station')).stationBench(),
   'vector-score': async () => (await import('./vector-score')).vectorScoreBench(),
 };

@@ -50,15 +50,23 @@ async function buildClient(): Promise<void> {
 
 /** Builds the production client and serves it with the API; sign in with the demo accounts. */
 export async function startPageApp(): Promise<PageApp> {
-  await buildClient();
+  // BENCH_PAGE_CLIENT=DIR serves a client already built there (another commit's, for a
+  // before/after comparison on the same machine) instead of building this checkout's.
+  const clientDir = process.env.BENCH_PAGE_CLIENT ? path.resolve(process.env.BENCH_PAGE_CLIENT) : BENCH_CLIENT_DIR;
+  if (!process.env.BENCH_PAGE_CLIENT) await buildClient();
   const tmp = await tempDatabase();
-  const config = loadConfig({ NODE_ENV: 'production', DATABASE_URL: tmp.url, SESSION_SECRET: 'bench-secret-0123456789abcdef' }, path.join(tmp.dir, 'session-secret'));
+  // The page reaches the simulated board on its own port: the CSP must allow it, as a lab's
+  // BRIDGE_ORIGINS allows its bridges.
+  const config = loadConfig(
+    { NODE_ENV: 'production', DATABASE_URL: tmp.url, SESSION_SECRET: 'bench-secret-0123456789abcdef', BRIDGE_ORIGINS: 'ws://127.0.0.1:*' },
+    path.join(tmp.dir, 'session-secret'),
+  );
   const db = openDatabase(config.databaseUrl);
   await migrate(db);
   await seedIfEmpty(db, config.demoPassword);
   const catcher = await startMailCatcher(db);
   const mailer = createSmtpMailer(catcher.url);
-  const http = createServer(createApp({ config, db, mailer, clientDir: BENCH_CLIENT_DIR }));
+  const http = createServer(createApp({ config, db, mailer, clientDir }));
   await new Promise<void>((resolve) => http.listen(0, '127.0.0.1', resolve));
   return {
     url: `http://127.0.0.1:${(http.address() as AddressInfo).port}`,

@@ -126,7 +126,15 @@ export class RunLedger {
 
   /** The answers of the given (answered) indexes, as a batch for the run's listener. */
   batchOf(indexes: Uint32Array): ResultBatch {
-    return { indexes, cos: Int32Array.from(indexes, (i) => this.cos[i]), sin: Int32Array.from(indexes, (i) => this.sin[i]) };
+    // A plain loop: Int32Array.from with a mapping function was the page's costliest step per result.
+    const n = indexes.length;
+    const cos = new Int32Array(n);
+    const sin = new Int32Array(n);
+    for (let k = 0; k < n; k++) {
+      cos[k] = this.cos[indexes[k]];
+      sin[k] = this.sin[indexes[k]];
+    }
+    return { indexes, cos, sin };
   }
 
   private agreesWithHeld(index: number, cos: number, sin: number): boolean {

@@ -8,11 +8,12 @@ import { CHART_SPECS, xyExtent, type ChartId } from './chart-specs';
 import { squarePlotHooks } from './square-plot';
 
 /**
- * Where the charts get their data: polled once per animation frame; return only what changed,
- * or everything when `all` is set (the first poll after the charts were made).
+ * Where the charts get their data: polled once per animation frame, with the frame's time stamp;
+ * return only what changed, or everything when `all` is set (the first poll after the charts were
+ * made).
  */
 export interface ChartFeed {
-  poll(all: boolean): Partial<Record<ChartId, uPlot.AlignedData>> | null;
+  poll(all: boolean, frameTimeMs: number): Partial<Record<ChartId, uPlot.AlignedData>> | null;
 }
 
 export interface SignalChartsProps {
@@ -50,8 +51,8 @@ export function SignalCharts({ charts, feed, heightPx = 220, className = 'grid g
     els.forEach((b) => ro.observe(b));
     let raf = 0;
     let first = true;
-    const tick = () => {
-      const fresh = feed.poll(first);
+    const tick = (frameTimeMs: number) => {
+      const fresh = feed.poll(first, frameTimeMs);
       first = false;
       if (fresh) {
         ids.forEach((id, i) => {

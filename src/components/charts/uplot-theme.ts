@@ -13,5 +13,53 @@ const LABEL_FONT = '13px "Atkinson Hyperlegible", sans-serif';
 export const AXIS_SIZE = 58;
 
 export const axis = (label?: string): uPlot.Axis => ({ stroke: INK, font: FONT, labelFont: LABEL_FONT, grid: { stroke: RULE, width: 1 }, ticks: { stroke: RULE }, label, size: AXIS_SIZE });
-export const dots = (stroke: string, label: string): uPlot.Series => ({ label, stroke, width: 0, paths: () => null, points: { show: true, size: 3, stroke, fill: stroke } });
+/** Diameter of a dot, CSS px. */
+const DOT = 3;
+
+/**
+ * Dots as small filled squares in one path, merged per pixel column: the squares of one column
+ * that touch or overlap become one rectangle covering the same pixels. A chart of thousands of
+ * points (a stored session's hundreds of thousands) then fills about one rectangle per column
+ * and distinct row, not a circle per point; at 3 px a square and a circle look alike.
+ */
+const squareDots: uPlot.Series.Points.PathBuilder = (u, seriesIdx, idx0, idx1) => {
+  const xs = u.data[0];
+  const ys = u.data[seriesIdx];
+  const scale = u.series[seriesIdx].scale ?? 'y';
+  const side = Math.max(1, Math.round(DOT * devicePixelRatio));
+  const fill = new Path2D();
+  // The column being gathered and its rows (top edges of the squares), emitted when it changes.
+  let column = NaN;
+  const tops: number[] = [];
+  const emit = () => {
+    if (tops.length === 0) return;
+    tops.sort((a, b) => a - b);
+    let from = tops[0];
+    let to = from + side;
+    for (let k = 1; k < tops.length; k++) {
+      if (tops[k] <= to) to = Math.max(to, tops[k] + side);
+      else {
+        fill.rect(column, from, side, to - from);
+        from = tops[k];
+        to = from + side;
+      }
+    }
+    fill.rect(column, from, side, to - from);
+    tops.length = 0;
+  };
+  for (let i = idx0; i <= idx1; i++) {
+    const y = ys[i];
+    if (y == null) continue;
+    const px = Math.round(u.valToPos(xs[i], 'x', true) - side / 2);
+    if (px !== column) {
+      emit();
+      column = px;
+    }
+    tops.push(Math.round(u.valToPos(y, scale, true) - side / 2));
+  }
+  emit();
+  return { fill, stroke: null };
+};
+
+export const dots = (stroke: string, label: string): uPlot.Series => ({ label, stroke, width: 0, paths: () => null, points: { show: true, size: DOT, width: 0, stroke, fill: stroke, paths: squareDots } });
 export const line = (stroke: string, label: string, width = 1): uPlot.Series => ({ label, stroke, width });

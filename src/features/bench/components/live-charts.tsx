@@ -4,6 +4,7 @@ import { useMemo } from 'react';
 import type uPlot from 'uplot';
 import { histogramData } from '../../../components/charts/chart-specs';
 import { SignalCharts, type ChartFeed } from '../../../components/charts/signal-charts';
+import { slotGate } from '../live/frame-slot';
 import { COLUMNS, RAW_LIMIT, type LiveSamples } from '../live/live-samples';
 
 type Data = uPlot.AlignedData;
@@ -52,15 +53,21 @@ function xyData(s: LiveSamples): Data {
   return [order.map((i) => cos[i]), order.map((i) => sin[i])];
 }
 
-/** A feed that reads the controller's current sample store on every frame. */
+/**
+ * A feed that reads the controller's current sample store, in the first frame of each frame slot
+ * (the frames the rest of the page changes in too): the charts redraw a few times a second at most.
+ */
 function liveFeed(samplesRef: { current: LiveSamples | null }): ChartFeed {
   let seen: LiveSamples | null = null;
   let version = -1;
   let summaryVersion = -1;
+  const slotStart = slotGate();
   return {
-    poll(all) {
+    poll(all, frameTimeMs) {
       const s = samplesRef.current;
-      if (!s) return null;
+      // Called every frame, so the gate sees every slot's first frame.
+      const due = slotStart(frameTimeMs);
+      if (!s || (!due && !all && s === seen)) return null;
       const fresh = all || s !== seen;
       const moved = fresh || s.version !== version;
       const summed = fresh || s.summaryVersion !== summaryVersion;

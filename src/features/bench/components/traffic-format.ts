@@ -11,7 +11,8 @@ const stamp = (atMs: number) => {
 };
 const hex = (b: number) => b.toString(16).padStart(2, '0');
 
-export function formatTraffic(e: TrafficEntry): string[] {
+/** The entry's lines; a chunk of bytes shows at most `maxRows` rows of 16, then says how much more it held. */
+export function formatTraffic(e: TrafficEntry, maxRows = Infinity): string[] {
   const t = `${C.dim}${stamp(e.atMs)}${C.off}`;
   if (e.type === 'note') return [`${t} ${C.warn}! ${e.text}${C.off}`];
   if (e.type === 'skip') return [`${t} ${C.warn}! skipped ${e.event.bytes} B (${e.event.reason}) at ${e.event.offset}${C.off}`];
@@ -19,12 +20,14 @@ export function formatTraffic(e: TrafficEntry): string[] {
   const out: string[] = [];
   const col = e.direction === 'tx' ? C.tx : C.rx;
   const arrow = e.direction === 'tx' ? 'TX →' : 'RX ←';
-  for (let at = 0; at < e.bytes.length; at += 16) {
+  const shown = Math.min(e.bytes.length, Math.max(1, maxRows) * 16);
+  for (let at = 0; at < shown; at += 16) {
     const row = e.bytes.subarray(at, at + 16);
     const h = Array.from(row, hex).join(' ').padEnd(47);
     const a = Array.from(row, (b) => (b >= 0x20 && b < 0x7f ? String.fromCharCode(b) : '.')).join('');
     out.push(`${at === 0 ? t : ' '.repeat(12)} ${col}${at === 0 ? arrow : '    '}${C.off} ${h}  ${C.dim}${a}${C.off}`);
   }
+  if (shown < e.bytes.length) out.push(`${' '.repeat(12)} ${C.dim}     … ${(e.bytes.length - shown).toLocaleString('en-US')} more bytes of this chunk not shown${C.off}`);
   return out;
 }
 

@@ -1,23 +1,27 @@
-// Raw line traffic in an xterm. Drained a few times a second with a line budget, so a fast run
-// cannot flood the page; the scroll-back is bounded, and a plain-text copy of it (TrafficLines)
-// serves find and copy.
-import { FitAddon } from '@xterm/addon-fit';
-import { Terminal } from '@xterm/xterm';
-import '@xterm/xterm/css/xterm.css';
+// Raw line traffic. Drained a few times a second (in the page's frame slots) with a budget of
+// lines, so a fast run cannot flood the page; the kept lines are bounded, and only the
+// rows in view exist in the page (TrafficView). Their plain text (TrafficLines) serves find and copy.
 import { useEffect, useRef, useState } from 'react';
 import type { TrafficLog } from '../live/traffic-log';
+import { slotGate } from '../live/frame-slot';
 import { TrafficLines } from '../live/traffic-lines';
 import { C, copyOrDownload, formatTraffic } from './traffic-format';
+import { TrafficView } from './traffic-view';
 import { btn, input, panel, panelTitle } from '../../../components/ui';
 
-const SCROLLBACK_LINES = 5000;
-const WRITE_EVERY_MS = 200;
+const KEPT_LINES = 5000;
+/**
+ * Lines kept per frame slot, and hex rows per chunk of bytes: at full speed a chunk holds
+ * thousands of bytes, and its first rows (then how many more) leave room for the frames decoded
+ * from it. Only the rows in view are ever built in the page, so kept lines cost only their text.
+ */
 const LINES_PER_WRITE = 200;
+const ROWS_PER_CHUNK = 16;
 
 export function TrafficPane({ log }: { log: TrafficLog }) {
   const box = useRef<HTMLDivElement>(null);
-  const term = useRef<Terminal | null>(null);
-  const [lines] = useState(() => new TrafficLines(SCROLLBACK_LINES));
+  const view = useRef<TrafficView | null>(null);
+  const [lines] = useState(() => new TrafficLines(KEPT_LINES));
   const paused = useRef(false);
   const [isPaused, setPaused] = useState(false);
   const [query, setQuery] = useState('');
@@ -25,36 +29,30 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
   const [copyNote, setCopyNote] = useState('');
 
   useEffect(() => {
-    const t = new Terminal({
-      scrollback: SCROLLBACK_LINES,
-      fontFamily: '"JetBrains Mono", monospace',
-      fontSize: 12,
-      disableStdin: true,
-      convertEol: true,
-      theme: { background: '#1f2a2e', foreground: '#f6f3ec', cursor: '#1f2a2e', selectionBackground: '#e0b84a', selectionForeground: '#1f2a2e' },
-    });
-    const fit = new FitAddon();
-    t.loadAddon(fit);
-    t.open(box.current!);
-    fit.fit();
-    term.current = t;
-    const ro = new ResizeObserver(() => fit.fit());
+    const v = new TrafficView(box.current!, lines);
+    view.current = v;
+    v.render(true);
+    const ro = new ResizeObserver(() => v.render(false));
     ro.observe(box.current!);
     let raf = 0;
-    let lastWrite = 0;
+    const due = slotGate();
     const tick = (now: number) => {
-      if (!paused.current && now - lastWrite >= WRITE_EVERY_MS) {
-        lastWrite = now;
+      // Written in the frames the charts and figures change in, within a budget of lines: what is
+      // past it is counted, not formatted.
+      if (due(now) && !paused.current) {
         const { entries, dropped } = log.drain();
         const out: string[] = [];
         let skipped = dropped;
         for (const e of entries) {
           if (out.length >= LINES_PER_WRITE) skipped++;
-          else out.push(...formatTraffic(e));
+          else out.push(...formatTraffic(e, ROWS_PER_CHUNK));
         }
         if (skipped) out.push(`${C.dim}… ${skipped.toLocaleString('en-US')} entries not shown (traffic faster than the pane)${C.off}`);
-        for (const l of out) lines.push(l);
-        if (out.length) t.write(out.join('\r\n') + '\r\n');
+        if (out.length) {
+          const follow = v.atEnd;
+          v.push(out);
+          v.render(follow);
+        }
       }
       raf = requestAnimationFrame(tick);
     };
@@ -62,21 +60,13 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
     return () => {
       cancelAnimationFrame(raf);
       ro.disconnect();
-      t.dispose();
-      term.current = null;
+      v.dispose();
+      view.current = null;
     };
   }, [log, lines]);
 
-  /** Select line `n`'s hit in the terminal and scroll it into view. */
-  const show = (n: number, column: number) => {
-    const t = term.current;
-    if (!t) return;
-    // The terminal holds the last scrollback + rows lines (plus the empty cursor line).
-    const trimmed = Math.max(0, lines.written + 1 - (SCROLLBACK_LINES + t.rows));
-    const row = n - trimmed;
-    t.scrollToLine(Math.max(0, row - Math.floor(t.rows / 2)));
-    t.select(column, row, query.length);
-  };
+  /** Bring line `n`'s hit into view, marked. */
+  const show = (n: number, column: number) => view.current?.show(n, column, query.length);
 
   const find = (direction: 1 | -1) => {
     const from = hit && hit !== 'none' ? hit.line : direction === 1 ? -1 : lines.written;
@@ -87,14 +77,7 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
   };
 
   const copy = async (what: 'visible' | 'all') => {
-    const t = term.current;
-    let text = lines.text();
-    if (what === 'visible' && t) {
-      const b = t.buffer.active;
-      const rows: string[] = [];
-      for (let y = b.viewportY; y < b.viewportY + t.rows; y++) rows.push(b.getLine(y)?.translateToString(true) ?? '');
-      text = rows.join('\n').trimEnd();
-    }
+    const text = what === 'visible' && view.current ? view.current.visibleText() : lines.text();
     const how = await copyOrDownload(text, 'line-traffic.txt');
     setCopyNote(how === 'copied' ? `Copied ${what === 'all' ? 'the kept traffic' : 'the visible lines'}.` : 'The clipboard is not available here, so the text was downloaded as line-traffic.txt.');
   };
@@ -122,8 +105,7 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
           type="button"
           className={btn}
           onClick={() => {
-            term.current?.reset();
-            lines.clear();
+            view.current?.clear();
             setHit(null);
           }}
         >
@@ -171,7 +153,8 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
           {hit === 'none' ? 'Not found' : hit ? `${hit.index} of ${hit.total}` : ''}
         </span>
       </form>
-      <div ref={box} className="h-64 min-w-0 overflow-hidden rounded bg-ink p-1" />
+      {/* Focusable, so the kept lines scroll from the keyboard too. */}
+      <div ref={box} role="region" aria-label="Kept traffic" tabIndex={0} className="relative h-64 min-w-0 overflow-auto rounded bg-ink p-1 font-mono text-xs leading-4 text-paper" />
       <p className="mt-1 min-h-4 text-xs text-ink-soft" aria-live="polite">
         {copyNote}
       </p>

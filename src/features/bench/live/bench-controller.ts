@@ -13,6 +13,7 @@ import type { ConnectionRecording } from './connection-recording';
 import { LiveSamples } from './live-samples';
 import { newRun, takeResults } from './new-run';
 import { recordedLink } from './recorded-link';
+import { slotGate } from './frame-slot';
 import { ScoreClient } from './score-client';
 import type { ToneResult } from './score-protocol';
 import { TrafficLog } from './traffic-log';
@@ -70,6 +71,9 @@ export class BenchController {
   private handle: RunHandle | null = null;
   private scorer: ScoreClient | null = null;
   private lastProgressAt = 0;
+  private deferred: Partial<NonNullable<BenchSnapshot['run']>> | null = null;
+  private frame = 0;
+  private readonly slotStart = slotGate();
 
   constructor(private readonly store: UnsavedRunStore = unsavedRunStore) {}
 
@@ -84,7 +88,34 @@ export class BenchController {
     for (const l of this.listeners) l();
   }
   private setRun(patch: Partial<NonNullable<BenchSnapshot['run']>>) {
-    if (this.snap.run) this.set({ run: { ...this.snap.run, ...patch } });
+    // What waits for the next frame slot goes first, so a later change is never overwritten by it.
+    const waiting = this.deferred;
+    this.deferred = null;
+    if (this.snap.run) this.set({ run: { ...this.snap.run, ...waiting, ...patch } });
+  }
+
+  /**
+   * Progress and interim figures reach React in the first frame of a frame slot, where the charts
+   * and traffic change too: one render, layout and paint for all of them, a few times a second.
+   * Without animation frames (outside a browser) they go at once.
+   */
+  private setRunInSlot(patch: Partial<NonNullable<BenchSnapshot['run']>>) {
+    if (typeof requestAnimationFrame === 'undefined') return this.setRun(patch);
+    this.deferred = { ...this.deferred, ...patch };
+    if (this.frame) return;
+    const due = this.slotStart;
+    const wait = (now: number) => {
+      // Called every frame while something waits, so the gate sees each slot's first frame.
+      if (!due(now) || !this.deferred) {
+        this.frame = this.deferred ? requestAnimationFrame(wait) : 0;
+        return;
+      }
+      this.frame = 0;
+      this.setRun({});
+    };
+    // The gate must see the frame before a slot's first one, so the first check only primes it.
+    due(performance.now());
+    this.frame = requestAnimationFrame(wait);
   }
 
   /** Open a link (made by the caller), say HELLO and keep INFO. Everything on it is recorded. */
@@ -123,6 +154,7 @@ export class BenchController {
     const codes = record.codes;
     this.record = record;
     const scorer = this.startScoring(record);
+    this.deferred = null;
     this.set({ restorable: null, run: { state: 'running', progress: null, result: null, summary: null, tone: null, figures: null, error: null, plan, restoredFrom: null } });
     const engine = this.engine;
     const rxAtStart = engine.figures.bytesReceived;
@@ -141,7 +173,7 @@ export class BenchController {
         // The engine fills in line use at the end; meanwhile it is worked out here the same way.
         const rxBytes = engine.figures.bytesReceived - rxAtStart;
         const lineShare = p.elapsedMs > 0 ? (rxBytes * 1000) / p.elapsedMs / (this.baud / 10) : 0;
-        this.setRun({ progress: p, figures: { ...engine.figures, naks: { ...engine.figures.naks }, lineShare, resultsPerS: p.ratePerS } });
+        this.setRunInSlot({ progress: p, figures: { ...engine.figures, naks: { ...engine.figures.naks }, lineShare, resultsPerS: p.ratePerS } });
       },
     });
     this.handle = handle;
@@ -192,6 +224,7 @@ export class BenchController {
       const storedAt = (raw as { storedAt: number }).storedAt;
       this.record = record;
       const scorer = this.startScoring(record);
+      this.deferred = null;
       this.set({
         restorable: null,
         storeMessage: null,
@@ -217,6 +250,7 @@ export class BenchController {
   }
 
   dispose() {
+    if (this.frame) cancelAnimationFrame(this.frame);
     void this.disconnect();
     this.scorer?.terminate();
     this.listeners.clear();
@@ -227,7 +261,7 @@ export class BenchController {
     const samples = new LiveSamples(record.config);
     this.samples = samples;
     const scorer: ScoreClient = new ScoreClient(record.config, record.plan, samples, {
-      summary: (summary, tone) => scorer === this.scorer && this.setRun({ summary, tone }),
+      summary: (summary, tone, final) => scorer === this.scorer && (final ? this.setRun({ summary, tone }) : this.setRunInSlot({ summary, tone })),
       error: (message) => scorer === this.scorer && this.setRun({ error: message }),
     });
     this.scorer = scorer;

@@ -22,6 +22,8 @@ export class LiveSamples {
   readonly min: Record<Series, Float64Array>;
   readonly max: Record<Series, Float64Array>;
   readonly filled = new Uint8Array(COLUMNS);
+  /** Degrees of a code, as angleCodeToDegrees works them out, without its per-call range check (the worker scored every code). */
+  private readonly degrees: (code: number) => number;
 
   constructor(readonly config: ModelConfig) {
     const r = angleCodeRange(config);
@@ -31,6 +33,10 @@ export class LiveSamples {
     const make = (fill: number) => Object.fromEntries(SERIES.map((s) => [s, new Float64Array(COLUMNS).fill(fill)])) as Record<Series, Float64Array>;
     this.min = make(Infinity);
     this.max = make(-Infinity);
+    // The same expressions, in the same order, as angleCodeToDegrees: the same doubles.
+    const turn = 2 ** config.angleBits;
+    const rad = 2 ** config.angleFrac;
+    this.degrees = config.angleFormat === 'turn' ? (code) => (360 * code) / turn : (code) => ((code / rad) * 180) / Math.PI;
   }
 
   /** x of a column's centre, degrees. */
@@ -40,25 +46,37 @@ export class LiveSamples {
 
   add(codes: Float64Array, cos: Int32Array, sin: Int32Array, errCos: Float32Array, errSin: Float32Array) {
     const span = this.xMaxDeg - this.xMinDeg || 1;
+    const { xMinDeg, scale, degrees, raw, filled } = this;
+    // One loop over typed arrays, no object per sample: this runs for every result of a run.
+    const [minCos, minSin, minErrCos, minErrSin] = [this.min.cos, this.min.sin, this.min.errCos, this.min.errSin];
+    const [maxCos, maxSin, maxErrCos, maxErrSin] = [this.max.cos, this.max.sin, this.max.errCos, this.max.errSin];
+    let count = this.count;
     for (let k = 0; k < codes.length; k++) {
-      const x = angleCodeToDegrees(this.config, codes[k]);
-      const v = { cos: cos[k] * this.scale, sin: sin[k] * this.scale, errCos: errCos[k], errSin: errSin[k] };
-      if (this.count < RAW_LIMIT) {
-        const i = this.count;
-        this.raw.x[i] = x;
-        this.raw.cos[i] = v.cos;
-        this.raw.sin[i] = v.sin;
-        this.raw.errCos[i] = v.errCos;
-        this.raw.errSin[i] = v.errSin;
+      const x = degrees(codes[k]);
+      const vc = cos[k] * scale;
+      const vs = sin[k] * scale;
+      const ec = errCos[k];
+      const es = errSin[k];
+      if (count < RAW_LIMIT) {
+        raw.x[count] = x;
+        raw.cos[count] = vc;
+        raw.sin[count] = vs;
+        raw.errCos[count] = ec;
+        raw.errSin[count] = es;
       }
-      const c = Math.min(COLUMNS - 1, Math.max(0, Math.floor(((x - this.xMinDeg) / span) * COLUMNS)));
-      this.filled[c] = 1;
-      for (const s of SERIES) {
-        if (v[s] < this.min[s][c]) this.min[s][c] = v[s];
-        if (v[s] > this.max[s][c]) this.max[s][c] = v[s];
-      }
-      this.count++;
+      const c = Math.min(COLUMNS - 1, Math.max(0, Math.floor(((x - xMinDeg) / span) * COLUMNS)));
+      filled[c] = 1;
+      if (vc < minCos[c]) minCos[c] = vc;
+      if (vc > maxCos[c]) maxCos[c] = vc;
+      if (vs < minSin[c]) minSin[c] = vs;
+      if (vs > maxSin[c]) maxSin[c] = vs;
+      if (ec < minErrCos[c]) minErrCos[c] = ec;
+      if (ec > maxErrCos[c]) maxErrCos[c] = ec;
+      if (es < minErrSin[c]) minErrSin[c] = es;
+      if (es > maxErrSin[c]) maxErrSin[c] = es;
+      count++;
     }
+    this.count = count;
     this.version++;
   }
 

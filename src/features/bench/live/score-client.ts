@@ -13,7 +13,9 @@ export interface ScoreListener {
 
 export class ScoreClient {
   private readonly worker: Worker;
-  private pending: { indexes: number[]; codes: number[]; cos: number[]; sin: number[] } | null = null;
+  /** Results waiting for the next flush, in typed arrays grown by doubling: no array of numbers per result. */
+  private pending = ScoreClient.buffers(4096);
+  private queued = 0;
   private timer: ReturnType<typeof setTimeout> | null = null;
 
   constructor(config: ModelConfig, plan: Plan, private readonly samples: LiveSamples, private readonly on: ScoreListener) {
@@ -34,13 +36,17 @@ export class ScoreClient {
 
   /** Results of request indexes `indexes` (their codes looked up in `codes`). */
   queue(codes: Float64Array, indexes: ArrayLike<number>, cos: ArrayLike<number>, sin: ArrayLike<number>) {
-    const p = (this.pending ??= { indexes: [], codes: [], cos: [], sin: [] });
-    for (let k = 0; k < indexes.length; k++) {
-      p.indexes.push(indexes[k]);
-      p.codes.push(codes[indexes[k]]);
-      p.cos.push(cos[k]);
-      p.sin.push(sin[k]);
+    const n = indexes.length;
+    this.reserve(this.queued + n);
+    const p = this.pending;
+    for (let k = 0, at = this.queued; k < n; k++, at++) {
+      const i = indexes[k];
+      p.indexes[at] = i;
+      p.codes[at] = codes[i];
+      p.cos[at] = cos[k];
+      p.sin[at] = sin[k];
     }
+    this.queued += n;
     this.timer ??= setTimeout(() => this.flush(), FLUSH_EVERY_MS);
   }
 
@@ -55,13 +61,30 @@ export class ScoreClient {
     this.worker.terminate();
   }
 
+  private static buffers(capacity: number) {
+    return { indexes: new Uint32Array(capacity), codes: new Float64Array(capacity), cos: new Int32Array(capacity), sin: new Int32Array(capacity) };
+  }
+
+  private reserve(capacity: number) {
+    if (capacity <= this.pending.codes.length) return;
+    const bigger = ScoreClient.buffers(Math.max(capacity, this.pending.codes.length * 2));
+    const n = this.queued;
+    bigger.indexes.set(this.pending.indexes.subarray(0, n));
+    bigger.codes.set(this.pending.codes.subarray(0, n));
+    bigger.cos.set(this.pending.cos.subarray(0, n));
+    bigger.sin.set(this.pending.sin.subarray(0, n));
+    this.pending = bigger;
+  }
+
   private flush() {
     if (this.timer) clearTimeout(this.timer);
     this.timer = null;
+    const n = this.queued;
+    if (n === 0) return;
+    this.queued = 0;
+    // Exact-length copies, handed over (not cloned); the queue keeps its own arrays for the next results.
     const p = this.pending;
-    this.pending = null;
-    if (!p) return;
-    const msg = { type: 'batch', indexes: Uint32Array.from(p.indexes), codes: Float64Array.from(p.codes), cos: Int32Array.from(p.cos), sin: Int32Array.from(p.sin) } satisfies ScoreWorkerRequest;
+    const msg = { type: 'batch', indexes: p.indexes.slice(0, n), codes: p.codes.slice(0, n), cos: p.cos.slice(0, n), sin: p.sin.slice(0, n) } satisfies ScoreWorkerRequest;
     this.worker.postMessage(msg, [msg.indexes.buffer, msg.codes.buffer, msg.cos.buffer, msg.sin.buffer]);
   }
 }
