@@ -17,6 +17,7 @@ const BENCHES: Record<string, Bench> = {
   'list-compare': async () => (await import('./list-compare')).listCompareBench(),
   page: async () => (await import('./page')).pageBench(),
   station: async () => (await import('./station')).stationBench(),
+  scale: async () => (await import('./scale')).scaleBench(),
 };
 
 async function main(): Promise<number> {
