@@ -4,8 +4,9 @@ import { modelConfigSchema } from '../server/schemas/core';
 /** 2^22 codes: a 22-bit binary-angle core's exhaustive run, the largest size measured. */
 export const SCALE_CORE_CONFIG = modelConfigSchema.parse({ angleBits: 22 });
 
-export type ScaleRequest = { kind: 'mark' } | { kind: 'peak' } | { kind: 'stop' };
+export type ScaleRequest = { kind: 'mark' } | { kind: 'peak' } | { kind: 'bare'; bytes: number } | { kind: 'stop' };
 export type ScaleReply =
   | { kind: 'ready'; url: string; token: string; coreSlug: string }
   | { kind: 'mark'; rss: number; peak: number }
-  | { kind: 'peak'; peak: number };
+  | { kind: 'peak'; peak: number }
+  | { kind: 'bare'; growth: number };
