@@ -18,6 +18,7 @@ const BENCHES: Record<string, Bench> = {
   page: async () => (await import('./page')).pageBench(),
   station: async () => (await import('./station')).stationBench(),
   scale: async () => (await import('./scale')).scaleBench(),
+  'hot-paths': async () => (await import('./hot-paths')).hotPathsBench(),
 };
 
 async function main(): Promise<number> {

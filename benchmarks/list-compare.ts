@@ -146,7 +146,7 @@ export async function selectSql(f: ListFilter): Promise<string> {
     order: [[column, f.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']],
     limit: 25,
     offset: (f.page - 1) * 25,
-    logging: (text) => (sql = text.replace(/^Executing \([^)]*\): /, '')),
+    logging: (text) => (sql = text.replace(/^Execut(?:ing|ed) \([^)]*\): /, '')),
   });
   return sql;
 }
