@@ -143,7 +143,8 @@ export async function selectSql(f: ListFilter): Promise<string> {
   await BenchSession.findAll({
     where: where as WhereOptions,
     attributes: { exclude: ['samples', 'archive'] },
-    order: [[column, f.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']],
+    // The route's order (server/services/session-listing.ts): ties by id, none when sorted by id.
+    order: column === 'id' ? [['id', f.sort.startsWith('-') ? 'DESC' : 'ASC']] : [[column, f.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']],
     limit: 25,
     offset: (f.page - 1) * 25,
     logging: (text) => (sql = text.replace(/^Execut(?:ing|ed) \([^)]*\): /, '')),
