@@ -19,6 +19,8 @@ const BENCHES: Record<string, Bench> = {
   'scale-page': async () => (await import('./scale-page')).scalePageBench(),
   station: async () => (await import('./station')).stationBench(),
   'vector-score': async () => (await import('./vector-score')).vectorScoreBench(),
+  scale: async () => (await import('./scale')).scaleBench(),
+  'hot-paths': async () => (await import('./hot-paths')).hotPathsBench(),
 };
 
 async function main(): Promise<number> {

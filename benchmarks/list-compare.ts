@@ -17,6 +17,7 @@ import { BIG_CORE_CONFIG, bigExhaustiveSamples, startBenchServer, type BenchServ
 import { median, quantile, timeMs } from './timing';
 
 const SESSIONS = 100_000;
+const SEED_BATCH = 500;
 const LIST_CALLS = 200;
 const COMPARE_RUNS = 5;
 const DAY_MS = 86_400_000;
@@ -38,7 +39,7 @@ interface Seeded {
   operatorIds: number[];
 }
 
-async function seed(server: BenchServer): Promise<Seeded> {
+export async function seed(server: BenchServer): Promise<Seeded> {
   const { t } = server;
   const config = modelConfigSchema.parse({});
   const rnd = lcg(7);
@@ -64,8 +65,17 @@ async function seed(server: BenchServer): Promise<Seeded> {
       { transaction },
     );
     const operatorIds = Object.values(t.users).map((u) => u.id);
-    for (let done = 0; done < SESSIONS; done += 500) {
-      const rows = Array.from({ length: 500 }, () => {
+    // Straight into the table, each JSON written once: model instances and a JSON.stringify of the
+    // same statistics per row made seeding take minutes; the rows are the same either way.
+    const json = (v: unknown) => JSON.stringify(v);
+    const statsJson = json(stats);
+    const transportJson = json({ kind: 'websocket', device: 'seeded', baud: 3_000_000 });
+    const verdictJson = (pass: boolean) => json({ maxAbsErrorLsb: { limit: 4, measured: 3.3, pass } });
+    const tagsJson = json(['seeded']);
+    const now = new Date();
+    const qi = t.db.getQueryInterface();
+    for (let done = 0; done < SESSIONS; done += SEED_BATCH) {
+      const rows = Array.from({ length: SEED_BATCH }, () => {
         const build = builds[rnd(builds.length)];
         const passed = rnd(10) > 1;
         return {
@@ -75,29 +85,31 @@ async function seed(server: BenchServer): Promise<Seeded> {
           operatorId: operatorIds[rnd(operatorIds.length)],
           startedAt: new Date(EPOCH + rnd(300) * DAY_MS + rnd(DAY_MS)),
           endedAt: null,
-          plan: { kind: 'random', seed: rnd(1000), count: 64 },
-          transport: { kind: 'websocket', device: 'seeded', baud: 3_000_000 },
+          plan: json({ kind: 'random', seed: rnd(1000), count: 64 }),
+          transport: transportJson,
           deviceInfo: null,
-          stats,
-          verdict: { maxAbsErrorLsb: { limit: 4, measured: 3.3, pass: passed } },
+          stats: statsJson,
+          verdict: verdictJson(passed),
           passed,
           regression: !passed && rnd(4) === 0,
           sampleCount: 64,
           samples,
           archive: null,
           notes: '',
-          tags: ['seeded'],
+          tags: tagsJson,
+          createdAt: now,
+          updatedAt: now,
         };
       });
-      await BenchSession.bulkCreate(rows, { transaction });
+      await qi.bulkInsert('sessions', rows, { transaction });
     }
     return { coreIds: cores.map((c) => c.id), buildIds: builds.map((b) => b.id), boardIds: boards.map((b) => b.id), operatorIds };
   });
 }
 
-type ListFilter = Partial<Record<'coreId' | 'buildId' | 'boardId' | 'operatorId', number>> & { passed?: boolean; from?: Date; to?: Date; sort: '-startedAt' | 'startedAt' | 'id'; page: number };
+export type ListFilter = Partial<Record<'coreId' | 'buildId' | 'boardId' | 'operatorId', number>> & { passed?: boolean; from?: Date; to?: Date; sort: '-startedAt' | 'startedAt' | 'id'; page: number };
 
-function filters(s: Seeded): ListFilter[] {
+export function filters(s: Seeded): ListFilter[] {
   const rnd = lcg(11);
   const pick = <T>(xs: T[]) => xs[rnd(xs.length)];
   return Array.from({ length: LIST_CALLS }, (_, i) => {
@@ -118,11 +130,11 @@ function filters(s: Seeded): ListFilter[] {
   });
 }
 
-const queryString = (f: ListFilter) =>
+export const queryString = (f: ListFilter) =>
   new URLSearchParams(Object.entries(f).map(([k, v]) => [k, v instanceof Date ? v.toISOString() : String(v)])).toString();
 
 /** The SELECT Sequelize sends for this filter (the route's where, order and page), captured once. */
-async function selectSql(f: ListFilter): Promise<string> {
+export async function selectSql(f: ListFilter): Promise<string> {
   const where: Record<string | symbol, unknown> = {};
   for (const key of ['coreId', 'buildId', 'boardId', 'operatorId', 'passed'] as const) if (f[key] !== undefined) where[key] = f[key];
   if (f.from || f.to) where.startedAt = { ...(f.from ? { [Op.gte]: f.from } : {}), ...(f.to ? { [Op.lte]: f.to } : {}) };
@@ -131,10 +143,11 @@ async function selectSql(f: ListFilter): Promise<string> {
   await BenchSession.findAll({
     where: where as WhereOptions,
     attributes: { exclude: ['samples', 'archive'] },
-    order: [[column, f.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']],
+    // The route's order (server/services/session-listing.ts): ties by id, none when sorted by id.
+    order: column === 'id' ? [['id', f.sort.startsWith('-') ? 'DESC' : 'ASC']] : [[column, f.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']],
     limit: 25,
     offset: (f.page - 1) * 25,
-    logging: (text) => (sql = text.replace(/^Executing \([^)]*\): /, '')),
+    logging: (text) => (sql = text.replace(/^Execut(?:ing|ed) \([^)]*\): /, '')),
   });
   return sql;
 }

@@ -41,9 +41,13 @@ const coreRow = z.object({
   linkProfile: z.object({ baud: z.number().int().optional(), crc: z.string().optional() }).partial().nullish(),
 });
 
-async function call(fetchImpl: Fetch, url: string, init: RequestInit, what: string): Promise<Response> {
+const CALL_TIMEOUT_MS = 15_000;
+/** An upload's time-out grows with its size: the server scores every sample before it answers. */
+const UPLOAD_MS_PER_MIB = 2_000;
+
+async function call(fetchImpl: Fetch, url: string, init: RequestInit, what: string, timeoutMs = CALL_TIMEOUT_MS): Promise<Response> {
   try {
-    return await fetchImpl(url, { ...init, signal: AbortSignal.timeout(15_000) });
+    return await fetchImpl(url, { ...init, signal: AbortSignal.timeout(timeoutMs) });
   } catch (e) {
     const cause = (e as { cause?: { code?: string; message?: string } }).cause;
     throw new ServerError(`cannot reach the server for ${what} at ${url}: ${cause?.code ?? cause?.message ?? (e as Error).message}`);
@@ -112,10 +116,12 @@ export interface SessionUpload {
 export async function uploadSession(fetchImpl: Fetch, server: { url: string; token: string }, upload: SessionUpload): Promise<{ id: number | null; url: string | null }> {
   const form = new FormData();
   form.set('session', JSON.stringify(upload.session));
-  form.set('samples', new Blob([upload.samples.slice()], { type: 'application/octet-stream' }), 'samples.bin');
-  form.set('archive', new Blob([upload.archive.slice()], { type: 'application/octet-stream' }), 'capture.abrc');
+  // The Blob copies the bytes itself: no copy of our own first.
+  form.set('samples', new Blob([upload.samples as Uint8Array<ArrayBuffer>], { type: 'application/octet-stream' }), 'samples.bin');
+  form.set('archive', new Blob([upload.archive as Uint8Array<ArrayBuffer>], { type: 'application/octet-stream' }), 'capture.abrc');
   const url = `${server.url}/api/sessions`;
-  const res = await call(fetchImpl, url, { method: 'POST', headers: { authorization: `Bearer ${server.token}` }, body: form }, 'the upload');
+  const timeoutMs = CALL_TIMEOUT_MS + Math.ceil((upload.samples.length + upload.archive.length) / 2 ** 20) * UPLOAD_MS_PER_MIB;
+  const res = await call(fetchImpl, url, { method: 'POST', headers: { authorization: `Bearer ${server.token}` }, body: form }, 'the upload', timeoutMs);
   if (res.status === 404 || res.status === 405) {
     const r = await reason(res);
     if (res.status === 405 || /no api route/i.test(r.message) || r.code === '') throw new UploadUnavailableError();

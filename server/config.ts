@@ -40,7 +40,7 @@ export interface Config {
   smtpUrl?: string;
   mockWsPort: number;
   sessionSecret: string;
-  /** Largest bitstream upload accepted, in bytes (413 beyond). */
+  /** Largest file of one upload accepted (session samples or archive, import, bitstream, golden vectors), in bytes (413 beyond). */
   uploadLimitBytes: number;
   /** Where bitstreams are kept; it belongs to one database, as build ids name the files. */
   uploadDir: string;

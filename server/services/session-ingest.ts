@@ -5,7 +5,7 @@ import type { Transaction } from 'sequelize';
 import { BenchSession, Board, Build, Core } from '../db/models';
 import { HttpError } from '../http-error';
 import { recordAudit } from './audit';
-import { decodeSamples, judgeSession, regressedLimits, scoreSamples, sessionSpectrum, type LimitKey, type SessionSpectrum, type Verdict } from './session-scoring';
+import { decodeSamples, isTonePlan, judgeSession, regressedLimits, scorePackedSamples, sessionSpectrum, type LimitKey, type SessionSpectrum, type Verdict } from './session-scoring';
 import type { EnvelopeBounds } from './error-envelope';
 import type { ScoreSummary } from '../../shared/numeric/score';
 import type { Conditions, SoakRecord } from '../../shared/soak';
@@ -92,10 +92,11 @@ export async function storeSession(
   const buildId = await resolveBuildId(draft, core, transaction);
   const boardId = await resolveBoardId(draft, transaction);
 
-  const decoded = decodeSamples(samples, core.modelConfig.angleFormat ?? 'turn');
-  const { stats, profile, envelope } = scoreSamples(core.modelConfig, decoded);
+  const angleFormat = core.modelConfig.angleFormat ?? 'turn';
+  const { stats, profile, envelope, count } = scorePackedSamples(core.modelConfig, samples, angleFormat);
   const checkFailures = typeof draft.link?.checkFailures === 'number' ? draft.link.checkFailures : undefined;
-  const spectrum = sessionSpectrum(draft.plan, core.modelConfig, decoded);
+  // Only a tone's spectrum needs every sample unpacked at once.
+  const spectrum = isTonePlan(draft.plan) ? sessionSpectrum(draft.plan, core.modelConfig, decodeSamples(samples, angleFormat)) : null;
   const sfdrDb = spectrum ? Math.min(spectrum.cos.sfdrDbc, spectrum.sin.sfdrDbc) : undefined;
   const stored = spectrum ? { ...stats, spectrum } : stats;
   const { verdict, passed } = judgeSession(core.limits, stats, { checkFailures, sfdrDb, unstableCodes: draft.soak?.unstable.count });
@@ -118,7 +119,7 @@ export async function storeSession(
       profile,
       passed,
       regression: failedLimits.length > 0,
-      sampleCount: decoded.codes.length,
+      sampleCount: count,
       samples,
       archive,
       notes: draft.notes ?? '',

@@ -48,7 +48,9 @@ function listWhere(q: SessionListQuery): WhereOptions {
 export async function listSessions(q: SessionListQuery) {
   const column = q.sort.replace('-', '');
   const where = listWhere(q);
-  const order: [string, 'ASC' | 'DESC'][] = [[column, q.sort.startsWith('-') ? 'DESC' : 'ASC'], ['id', 'DESC']];
+  const direction = q.sort.startsWith('-') ? 'DESC' : 'ASC';
+  // Ties broken by id, newest first; sorted by id there are no ties.
+  const order: [string, 'ASC' | 'DESC'][] = column === 'id' ? [['id', direction]] : [[column, direction], ['id', 'DESC']];
   // The page's ids first, from the sessions table and its indices alone; then those rows with
   // their names. Joining first made a deep page join every row it skipped. The total counts the
   // sessions table alone: the joined names never change how many rows match.

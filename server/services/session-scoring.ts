@@ -1,7 +1,7 @@
 // Scoring of an uploaded bench session on the server: the packed samples are decoded, scored with
 // the shared ScoreAccumulator under the core's own model configuration, and judged against the
 // core's limits. Nothing the client computed is trusted.
-import { SamplePackError, unpackSamples, type UnpackedSamples } from '../../shared/link-engine/sample-pack';
+import { SamplePackError, sampleCountOf, unpackSamples, unpackSamplesInto, type UnpackedSamples } from '../../shared/link-engine/sample-pack';
 import { HttpError } from '../http-error';
 import { ENVELOPE_BINS, type EnvelopeBounds } from './error-envelope';
 import { modelConfigSchema, limitsSchema } from '../schemas/core';
@@ -26,11 +26,46 @@ export function decodeSamples(bytes: Uint8Array, angleFormat: 'turn' | 'rad'): D
   }
 }
 
+/** What scoring a session keeps: the statistics, the list's error profile, the compare's envelope. */
+export interface SessionScore {
+  stats: ScoreSummary;
+  profile: number[];
+  envelope: EnvelopeBounds;
+}
+
 /**
  * Score decoded samples with the core's model, with the 64-bin error profile the session list draws.
  * @throws HttpError 400 for codes the model refuses.
  */
-export function scoreSamples(modelConfig: unknown, samples: DecodedSamples): { stats: ScoreSummary; profile: number[]; envelope: EnvelopeBounds } {
+export function scoreSamples(modelConfig: unknown, samples: DecodedSamples): SessionScore {
+  const { codes, cos, sin } = samples;
+  return scoreInBatches(modelConfig, codes.length, (start, n) => ({ codes: codes.subarray(start, start + n), cos: cos.subarray(start, start + n), sin: sin.subarray(start, start + n) }));
+}
+
+/**
+ * Score packed samples as they are stored, unpacking one batch at a time into the same small
+ * columns: an upload never holds all its samples unpacked (16 bytes a sample beside its 12 packed),
+ * and the statistics are the same to the last bit as scoreSamples of the whole unpacked.
+ * @throws HttpError 400 for a length that is not whole samples, or codes the model refuses.
+ */
+export function scorePackedSamples(modelConfig: unknown, bytes: Uint8Array, angleFormat: 'turn' | 'rad'): SessionScore & { count: number } {
+  let count: number;
+  try {
+    count = sampleCountOf(bytes);
+  } catch (err) {
+    if (err instanceof SamplePackError) throw new HttpError(400, 'bad_samples', `samples: ${err.message}`);
+    throw err;
+  }
+  const size = Math.min(SCORE_BATCH, count);
+  const batch: DecodedSamples = { codes: new Float64Array(size), cos: new Int32Array(size), sin: new Int32Array(size) };
+  const score = scoreInBatches(modelConfig, count, (start, n) => {
+    unpackSamplesInto(bytes, angleFormat, start, n, batch);
+    return n === size ? batch : { codes: batch.codes.subarray(0, n), cos: batch.cos.subarray(0, n), sin: batch.sin.subarray(0, n) };
+  });
+  return { ...score, count };
+}
+
+function scoreInBatches(modelConfig: unknown, count: number, batchAt: (start: number, n: number) => DecodedSamples): SessionScore {
   const config = modelConfigSchema.parse(modelConfig);
   try {
     // The compare view's error envelope is kept too, so comparing never scores the samples again.
@@ -38,14 +73,20 @@ export function scoreSamples(modelConfig: unknown, samples: DecodedSamples): { s
     // In batches: the scorer's per-answer scratch stays a few MiB (cache-sized, no GC churn) where
     // one batch of a million answers allocated ~60 MiB per upload. Its sums run in answer order
     // across batches, so the statistics are the same to the last bit.
-    const { codes, cos, sin } = samples;
-    for (let start = 0; start < codes.length; start += SCORE_BATCH) {
-      acc.add(codes.subarray(start, start + SCORE_BATCH), cos.subarray(start, start + SCORE_BATCH), sin.subarray(start, start + SCORE_BATCH), start);
+    for (let start = 0; start < count; start += SCORE_BATCH) {
+      const { codes, cos, sin } = batchAt(start, Math.min(SCORE_BATCH, count - start));
+      acc.add(codes, cos, sin, start);
     }
     return { stats: acc.summary(), profile: acc.profile()!, envelope: acc.envelope()! };
   } catch (err) {
     throw new HttpError(400, 'bad_samples', `samples: ${(err as Error).message}`);
   }
+}
+
+/** Whether a plan is a coherent tone, the one kind whose spectrum needs every sample unpacked. */
+export function isTonePlan(planInput: unknown): boolean {
+  const plan = planSchema.safeParse(planInput);
+  return plan.success && plan.data.kind === 'tone';
 }
 
 /** One limit's outcome; `measured` and `pass` are null when the server cannot measure it. */

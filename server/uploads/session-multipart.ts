@@ -4,10 +4,11 @@ import type { Request, RequestHandler } from 'express';
 import multer from 'multer';
 import type { z } from 'zod';
 import { HttpError } from '../http-error';
+import { memoryParts } from './memory-parts';
 
 /** POST /api/sessions: one `session` field, `samples` and an optional `archive` (413 beyond the limit). */
 export function sessionUpload(limitBytes: number): RequestHandler {
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: limitBytes, files: 2, fields: 1, fieldSize: 1024 * 1024 } }).fields([
+  const upload = multer({ storage: memoryParts(limitBytes), limits: { fileSize: limitBytes, files: 2, fields: 1, fieldSize: 1024 * 1024 } }).fields([
     { name: 'samples', maxCount: 1 },
     { name: 'archive', maxCount: 1 },
   ]);
@@ -16,14 +17,14 @@ export function sessionUpload(limitBytes: number): RequestHandler {
 
 /** POST /api/sessions/import: one `session` field and one `file` (a recorder archive or a CSV). */
 export function importUpload(limitBytes: number): RequestHandler {
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: limitBytes, files: 1, fields: 1, fieldSize: 64 * 1024 } }).single('file');
+  const upload = multer({ storage: memoryParts(limitBytes), limits: { fileSize: limitBytes, files: 1, fields: 1, fieldSize: 64 * 1024 } }).single('file');
   return (req, res, next) => upload(req, res, (err: unknown) => next(err ? uploadError(err, limitBytes) : undefined));
 }
 
 /** Multer's failures as the API's errors: 413 past a limit, 400 for a malformed body. */
 function uploadError(err: unknown, limitBytes: number): unknown {
   if (err instanceof multer.MulterError) {
-    if (err.code === 'LIMIT_FILE_SIZE') return new HttpError(413, 'too_large', `${err.field ?? 'A file'} is over the upload limit of ${limitBytes} bytes`);
+    if (err.code === 'LIMIT_FILE_SIZE') return new HttpError(413, 'too_large', `${err.field ?? 'A file'} is over the upload limit of ${limitBytes.toLocaleString('en-US')} bytes (UPLOAD_LIMIT_BYTES)`);
     if (err.code === 'LIMIT_FIELD_VALUE') return new HttpError(413, 'too_large', 'session: the JSON part is over its size limit');
     return new HttpError(400, 'bad_upload', `${err.field ? `${err.field}: ` : ''}${err.message}`);
   }

@@ -164,7 +164,8 @@ describe('GET /api/compare, what the compare page draws', () => {
     }
   });
 
-  it('compares two 1,048,576-sample sessions through the API in under 5 s', async () => {
+  // Its time is the `compare` figure of `npm run bench -- list-compare`.
+  it('compares two 1,048,576-sample sessions through the API', async () => {
     const wide = modelConfigSchema.parse({ angleBits: 20 });
     const wideModel = createCordicModel(wide);
     const wideCore = await Core.create({ name: 'Wide core', slug: 'wide-core', linkProfile: {}, modelConfig: wide, limits: { maxModelMismatches: 0 }, baselineSessionId: null });
@@ -181,9 +182,7 @@ describe('GET /api/compare, what the compare page draws', () => {
     const first = await post();
     cos[123_456] += 4;
     const second = await post();
-    const started = Date.now();
     const res = await reviewer.get(`/api/compare?ids=${first},${second}`).expect(200);
-    expect(Date.now() - started).toBeLessThan(5000);
     expect(res.body.pairs[0]).toMatchObject({ common: n, differing: 1, maxAbsDiffLsb: 4 });
     expect(res.body.pairs[0].firstDiffering[0].code).toBe(123_456);
     // The reply stays small: envelopes, not samples.
@@ -209,9 +208,8 @@ describe('diffSessions', () => {
     const a = mk(4096 * 40_503, 0);
     const b = mk(2048, 0);
     b.cos[2] += 9; // code 4096
-    const started = Date.now();
+    // Its time is the `diff-scrambled` figure of `npm run bench -- hot-paths`.
     const d = diffSessions(a, b);
-    expect(Date.now() - started).toBeLessThan(4000);
     expect(d).toMatchObject({ common: n / 2, differing: 1, maxAbsDiffLsb: 9 });
     expect(d.firstDiffering).toEqual([{ code: 4096, a: { cos: 96, sin: -96 }, b: { cos: 105, sin: -96 } }]);
   });

@@ -115,9 +115,8 @@ describe('GET /api/sessions/:id/export.csv', () => {
     const n = 65_536;
     const r = run(n, 40_503, [[12_345, 3]]);
     const id = await upload(engineer, r.packed);
-    const started = Date.now();
+    // Its time is the `csv-export` figure of `npm run bench -- hot-paths`.
     const res = await reviewer.get(`/api/sessions/${id}/export.csv`).expect(200);
-    expect(Date.now() - started).toBeLessThan(4000);
     expect(res.headers['content-type']).toMatch(/^text\/csv/);
     expect(res.headers['content-disposition']).toBe(`attachment; filename="session-${id}.csv"`);
     const lines = (res.text as string).trimEnd().split('\n');

@@ -96,14 +96,7 @@ describe('CRC-8 variants', () => {
     );
   });
 
-  it('runs at well over 3 MB/s', () => {
-    const data = new Uint8Array(4 << 20).map((_, i) => (i * 31) & 0xff);
-    const c = crc8();
-    const t0 = performance.now();
-    c.compute(data);
-    const seconds = (performance.now() - t0) / 1000;
-    expect(data.length / seconds).toBeGreaterThan(3e6);
-  });
+  // Its speed (≥ 3 MB/s) is the `crc-rate` figure of `npm run bench -- hot-paths`.
 
   it('rejects unknown variant names and out-of-range parameters with a named error', () => {
     expect(() => crc8('CRC-8/NONE' as Crc8Name)).toThrow(Crc8ConfigError);

@@ -222,16 +222,14 @@ describe('frame decoder', () => {
     );
   });
 
-  it('decodes well over 3 MB/s of RESULTS frames in 4 KiB chunks', () => {
+  // Its speed (≥ 3 MB/s) is the `decoder-rate` figure of `npm run bench -- hot-paths`.
+  it('decodes a long run of RESULTS frames pushed in 4 KiB chunks', () => {
     const frame = encodeFrame(Kind.Results, 1, new Uint8Array(4 + 62 * 4).map((_, i) => (i * 7) & 0xff));
     const stream = concat(Array.from({ length: 16000 }, () => frame));
     let n = 0;
     const d = new FrameDecoder({ onFrame: () => n++ });
-    const t0 = performance.now();
     for (let o = 0; o < stream.length; o += 4096) d.push(stream.subarray(o, o + 4096));
-    const seconds = (performance.now() - t0) / 1000;
     expect(n).toBe(16000);
-    expect(stream.length / seconds).toBeGreaterThan(3e6);
   });
 
   it('refuses to be pushed from inside its own callback', () => {
