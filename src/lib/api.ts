@@ -1,5 +1,6 @@
 import type { z } from 'zod';
 import { checkContract } from '../../shared/contract/check';
+import { csrfReply } from '../../shared/contract/people';
 
 /** An error reply of the Anglebench API, `{ error: { code, message } }`, as a typed error. */
 export class ApiError extends Error {
@@ -26,7 +27,7 @@ let csrfToken: Promise<string> | null = null;
 
 /** The session's CSRF token, from GET /api/auth/csrf on first use. */
 export function csrfTokenForWrites(): Promise<string> {
-  csrfToken ??= api<{ token: string }>('/api/auth/csrf').then(
+  csrfToken ??= apiReply(csrfReply, '/api/auth/csrf').then(
     (r) => r.token,
     (err: unknown) => {
       csrfToken = null; // try again on the next write
