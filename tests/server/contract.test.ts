@@ -172,6 +172,22 @@ describe('every reply parses with its contract schema', () => {
   });
 });
 
+describe('every error reply parses with the contract’s errorReply', () => {
+  it('not found, invalid input, signed out, refused', async () => {
+    const visitor = await t.visitor();
+    const failures = [
+      await reviewer.get('/api/sessions/999999').expect(404),
+      await reviewer.get('/api/no-such-route').expect(404),
+      await reviewer.get('/api/condition-grid?buildId=1&x=temperature_c&y=temperature_c').expect(400),
+      await visitor.get('/api/cores').expect(401),
+      await reviewer.post('/api/cores').send({ name: 'x', slug: 'x' }).expect(403),
+    ];
+    for (const res of failures) expectContract(contract.errorReply, res.body);
+    // A bad request names the field at fault.
+    expect(failures[2].body.error).toMatchObject({ code: 'invalid', message: expect.stringMatching(/^query\.y: x and y must be two different conditions/) });
+  });
+});
+
 describe('reply(): the server checks its replies outside production', () => {
   const schema = z.object({ session: z.object({ id: z.number(), startedAt: contract.isoDate }) });
   /** A one-route app replying with `value` through `schema`, with the check on or off. */
