@@ -6,6 +6,7 @@ import type { IncomingMessage } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { parseArgs } from 'node:util';
 import { WebSocketServer, type WebSocket } from 'ws';
+import { runCommand, UsageError } from './command';
 import type { CliIo } from './io';
 import { PortSerialLink } from './transport/port-serial-link';
 import { ChunkCoalescer } from '../shared/link-engine/chunk-coalescer';
@@ -162,8 +163,6 @@ export async function startBridge(o: BridgeOptions, deps: BridgeDeps = {}): Prom
   };
 }
 
-class UsageError extends Error {}
-
 function int(name: string, text: string | undefined, min: number, max: number, fallback?: number): number {
   if (text === undefined) {
     if (fallback === undefined) throw new UsageError(`--${name} is required (see bridge --help)`);
@@ -213,18 +212,10 @@ export function parseBridgeArgs(argv: string[]): BridgeOptions | 'help' {
 }
 
 /** The `bridge` command: runs until SIGINT/SIGTERM (exit 0) or the port goes away (exit 2). */
-export async function runBridgeCommand(argv: string[], io: CliIo, deps: BridgeDeps = {}): Promise<number> {
-  let o: BridgeOptions | 'help';
-  try {
-    o = parseBridgeArgs(argv);
-  } catch (e) {
-    io.stderr(`error: ${(e as Error).message}\n${USAGE}\n`);
-    return 2;
-  }
-  if (o === 'help') {
-    io.stdout(HELP);
-    return 0;
-  }
+export const runBridgeCommand = (argv: string[], io: CliIo, deps: BridgeDeps = {}): Promise<number> =>
+  runCommand(argv, io, { parse: parseBridgeArgs, help: HELP, usage: USAGE, run: (o) => bridgeUntilEnded(o, io, deps) });
+
+async function bridgeUntilEnded(o: BridgeOptions, io: CliIo, deps: BridgeDeps): Promise<number> {
   let bridge: Bridge;
   try {
     bridge = await startBridge(o, { log: (l) => io.stdout(`${l}\n`), ...deps });

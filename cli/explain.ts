@@ -8,6 +8,7 @@ import { ArchiveError } from '../shared/link';
 import { samplesFromArchive } from '../shared/link-engine/archive-samples';
 import { parseSampleCsv, SampleCsvError } from '../shared/link-engine/sample-csv';
 import { angleCodeRange, ModelConfigError, outputCodeRange, parseModelConfig, type ModelConfig } from '../shared/numeric';
+import { runCommand, UsageError } from './command';
 import type { CliIo } from './io';
 
 const HELP = `usage: npm run --silent cli -- explain [--config '<json>'] (--samples-file F | --archive F)
@@ -21,9 +22,6 @@ Prints { "declared", "answered", "hypotheses": [ { "label", "config", "fault", "
 "maxDiffLsb", "equivalent" }, … ] }, best first, at most 10. Exit 0 when the best reproduces every
 answer, 1 when none does, 2 on an error.
 `;
-
-/** A bad command line or input: one line for the user, exit status 2. */
-class UsageError extends Error {}
 
 /** Reads bytes of a file; tests swap it. */
 export interface ExplainDeps {
@@ -133,53 +131,50 @@ export function explanationJson(e: Explanation): string {
   return `${JSON.stringify({ declared: e.declared, answered: e.answered, hypotheses }, null, 2)}\n`;
 }
 
+/** The options, or 'help'; parseArgs' own errors are bad options (exit 2). */
+function parseExplainArgs(argv: string[]) {
+  const { values } = parseArgs({
+    args: argv,
+    options: {
+      config: { type: 'string' },
+      'samples-file': { type: 'string' },
+      archive: { type: 'string' },
+      help: { type: 'boolean', short: 'h' },
+    },
+    allowPositionals: false,
+    strict: true,
+  });
+  return values.help ? ('help' as const) : values;
+}
+type ExplainArgsValues = Exclude<ReturnType<typeof parseExplainArgs>, 'help'>;
+
 /** Runs `explain` with its own arguments; returns the exit status. */
-export async function runExplainCommand(argv: string[], io: CliIo, deps: ExplainDeps = {}): Promise<number> {
+export const runExplainCommand = (argv: string[], io: CliIo, deps: ExplainDeps = {}): Promise<number> =>
+  runCommand(argv, io, { parse: parseExplainArgs, help: HELP, run: (values) => explainCommand(values, io, deps) });
+
+async function explainCommand(values: ExplainArgsValues, io: CliIo, deps: ExplainDeps): Promise<number> {
+  const given = (['samples-file', 'archive'] as const).filter((k) => values[k] !== undefined);
+  if (given.length !== 1) throw new UsageError(`give exactly one of --samples-file, --archive (got ${given.length ? given.map((k) => `--${k}`).join(', ') : 'none'})`);
+  let config: ModelConfig;
+  let samples: Samples;
+  if (values['samples-file'] !== undefined) {
+    if (values.config === undefined) throw new UsageError("give the core's declared configuration with --config (a CSV does not hold it)");
+    config = parseConfig(values.config);
+    samples = readCsv(values['samples-file'], io);
+  } else {
+    const found = readArchive(values.archive!, deps);
+    if (found.angle.length === 0) throw new UsageError('archive: it holds no answered requests');
+    config = values.config !== undefined ? parseConfig(values.config) : configFromLabel(found.label);
+    samples = found;
+  }
+  checkRanges(config, samples);
+  let explanation: Explanation;
   try {
-    const { values } = parseArgs({
-      args: argv,
-      options: {
-        config: { type: 'string' },
-        'samples-file': { type: 'string' },
-        archive: { type: 'string' },
-        help: { type: 'boolean', short: 'h' },
-      },
-      allowPositionals: false,
-      strict: true,
-    });
-    if (values.help) {
-      io.stdout(HELP);
-      return 0;
-    }
-    const given = (['samples-file', 'archive'] as const).filter((k) => values[k] !== undefined);
-    if (given.length !== 1) throw new UsageError(`give exactly one of --samples-file, --archive (got ${given.length ? given.map((k) => `--${k}`).join(', ') : 'none'})`);
-    let config: ModelConfig;
-    let samples: Samples;
-    if (values['samples-file'] !== undefined) {
-      if (values.config === undefined) throw new UsageError("give the core's declared configuration with --config (a CSV does not hold it)");
-      config = parseConfig(values.config);
-      samples = readCsv(values['samples-file'], io);
-    } else {
-      const found = readArchive(values.archive!, deps);
-      if (found.angle.length === 0) throw new UsageError('archive: it holds no answered requests');
-      config = values.config !== undefined ? parseConfig(values.config) : configFromLabel(found.label);
-      samples = found;
-    }
-    checkRanges(config, samples);
-    let explanation: Explanation;
-    try {
-      explanation = explain(config, samples);
-    } catch (e) {
-      if (e instanceof ExplainInputError) throw new UsageError(e.message);
-      throw e;
-    }
-    io.stdout(explanationJson(explanation));
-    return explanation.hypotheses[0].exact === explanation.answered ? 0 : 1;
+    explanation = explain(config, samples);
   } catch (e) {
-    if (e instanceof UsageError || (e instanceof TypeError && 'code' in e && String(e.code).startsWith('ERR_PARSE_ARGS'))) {
-      io.stderr(`error: ${e.message.split('\n')[0]}\n`);
-      return 2;
-    }
+    if (e instanceof ExplainInputError) throw new UsageError(e.message);
     throw e;
   }
+  io.stdout(explanationJson(explanation));
+  return explanation.hypotheses[0].exact === explanation.answered ? 0 : 1;
 }

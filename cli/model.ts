@@ -3,6 +3,7 @@
 // Codes come from --codes (comma-separated), --codes-file (one a line) or --plan.
 import { parseArgs } from 'node:util';
 import { assertAngleCode, createCordicModel, ModelConfigError, planCodes, PlanError, type CordicModel } from '../shared/numeric';
+import { runCommand, UsageError } from './command';
 import type { CliIo } from './io';
 
 const HELP = `usage: npm run --silent cli -- model [--config '<json>'] (--codes 0,1,2 | --codes-file F | --plan P)
@@ -14,9 +15,6 @@ const HELP = `usage: npm run --silent cli -- model [--config '<json>'] (--codes 
 
 Prints JSON and exits 0; a bad configuration or code prints one line naming it and exits 2.
 `;
-
-/** A bad command line: one line for the user, exit status 2. */
-class UsageError extends Error {}
 
 const INTEGER = /^[+-]?(0x[0-9a-f]+|\d+)$/i;
 
@@ -87,46 +85,43 @@ function parseConfig(text: string | undefined): unknown {
   }
 }
 
+/** The options, or 'help'; parseArgs' own errors are bad options (exit 2). */
+function parseModelArgs(argv: string[]) {
+  const { values } = parseArgs({
+    args: argv,
+    options: {
+      config: { type: 'string' },
+      codes: { type: 'string' },
+      'codes-file': { type: 'string' },
+      plan: { type: 'string' },
+      help: { type: 'boolean', short: 'h' },
+    },
+    allowPositionals: false,
+    strict: true,
+  });
+  return values.help ? ('help' as const) : values;
+}
+type ModelArgsValues = Exclude<ReturnType<typeof parseModelArgs>, 'help'>;
+
 /** Runs `model` with its own arguments; returns the exit status. */
-export async function runModelCommand(argv: string[], io: CliIo): Promise<number> {
+export const runModelCommand = (argv: string[], io: CliIo): Promise<number> =>
+  runCommand(argv, io, { parse: parseModelArgs, help: HELP, run: (values) => modelCommand(values, io) });
+
+async function modelCommand(values: ModelArgsValues, io: CliIo): Promise<number> {
+  let model: CordicModel;
   try {
-    const { values } = parseArgs({
-      args: argv,
-      options: {
-        config: { type: 'string' },
-        codes: { type: 'string' },
-        'codes-file': { type: 'string' },
-        plan: { type: 'string' },
-        help: { type: 'boolean', short: 'h' },
-      },
-      allowPositionals: false,
-      strict: true,
-    });
-    if (values.help) {
-      io.stdout(HELP);
-      return 0;
-    }
-    let model: CordicModel;
-    try {
-      model = createCordicModel(parseConfig(values.config) as object);
-    } catch (e) {
-      if (e instanceof ModelConfigError) throw new UsageError(`config.${e.message}`);
-      throw e;
-    }
-    const codes = readCodes(model, values, io);
-    const cos = new Int32Array(codes.length);
-    const sin = new Int32Array(codes.length);
-    model.evaluateInto(codes, cos, sin);
-    // One result a line keeps large answers readable and diffable; the whole is still one JSON value.
-    const rows = new Array<string>(codes.length);
-    for (let i = 0; i < codes.length; i++) rows[i] = `{"code":${codes[i]},"cos":${cos[i]},"sin":${sin[i]}}`;
-    io.stdout(`{"config":${JSON.stringify(model.config)},"results":[${rows.length ? '\n' + rows.join(',\n') + '\n' : ''}]}\n`);
-    return 0;
+    model = createCordicModel(parseConfig(values.config) as object);
   } catch (e) {
-    if (e instanceof UsageError || (e instanceof TypeError && 'code' in e && String(e.code).startsWith('ERR_PARSE_ARGS'))) {
-      io.stderr(`error: ${e.message.split('\n')[0]}\n`);
-      return 2;
-    }
+    if (e instanceof ModelConfigError) throw new UsageError(`config.${e.message}`);
     throw e;
   }
+  const codes = readCodes(model, values, io);
+  const cos = new Int32Array(codes.length);
+  const sin = new Int32Array(codes.length);
+  model.evaluateInto(codes, cos, sin);
+  // One result a line keeps large answers readable and diffable; the whole is still one JSON value.
+  const rows = new Array<string>(codes.length);
+  for (let i = 0; i < codes.length; i++) rows[i] = `{"code":${codes[i]},"cos":${cos[i]},"sin":${sin[i]}}`;
+  io.stdout(`{"config":${JSON.stringify(model.config)},"results":[${rows.length ? '\n' + rows.join(',\n') + '\n' : ''}]}\n`);
+  return 0;
 }

@@ -1,6 +1,7 @@
 // The runner's side of the server: the core under test (model, limits, link profile) read with
 // a personal API token, and the session upload. Errors are one line, for exit status 2.
 import { z } from 'zod';
+import { errorReply } from '../shared/contract/common';
 import { isCrc8Name, type Crc8Name } from '../shared/link';
 import { parseModelConfig, type ModelConfig } from '../shared/numeric';
 import { parseLimits, type Limits } from './run-verdict';
@@ -54,12 +55,12 @@ async function call(fetchImpl: Fetch, url: string, init: RequestInit, what: stri
   }
 }
 
-/** `{ error: { code, message } }` is every server error's shape; fall back to the status line. */
+/** Every server error is the contract's errorReply, `{ error: { code, message } }`; else the status line. */
 async function reason(res: Response): Promise<{ code: string; message: string }> {
   const text = await res.text().catch(() => '');
   try {
-    const body = JSON.parse(text) as { error?: { code?: string; message?: string } };
-    if (body.error?.message) return { code: body.error.code ?? '', message: body.error.message };
+    const body = errorReply.safeParse(JSON.parse(text));
+    if (body.success) return { code: body.data.error.code, message: body.data.error.message };
   } catch {
     // not JSON
   }

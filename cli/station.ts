@@ -11,6 +11,7 @@ import { Backoff } from '../shared/stations/backoff';
 import { STATION_CONNECT_PATH, STATION_MAX_MESSAGE_BYTES, StationClose, parseRegistration, type StationNote } from '../shared/stations/wire';
 import { realClock } from './clock';
 import { isSocketDevice, openDevice, type DeviceDeps } from './device';
+import { runCommand, UsageError } from './command';
 import type { CliIo } from './io';
 import { upgradeRefusal } from './transport/ws-link';
 
@@ -63,8 +64,6 @@ export interface Station {
   ended: Promise<string | null>;
   close(): Promise<void>;
 }
-
-class UsageError extends Error {}
 
 export const stationUrl = (server: string, reg: { name: string; device: string; baud: number }) => {
   const u = new URL(STATION_CONNECT_PATH, server.replace(/^http/i, 'ws'));
@@ -246,18 +245,10 @@ export function parseStationArgs(argv: string[]): StationOptions | 'help' {
 }
 
 /** `bridge --server …`: runs until SIGINT/SIGTERM (exit 0), the device goes or the server refuses (exit 2). */
-export async function runStationCommand(argv: string[], io: CliIo, deps: StationDeps = {}): Promise<number> {
-  let o: StationOptions | 'help';
-  try {
-    o = parseStationArgs(argv);
-  } catch (e) {
-    io.stderr(`error: ${(e as Error).message}\n${STATION_USAGE}\n`);
-    return 2;
-  }
-  if (o === 'help') {
-    io.stdout(STATION_HELP);
-    return 0;
-  }
+export const runStationCommand = (argv: string[], io: CliIo, deps: StationDeps = {}): Promise<number> =>
+  runCommand(argv, io, { parse: parseStationArgs, help: STATION_HELP, usage: STATION_USAGE, run: (o) => stationUntilEnded(o, io, deps) });
+
+async function stationUntilEnded(o: StationOptions, io: CliIo, deps: StationDeps): Promise<number> {
   let station: Station;
   try {
     station = await startStation(o, { log: (l) => io.stdout(`${l}\n`), readFile: io.readFile, ...deps });

@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ForeignKeyConstraintError, UniqueConstraintError, ValidationError } from 'sequelize';
+import type { ErrorReply } from '../../shared/contract/common';
 import { HttpError } from '../http-error';
 
 /** Unknown /api routes answer in the same JSON shape as every other error. */
@@ -46,7 +47,10 @@ export function errorHandler(log: (msg: string, err: unknown) => void = console.
     } else {
       log('unhandled error', err);
     }
-    res.status(status).json({ error: details === undefined ? { code, message } : { code, message, details } });
+    // Typed from the contract but not sent through reply(): a failed check here would have no
+    // error handler left to answer it.
+    const body: ErrorReply = { error: details === undefined ? { code, message } : { code, message, details } };
+    res.status(status).json(body);
   };
 }
 

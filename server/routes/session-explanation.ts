@@ -4,11 +4,12 @@ import { BenchSession, Core, SessionExplanation, User } from '../db/models';
 import { HttpError, notFound } from '../http-error';
 import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
-import { applicableConfig, coreStillDeclared, explainStoredSession, explanationReply } from '../services/session-explanation';
+import { applicableConfig, coreStillDeclared, explainStoredSession, storedExplanation } from '../services/session-explanation';
 import type { Explanation } from '../../shared/explain';
 import type { RouteDeps } from './deps';
 import { paramsOf } from './params';
-import { explanationDecisionBody, explanationParams, type ExplanationDecisionBody } from '../../shared/contract/session-explanation';
+import { explanationDecisionBody, explanationDecisionReply, explanationParams, explanationReply, type ExplanationDecisionBody } from '../../shared/contract/session-explanation';
+import { reply } from './reply';
 
 const withPeople = [
   { model: User, as: 'savedBy', attributes: ['id', 'name'] },
@@ -35,7 +36,7 @@ export function sessionExplanationRouter({ db }: RouteDeps) {
   router
     .route('/')
     .get(requireRole('reviewer'), validate({ params: explanationParams }), async (req, res) => {
-      res.json(explanationReply(await findStored(req)));
+      reply(res, explanationReply, storedExplanation(await findStored(req)));
     })
     .post(requireRole('engineer'), validate({ params: explanationParams }), async (req, res) => {
       const me = currentUser(req);
@@ -58,7 +59,7 @@ export function sessionExplanationRouter({ db }: RouteDeps) {
         await recordAudit(transaction, me.id, 'explain', 'session', session.id, { outcome: explanation.outcome, best: best?.label ?? null, exact: best?.exact ?? 0, answered: explanation.answered });
       });
       const row = await SessionExplanation.findOne({ where: { sessionId: session.id }, include: withPeople });
-      res.status(201).json(explanationReply(row!));
+      reply(res, explanationReply, storedExplanation(row!), 201);
     });
 
   // Apply the configuration deviation to the core, or keep the core as declared: one audited step.
@@ -85,7 +86,7 @@ export function sessionExplanationRouter({ db }: RouteDeps) {
       await recordAudit(transaction, me.id, choice === 'apply' ? 'apply-explanation' : 'keep-declared', 'session', row.sessionId, { coreId: core.id, hypothesis: explanation.hypotheses[0].label });
     });
     const fresh = await SessionExplanation.findOne({ where: { id: row.id }, include: withPeople });
-    res.json({ ...explanationReply(fresh!), core });
+    reply(res, explanationDecisionReply, { ...storedExplanation(fresh!), core });
   });
 
   return router;

@@ -45,14 +45,15 @@ export function coreStillDeclared(core: Pick<Core, 'modelConfig'>, e: Explanatio
 
 const person = (u: { id: number; name: string } | null | undefined) => (u ? { id: u.id, name: u.name } : null);
 
-/** The API's shape of a stored explanation (docs/api.md). */
-export function explanationReply(row: SessionExplanation) {
+/** The API's shape of a stored explanation (explanationReply in shared/contract, docs/api.md). */
+export function storedExplanation(row: SessionExplanation) {
   const explanation = row.explanation as unknown as Explanation;
   return {
     sessionId: row.sessionId,
     savedAt: row.updatedAt,
     savedBy: person(row.savedBy),
-    decision: row.decision ? { choice: row.decision, by: person(row.decidedBy), at: row.decidedAt } : null,
+    // decision, decidedById and decidedAt are written together (the decision route's one update).
+    decision: row.decision ? { choice: row.decision, by: person(row.decidedBy), at: row.decidedAt! } : null,
     applicableConfig: row.decision ? null : applicableConfig(explanation),
     explanation,
   };

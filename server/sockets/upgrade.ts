@@ -5,6 +5,7 @@
 import { STATUS_CODES, type IncomingMessage, type Server } from 'node:http';
 import type { Duplex } from 'node:stream';
 import { WebSocketServer, type WebSocket } from 'ws';
+import type { ErrorReply } from '../../shared/contract/common';
 import { hasRole } from '../auth/guards';
 import type { Role, User } from '../db/models';
 import { HttpError } from '../http-error';
@@ -123,10 +124,11 @@ export function createSocketDispatcher({ authenticate, allowedOrigins = [], log 
   };
 }
 
-/** Answer the upgrade with a plain HTTP error (JSON body as the API's) and hang up. */
+/** Answer the upgrade with a plain HTTP error (the API's errorReply as its body) and hang up. */
 function refuse(socket: Duplex, e: HttpError) {
   if (socket.destroyed) return;
-  const body = JSON.stringify({ error: { code: e.code, message: e.message } });
+  const reply: ErrorReply = { error: { code: e.code, message: e.message } };
+  const body = JSON.stringify(reply);
   socket.end(
     `HTTP/1.1 ${e.status} ${STATUS_CODES[e.status] ?? 'Error'}\r\n` +
       'Connection: close\r\nContent-Type: application/json; charset=utf-8\r\n' +

@@ -2,7 +2,8 @@
 // be tested with a manual clock. It lives in this process's memory, so stations need the server
 // to run as a single instance (docs/deploy.md, "Stations").
 import type { EngineClock } from '../../shared/link-engine/link-engine';
-import { StationClose, type StationListing, type StationNote, type StationRegistration } from '../../shared/stations/wire';
+import type { StationListing } from '../../shared/contract/stations';
+import { StationClose, type StationNote, type StationRegistration } from '../../shared/stations/wire';
 
 /** One end of the relay: a station's or a driver's socket. */
 export interface RelayPeer {

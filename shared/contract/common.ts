@@ -32,3 +32,7 @@ export const buildBrief = z.object({ id: z.number().int(), label: z.string() });
 /** An object column checked only for being an object, typed as `T` (its shape is owned elsewhere). */
 export const typedObject = <T extends object>(what: string) =>
   z.custom<T>((v) => typeof v === 'object' && v !== null && !Array.isArray(v), { message: `${what}: expected an object` });
+
+/** Every failure, whatever its status: `{ error: { code, message, details? } }` (docs/api.md). */
+export const errorReply = z.object({ error: z.object({ code: z.string(), message: z.string(), details: z.unknown().optional() }) });
+export type ErrorReply = z.infer<typeof errorReply>;

@@ -1,7 +1,7 @@
 // GET /api/condition-grid: every session of one build (or core) placed at its pair of operating
 // conditions, the shmoo plot's cells, and each session's figures for a line plot.
 import { z } from 'zod';
-import { id } from './common';
+import { id, isoDate } from './common';
 import { NAMED_CONDITIONS } from '../soak';
 
 const axis = z.enum(NAMED_CONDITIONS as [string, ...string[]]);
@@ -13,34 +13,39 @@ export const conditionGridQuery = z
 export type ConditionGridQuery = z.infer<typeof conditionGridQuery>;
 
 /** A cell's verdict: unstable when any of its sessions had unstable codes, else fail when any failed. */
-export type CellVerdict = 'pass' | 'fail' | 'unstable';
+export const cellVerdict = z.enum(['pass', 'fail', 'unstable']);
+export type CellVerdict = z.infer<typeof cellVerdict>;
 
-export interface ConditionGridCell {
-  x: number;
-  y: number;
-  verdict: CellVerdict;
-  counts: Record<CellVerdict, number>;
-  sessionIds: number[];
-}
+export const conditionGridCell = z.object({
+  x: z.number(),
+  y: z.number(),
+  verdict: cellVerdict,
+  counts: z.object({ pass: z.number().int(), fail: z.number().int(), unstable: z.number().int() }),
+  sessionIds: z.array(z.number().int()),
+});
+export type ConditionGridCell = z.infer<typeof conditionGridCell>;
 
-export interface ConditionGridSession {
-  id: number;
-  x: number | null;
-  y: number | null;
-  startedAt: string;
-  passed: boolean;
-  verdict: CellVerdict;
-  maxAbsErrorLsb: number | null;
-  mismatches: number | null;
-  unstableCodes: number | null;
-}
+export const conditionGridSession = z.object({
+  id: z.number().int(),
+  x: z.number().nullable(),
+  y: z.number().nullable(),
+  startedAt: isoDate,
+  passed: z.boolean(),
+  verdict: cellVerdict,
+  maxAbsErrorLsb: z.number().nullable(),
+  mismatches: z.number().int().nullable(),
+  unstableCodes: z.number().int().nullable(),
+});
+export type ConditionGridSession = z.infer<typeof conditionGridSession>;
 
-export interface ConditionGrid {
-  x: string;
-  y: string;
-  xs: number[];
-  ys: number[];
-  cells: ConditionGridCell[];
+/** GET /api/condition-grid */
+export const conditionGridReply = z.object({
+  x: axis,
+  y: axis,
+  xs: z.array(z.number()),
+  ys: z.array(z.number()),
+  cells: z.array(conditionGridCell),
   /** Every session of the build or core, placed or not (a session without one of the two has x or y null). */
-  sessions: ConditionGridSession[];
-}
+  sessions: z.array(conditionGridSession),
+});
+export type ConditionGrid = z.infer<typeof conditionGridReply>;

@@ -2,7 +2,9 @@
 import { z } from 'zod';
 import { isoDate } from './common';
 
-export const role = z.enum(['reviewer', 'engineer', 'admin']);
+/** Roles in rising order: each includes everything the ones before it may do. */
+export const ROLES = ['reviewer', 'engineer', 'admin'] as const;
+export const role = z.enum(ROLES);
 export type Role = z.infer<typeof role>;
 
 /** POST /api/auth/login */

@@ -60,15 +60,6 @@ export function isReadyNote(text: string): boolean {
   }
 }
 
-/** One station as GET /api/stations lists it. */
-export interface StationListing extends StationRegistration {
-  /** Who registered it (whose API token it used). */
-  owner: string;
-  onlineSince: string;
-  /** Who is driving it now and since when (ISO time), or null when it is free. */
-  inUse: { by: string; since: string } | null;
-}
-
 // eslint-disable-next-line no-control-regex -- control characters are exactly what a name may not hold
 const NAME = /^[^\u0000-\u001f\u007f]{1,80}$/;
 

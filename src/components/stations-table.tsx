@@ -1,4 +1,4 @@
-import type { StationListing } from '../../shared/stations/wire';
+import type { StationListing } from '../../shared/contract/stations';
 import { sinceText } from '../lib/resources/stations';
 import { DataTable, type PlainColumn } from './data-table';
 

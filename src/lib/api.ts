@@ -1,5 +1,7 @@
 import type { z } from 'zod';
 import { checkContract } from '../../shared/contract/check';
+import { errorReply } from '../../shared/contract/common';
+import { csrfReply } from '../../shared/contract/people';
 
 /** An error reply of the Anglebench API, `{ error: { code, message } }`, as a typed error. */
 export class ApiError extends Error {
@@ -11,6 +13,14 @@ export class ApiError extends Error {
     super(message);
     this.name = 'ApiError';
   }
+}
+
+/** The ApiError of a failed reply: its `{ error }` body when it has one, else its status line. */
+export function apiErrorOf(status: number, statusText: string, body: unknown): ApiError {
+  const parsed = errorReply.safeParse(body);
+  return parsed.success
+    ? new ApiError(status, parsed.data.error.code, parsed.data.error.message)
+    : new ApiError(status, `http_${status}`, `${status} ${statusText}`.trim());
 }
 
 export interface ApiRequest extends Omit<RequestInit, 'body'> {
@@ -26,7 +36,7 @@ let csrfToken: Promise<string> | null = null;
 
 /** The session's CSRF token, from GET /api/auth/csrf on first use. */
 export function csrfTokenForWrites(): Promise<string> {
-  csrfToken ??= api<{ token: string }>('/api/auth/csrf').then(
+  csrfToken ??= apiReply(csrfReply, '/api/auth/csrf').then(
     (r) => r.token,
     (err: unknown) => {
       csrfToken = null; // try again on the next write
@@ -98,9 +108,6 @@ async function send<T>(path: string, init: ApiRequest, csrf: string | null): Pro
   } catch {
     // Not JSON (a proxy page, say): reported below with the status.
   }
-  if (!res.ok) {
-    const err = (parsed as { error?: { code?: string; message?: string } } | undefined)?.error;
-    throw new ApiError(res.status, err?.code ?? `http_${res.status}`, err?.message ?? `${res.status} ${res.statusText}`);
-  }
+  if (!res.ok) throw apiErrorOf(res.status, res.statusText, parsed);
   return parsed as T;
 }

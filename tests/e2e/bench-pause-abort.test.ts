@@ -33,6 +33,13 @@ async function startLongRun() {
 describe('a run on the Bench page', () => {
   it('pauses (the board sends nothing more), resumes, and completes with every code answered', async () => {
     const page = await startLongRun();
+    // The run's Pause is the page's only one: the traffic pane's toggle freezes the view by its own name.
+    expect(await page.getByRole('button', { name: 'Pause', exact: true }).count()).toBe(1);
+    const freeze = page.getByRole('region', { name: 'Line traffic' }).getByRole('button', { name: 'Freeze traffic view', exact: true });
+    await freeze.click();
+    await expect.poll(() => freeze.getAttribute('aria-pressed')).toBe('true');
+    await freeze.click();
+    await expect.poll(() => freeze.getAttribute('aria-pressed')).toBe('false');
     await runButton(page, 'Pause').click();
     await expect.poll(() => runState(page)).toBe('Paused');
     await expect.poll(() => board.first(Kind.Pause)).toBeDefined();

@@ -57,7 +57,8 @@ describe('two runs on one bench connection', () => {
     await page.waitForURL(/\/sessions\/\d+$/, { timeout: 20_000 });
     await expect.poll(() => page.getByLabel('Recorded conditions').innerText()).toMatch(/Temperature\s+55 °C[\s\S]*Core supply\s+0\.95 V[\s\S]*chamber\s+TC-2/);
     const id = Number(new URL(page.url()).pathname.split('/').pop());
-    await page.waitForTimeout(500);
+    // The session's page has read everything it shows.
+    await page.waitForLoadState('networkidle');
     await page.screenshot({ path: '/tmp/bench-runs-saved.png', fullPage: true });
 
     const archive = Uint8Array.from(
@@ -86,7 +87,7 @@ describe('two runs on one bench connection', () => {
     // Back on the bench afterwards, for a look at the page once the run is saved.
     await page.goto(`${app.url}/bench`);
     await page.getByRole('heading', { name: 'Bench' }).waitFor();
-    await page.waitForTimeout(500);
+    await page.waitForLoadState('networkidle');
     await page.screenshot({ path: '/tmp/bench-runs-bench-after-save.png', fullPage: true });
   }, 120_000);
 });

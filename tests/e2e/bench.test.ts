@@ -6,7 +6,27 @@ import { defaultBoardSettings } from '../../mock-device/board-session';
 import { parseCoreFault } from '../../mock-device/faulty-core';
 import { samplesFromArchive } from '../../shared/link-engine/archive-samples';
 import { readArchive } from '../../shared/link';
+import { progressOf } from './bench-steps';
 import { launchBrowser, startApp, type RunningApp } from './harness';
+
+/** Whether the browser's store (the Bench page's IndexedDB) still holds an unsaved run: nothing to offer once it does not. */
+const keepsUnsavedRun = (page: Page) =>
+  page.evaluate(
+    () =>
+      new Promise<boolean>((resolve, reject) => {
+        const open = indexedDB.open('anglebench-bench', 1);
+        open.onerror = () => reject(open.error);
+        open.onsuccess = () => {
+          const db = open.result;
+          const get = db.transaction('unsaved-run').objectStore('unsaved-run').get('latest');
+          get.onerror = () => reject(get.error);
+          get.onsuccess = () => {
+            db.close();
+            resolve(get.result !== undefined);
+          };
+        };
+      }),
+  );
 
 let app: RunningApp;
 let browser: Browser;
@@ -74,7 +94,8 @@ async function runExhaustive(page: Page, board: MockServer, shots?: string) {
   await page.getByLabel('What to ask').selectOption('exhaustive');
   await page.getByRole('button', { name: 'Run', exact: true }).click();
   if (shots) {
-    await page.waitForTimeout(400);
+    // Under way: some answers are in.
+    await expect.poll(async () => (await progressOf(page)).done, { timeout: 10_000 }).toBeGreaterThan(0);
     await page.screenshot({ path: `/tmp/bench-${shots}-running.png`, fullPage: true });
   }
   await expect.poll(() => page.getByTestId('run-state').textContent(), { timeout: 45_000 }).toBe('Complete');
@@ -102,7 +123,7 @@ describe('the Bench page against the simulated board', () => {
     expect(await page.getByTestId('stat-mismatches').textContent()).toBe('0');
     await page.screenshot({ path: '/tmp/bench-1280-done.png', fullPage: true });
     await page.setViewportSize({ width: 1920, height: 1080 });
-    await page.waitForTimeout(300);
+    await page.waitForFunction(() => window.innerWidth === 1920);
     await page.screenshot({ path: '/tmp/bench-1920-done.png', fullPage: true });
 
     // Save it: the core defaults to reference-16, and the server judges the samples itself.
@@ -117,7 +138,8 @@ describe('the Bench page against the simulated board', () => {
     await page.waitForURL(/\/sessions\/\d+$/, { timeout: 20_000 });
     const id = Number(new URL(page.url()).pathname.split('/').pop());
     expect(id).toBeGreaterThan(0);
-    await page.waitForTimeout(500);
+    // The session's page has read everything it shows.
+    await page.waitForLoadState('networkidle');
     await page.screenshot({ path: '/tmp/bench-1920-saved.png', fullPage: true });
 
     // The session list (with the page's own cookies) has it, passed, with all 65,536 samples.
@@ -223,9 +245,9 @@ describe('the Bench page against the simulated board', () => {
     // Discarded, it is not offered again.
     await page.reload();
     await page.getByRole('button', { name: 'Discard' }).click();
+    await expect.poll(() => keepsUnsavedRun(page)).toBe(false);
     await page.reload();
     await page.getByRole('heading', { name: 'Bench' }).waitFor();
-    await page.waitForTimeout(500);
     expect(await restore.count()).toBe(0);
   });
 });

@@ -21,12 +21,12 @@ function expectContract(schema: z.ZodType, body: unknown) {
   expect(r.success ? [] : r.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`)).toEqual([]);
 }
 
-/** 256 codes answered as the reference model does, packed as the runner sends them. */
-function samples() {
+/** 256 codes answered as `by` (the reference model by default) does, packed as the runner sends them. */
+function samples(by = model) {
   const codes = new Int32Array(256).map((_, i) => i * 256);
   const cos = new Int32Array(codes.length);
   const sin = new Int32Array(codes.length);
-  model.evaluateInto(codes, cos, sin);
+  by.evaluateInto(codes, cos, sin);
   return { codes, cos, sin, packed: Buffer.from(packSamples(codes, cos, sin, new Uint8Array(codes.length).fill(1))) };
 }
 
@@ -79,7 +79,8 @@ describe('every reply parses with its contract schema', () => {
 
   it('sessions: upload, import, list, detail, edit, compare', async () => {
     const s = samples();
-    const session = { coreId: ids.core, buildId: ids.build, boardId: ids.board, startedAt: '2026-03-01T09:00:00.000Z', plan: { kind: 'sweep' }, transport: { kind: 'serial' } };
+    const conditions = { temperature_c: 85, vccint_v: 0.95 };
+    const session = { coreId: ids.core, buildId: ids.build, boardId: ids.board, startedAt: '2026-03-01T09:00:00.000Z', plan: { kind: 'sweep' }, transport: { kind: 'serial' }, conditions };
     const uploaded = await engineer.post('/api/sessions').field('session', JSON.stringify(session)).attach('samples', s.packed, 'samples.bin').attach('archive', Buffer.from([1]), 'c.abrc').expect(201);
     expectContract(contract.sessionStoredReply, uploaded.body);
     ids.session = uploaded.body.id;
@@ -117,20 +118,73 @@ describe('every reply parses with its contract schema', () => {
     expectContract(contract.goldenVectorListReply, (await reviewer.get(`/api/cores/${ids.core}/golden-vectors`).expect(200)).body);
   });
 
+  it('condition grid, explanations, stations', async () => {
+    const grid = (await reviewer.get(`/api/condition-grid?buildId=${ids.build}&x=temperature_c&y=vccint_v`).expect(200)).body;
+    expectContract(contract.conditionGridReply, grid);
+    expect(grid.cells).toEqual([{ x: 85, y: 0.95, verdict: 'pass', counts: { pass: 1, fail: 0, unstable: 0 }, sessionIds: [ids.session] }]);
+
+    const url = `/api/sessions/${ids.session}/explanation`;
+    expectContract(contract.explanationReply, (await engineer.post(url).expect(201)).body);
+    expectContract(contract.explanationReply, (await reviewer.get(url).expect(200)).body);
+    // A core built with 12 iterations where 16 were declared: a configuration deviation an engineer may decide on.
+    const twelve = samples(createCordicModel(modelConfigSchema.parse({ iterations: 12 })));
+    const deviant = (await engineer.post('/api/sessions').field('session', JSON.stringify({ coreId: ids.core, startedAt: '2026-03-02T09:00:00.000Z', plan: { kind: 'sweep' }, transport: { kind: 'serial' } })).attach('samples', twelve.packed, 'samples.bin').expect(201)).body.id;
+    const explained = (await engineer.post(`/api/sessions/${deviant}/explanation`).expect(201)).body;
+    expectContract(contract.explanationReply, explained);
+    expect(explained.applicableConfig).toMatchObject({ iterations: 12 });
+    const decided = (await engineer.post(`/api/sessions/${deviant}/explanation/decision`).send({ decision: 'keep' }).expect(200)).body;
+    expectContract(contract.explanationDecisionReply, decided);
+    expect(decided.decision).toMatchObject({ choice: 'kept', by: { id: t.users.engineer.id } });
+
+    // No station online here (tests/server/stations.test.ts checks a listed one against the contract).
+    const stations = (await reviewer.get('/api/stations').expect(200)).body;
+    expectContract(contract.stationListReply, stations);
+    expect(stations.stations).toEqual([]);
+  });
+
   it('people: sign-in, users, invitations, tokens; admin lists; health', async () => {
     const visitor = await t.visitor();
     expectContract(contract.csrfReply, (await visitor.get('/api/auth/csrf').expect(200)).body);
-    expectContract(contract.loginReply, (await visitor.post('/api/auth/login').send({ email: t.users.reviewer.email, password: 'test-password-1' }).expect(200)).body);
+    const nobody = (await visitor.get('/api/auth/current').expect(200)).body;
+    expectContract(contract.currentReply, nobody);
+    expect(nobody.user).toBeNull();
+    const signedIn = (await visitor.post('/api/auth/login').send({ email: t.users.reviewer.email, password: 'test-password-1' }).expect(200)).body;
+    expectContract(contract.loginReply, signedIn);
+    visitor.set('x-csrf-token', signedIn.csrfToken);
+    const current = (await visitor.get('/api/auth/current').expect(200)).body;
+    expectContract(contract.currentReply, current);
+    expect(current.user.id).toBe(t.users.reviewer.id);
+    // Sign-out answers 204 with no body at all (the client reads nothing from it).
+    expect((await visitor.post('/api/auth/logout').expect(204)).text).toBe('');
     expectContract(contract.meReply, (await reviewer.get('/api/auth/me').expect(200)).body);
     expectContract(contract.userListReply, (await admin.get('/api/users').expect(200)).body);
     expectContract(contract.userReply, (await admin.patch(`/api/users/${t.users.reviewer.id}`).send({ name: 'Test reviewer 2' }).expect(200)).body);
     expectContract(contract.invitationReply, (await admin.post('/api/invitations').send({ email: 'new@lab.test', role: 'reviewer' }).expect(201)).body);
     expectContract(contract.invitationListReply, (await admin.get('/api/invitations').expect(200)).body);
+    const mail = (await admin.get('/api/outbox').expect(200)).body.messages.find((m: { to: string }) => m.to.includes('new@lab.test'));
+    const token = /\/invite\/(\S+)/.exec(mail.text)?.[1];
+    expectContract(contract.userReply, (await (await t.visitor()).post('/api/invitations/accept').send({ token, name: 'New colleague', password: 'a-long-password' }).expect(201)).body);
     expectContract(contract.tokenCreatedReply, (await engineer.post('/api/tokens').send({ name: 'ci' }).expect(201)).body);
     expectContract(contract.tokenListReply, (await engineer.get('/api/tokens').expect(200)).body);
     expectContract(contract.auditListReply, (await admin.get('/api/audit').expect(200)).body);
     expectContract(contract.outboxListReply, (await admin.get('/api/outbox').expect(200)).body);
     expectContract(contract.healthReply, (await request(t.app).get('/api/health').expect(200)).body);
+  });
+});
+
+describe('every error reply parses with the contract’s errorReply', () => {
+  it('not found, invalid input, signed out, refused', async () => {
+    const visitor = await t.visitor();
+    const failures = [
+      await reviewer.get('/api/sessions/999999').expect(404),
+      await reviewer.get('/api/no-such-route').expect(404),
+      await reviewer.get('/api/condition-grid?buildId=1&x=temperature_c&y=temperature_c').expect(400),
+      await visitor.get('/api/cores').expect(401),
+      await reviewer.post('/api/cores').send({ name: 'x', slug: 'x' }).expect(403),
+    ];
+    for (const res of failures) expectContract(contract.errorReply, res.body);
+    // A bad request names the field at fault.
+    expect(failures[2].body.error).toMatchObject({ code: 'invalid', message: expect.stringMatching(/^query\.y: x and y must be two different conditions/) });
   });
 });
 

@@ -15,6 +15,7 @@ import { defaultBoardSettings } from '../../mock-device/board-session';
 import { createCordicModel } from '../../shared/numeric';
 import { LinkEngine } from '../../shared/link-engine/link-engine';
 import { Backoff } from '../../shared/stations/backoff';
+import { stationListReply } from '../../shared/contract/stations';
 import { STATION_CONNECT_PATH, STATION_MAX_MESSAGE_BYTES, stationDrivePath } from '../../shared/stations/wire';
 import { manualClock } from '../support/manual-clock';
 import { realEngineClock } from '../support/in-process-board';
@@ -128,6 +129,8 @@ describe('stations on the server', { timeout: 30_000 }, () => {
     expect(d.bytes()).toEqual(back);
     const { body } = await list(bearer('reviewer'));
     expect(body.stations[0].inUse).toEqual({ by: 'Test engineer', since: expect.stringMatching(/Z$/) });
+    // A station in use, read with the contract's schema (the one the pages fetch it with).
+    expect(stationListReply.safeParse(body).error?.issues).toBeUndefined();
     await station.note('driven');
   });
 

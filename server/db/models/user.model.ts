@@ -1,8 +1,8 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import { ROLES, type Role } from '../../../shared/contract/people';
 
-/** Roles in rising order: each includes everything the ones before it may do. */
-export const ROLES = ['reviewer', 'engineer', 'admin'] as const;
-export type Role = (typeof ROLES)[number];
+// The roles are the API contract's (one list); the model's column accepts exactly those.
+export { ROLES, type Role };
 
 export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
   declare id: CreationOptional<number>;

@@ -1,8 +1,8 @@
 // The stations online (GET /api/stations), read by the Bench page's picker and the Boards page's
 // panel. Stations come and go and change hands, so the list is asked for again every few seconds.
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { StationListing } from '../../../shared/stations/wire';
-import { api } from '../api';
+import { stationListReply, type StationListing } from '../../../shared/contract/stations';
+import { apiReply } from '../api';
 
 export type { StationListing };
 
@@ -14,7 +14,7 @@ export const stationKeys = {
   list: () => [...stationKeys.all, 'list'] as const,
 };
 
-export const getStations = async (signal?: AbortSignal) => (await api<{ stations: StationListing[] }>('/api/stations', { signal })).stations;
+export const getStations = async (signal?: AbortSignal) => (await apiReply(stationListReply, '/api/stations', { signal })).stations;
 
 export const stationsQueryOptions = () =>
   queryOptions({ queryKey: stationKeys.list(), queryFn: ({ signal }) => getStations(signal), staleTime: 0, refetchInterval: STATIONS_REFRESH_MS });

@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import WebSocket from 'ws';
 import { NodeSocketLink } from '../../../cli/transport/ws-link';
 import { SIM_BOARD_PATH } from '../../../server/sockets/sim-boards';
+import { errorReply } from '../../../shared/contract/common';
 import { LinkEngine } from '../../../shared/link-engine/link-engine';
 import { realEngineClock } from '../../support/in-process-board';
 import { listen, signInCookie, type ListeningApp } from '../../support/listening-app';
@@ -51,7 +52,8 @@ describe('the WebSocket upgrade dispatcher', () => {
   it('refuses a signed-out caller with 401 and opens nothing', async () => {
     const r = await handshake(boardUrl);
     expect(r.status).toBe(401);
-    expect(JSON.parse(r.body).error.code).toBe('signed_out');
+    // The refusal's body is the API's error reply (shared/contract errorReply).
+    expect(errorReply.parse(JSON.parse(r.body)).error.code).toBe('signed_out');
     expect(t.app.sockets.openSockets(SIM_BOARD_PATH)).toBe(0);
   });
 

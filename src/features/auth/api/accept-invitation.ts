@@ -1,6 +1,7 @@
 import { useMutation } from '@tanstack/react-query';
 import { z } from 'zod';
-import { api } from '../../../lib/api';
+import { apiReply } from '../../../lib/api';
+import { userReply } from '../../../../shared/contract/people';
 import type { PublicUser } from './get-me';
 import { login } from './login';
 
@@ -15,7 +16,7 @@ export type AcceptInput = z.infer<typeof acceptInputSchema>;
 
 /** Create the invited account, then sign in with it. */
 async function acceptInvitation(token: string, input: AcceptInput): Promise<PublicUser> {
-  const { user } = await api<{ user: PublicUser }>('/api/invitations/accept', { method: 'POST', body: { token, name: input.name, password: input.password } });
+  const { user } = await apiReply(userReply, '/api/invitations/accept', { method: 'POST', body: { token, name: input.name, password: input.password } });
   return login({ email: user.email, password: input.password });
 }
 

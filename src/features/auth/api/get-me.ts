@@ -1,22 +1,14 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
+import { apiReply } from '../../../lib/api';
+import { currentReply, type PublicUser, type Role } from '../../../../shared/contract/people';
 
-export type Role = 'reviewer' | 'engineer' | 'admin';
-
-export interface PublicUser {
-  id: number;
-  email: string;
-  name: string;
-  role: Role;
-  disabled: boolean;
-  createdAt: string;
-}
+export type { PublicUser, Role };
 
 export const authKeys = { all: ['auth'] as const, me: () => [...authKeys.all, 'me'] as const };
 
 /** Who is signed in, or null when nobody is (answered 200, so a signed-out visit logs no error). */
 export async function getMe(signal?: AbortSignal): Promise<PublicUser | null> {
-  return (await api<{ user: PublicUser | null }>('/api/auth/current', { signal })).user;
+  return (await apiReply(currentReply, '/api/auth/current', { signal })).user;
 }
 
 export const meQueryOptions = () =>

@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { api, setCsrfToken } from '../../../lib/api';
+import { apiReply, setCsrfToken } from '../../../lib/api';
+import { loginReply } from '../../../../shared/contract/people';
 import { authKeys, type PublicUser } from './get-me';
 
 export const loginInputSchema = z.object({
@@ -10,7 +11,7 @@ export const loginInputSchema = z.object({
 export type LoginInput = z.infer<typeof loginInputSchema>;
 
 export async function login(input: LoginInput): Promise<PublicUser> {
-  const res = await api<{ user: PublicUser; csrfToken: string }>('/api/auth/login', { method: 'POST', body: input });
+  const res = await apiReply(loginReply, '/api/auth/login', { method: 'POST', body: input });
   // The server regenerated the session; the old token died with it.
   setCsrfToken(res.csrfToken);
   return res.user;

@@ -99,7 +99,8 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
             setPaused(paused.current);
           }}
         >
-          {isPaused ? 'Resume' : 'Pause'}
+          {/* One name whatever the state (aria-pressed tells it), and not the run's own Pause. */}
+          Freeze traffic view
         </button>
         <button
           type="button"

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import { buildFileReply } from '../../../../shared/contract/builds';
 import { checkContract } from '../../../../shared/contract/check';
-import { ApiError, csrfTokenForWrites } from '../../../lib/api';
+import { ApiError, apiErrorOf, csrfTokenForWrites } from '../../../lib/api';
 import { buildKeys } from '../../../lib/resources/builds';
 
 /** The build's columns and the other builds whose bitstream has the same SHA-256. */
@@ -40,8 +40,7 @@ export async function uploadBitstream({ buildId, file, onProgress }: UploadInput
         if (import.meta.env.DEV) checkContract(buildFileReply, body, `The reply to POST /api/builds/${buildId}/file`);
         return resolve(body as UploadReply);
       }
-      const err = (body as { error?: { code?: string; message?: string } } | undefined)?.error;
-      reject(new ApiError(xhr.status, err?.code ?? `http_${xhr.status}`, err?.message ?? `${xhr.status} ${xhr.statusText}`));
+      reject(apiErrorOf(xhr.status, xhr.statusText, body));
     };
     xhr.send(form);
   });

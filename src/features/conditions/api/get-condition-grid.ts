@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
-import type { ConditionGrid } from '../../../../shared/contract/condition-grid';
+import { apiReply } from '../../../lib/api';
+import { conditionGridReply } from '../../../../shared/contract/condition-grid';
 
 export interface GridChoice {
   buildId: number;
@@ -11,7 +11,7 @@ export interface GridChoice {
 export const conditionGridKeys = { all: ['condition-grid'] as const, grid: (c: GridChoice) => [...conditionGridKeys.all, c] as const };
 
 export const getConditionGrid = (c: GridChoice, signal?: AbortSignal) =>
-  api<ConditionGrid>(`/api/condition-grid?${new URLSearchParams({ buildId: String(c.buildId), x: c.x, y: c.y })}`, { signal });
+  apiReply(conditionGridReply, `/api/condition-grid?${new URLSearchParams({ buildId: String(c.buildId), x: c.x, y: c.y })}`, { signal });
 
 export const conditionGridQueryOptions = (c: GridChoice) => queryOptions({ queryKey: conditionGridKeys.grid(c), queryFn: ({ signal }) => getConditionGrid(c, signal) });
 

@@ -10,6 +10,22 @@ import { FigureLinePlot, FIGURES, type FigureKey } from './figure-line-plot';
 
 const pick = <T extends string>(v: string | null, allowed: readonly T[], dflt: T): T => (v !== null && (allowed as readonly string[]).includes(v) ? (v as T) : dflt);
 
+/** One axis's condition; choosing the other axis's condition swaps the two (the caller's onChange). */
+function AxisSelect({ title, value, onChange }: { title: string; value: string; onChange: (condition: string) => void }) {
+  return (
+    <label className={label}>
+      {title}
+      <select className={input} value={value} onChange={(e) => onChange(e.target.value)}>
+        {NAMED_CONDITIONS.map((n) => (
+          <option key={n} value={n}>
+            {conditionLabel(n)}
+          </option>
+        ))}
+      </select>
+    </label>
+  );
+}
+
 export function ConditionGridPage() {
   const [params, setParams] = useSearchParams();
   const builds = useBuildList(null);
@@ -44,26 +60,8 @@ export function ConditionGridPage() {
             ))}
           </select>
         </label>
-        <label className={label}>
-          Across (x)
-          <select className={input} value={x} onChange={(e) => set(e.target.value === y ? { x: e.target.value, y: x } : { x: e.target.value })}>
-            {NAMED_CONDITIONS.map((n) => (
-              <option key={n} value={n}>
-                {conditionLabel(n)}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className={label}>
-          Down (y)
-          <select className={input} value={y} onChange={(e) => set(e.target.value === x ? { y: e.target.value, x: y } : { y: e.target.value })}>
-            {NAMED_CONDITIONS.map((n) => (
-              <option key={n} value={n}>
-                {conditionLabel(n)}
-              </option>
-            ))}
-          </select>
-        </label>
+        <AxisSelect title="Across (x)" value={x} onChange={(v) => set(v === y ? { x: v, y: x } : { x: v })} />
+        <AxisSelect title="Down (y)" value={y} onChange={(v) => set(v === x ? { y: v, x: y } : { y: v })} />
         <button type="button" className={btn} onClick={() => window.print()}>
           Print
         </button>

@@ -1,15 +1,14 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../../lib/api';
+import { apiReply } from '../../../lib/api';
 import { coreKeys } from '../../../lib/resources/cores';
-import { explanationKeys, type StoredExplanation } from '../../../lib/resources/explanations';
-
-import type { ExplanationDecisionBody } from '../../../../shared/contract/session-explanation';
+import { explanationKeys } from '../../../lib/resources/explanations';
+import { explanationDecisionReply, type ExplanationDecisionBody } from '../../../../shared/contract/session-explanation';
 
 export type ExplanationChoice = ExplanationDecisionBody['decision'];
 
 /** POST /api/sessions/:id/explanation/decision: apply the deviation to the core, or keep the core as declared. */
 export const decideExplanation = (sessionId: number, decision: ExplanationChoice) =>
-  api<StoredExplanation>(`/api/sessions/${sessionId}/explanation/decision`, { method: 'POST', body: { decision } });
+  apiReply(explanationDecisionReply, `/api/sessions/${sessionId}/explanation/decision`, { method: 'POST', body: { decision } });
 
 export function useDecideExplanation(sessionId: number, coreId: number) {
   const qc = useQueryClient();

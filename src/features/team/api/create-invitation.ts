@@ -1,13 +1,13 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { invitationReply } from '../../../../shared/contract/people';
+import { invitationReply, role } from '../../../../shared/contract/people';
 import { apiReply } from '../../../lib/api';
 import { teamKeys } from './keys';
 
 export const invitationInputSchema = z.object({
   email: z.email('Enter an e-mail address').max(254, 'At most 254 characters'),
   name: z.string().trim().max(120, 'At most 120 characters'),
-  role: z.enum(['reviewer', 'engineer', 'admin']),
+  role,
 });
 export type InvitationInput = z.infer<typeof invitationInputSchema>;
 

@@ -1,12 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { userListReply, type Role } from '../../../../shared/contract/people';
+import { userListReply } from '../../../../shared/contract/people';
 import { apiReply } from '../../../lib/api';
 import { teamKeys } from './keys';
 
-export type { PublicUser as TeamUser, Role } from '../../../../shared/contract/people';
-export const ROLES: readonly Role[] = ['reviewer', 'engineer', 'admin'];
-
-
+export { ROLES, type PublicUser as TeamUser, type Role } from '../../../../shared/contract/people';
 
 export const getUsers = async (signal?: AbortSignal) => (await apiReply(userListReply, '/api/users', { signal })).users;
 
