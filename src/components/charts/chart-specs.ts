@@ -22,6 +22,8 @@ export interface ChartSpec {
 export const compactCount = (v: number) => (Math.abs(v) >= 1e6 ? `${+(v / 1e6).toFixed(1)}M` : Math.abs(v) >= 1e4 ? `${+(v / 1e3).toFixed(0)}k` : v.toLocaleString('en-US'));
 const countAxis = (): uPlot.Axis => ({ ...axis('count'), values: (_u, splits) => splits.map(compactCount) });
 
+/** Whole passes only on the pass axis: steps of 1, 2, 5, 10 … */
+const PASS_STEPS = Array.from({ length: 7 }, (_, e) => [1, 2, 5].map((m) => m * 10 ** e)).flat();
 const soakSeries = (): uPlot.Series[] => [{}, line(FAIL, 'model mismatches', 2), line(SIGNAL, 'unstable codes so far', 2), line(REFERENCE, 'link errors', 2), line(INK, 're-asked', 1)];
 
 const bars = (align: -1 | 1) => uPlot.paths.bars!({ size: [0.45, Infinity], align });
@@ -59,7 +61,7 @@ export const CHART_SPECS: Record<ChartId, ChartSpec> = {
   soakByPass: {
     title: 'Soak timeline, per pass',
     testId: 'chart-soak',
-    options: { scales: { x: { time: false } }, axes: [axis('pass'), countAxis()], series: soakSeries() },
+    options: { scales: { x: { time: false } }, axes: [{ ...axis('pass'), incrs: PASS_STEPS }, countAxis()], series: soakSeries() },
   },
   soakByTime: {
     title: 'Soak timeline, against time',

@@ -30,10 +30,15 @@ export function SoakLivePanel({ controller, run }: { controller: BenchController
   if (!soak) return null;
   const s = soak.summary;
   const ended = run.state === 'finished';
+  const done = s?.passes ?? 0;
   const where =
     soak.spec.kind === 'passes'
-      ? `${ended ? 'Ended at' : 'Pass'} ${n(ended ? (s?.passes ?? 0) : soak.pass)} of ${n(soak.spec.passes)}`
-      : `${ended ? 'Ended after' : 'Pass'} ${n(ended ? (s?.passes ?? 0) : soak.pass)}${ended ? ' passes' : ''}, ${minutes(s?.elapsedMs ?? 0)} of ${describeSoak(soak.spec)}`;
+      ? ended
+        ? `${n(done)} of ${n(soak.spec.passes)} passes done`
+        : `Pass ${n(soak.pass)} of ${n(soak.spec.passes)}`
+      : ended
+        ? `${n(done)} passes in ${minutes(s?.elapsedMs ?? 0)}`
+        : `Pass ${n(soak.pass)}, ${minutes(s?.elapsedMs ?? 0)} of ${describeSoak(soak.spec)} done`;
   const figures: [string, string, boolean?][] = s
     ? [
         ['Passes done', n(s.passes)],

@@ -14,6 +14,7 @@ import type { DeviceInfo } from '../../../../shared/link';
 import type { Plan, ScoreSummary } from '../../../../shared/numeric';
 import { runSoak, scorePass, type SoakSpec } from '../../../../shared/soak';
 import type { ConnectionRecording } from './connection-recording';
+import type { RecorderMark } from '../../../../shared/link/recorder';
 import { LiveSamples } from './live-samples';
 import { clearAnswers, newRun, takeResults } from './new-run';
 import { recordedLink } from './recorded-link';
@@ -191,6 +192,7 @@ export class BenchController {
   private runSoak(engine: LinkEngine, request: RunRequest, record: RunRecord, spec: SoakSpec) {
     const soak = this.soak!;
     const { restart, ...handlers } = this.passHandlers(engine, record);
+    let passStart: RecorderMark | null = null;
     runSoak({
       engine,
       request,
@@ -200,6 +202,7 @@ export class BenchController {
       keepGoing: () => !this.soakStopped,
       onPassStart: (pass, handle) => {
         this.handle = handle;
+        passStart = this.recording?.mark() ?? null;
         // A pause asked for as the last pass ended holds the next one from its start.
         if (this.pausedByOperator) void handle.pause();
         soak.passStarted(pass);
@@ -213,6 +216,8 @@ export class BenchController {
       },
       score: (result) => scorePass(record.config, result),
       onPass: (_point, acc) => {
+        // The capture keeps the preamble and the latest whole pass on (what the samples are).
+        if (passStart) this.recording?.markRun(passStart);
         soak.passBooked(acc);
         this.publishSoak(false);
       },
