@@ -4,7 +4,7 @@
 // the conditions.
 import fs from 'node:fs';
 import type { Page } from 'playwright-core';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it } from 'vitest';
 import { Kind } from '../../shared/link';
 import { parseBoardArgs } from '../../mock-device/options';
 import type { CoreFlip } from '../../mock-device/flaky-core';
@@ -65,6 +65,13 @@ function expectedUnstable(passes: number) {
 const tableRows = (page: Page, name: string) =>
   page.getByRole('table', { name }).locator('tbody tr').evaluateAll((rows) => rows.map((r) => Array.from(r.querySelectorAll('td'), (td) => (td.textContent ?? '').trim())));
 
+/** Answers the page has: the booked passes' and the pass under way's. */
+async function answersOnPage(page: Page) {
+  const figures = (await page.getByTestId('soak-figures').count()) ? await page.getByTestId('soak-figures').innerText() : '';
+  const booked = Number(/Answers\s+([\d,]+) of/.exec(figures)?.[1].replace(/,/g, '') ?? 0);
+  return booked + (await progressOf(page)).done;
+}
+
 /** Click `name` on the session's page and read the file it downloads. */
 async function download(page: Page, name: 'Export CSV' | 'Export JSON') {
   const started = page.waitForEvent('download');
@@ -73,11 +80,8 @@ async function download(page: Page, name: 'Export CSV' | 'Export JSON') {
 }
 
 describe('a soak from the Bench page', () => {
-  beforeEach(async () => {
-    await flakyBoard('0.002');
-  });
-
   it('runs 3 passes, lists exactly the codes the flaky board varied, saves them with conditions, and exports the conditions', async () => {
+    await flakyBoard('0.002');
     const page = await ctx.browser.newPage({ viewport: { width: 1440, height: 1000 } });
     await signInAs(page, ctx.app, 'engineer', '/bench');
     await connectBoard(page, board.url);
@@ -152,6 +156,47 @@ describe('a soak from the Bench page', () => {
     expect(json.soak.unstable.count).toBe(expected.length);
     expect(json.soak.unstable.codes.map((u) => u.code)).toEqual(expected.map((u) => u.code));
     expect(json.soak.timeline).toHaveLength(3);
+    await page.close();
+  }, 120_000);
+
+  it('pauses and resumes across passes, and an abort ends the soak keeping its whole passes', async () => {
+    // At 230,400 baud a pass of 4,096 codes takes about a second: time to act while it runs.
+    await flakyBoard('0.002', '230400');
+    const page = await ctx.browser.newPage({ viewport: { width: 1440, height: 1000 } });
+    await signInAs(page, ctx.app, 'engineer', '/bench');
+    await connectBoard(page, board.url);
+    await sweepPlan(page, '50');
+    await runButton(page, 'Run').click();
+    await expect.poll(() => passesBegun(), { timeout: 30_000 }).toBeGreaterThanOrEqual(2);
+    await expect.poll(async () => (await page.getByTestId('soak-figures').innerText()).match(/Passes done\s+(\d+)/)?.[1], { timeout: 10_000 }).toBeDefined();
+
+    await runButton(page, 'Pause').click();
+    await expect.poll(() => runState(page)).toBe('Paused');
+    await expect.poll(() => board.first(Kind.Pause)).toBeDefined();
+    // Held: what was on the line arrives, and then the page has every answer the board sent.
+    await expect.poll(() => answersOnPage(page), { timeout: 10_000 }).toBe(board.resultsSent);
+    const settled = board.resultsSent;
+    const pausedIn = passesBegun();
+    await page.screenshot({ path: '/tmp/bench-soak-paused.png', fullPage: true });
+
+    await runButton(page, 'Resume').click();
+    await expect.poll(() => runState(page)).toBe('Running');
+    await expect.poll(() => passesBegun(), { timeout: 30_000 }).toBeGreaterThan(pausedIn);
+    expect(board.requests.find((r) => r.kind === Kind.Resume)!.resultsBefore).toBe(settled);
+
+    await runButton(page, 'Abort').click();
+    await expect.poll(() => runState(page), { timeout: 10_000 }).toBe('Aborted');
+    expect(board.first(Kind.Abort)).toBeDefined();
+    const begun = passesBegun();
+    // Every pass but the one cut short is booked; the bar and figures are the last whole pass.
+    await expect.poll(() => page.getByTestId('soak-where').textContent()).toBe(`${begun - 1} of 50 passes done`);
+    await expect.poll(() => progressOf(page)).toEqual({ done: 4096, total: 4096 });
+    await expect.poll(() => page.getByTestId('stat-scored').textContent()).toContain('4,096');
+    expect(await page.getByTestId('soak-unstable-count').textContent()).toBe(String(expectedUnstable(begun - 1).length));
+    expect(await page.getByText(`from the last whole pass of a soak of ${begun - 1} passes`).count()).toBe(1);
+    // The soak had ended when the page said so: nothing was asked after the abort.
+    const abortAt = board.requests.findIndex((r) => r.kind === Kind.Abort);
+    expect(board.requests.slice(abortAt + 1).filter((r) => r.kind === Kind.Sweep || r.kind === Kind.List)).toEqual([]);
     await page.close();
   }, 120_000);
 });
