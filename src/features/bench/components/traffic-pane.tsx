@@ -9,6 +9,7 @@ import type { TrafficLog } from '../live/traffic-log';
 import { TrafficLines } from '../live/traffic-lines';
 import { C, copyOrDownload, formatTraffic } from './traffic-format';
 import { btn, input, panel, panelTitle } from '../../../components/ui';
+import { terminalTheme } from '../../../components/terminal-theme';
 
 const SCROLLBACK_LINES = 5000;
 const WRITE_EVERY_MS = 200;
@@ -31,7 +32,7 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
       fontSize: 12,
       disableStdin: true,
       convertEol: true,
-      theme: { background: '#1f2a2e', foreground: '#f6f3ec', cursor: '#1f2a2e', selectionBackground: '#e0b84a', selectionForeground: '#1f2a2e' },
+      theme: terminalTheme,
     });
     const fit = new FitAddon();
     t.loadAddon(fit);
