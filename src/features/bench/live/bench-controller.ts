@@ -84,6 +84,8 @@ export class BenchController {
   private pausedByOperator = false;
   private soakStopped = false;
   private soakFrame = 0;
+  private soakRunning = false;
+  private pendingRun: Partial<NonNullable<BenchSnapshot['run']>> | null = null;
 
   constructor(private readonly store: UnsavedRunStore = unsavedRunStore) {}
 
@@ -97,9 +99,19 @@ export class BenchController {
     this.snap = { ...this.snap, ...patch };
     for (const l of this.listeners) l();
   }
+  /** While a soak runs, changes to the run reach the page together, at most once a frame. */
   private setRun(patch: Partial<NonNullable<BenchSnapshot['run']>>) {
-    if (this.snap.run) this.set({ run: { ...this.snap.run, ...patch } });
+    if (!this.snap.run) return;
+    if (!this.soakRunning) return this.set({ run: { ...this.snap.run, ...patch } });
+    this.pendingRun = { ...this.pendingRun, ...patch };
+    this.soakFrame ||= requestAnimationFrame(this.flushRun);
   }
+  private flushRun = () => {
+    this.soakFrame = 0;
+    const patch = { ...this.pendingRun, ...(this.soak ? { soak: this.soak.view() } : {}) };
+    this.pendingRun = null;
+    if (this.snap.run) this.set({ run: { ...this.snap.run, ...patch } });
+  };
 
   /** Open a link (made by the caller), say HELLO and keep INFO. Everything on it is recorded. */
   async connect(open: () => Promise<ByteLink>, label: string, baud: number) {
@@ -193,6 +205,7 @@ export class BenchController {
     const soak = this.soak!;
     const { restart, ...handlers } = this.passHandlers(engine, record);
     let passStart: RecorderMark | null = null;
+    this.soakRunning = true;
     runSoak({
       engine,
       request,
@@ -212,14 +225,14 @@ export class BenchController {
           restart();
           this.setRun({ summary: null, tone: null, progress: null });
         }
-        this.publishSoak(true);
+        this.setRun({});
       },
       score: (result) => scorePass(record.config, result),
       onPass: (_point, acc) => {
         // The capture keeps the preamble and the latest whole pass on (what the samples are).
         if (passStart) this.recording?.markRun(passStart);
         soak.passBooked(acc);
-        this.publishSoak(false);
+        this.setRun({});
       },
     }).then(
       (out) => {
@@ -239,28 +252,22 @@ export class BenchController {
         const scorer = cutAfterWhole ? this.rescore(record) : this.scorer!;
         this.endRun(record, scorer);
         const progress = cutAfterWhole ? restoredProgress(record) : this.handle!.progress();
-        this.publishSoak(true);
+        this.endSoak();
         this.setRun({ state: 'finished', progress, figures: ended.figures, result: record.outcome });
       },
       (err: Error) => {
         this.endRun(record, this.scorer!);
-        this.publishSoak(true);
+        this.endSoak();
         this.setRun({ state: 'finished', error: err.message });
       },
     );
   }
 
-  /** The soak's books to the page: at most once a frame, or now (a pass started, the soak ended). */
-  private publishSoak(now: boolean) {
-    const push = () => {
-      this.soakFrame = 0;
-      if (this.soak) this.setRun({ soak: this.soak.view() });
-    };
-    if (now) {
-      if (this.soakFrame) cancelAnimationFrame(this.soakFrame);
-      return push();
-    }
-    this.soakFrame ||= requestAnimationFrame(push);
+  /** The soak is over: what was waiting for the next frame goes now, and changes go straight through again. */
+  private endSoak() {
+    this.soakRunning = false;
+    if (this.soakFrame) cancelAnimationFrame(this.soakFrame);
+    this.flushRun();
   }
 
   async pause() {
