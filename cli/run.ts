@@ -111,7 +111,7 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
     try {
       if (o.soak) {
         const keepGoing = () => !deps.interrupt?.requested;
-        soak = await soakPasses({ engine, request, model, plan, spec: o.soak, clock, confirm: confirmOffModel(model), log: io.stderr, onPassStart: started, keepGoing });
+        soak = await soakPasses({ engine, request, model, spec: o.soak, clock, confirm: confirmOffModel(model), log: io.stderr, onPassStart: started, keepGoing });
         result = soak.status === 'complete' ? soak.result : { ...soak.result, status: soak.status, message: soak.message };
       } else {
         result = await started(engine.run(request, { onProgress: (p) => progress.update(p), confirm: confirmOffModel(model) })).done;

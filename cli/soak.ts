@@ -2,11 +2,10 @@
 // per pass on stderr, and the soak's part of the report, the JSON summary and the upload.
 import type { LinkEngine, RunHandle, RunResult } from '../shared/link-engine/link-engine';
 import type { RunRequest } from '../shared/link-engine/run-request';
-import type { ModelConfig, Plan } from '../shared/numeric';
-import { describeSoak, parseSoakSpec, runSoak, type SoakRecord, type SoakSpec } from '../shared/soak';
+import type { ModelConfig } from '../shared/numeric';
+import { describeSoak, parseSoakSpec, runSoak, scorePass, type SoakRecord, type SoakSpec } from '../shared/soak';
 import type { EngineClock } from '../shared/link-engine/link-engine';
 import { UsageError } from './run-options';
-import { scoreRun } from './run-score';
 
 export function parseSoakOption(text: string): SoakSpec {
   try {
@@ -31,7 +30,6 @@ export async function soakPasses(a: {
   engine: LinkEngine;
   request: RunRequest;
   model: ModelConfig;
-  plan: Plan;
   spec: SoakSpec;
   clock: EngineClock;
   confirm: (code: number, cos: number, sin: number) => boolean;
@@ -48,10 +46,7 @@ export async function soakPasses(a: {
     handlers: { confirm: a.confirm },
     onPassStart: (_pass, handle) => a.onPassStart?.(handle),
     keepGoing: a.keepGoing,
-    score: (result, checkFailures) => {
-      const s = scoreRun(a.model, a.plan, result, checkFailures);
-      return { mismatches: s.summary.mismatches.count, maxAbsErrorLsb: s.summary.count > 0 ? s.summary.overall.maxAbsLsb : null };
-    },
+    score: (result) => scorePass(a.model, result),
     onPass: (p, acc) =>
       a.log(
         `soak pass ${n(p.pass)}${total}: ${n(p.answered)} answered, ${n(p.mismatches)} mismatches, ${n(p.linkErrors)} link errors` +

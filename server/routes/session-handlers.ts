@@ -16,6 +16,7 @@ import {
 import { currentUser } from '../auth';
 import { Core } from '../db/models';
 import { HttpError, notFound } from '../http-error';
+import { sessionConditionsOf } from '../services/session-conditions';
 import { sessionCsvChunks } from '../services/session-csv';
 import { deleteSession, editSession } from '../services/session-edits';
 import { acceptImport, acceptUpload } from '../services/session-intake';
@@ -90,8 +91,9 @@ export function sessionHandlers({ db, mailer }: RouteDeps) {
       const core = await Core.findByPk(session.coreId);
       if (!core) throw notFound('Core');
       const samples = decodeSamples(session.samples, core.modelConfig.angleFormat ?? 'turn');
+      const conditions = await sessionConditionsOf(session.id);
       res.type('text/csv; charset=utf-8').set('content-disposition', `attachment; filename="session-${session.id}.csv"`);
-      await streamChunks(res, sessionCsvChunks(core.modelConfig, samples));
+      await streamChunks(res, sessionCsvChunks(core.modelConfig, samples, conditions));
     }),
   };
 }

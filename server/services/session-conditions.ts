@@ -27,6 +27,12 @@ export async function saveSessionConditions(transaction: Transaction, sessionId:
   );
 }
 
+/** A session's conditions alone (`{}` when none were recorded): for the CSV export. */
+export async function sessionConditionsOf(sessionId: number): Promise<Conditions> {
+  const row = await SessionConditions.findOne({ where: { sessionId }, attributes: { exclude: ['soak'] } });
+  return row ? row.conditions() : {};
+}
+
 /** What a list item or a detail shows; the soak's books only in the detail. */
 export function conditionsView(row: SessionConditions | null | undefined, { withSoak }: { withSoak: boolean }) {
   return {

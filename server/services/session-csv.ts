@@ -1,9 +1,15 @@
 // The CSV export of a stored session: one row per sample with the exact values and the model's
-// answer beside what the core returned. Rows are built a chunk at a time into typed arrays so a
+// answer beside what the core returned. A session's operating conditions come first, one
+// `# condition name=value` line each (the runner's --condition grammar, named ones first), and
+// only when it has some: a session without conditions gives the same file as before. Rows are built a chunk at a time into typed arrays so a
 // session of a million samples never holds a million row strings at once.
 import { modelConfigSchema } from '../schemas/core';
 import { angleCodeToDegrees, createCordicModel, exactSinCosInto } from '../../shared/numeric';
+import { conditionTexts, type Conditions } from '../../shared/soak';
 import type { DecodedSamples } from './session-scoring';
+
+/** Starts each condition line above the header. */
+export const CSV_CONDITION_PREFIX = '# condition ';
 
 export const CSV_HEADER = 'index,angle_code,angle_deg,cos_code,sin_code,exact_cos,exact_sin,model_cos,model_sin,cos_err_lsb,sin_err_lsb';
 
@@ -14,7 +20,7 @@ const CHUNK_ROWS = 8192;
  * The CSV text in chunks, header first. `cos_err_lsb` / `sin_err_lsb` are the core's codes minus
  * the exact values, in output LSBs (the error the scorer measures).
  */
-export function* sessionCsvChunks(modelConfig: unknown, samples: DecodedSamples, chunkRows = CHUNK_ROWS): Generator<string> {
+export function* sessionCsvChunks(modelConfig: unknown, samples: DecodedSamples, conditions: Conditions = {}, chunkRows = CHUNK_ROWS): Generator<string> {
   const config = modelConfigSchema.parse(modelConfig);
   const model = createCordicModel(config);
   const scale = 2 ** config.outFrac;
@@ -23,7 +29,8 @@ export function* sessionCsvChunks(modelConfig: unknown, samples: DecodedSamples,
   const exactSin = new Float64Array(rows);
   const modelCos = new Int32Array(rows);
   const modelSin = new Int32Array(rows);
-  yield `${CSV_HEADER}\n`;
+  // Values are printable ASCII on one line (conditionsSchema), so a line holds one pair whole.
+  yield conditionTexts(conditions).map((t) => `${CSV_CONDITION_PREFIX}${t}\n`).join('') + `${CSV_HEADER}\n`;
   for (let start = 0; start < samples.codes.length; start += rows) {
     const codes = samples.codes.subarray(start, start + rows);
     const n = codes.length;

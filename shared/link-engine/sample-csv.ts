@@ -1,6 +1,8 @@
 // Samples as CSV: a header `angle_code,cos_code,sin_code`, then one row of three integer codes per
 // answer. Used to import results captured elsewhere and for golden vectors from RTL simulation.
-// The parser checks form only (integers, three columns); the core's model checks ranges.
+// A session's own CSV export reads back too: its `# …` lines above the header are skipped and its
+// angle_code, cos_code and sin_code columns are taken by name among the others.
+// The parser checks form only (integers, the header's number of columns); the core's model checks ranges.
 import type { UnpackedSamples } from './sample-pack';
 
 export const SAMPLE_CSV_HEADER = 'angle_code,cos_code,sin_code';
@@ -24,30 +26,39 @@ const INTEGER = /^[+-]?\d+$/;
  */
 export function parseSampleCsv(text: string, maxRows = 1 << 24): UnpackedSamples {
   const lines = text.replace(/^\uFEFF/, '').split(/\r?\n/);
-  const header = (lines[0] ?? '').trim().toLowerCase().replace(/\s+/g, '');
-  if (header !== SAMPLE_CSV_HEADER) throw new SampleCsvError(1, `the header must be "${SAMPLE_CSV_HEADER}"`);
+  // Comment lines above the header (the session export's conditions).
+  let h = 0;
+  while (h < lines.length - 1 && lines[h].startsWith('#')) h++;
+  const names = (lines[h] ?? '').trim().toLowerCase().replace(/\s+/g, '').split(',');
+  const wanted = SAMPLE_CSV_HEADER.split(',');
+  const at = wanted.map((w) => names.indexOf(w));
+  if (at.some((i) => i < 0)) {
+    throw new SampleCsvError(h + 1, `the header must be "${SAMPLE_CSV_HEADER}" (other columns may sit beside them, as in a session's CSV export)`);
+  }
+  const width = names.length;
   let rows = 0;
-  for (let i = 1; i < lines.length; i++) if (lines[i].trim() !== '') rows++;
-  if (rows === 0) throw new SampleCsvError(2, 'no samples after the header');
-  if (rows > maxRows) throw new SampleCsvError(maxRows + 2, `more than ${maxRows} samples`);
+  for (let i = h + 1; i < lines.length; i++) if (lines[i].trim() !== '') rows++;
+  if (rows === 0) throw new SampleCsvError(h + 2, 'no samples after the header');
+  if (rows > maxRows) throw new SampleCsvError(maxRows + h + 2, `more than ${maxRows} samples`);
   const out: UnpackedSamples = { codes: new Float64Array(rows), cos: new Int32Array(rows), sin: new Int32Array(rows) };
-  let at = 0;
-  for (let i = 1; i < lines.length; i++) {
+  let row = 0;
+  for (let i = h + 1; i < lines.length; i++) {
     const line = lines[i].trim();
     if (line === '') continue;
     const cells = line.split(',').map((c) => c.trim());
-    if (cells.length !== 3) throw new SampleCsvError(i + 1, `expected 3 values, found ${cells.length}`);
-    const values = cells.map((c, k) => {
-      if (!INTEGER.test(c)) throw new SampleCsvError(i + 1, `${SAMPLE_CSV_HEADER.split(',')[k]} "${c.slice(0, 20)}" is not an integer`);
+    if (cells.length !== width) throw new SampleCsvError(i + 1, `expected ${width} values, found ${cells.length}`);
+    const values = at.map((col, k) => {
+      const c = cells[col];
+      if (!INTEGER.test(c)) throw new SampleCsvError(i + 1, `${wanted[k]} "${c.slice(0, 20)}" is not an integer`);
       return Number(c);
     });
     if (!Number.isSafeInteger(values[0]) || Math.abs(values[1]) > 2 ** 31 || Math.abs(values[2]) > 2 ** 31) {
       throw new SampleCsvError(i + 1, 'a value is too large for a 32-bit code');
     }
-    out.codes[at] = values[0];
-    out.cos[at] = values[1];
-    out.sin[at] = values[2];
-    at++;
+    out.codes[row] = values[0];
+    out.cos[row] = values[1];
+    out.sin[row] = values[2];
+    row++;
   }
   return out;
 }

@@ -3,12 +3,23 @@
 // every pass, so the runner prints and the Bench page draws while the soak goes on.
 import type { EngineClock, LinkEngine, RunHandle, RunHandlers, RunResult } from '../link-engine/link-engine';
 import type { RunRequest } from '../link-engine/run-request';
+import { ScoreAccumulator, type ModelConfig } from '../numeric';
 import { SoakAccumulator, type SoakOptions, type SoakTimelinePoint } from './soak-accumulator';
 import { soakWantsAnotherPass, type SoakSpec } from './soak-spec';
 
 export interface PassScore {
   mismatches: number;
   maxAbsErrorLsb: number | null;
+}
+
+/** A pass's model mismatches and largest error, from its answered codes: what the books need of a score. */
+export function scorePass(config: ModelConfig, result: Pick<RunResult, 'codes' | 'cos' | 'sin' | 'answered'>): PassScore {
+  const acc = new ScoreAccumulator(config);
+  const idx: number[] = [];
+  for (let i = 0; i < result.codes.length; i++) if (result.answered[i]) idx.push(i);
+  if (idx.length > 0) acc.add(idx.map((i) => result.codes[i]), idx.map((i) => result.cos[i]), idx.map((i) => result.sin[i]), 0);
+  const s = acc.summary();
+  return { mismatches: s.mismatches.count, maxAbsErrorLsb: s.count > 0 ? s.overall.maxAbsLsb : null };
 }
 
 export interface SoakRunOptions<S extends PassScore> {

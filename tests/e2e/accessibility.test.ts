@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { describeViolations, landmarkViolations, seriousViolations } from './axe-audit';
 import { appAndBrowser, signInAs, type DemoRole } from './harness';
 import { pageGet, pagePost } from './page-fetch';
+import { connectBoard, runButton, runState } from './bench-steps';
 
 const ctx = appAndBrowser();
 const ids = { session: 0, sameCore: [] as number[], build: 0, core: 0, board: 0 };
@@ -52,6 +53,11 @@ async function audit(page: Page, path: string, ready: (page: Page) => Promise<un
   await page.goto(`${ctx.app.url}${path}`);
   await ready(page);
   await page.waitForLoadState('networkidle');
+  await auditAsShown(page, path, shot);
+}
+
+/** Audit what `page` shows now (a state reached by using the page, not by opening it). */
+async function auditAsShown(page: Page, path: string, shot: string) {
   await page.screenshot({ path: `/tmp/a11y-${shot}.png`, fullPage: true });
   const found = [...(await seriousViolations(page)), ...(await landmarkViolations(page))];
   if (found.length) console.log(`${path}:\n${describeViolations(found)}`);
@@ -82,6 +88,19 @@ describe('every page passes the WCAG 2.1 AA audit (no serious or critical violat
       await audit(page, path(), ready, name);
     });
   }
+
+  it('bench with a soak done (its figures, timeline and unstable codes), signed in as an engineer', async () => {
+    const page = await signedIn('engineer', '/bench');
+    // The server's own simulated board, healthy: 3 passes of a 256-code sweep.
+    await connectBoard(page, `${ctx.app.url.replace(/^http/, 'ws')}/api/sim-board`);
+    await page.getByLabel('What to ask').selectOption('sweep');
+    await page.getByLabel('Count').fill('256');
+    await page.getByLabel('Repeat (soak)').fill('3');
+    await runButton(page, 'Run').click();
+    await expect.poll(() => runState(page), { timeout: 30_000 }).toBe('Complete');
+    await expect.poll(() => page.getByTestId('soak-where').textContent()).toBe('3 of 3 passes done');
+    await auditAsShown(page, '/bench (soak)', 'bench-soak');
+  });
 
   it('team, signed in as an admin', async () => {
     const page = await signedIn('admin', '/');

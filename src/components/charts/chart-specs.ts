@@ -5,10 +5,12 @@
 //   errorCos   [angle°, cos error LSB]       errorSin [angle°, sin error LSB]
 //   histogram  [bin centre LSB, cos count, sin count]
 //   xy         [cos ascending, sin]
+//   soakByPass [pass, model mismatches, unstable codes so far, link errors, re-asked]
+//   soakByTime [minutes into the soak, the same four]
 import uPlot from 'uplot';
 import { axis, dots, FAIL, INK, line, REFERENCE, SIGNAL } from './uplot-theme';
 
-export type ChartId = 'values' | 'error' | 'errorCos' | 'errorSin' | 'histogram' | 'xy';
+export type ChartId = 'values' | 'error' | 'errorCos' | 'errorSin' | 'histogram' | 'xy' | 'soakByPass' | 'soakByTime';
 
 export interface ChartSpec {
   title: string;
@@ -19,6 +21,10 @@ export interface ChartSpec {
 /** Counts to a million and beyond fit the axis: 250k, 1.2M. */
 export const compactCount = (v: number) => (Math.abs(v) >= 1e6 ? `${+(v / 1e6).toFixed(1)}M` : Math.abs(v) >= 1e4 ? `${+(v / 1e3).toFixed(0)}k` : v.toLocaleString('en-US'));
 const countAxis = (): uPlot.Axis => ({ ...axis('count'), values: (_u, splits) => splits.map(compactCount) });
+
+/** Whole passes only on the pass axis: steps of 1, 2, 5, 10 … */
+const PASS_STEPS = Array.from({ length: 7 }, (_, e) => [1, 2, 5].map((m) => m * 10 ** e)).flat();
+const soakSeries = (): uPlot.Series[] => [{}, line(FAIL, 'model mismatches', 2), line(SIGNAL, 'unstable codes so far', 2), line(REFERENCE, 'link errors', 2), line(INK, 're-asked', 1)];
 
 const bars = (align: -1 | 1) => uPlot.paths.bars!({ size: [0.45, Infinity], align });
 
@@ -51,6 +57,16 @@ export const CHART_SPECS: Record<ChartId, ChartSpec> = {
       axes: [axis('error, LSB'), countAxis()],
       series: [{}, { label: 'cos', stroke: SIGNAL, fill: SIGNAL + '88', paths: bars(-1) }, { label: 'sin', stroke: REFERENCE, fill: REFERENCE + '88', paths: bars(1) }],
     },
+  },
+  soakByPass: {
+    title: 'Soak timeline, per pass',
+    testId: 'chart-soak',
+    options: { scales: { x: { time: false } }, axes: [{ ...axis('pass'), incrs: PASS_STEPS }, countAxis()], series: soakSeries() },
+  },
+  soakByTime: {
+    title: 'Soak timeline, against time',
+    testId: 'chart-soak',
+    options: { scales: { x: { time: false } }, axes: [axis('minutes into the soak'), countAxis()], series: soakSeries() },
   },
   xy: {
     title: 'XY circle (sin against cos)',

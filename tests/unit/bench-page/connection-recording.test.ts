@@ -65,6 +65,21 @@ describe('the capture of a bench connection', () => {
     expect(samplesFromArchive(rec.toArchive()).codes.length).toBe(512 + 3);
   });
 
+  it('gives a soak the preamble and its traffic from a pass start taken earlier: the latest whole pass on', async () => {
+    const { board, rec, engine } = await recordedRun(512);
+    const second = rec.mark();
+    const pass2 = await engine.run({ kind: 'codes', codes: Float64Array.of(5, 6) }).done;
+    const third = rec.mark();
+    await engine.run({ kind: 'codes', codes: Float64Array.of(70, 80, 90) }).done;
+    // Pass 2 was whole when pass 3 started, and pass 3 was cut: the capture runs from pass 2 on.
+    rec.markRun(second);
+    await board.link.close();
+    expect(Array.from(samplesFromArchive(rec.runArchive()).codes)).toEqual([5, 6, 70, 80, 90]);
+    expect(samplesFromArchive(rec.runArchive()).cos.subarray(0, 2)).toEqual(pass2.cos);
+    rec.markRun(third);
+    expect(Array.from(samplesFromArchive(rec.runArchive()).codes)).toEqual([70, 80, 90]);
+  });
+
   it('records nothing after the link has closed', async () => {
     const { board, rec, now } = await recordedRun(256);
     await board.link.close();

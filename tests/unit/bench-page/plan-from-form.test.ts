@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { defaultPlanForm, PlanFieldError, planFieldOf, planFromForm, type PlanForm } from '../../../src/features/bench/components/plan-from-form';
+import { defaultPlanForm, PlanFieldError, planFieldOf, planFromForm, soakFromForm, type PlanForm } from '../../../src/features/bench/components/plan-from-form';
 import { bindPlan, PlanError, type AngleFormat } from '../../../shared/numeric';
 
 const turn16: AngleFormat = { angleFormat: 'turn', angleBits: 16, angleFrac: 0 };
@@ -51,5 +51,39 @@ describe('the plan form', () => {
     expect(planFieldOf(keyOf({ kind: 'list', codes: [1, 70000] }))).toBe('list');
     expect(planFieldOf('code')).toBe('angle');
     expect(planFieldOf('plan')).toBeNull();
+  });
+});
+
+describe('the Repeat (soak) field', () => {
+  /** The message soakFromForm refuses `text` with, on the soak field. */
+  function soakRefusal(text: string) {
+    try {
+      soakFromForm(text);
+    } catch (e) {
+      if (e instanceof PlanFieldError) return { field: e.field, message: e.message };
+      throw e;
+    }
+    throw new Error('accepted');
+  }
+
+  it('is one pass when blank, else passes or a duration in the runner’s grammar', () => {
+    expect(soakFromForm('')).toBeNull();
+    expect(soakFromForm('   ')).toBeNull();
+    expect(soakFromForm('3')).toEqual({ kind: 'passes', passes: 3 });
+    expect(soakFromForm(' 50 ')).toEqual({ kind: 'passes', passes: 50 });
+    expect(soakFromForm('90s')).toEqual({ kind: 'duration', ms: 90_000 });
+    expect(soakFromForm('30m')).toEqual({ kind: 'duration', ms: 1_800_000 });
+    expect(soakFromForm('2h')).toEqual({ kind: 'duration', ms: 7_200_000 });
+  });
+
+  it('refuses zero passes, malformed and out-of-range entries on its own field, in a sentence', () => {
+    expect(soakRefusal('0')).toEqual({ field: 'soak', message: 'A soak needs at least 1 pass, got 0' });
+    expect(soakRefusal('ten')).toEqual({ field: 'soak', message: 'A soak is a number of passes (50) or a duration (90s, 30m, 2h), got "ten"' });
+    expect(soakRefusal('-5').message).toMatch(/^A soak is a number of passes/);
+    expect(soakRefusal('30 min').message).toMatch(/^A soak is a number of passes/);
+    expect(soakRefusal('0.5s')).toEqual({ field: 'soak', message: 'A soak lasts at least 1 s, got "0.5s"' });
+    expect(soakRefusal('8d').message).toMatch(/^A soak is a number of passes/);
+    expect(soakRefusal('169h')).toEqual({ field: 'soak', message: 'A soak lasts at most 7 days, got "169h"' });
+    expect(soakRefusal('1000001')).toEqual({ field: 'soak', message: 'A soak is at most 1,000,000 passes, got 1000001' });
   });
 });

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { fromStoredRun, restoredProgress, StoredRunError, toStoredRun, UNSAVED_RUN_VERSION, type RunRecord } from '../../../src/features/bench/live/unsaved-run';
 import { parseModelConfig, planCodes, type Plan } from '../../../shared/numeric';
+import { SoakAccumulator } from '../../../shared/soak';
 
 function record(plan: Plan = { kind: 'tone', cycles: 3, samples: 16 }): RunRecord {
   const config = parseModelConfig({});
@@ -21,6 +22,7 @@ function record(plan: Plan = { kind: 'tone', cycles: 3, samples: 16 }): RunRecor
     archive: Uint8Array.of(0x41, 0x42, 0x52, 0x43),
     outcome: { status: 'complete', elapsedMs: 2000, missing: 1 },
     figures: null,
+    soak: null,
   };
 }
 
@@ -42,6 +44,23 @@ describe('an unsaved run kept in the browser', () => {
     expect(back.archive).toEqual(r.archive);
     expect(back.outcome).toEqual(r.outcome);
     expect(back.transportLabel).toBe(r.transportLabel);
+  });
+
+  it('keeps a soak’s books beside its last pass, and refuses books that no longer read', () => {
+    const r = record();
+    // Two passes of the 16 codes; code index 2 answered differently the second time.
+    const acc = new SoakAccumulator(r.codes);
+    const pass = (cos: Int32Array, atMs: number) => acc.addPass({ codes: r.codes, cos, sin: r.sin, answered: r.answered, mismatches: 0, maxAbsErrorLsb: 0, checkFailures: 0, retries: 0, atMs, elapsedMs: 100 });
+    pass(r.cos, 0);
+    pass(r.cos.map((c, i) => (i === 2 ? c + 1 : c)), 100);
+    const soak = acc.record({ kind: 'passes', passes: 2 });
+    const back = fromStoredRun(structuredClone(toStoredRun({ ...r, soak }, 0)));
+    expect(back.soak).toEqual(soak);
+    expect(back.soak?.unstable.codes.map((u) => [u.index, u.answers.length])).toEqual([[2, 2]]);
+    // Stored before soaks were kept: no books, still a run.
+    const { soak: _none, ...older } = toStoredRun(r, 0);
+    expect(fromStoredRun(older).soak).toBeNull();
+    expect(() => fromStoredRun({ ...toStoredRun(r, 0), soak: { ...soak, timeline: 'lost' } })).toThrow(/soak books no longer read/);
   });
 
   it('is refused, with the reason, when it was stored by another version', () => {

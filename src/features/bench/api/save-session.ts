@@ -37,6 +37,8 @@ export function saveSession(input: SaveSessionInput): Promise<SavedSession> {
     notes: input.notes,
     tags: input.tags,
     ...(input.conditions && Object.keys(input.conditions).length > 0 ? { conditions: input.conditions } : {}),
+    // A soak's books, as the runner uploads them; the samples are its last whole pass.
+    ...(record.soak ? { soak: record.soak } : {}),
     ...(input.link ? { link: input.link } : {}),
   };
   const form = new FormData();

@@ -7,6 +7,7 @@ import { ProgressBar } from './progress-bar';
 import { RestoreOffer } from './restore-offer';
 import { RunPanel } from './run-panel';
 import { SaveSessionPanel } from './save-session-panel';
+import { SoakLivePanel } from './soak-live-panel';
 import { StatsPanel } from './stats-panel';
 import { TrafficPane } from './traffic-pane';
 import { panel } from '../../../components/ui';
@@ -38,6 +39,7 @@ export function BenchPage() {
       </div>
       <div className="grid min-w-0 content-start gap-4 lg:col-start-2 lg:row-span-2 lg:row-start-1">
         <div className={panel}>{snap.run ? <ProgressBar run={snap.run} /> : <p className="text-sm text-ink-soft">{snap.status === 'connected' ? 'Connected. Choose a plan and run it.' : 'Connect to a board, then run a plan.'}</p>}</div>
+        {snap.run?.soak && <SoakLivePanel controller={controller} run={snap.run} />}
         <LiveCharts samplesRef={samplesRef} />
         <TrafficPane log={controller.traffic} />
       </div>

@@ -2,6 +2,7 @@
 // radians, turns or raw codes; lists are pasted with commas, spaces or new lines between.
 import { z } from 'zod';
 import { assertAngleCode, degreesToAngleCode, radiansToAngleCode, turnsToAngleCode, type AngleFormat, type Plan } from '../../../../shared/numeric';
+import { parseSoakSpec, SoakSpecError, type SoakSpec } from '../../../../shared/soak';
 
 export const PLAN_KINDS = [
   ['exhaustive', 'Every code'],
@@ -30,10 +31,12 @@ export const planFormSchema = z.object({
   seed: z.string(),
   cycles: z.string(),
   samples: z.string(),
+  /** Blank for one pass; else a soak in the runner's --soak grammar. */
+  soak: z.string(),
 });
 export type PlanForm = z.infer<typeof planFormSchema>;
 
-export const defaultPlanForm: PlanForm = { kind: 'exhaustive', unit: 'deg', angle: '30', list: '0, 45, 90', start: '0', step: '1', count: '4096', seed: '1', cycles: '127', samples: '4096' };
+export const defaultPlanForm: PlanForm = { kind: 'exhaustive', unit: 'deg', angle: '30', list: '0, 45, 90', start: '0', step: '1', count: '4096', seed: '1', cycles: '127', samples: '4096', soak: '' };
 
 export class PlanFieldError extends Error {
   constructor(
@@ -103,5 +106,17 @@ export function planFromForm(v: PlanForm, f: AngleFormat): Plan {
       return { kind: 'random', seed: int(v.seed, 'seed', 0, MAX_SEED), count: int(v.count, 'count', 1, MAX_COUNT) };
     case 'tone':
       return { kind: 'tone', cycles: int(v.cycles, 'cycles', 1, MAX_COUNT), samples: int(v.samples, 'samples', 8, 2 ** 24) };
+  }
+}
+
+/** The "Repeat" field: null (one pass) when blank, else a soak as the runner's --soak reads it. @throws PlanFieldError */
+export function soakFromForm(text: string): SoakSpec | null {
+  if (text.trim() === '') return null;
+  try {
+    return parseSoakSpec(text);
+  } catch (e) {
+    if (!(e instanceof SoakSpecError)) throw e;
+    // The shared message starts lower-case, for the runner's "--soak: …".
+    throw new PlanFieldError('soak', e.message.charAt(0).toUpperCase() + e.message.slice(1));
   }
 }

@@ -10,7 +10,9 @@ export function ProgressBar({ run }: { run: NonNullable<BenchSnapshot['run']> })
   const share = total ? done / total : 0;
   const r = run.result;
   // A finished run's rate is over the whole run (the rolling rate needs half a second to form).
-  const rate = r ? (r.elapsedMs > 0 ? (done * 1000) / r.elapsedMs : null) : p && p.ratePerS > 0 ? p.ratePerS : null;
+  // A soak's bar is its pass under way (or last pass); its time and rate are the whole soak's.
+  const soak = run.soak?.summary;
+  const rate = r ? (soak && soak.elapsedMs > 0 ? (soak.answered * 1000) / soak.elapsedMs : r.elapsedMs > 0 ? (done * 1000) / r.elapsedMs : null) : p && p.ratePerS > 0 ? p.ratePerS : null;
   const state = r ? (r.status === 'complete' ? 'Complete' : r.status === 'aborted' ? 'Aborted' : 'Failed') : run.state === 'paused' ? 'Paused' : 'Running';
   return (
     <div className="grid gap-1.5">

@@ -3,7 +3,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { bindPlan, parseModelConfig, PlanError } from '../../../../shared/numeric';
 import type { BenchController, BenchSnapshot } from '../live/bench-controller';
-import { ANGLE_UNITS, defaultPlanForm, PLAN_KINDS, planFieldOf, planFormSchema, PlanFieldError, planFromForm, type PlanForm } from './plan-from-form';
+import { ANGLE_UNITS, defaultPlanForm, PLAN_KINDS, planFieldOf, planFormSchema, PlanFieldError, planFromForm, soakFromForm, type PlanForm } from './plan-from-form';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 
 /** The core profile to score against, prefilled from INFO; the fields INFO does not carry keep the model's defaults. */
@@ -32,7 +32,7 @@ export function RunPanel({ controller, snap }: { controller: BenchController; sn
     try {
       const plan = planFromForm(v, config);
       bindPlan(plan, config);
-      controller.startRun(plan, config);
+      controller.startRun(plan, config, soakFromForm(v.soak));
     } catch (e) {
       if (e instanceof PlanFieldError) setProblem({ field: e.field, message: e.message });
       else if (e instanceof PlanError) {
@@ -131,6 +131,14 @@ export function RunPanel({ controller, snap }: { controller: BenchController; sn
               </label>
             </>
           )}
+          <label className={`${label} col-span-2`}>
+            Repeat (soak)
+            <input className={`${input} font-mono`} placeholder="blank: once" aria-describedby="soak-hint" {...register('soak')} />
+            <span id="soak-hint" className="text-xs text-ink-soft">
+              Passes (50) or a duration (90s, 30m, 2h). Codes whose answers differ between passes are listed as unstable.
+            </span>
+            {err('soak')}
+          </label>
           <details className="col-span-2 text-sm">
             <summary className="cursor-pointer text-ink-soft">Core profile to score against</summary>
             <textarea aria-label="Core profile (JSON)" rows={5} className={`${input} mt-1 font-mono text-xs`} value={profile} onChange={(e) => setProfileText(e.target.value)} />

@@ -163,7 +163,7 @@ export function SaveSessionPanel({ controller, snap }: { controller: BenchContro
       {!open && !saved && (
         <div className="grid gap-2">
           <p className="text-sm text-ink-soft">
-            {count.toLocaleString('en-US')} results {run.result?.status === 'complete' ? 'from a complete run' : 'from an ended run'}
+            {count.toLocaleString('en-US')} results {record.soak ? `from the last whole pass of a soak of ${record.soak.summary.passes.toLocaleString('en-US')} passes, with its timeline and ${record.soak.unstable.count.toLocaleString('en-US')} unstable codes` : run.result?.status === 'complete' ? 'from a complete run' : 'from an ended run'}
             {run.restoredFrom ? `, restored from this browser (kept ${new Date(run.restoredFrom).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' })})` : ''}. Save them so the server can judge them against the core’s limits; until then this browser keeps them.
           </p>
           <button type="button" className={btnPrimary} onClick={() => setOpen(true)}>

@@ -27,6 +27,7 @@ export function StatsPanel({ run }: { run: BenchSnapshot['run'] }) {
       <h2 id="stats-title" className={panelTitle}>
         Figures
       </h2>
+      {run?.soak && <p className="mb-2 text-xs text-ink-soft">{run.state === 'finished' ? 'The soak’s last whole pass (the samples a save keeps).' : 'The pass under way; the soak’s own figures are beside the timeline.'}</p>}
       {!s ? (
         <p className="text-sm text-ink-soft">Run a plan to see its figures.</p>
       ) : (

@@ -2,19 +2,25 @@
 // useSyncExternalStore (status, INFO, progress, summary); live samples and traffic bypass React.
 // The connection is recorded from open to close; a run keeps the HELLO → INFO preamble and its
 // own traffic. The latest run is kept in IndexedDB until it is saved or discarded, so a reload
-// does not lose it.
-import type { LinkEngine, RunHandle } from '../../../../shared/link-engine/link-engine';
+// does not lose it. A soak repeats the plan through the shared soak loop (shared/soak/soak-run.ts):
+// the charts and figures follow the pass under way, the soak's books reach the page at most once a
+// frame, and what is kept for saving is the last whole pass with the books.
+import type { LinkEngine, ResultBatch, RunHandle } from '../../../../shared/link-engine/link-engine';
+import type { RunRequest } from '../../../../shared/link-engine/run-request';
 import type { ByteLink, LinkCloseReason } from '../../../../shared/link-engine/byte-link';
 import type { RunProgress, LinkFigures } from '../../../../shared/link-engine/link-figures';
 import { confirmOffModel } from '../../../../shared/link-engine/confirm-off-model';
 import type { DeviceInfo } from '../../../../shared/link';
 import type { Plan, ScoreSummary } from '../../../../shared/numeric';
+import { runSoak, scorePass, type SoakSpec } from '../../../../shared/soak';
 import type { ConnectionRecording } from './connection-recording';
+import type { RecorderMark } from '../../../../shared/link/recorder';
 import { LiveSamples } from './live-samples';
-import { newRun, takeResults } from './new-run';
+import { clearAnswers, newRun, takeResults } from './new-run';
 import { recordedLink } from './recorded-link';
 import { slotGate } from './frame-slot';
 import { ScoreClient } from './score-client';
+import { SoakLive, type SoakView } from './soak-live';
 import type { ToneResult } from './score-protocol';
 import { TrafficLog } from './traffic-log';
 import { fromStoredRun, restoredProgress, toStoredRun, type RunOutcome, type RunRecord } from './unsaved-run';
@@ -39,6 +45,8 @@ export interface BenchSnapshot {
     plan: Plan;
     /** Set when the run was brought back from the browser's store. */
     restoredFrom: number | null;
+    /** A soak's pass under way and its books so far; null for a single run. */
+    soak: SoakView | null;
   } | null;
   /** An unsaved run found in the browser's store, offered for restoring; when it was stored. */
   restorable: { storedAt: number; plan: Plan; answered: number } | null;
@@ -71,6 +79,14 @@ export class BenchController {
   private handle: RunHandle | null = null;
   private scorer: ScoreClient | null = null;
   private lastProgressAt = 0;
+  /** The soak under way or last run (its timeline chart reads it every frame); null for a single run. */
+  soak: SoakLive | null = null;
+  /** Asked for by the operator: the next pass of a soak starts paused, and none starts after an abort. */
+  private pausedByOperator = false;
+  private soakStopped = false;
+  private soakFrame = 0;
+  private soakRunning = false;
+  private pendingRun: Partial<NonNullable<BenchSnapshot['run']>> | null = null;
   private deferred: Partial<NonNullable<BenchSnapshot['run']>> | null = null;
   private frame = 0;
   private readonly slotStart = slotGate();
@@ -87,11 +103,15 @@ export class BenchController {
     this.snap = { ...this.snap, ...patch };
     for (const l of this.listeners) l();
   }
+  /** While a soak runs, changes to the run reach the page together, at most once a frame. */
   private setRun(patch: Partial<NonNullable<BenchSnapshot['run']>>) {
     // What waits for the next frame slot goes first, so a later change is never overwritten by it.
     const waiting = this.deferred;
     this.deferred = null;
-    if (this.snap.run) this.set({ run: { ...this.snap.run, ...waiting, ...patch } });
+    if (!this.snap.run) return;
+    if (!this.soakRunning) return this.set({ run: { ...this.snap.run, ...waiting, ...patch } });
+    this.pendingRun = { ...this.pendingRun, ...waiting, ...patch };
+    this.soakFrame ||= requestAnimationFrame(this.flushRun);
   }
 
   /**
@@ -117,6 +137,12 @@ export class BenchController {
     due(performance.now());
     this.frame = requestAnimationFrame(wait);
   }
+  private flushRun = () => {
+    this.soakFrame = 0;
+    const patch = { ...this.pendingRun, ...(this.soak ? { soak: this.soak.view() } : {}) };
+    this.pendingRun = null;
+    if (this.snap.run) this.set({ run: { ...this.snap.run, ...patch } });
+  };
 
   /** Open a link (made by the caller), say HELLO and keep INFO. Everything on it is recorded. */
   async connect(open: () => Promise<ByteLink>, label: string, baud: number) {
@@ -147,35 +173,21 @@ export class BenchController {
     await this.link?.close();
   }
 
-  /** Start a plan, scored against `configInput` (prefilled from INFO). Throws for a bad plan or profile. */
-  startRun(plan: Plan, configInput: unknown) {
+  /** Start a plan, scored against `configInput` (prefilled from INFO); a soak repeats it. Throws for a bad plan or profile. */
+  startRun(plan: Plan, configInput: unknown, soak: SoakSpec | null = null) {
     if (!this.engine) throw new Error('Connect to a board first');
     const { request, record } = newRun(plan, configInput, { transportLabel: this.snap.transportLabel, baud: this.baud, info: this.snap.info });
-    const codes = record.codes;
     this.record = record;
+    this.pausedByOperator = false;
+    this.soakStopped = false;
+    this.soak = soak ? new SoakLive(soak) : null;
     const scorer = this.startScoring(record);
     this.deferred = null;
-    this.set({ restorable: null, run: { state: 'running', progress: null, result: null, summary: null, tone: null, figures: null, error: null, plan, restoredFrom: null } });
+    this.set({ restorable: null, run: { state: 'running', progress: null, result: null, summary: null, tone: null, figures: null, error: null, plan, restoredFrom: null, soak: this.soak?.view() ?? null } });
     const engine = this.engine;
-    const rxAtStart = engine.figures.bytesReceived;
     this.recording?.markRun();
-    const handle = engine.run(request, {
-      // On a damaged line, an answer off the model is asked for again before it is taken.
-      confirm: confirmOffModel(record.config),
-      onResults: (b) => {
-        takeResults(record, b);
-        scorer.queue(codes, b.indexes, b.cos, b.sin);
-      },
-      onProgress: (p) => {
-        const now = clock.now();
-        if (now - this.lastProgressAt < PROGRESS_EVERY_MS) return;
-        this.lastProgressAt = now;
-        // The engine fills in line use at the end; meanwhile it is worked out here the same way.
-        const rxBytes = engine.figures.bytesReceived - rxAtStart;
-        const lineShare = p.elapsedMs > 0 ? (rxBytes * 1000) / p.elapsedMs / (this.baud / 10) : 0;
-        this.setRunInSlot({ progress: p, figures: { ...engine.figures, naks: { ...engine.figures.naks }, lineShare, resultsPerS: p.ratePerS } });
-      },
-    });
+    if (soak) return this.runSoak(engine, request, record, soak);
+    const handle = engine.run(request, this.passHandlers(engine, record));
     this.handle = handle;
     handle.done.then(
       (res) => {
@@ -191,15 +203,120 @@ export class BenchController {
     );
   }
 
+  /** What every run or pass does with its answers and progress: into the record, the scorer and the page. */
+  private passHandlers(engine: LinkEngine, record: RunRecord) {
+    const codes = record.codes;
+    let rxAtStart = engine.figures.bytesReceived;
+    return {
+      // On a damaged line, an answer off the model is asked for again before it is taken.
+      confirm: confirmOffModel(record.config),
+      onResults: (b: ResultBatch) => {
+        takeResults(record, b);
+        this.scorer?.queue(codes, b.indexes, b.cos, b.sin);
+      },
+      onProgress: (p: RunProgress) => {
+        const now = clock.now();
+        if (now - this.lastProgressAt < PROGRESS_EVERY_MS) return;
+        this.lastProgressAt = now;
+        // The engine fills in line use at the end; meanwhile it is worked out here the same way.
+        const rxBytes = engine.figures.bytesReceived - rxAtStart;
+        const lineShare = p.elapsedMs > 0 ? (rxBytes * 1000) / p.elapsedMs / (this.baud / 10) : 0;
+        this.setRunInSlot({ progress: p, figures: { ...engine.figures, naks: { ...engine.figures.naks }, lineShare, resultsPerS: p.ratePerS } });
+      },
+      /** A soak's next pass: line use is measured over it alone. */
+      restart: () => void (rxAtStart = engine.figures.bytesReceived),
+    };
+  }
+
+  /**
+   * The plan pass after pass. Each pass starts with an empty record and fresh scoring, so the
+   * charts and figures are the pass under way; at the end the record is the last whole pass (the
+   * session's samples, as the runner saves them) and carries the books.
+   */
+  private runSoak(engine: LinkEngine, request: RunRequest, record: RunRecord, spec: SoakSpec) {
+    const soak = this.soak!;
+    const { restart, ...handlers } = this.passHandlers(engine, record);
+    let passStart: RecorderMark | null = null;
+    this.soakRunning = true;
+    runSoak({
+      engine,
+      request,
+      spec,
+      clock,
+      handlers,
+      keepGoing: () => !this.soakStopped,
+      onPassStart: (pass, handle) => {
+        this.handle = handle;
+        passStart = this.recording?.mark() ?? null;
+        // A pause asked for as the last pass ended holds the next one from its start.
+        if (this.pausedByOperator) void handle.pause();
+        soak.passStarted(pass);
+        if (pass > 1) {
+          clearAnswers(record);
+          this.startScoring(record);
+          restart();
+          this.setRun({ summary: null, tone: null, progress: null });
+        }
+        this.setRun({});
+      },
+      score: (result) => scorePass(record.config, result),
+      onPass: (_point, acc) => {
+        // The capture keeps the preamble and the latest whole pass on (what the samples are).
+        if (passStart) this.recording?.markRun(passStart);
+        soak.passBooked(acc);
+        this.setRun({});
+      },
+    }).then(
+      (out) => {
+        const last = out.last?.result;
+        // Cut short after whole passes: the session is the last whole one, scored again for the page.
+        const cutAfterWhole = last !== undefined && out.cut !== null;
+        if (last) {
+          record.cos.set(last.cos);
+          record.sin.set(last.sin);
+          record.answered.set(last.answered);
+        }
+        const ended = last ?? out.cut!;
+        const soakMs = out.acc.passes > 0 ? out.acc.summary().elapsedMs : ended.elapsedMs;
+        record.outcome = { status: out.status, message: out.message, elapsedMs: soakMs, missing: ended.missing.length };
+        record.figures = ended.figures;
+        record.soak = out.acc.passes > 0 ? out.acc.record(spec) : null;
+        const scorer = cutAfterWhole ? this.rescore(record) : this.scorer!;
+        this.endRun(record, scorer);
+        const progress = cutAfterWhole ? restoredProgress(record) : this.handle!.progress();
+        this.endSoak();
+        this.setRun({ state: 'finished', progress, figures: ended.figures, result: record.outcome });
+      },
+      (err: Error) => {
+        this.endRun(record, this.scorer!);
+        this.endSoak();
+        this.setRun({ state: 'finished', error: err.message });
+      },
+    );
+  }
+
+  /** The soak is over: what was waiting for the next frame goes now, and changes go straight through again. */
+  private endSoak() {
+    this.soakRunning = false;
+    if (this.soakFrame) cancelAnimationFrame(this.soakFrame);
+    this.flushRun();
+  }
+
   async pause() {
-    await this.handle?.pause();
+    this.pausedByOperator = true;
+    const h = this.handle;
+    await h?.pause();
+    // A soak's pass that ended meanwhile: the next one was already held at its start.
     this.setRun({ state: 'paused' });
   }
   async resume() {
+    this.pausedByOperator = false;
     await this.handle?.resume();
     this.setRun({ state: 'running' });
   }
   async abort() {
+    this.soakStopped = true;
+    this.pausedByOperator = false;
     await this.handle?.abort();
   }
 
@@ -223,17 +340,14 @@ export class BenchController {
       const record = fromStoredRun(raw);
       const storedAt = (raw as { storedAt: number }).storedAt;
       this.record = record;
-      const scorer = this.startScoring(record);
+      this.soak = null;
       this.deferred = null;
       this.set({
         restorable: null,
         storeMessage: null,
-        run: { state: 'finished', progress: restoredProgress(record), result: record.outcome, summary: null, tone: null, figures: record.figures, error: null, plan: record.plan, restoredFrom: storedAt },
+        run: { state: 'finished', progress: restoredProgress(record), result: record.outcome, summary: null, tone: null, figures: record.figures, error: null, plan: record.plan, restoredFrom: storedAt, soak: null },
       });
-      const indexes: number[] = [];
-      for (let i = 0; i < record.codes.length; i++) if (record.answered[i]) indexes.push(i);
-      scorer.queue(record.codes, indexes, indexes.map((i) => record.cos[i]), indexes.map((i) => record.sin[i]));
-      scorer.finish();
+      this.rescore(record).finish();
     } catch (err) {
       this.set({ restorable: null, storeMessage: `The unsaved run could not be restored: ${(err as Error).message}` });
     }
@@ -250,6 +364,8 @@ export class BenchController {
   }
 
   dispose() {
+    this.soakStopped = true;
+    if (this.soakFrame) cancelAnimationFrame(this.soakFrame);
     if (this.frame) cancelAnimationFrame(this.frame);
     void this.disconnect();
     this.scorer?.terminate();
@@ -265,6 +381,15 @@ export class BenchController {
       error: (message) => scorer === this.scorer && this.setRun({ error: message }),
     });
     this.scorer = scorer;
+    return scorer;
+  }
+
+  /** Fresh scoring of every answer the record holds (queued, not yet finished). */
+  private rescore(record: RunRecord): ScoreClient {
+    const scorer = this.startScoring(record);
+    const indexes: number[] = [];
+    for (let i = 0; i < record.codes.length; i++) if (record.answered[i]) indexes.push(i);
+    scorer.queue(record.codes, indexes, indexes.map((i) => record.cos[i]), indexes.map((i) => record.sin[i]));
     return scorer;
   }
 

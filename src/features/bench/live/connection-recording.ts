@@ -53,9 +53,18 @@ export class ConnectionRecording {
     this.preambleEnd = this.recorder.mark();
   }
 
-  /** A run starts here, before its first request: its archive leaves out what came before. */
-  markRun() {
-    this.runStart = this.recorder.mark();
+  /** Where the recording stands now (a soak's pass start, before its first request). */
+  mark(): RecorderMark {
+    return this.recorder.mark();
+  }
+
+  /**
+   * A run starts here, before its first request: its archive leaves out what came before. A soak
+   * moves it to its latest whole pass, so the saved capture stays about one pass long however
+   * long the soak ran (and within the server's upload limit).
+   */
+  markRun(at: RecorderMark = this.recorder.mark()) {
+    this.runStart = at;
   }
 
   /** The preamble and the latest run's traffic so far (the whole capture before any run). */

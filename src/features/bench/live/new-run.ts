@@ -39,6 +39,7 @@ export function newRun(plan: Plan, configInput: unknown, at: RunContext): { requ
     archive: null,
     outcome: null,
     figures: null,
+    soak: null,
   };
   return { request, record };
 }
@@ -51,4 +52,11 @@ export function takeResults(record: RunRecord, b: ResultBatch) {
     record.sin[i] = b.sin[k];
     record.answered[i] = 1;
   }
+}
+
+/** Empty the answers for a soak's next pass (the arrays are reused: a soak's memory stays put). */
+export function clearAnswers(record: RunRecord) {
+  record.cos.fill(0);
+  record.sin.fill(0);
+  record.answered.fill(0);
 }

@@ -46,7 +46,12 @@ function toneResult(): ToneResult | null {
   return toneDone;
 }
 
+/** A summary owed after the last batch, so figures catch up when answers stop (a pause, a burst). */
+let summaryTimer: ReturnType<typeof setTimeout> | null = null;
+
 function sendSummary(final: boolean) {
+  if (summaryTimer) clearTimeout(summaryTimer);
+  summaryTimer = null;
   if (!acc) return;
   sendScored();
   lastSummaryAt = performance.now();
@@ -87,7 +92,9 @@ scope.onmessage = (e: MessageEvent<ScoreWorkerRequest>) => {
       }
     }
     scoredTimer ??= setTimeout(sendScored, SCORED_EVERY_MS);
-    if (performance.now() - lastSummaryAt >= SUMMARY_EVERY_MS) sendSummary(false);
+    const since = performance.now() - lastSummaryAt;
+    if (since >= SUMMARY_EVERY_MS) sendSummary(false);
+    else summaryTimer ??= setTimeout(() => sendSummary(false), SUMMARY_EVERY_MS - since);
   } catch (err) {
     post({ type: 'error', message: (err as Error).message });
   }

@@ -3,6 +3,7 @@
 import type { LinkFigures, RunProgress } from '../../../../shared/link-engine/link-figures';
 import type { DeviceInfo } from '../../../../shared/link';
 import { parseModelConfig, planCodes, planSchema, type ModelConfig, type Plan } from '../../../../shared/numeric';
+import { parseSoakRecord, type SoakRecord } from '../../../../shared/soak';
 
 export const UNSAVED_RUN_VERSION = 1;
 
@@ -31,6 +32,8 @@ export interface RunRecord {
   archive: Uint8Array | null;
   outcome: RunOutcome | null;
   figures: LinkFigures | null;
+  /** A soak's books (the answers above are then its last whole pass); null for a single run. */
+  soak: SoakRecord | null;
 }
 
 /** A RunRecord as IndexedDB keeps it: without the codes, dates as ISO text. */
@@ -76,6 +79,13 @@ export function fromStoredRun(raw: unknown): RunRecord {
   if (!(s.cos instanceof Int32Array) || !(s.sin instanceof Int32Array) || !(s.answered instanceof Uint8Array)) throw new StoredRunError('its results are not typed arrays');
   if (s.cos.length !== n || s.sin.length !== n || s.answered.length !== n) throw new StoredRunError(`its results hold ${s.cos.length} entries for a plan of ${n}`);
   if (s.archive != null && !(s.archive instanceof Uint8Array)) throw new StoredRunError('its capture is not bytes');
+  let soak: SoakRecord | null = null;
+  try {
+    // Absent in runs stored before soaks were kept.
+    soak = s.soak == null ? null : parseSoakRecord(s.soak);
+  } catch {
+    throw new StoredRunError('its soak books no longer read');
+  }
   return {
     codes,
     cos: s.cos,
@@ -91,6 +101,7 @@ export function fromStoredRun(raw: unknown): RunRecord {
     archive: s.archive ?? null,
     outcome: s.outcome ?? null,
     figures: s.figures ?? null,
+    soak,
   };
 }
 

@@ -14,6 +14,7 @@ import { recordedAt, replayTimeline, SILENCE_MS } from './replay-timeline';
 import { captureLabelText } from './capture-label';
 import { DIRECTION_WORDS, recheckMatches, recheckText } from './capture-recheck';
 import { framesBefore, STATUS_EVERY_MS, statusText } from './replay-status';
+import { terminalTheme } from '../../../components/terminal-theme';
 
 const PAGE_RECORDS = 300;
 const seconds = (ms: number) => `${(ms / 1000).toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 })} s`;
@@ -78,7 +79,7 @@ function CaptureTerminal({ capture }: { capture: SessionCapture }) {
   };
 
   useEffect(() => {
-    const t = new Terminal({ scrollback: 20_000, fontFamily: '"JetBrains Mono", monospace', fontSize: 12, disableStdin: true, convertEol: true, theme: { background: '#1f2a2e', foreground: '#f6f3ec', cursor: '#1f2a2e' } });
+    const t = new Terminal({ scrollback: 20_000, fontFamily: '"JetBrains Mono", monospace', fontSize: 12, disableStdin: true, convertEol: true, theme: terminalTheme });
     const fit = new FitAddon();
     t.loadAddon(fit);
     t.open(box.current!);
