@@ -221,6 +221,27 @@ describe('sessions of a vectoring core', () => {
     expect(self.body.pairs[0]).toMatchObject({ common: 4096, differing: 0, maxAbsDiffLsb: 0, vector: { firstDiffering: [] } });
   });
 
+  it('give the compare view an envelope of the angle error by direction that matches errors computed here with Math.atan2', async () => {
+    const a = answers(true);
+    const lo = new Array<number>(720).fill(Infinity);
+    const hi = new Array<number>(720).fill(-Infinity);
+    for (let i = 0; i < a.xs.length; i++) {
+      if (a.xs[i] === 0 && a.ys[i] === 0) continue; // no direction, no angle error
+      const turns = (Math.atan2(a.ys[i], a.xs[i]) / (2 * Math.PI) + 1) % 1;
+      let e = a.angles[i] - turns * TURN;
+      e -= TURN * Math.round(e / TURN);
+      const bin = Math.min(719, Math.floor(turns * 720));
+      lo[bin] = Math.min(lo[bin], e);
+      hi[bin] = Math.max(hi[bin], e);
+    }
+    const res = await reviewer.get(`/api/compare?ids=${ids.defective},${ids.clean}`).expect(200);
+    const env = res.body.sessions[0].errorEnvelope as { degrees: number[]; lo: (number | null)[]; hi: (number | null)[] };
+    expect(env.degrees.slice(0, 2)).toEqual([0.25, 0.75]);
+    const close = (got: number | null, want: number) => (Number.isFinite(want) ? got !== null && Math.abs(got - want) < 1e-3 : got === null);
+    expect(env.lo.filter((v, b) => !close(v, lo[b]))).toEqual([]);
+    expect(env.hi.filter((v, b) => !close(v, hi[b]))).toEqual([]);
+  });
+
   it('are not compared with sessions of a rotation core: a clear 400', async () => {
     const codes = Int32Array.from({ length: 64 }, (_, i) => i * 1024);
     const cos = new Int32Array(64);
