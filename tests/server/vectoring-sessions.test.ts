@@ -142,6 +142,18 @@ describe('sessions of a vectoring core', () => {
     await engineer.delete(`/api/sessions/${again.body.id}`).expect(204);
   });
 
+  it('land as the runner would send them: a bearer token, build and board by label, its own score ignored, its link errors judged', async () => {
+    const build = await engineer.post('/api/builds').send({ coreId, label: 'pd10-r1', sourceRevision: 'abc', toolVersion: 't', clockMHz: 100 }).expect(201);
+    const token = (await engineer.post('/api/tokens').send({ name: 'bench runner' }).expect(201)).body.token as string;
+    const runner = (await t.visitor()).set('authorization', `Bearer ${token}`);
+    const a = answers();
+    const res = await upload(runner, packVectorSamples(a), { coreId: undefined, coreSlug: 'phase-det', build: 'pd10-r1', board: 'no such board', link: { checkFailures: 2, retries: 1 }, verdict: { passed: true }, sampleCount: 1 }).expect(201);
+    expect(res.body).toMatchObject({ passed: false, verdict: { maxLinkErrors: { limit: 0, measured: 2, pass: false }, maxModelMismatches: { measured: 0, pass: true } } });
+    const stored = await BenchSession.findByPk(res.body.id);
+    expect(stored).toMatchObject({ buildId: build.body.build.id, boardId: null, sampleCount: 4096, transport: { kind: 'serial', linkFigures: { checkFailures: 2, retries: 1 } } });
+    await engineer.delete(`/api/sessions/${res.body.id}`).expect(204);
+  });
+
   it('refuse samples that are not whole 16-byte records, or answers the formats cannot hold, storing nothing', async () => {
     const before = await BenchSession.count();
     const a = answers();
