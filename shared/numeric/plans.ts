@@ -31,7 +31,7 @@ export type Plan = z.infer<typeof planSchema>;
  * A 32-bit integer hash of (seed, index), so random plans are reproducible and random-access.
  * Multiply–xorshift finaliser with constants published for low bias (common practice, no source).
  */
-function hash32(seed: number, index: number): number {
+export function hash32(seed: number, index: number): number {
   let x = (seed ^ Math.imul(index >>> 0, 0x9e3779b9) ^ Math.imul(Math.floor(index / 2 ** 32), 0x85ebca6b)) >>> 0;
   x ^= x >>> 16;
   x = Math.imul(x, 0x7feb352d);
