@@ -5,10 +5,13 @@
 //   errorCos   [angle°, cos error LSB]       errorSin [angle°, sin error LSB]
 //   histogram  [bin centre LSB, cos count, sin count]
 //   xy         [cos ascending, sin]
+// and for vectoring cores (vector-plot-data.ts):
+//   angleError [direction°, angle error LSB]   magnitudeError [input magnitude, magnitude error LSB]
+//   vectorHistogram [bin centre LSB, angle count, magnitude count]
 import uPlot from 'uplot';
 import { axis, dots, FAIL, INK, line, REFERENCE, SIGNAL } from './uplot-theme';
 
-export type ChartId = 'values' | 'error' | 'errorCos' | 'errorSin' | 'histogram' | 'xy';
+export type ChartId = 'values' | 'error' | 'errorCos' | 'errorSin' | 'histogram' | 'xy' | 'angleError' | 'magnitudeError' | 'vectorHistogram';
 
 export interface ChartSpec {
   title: string;
@@ -50,6 +53,25 @@ export const CHART_SPECS: Record<ChartId, ChartSpec> = {
       scales: { x: { time: false } },
       axes: [axis('error, LSB'), countAxis()],
       series: [{}, { label: 'cos', stroke: SIGNAL, fill: SIGNAL + '88', paths: bars(-1) }, { label: 'sin', stroke: REFERENCE, fill: REFERENCE + '88', paths: bars(1) }],
+    },
+  },
+  angleError: {
+    title: 'Angle error against direction, LSB',
+    testId: 'chart-angle-error',
+    options: { scales: { x: { time: false, range: [-180, 180] } }, axes: [axis('direction of (x, y), °'), axis('angle LSB')], series: [{}, dots(SIGNAL, 'angle error')] },
+  },
+  magnitudeError: {
+    title: 'Magnitude error against magnitude, LSB',
+    testId: 'chart-magnitude-error',
+    options: { scales: { x: { time: false } }, axes: [axis('input magnitude |(x, y)|'), axis('magnitude LSB')], series: [{}, dots(REFERENCE, 'magnitude error')] },
+  },
+  vectorHistogram: {
+    title: 'Error histogram, angle and magnitude',
+    testId: 'chart-vector-histogram',
+    options: {
+      scales: { x: { time: false } },
+      axes: [axis('error, LSB'), countAxis()],
+      series: [{}, { label: 'angle', stroke: SIGNAL, fill: SIGNAL + '88', paths: bars(-1) }, { label: 'magnitude', stroke: REFERENCE, fill: REFERENCE + '88', paths: bars(1) }],
     },
   },
   xy: {
