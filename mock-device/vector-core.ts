@@ -218,8 +218,8 @@ export function faultyIteration(c: VectorConfig, f: Exclude<VectorFault, { kind:
     const m = roundDrop(gainConst > 0 ? x * gainConst : x, magDrop);
     const a = roundDrop(z, c.zGuardBits);
     return {
-      magnitude: Math.min(mag.max, Math.max(mag.min, m)),
       angle: c.angleFormat === 'turn' ? a - Math.floor(a / span) * span : Math.min(ang.max, Math.max(ang.min, a)),
+      magnitude: Math.min(mag.max, Math.max(mag.min, m)),
     };
   };
 }
