@@ -2,15 +2,52 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { bindPlan, parseModelConfig, PlanError } from '../../../../shared/numeric';
-import type { BenchController, BenchSnapshot } from '../live/bench-controller';
+import type { BenchController, BenchSnapshot, RunMode } from '../live/bench-controller';
 import { ANGLE_UNITS, defaultPlanForm, PLAN_KINDS, planFieldOf, planFormSchema, PlanFieldError, planFromForm, type PlanForm } from './plan-from-form';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
+import { RunButtons } from './run-buttons';
+import { VectorRunForm } from './vector-run-form';
 
 /** The core profile to score against, prefilled from INFO; the fields INFO does not carry keep the model's defaults. */
 const profileFromInfo = (info: NonNullable<BenchSnapshot['info']>) =>
   JSON.stringify({ angleFormat: info.angleFormat, angleBits: info.angleBits, ...(info.angleFormat === 'rad' ? { angleFrac: info.angleFrac } : {}), outBits: info.outBits, outFrac: info.outFrac, iterations: info.iterations }, null, 1);
 
+/**
+ * The plan: a rotation plan, or, when the board has a vectoring core (MODE_INFO), a vectoring
+ * one; a board serving both lets the operator choose.
+ */
 export function RunPanel({ controller, snap }: { controller: BenchController; snap: BenchSnapshot }) {
+  const vectoring = snap.modes?.vectoring ?? null;
+  const both = !!vectoring && snap.modes?.rotation === true;
+  const [chosen, setChosen] = useState<RunMode | null>(null);
+  const mode: RunMode = vectoring ? (both ? (chosen ?? 'vectoring') : 'vectoring') : 'rotation';
+  const busy = snap.run?.state === 'running' || snap.run?.state === 'paused';
+  return (
+    <section aria-labelledby="run-title" className={panel}>
+      <h2 id="run-title" className={panelTitle}>
+        Plan
+      </h2>
+      {both && (
+        <fieldset className="mb-3 flex gap-4 text-sm" disabled={busy}>
+          <legend className="mb-1 text-ink-soft">The board serves two cores; run the</legend>
+          {(['rotation', 'vectoring'] as const).map((m) => (
+            <label key={m} className="flex items-center gap-1">
+              <input type="radio" name="run-mode" value={m} checked={mode === m} onChange={() => setChosen(m)} />
+              {m === 'rotation' ? 'rotating core (cos, sin)' : 'vectoring core (atan2, magnitude)'}
+            </label>
+          ))}
+        </fieldset>
+      )}
+      {mode === 'vectoring' && vectoring ? (
+        <VectorRunForm key={JSON.stringify(vectoring)} controller={controller} snap={snap} formats={vectoring} />
+      ) : (
+        <RotationRunForm controller={controller} snap={snap} />
+      )}
+    </section>
+  );
+}
+
+function RotationRunForm({ controller, snap }: { controller: BenchController; snap: BenchSnapshot }) {
   const info = snap.info;
   const [profileText, setProfileText] = useState<string | null>(null);
   const profile = profileText ?? (info ? profileFromInfo(info) : '');
@@ -47,10 +84,6 @@ export function RunPanel({ controller, snap }: { controller: BenchController; sn
   const usesUnit = kind === 'one' || kind === 'list' || kind === 'sweep';
 
   return (
-    <section aria-labelledby="run-title" className={panel}>
-      <h2 id="run-title" className={panelTitle}>
-        Plan
-      </h2>
       <form noValidate onSubmit={handleSubmit(start)} className="grid gap-3">
         <fieldset disabled={!connected || active} className="grid grid-cols-2 gap-2">
           <label className={`${label} col-span-2`}>
@@ -142,21 +175,7 @@ export function RunPanel({ controller, snap }: { controller: BenchController; sn
             {problem.message}
           </p>
         )}
-        <div className="flex flex-wrap gap-2">
-          <button type="submit" className={btnPrimary} disabled={!connected || active}>
-            Run
-          </button>
-          <button type="button" className={btn} disabled={run?.state !== 'running'} onClick={() => void controller.pause()}>
-            Pause
-          </button>
-          <button type="button" className={btn} disabled={run?.state !== 'paused'} onClick={() => void controller.resume()}>
-            Resume
-          </button>
-          <button type="button" className={btn} disabled={!active} onClick={() => void controller.abort()}>
-            Abort
-          </button>
-        </div>
+        <RunButtons controller={controller} snap={snap} />
       </form>
-    </section>
   );
 }
