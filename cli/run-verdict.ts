@@ -35,6 +35,15 @@ export interface RunExtras {
   unstableCodes?: number;
 }
 
+const NOT_ROTATION = { max: true, value: () => null, note: 'a limit of vectoring cores' } as const;
+const vectoringOnly = {
+  maxAngleErrorLsb: NOT_ROTATION,
+  maxAngleRmsLsb: NOT_ROTATION,
+  maxMagnitudeErrorLsb: NOT_ROTATION,
+  maxMagnitudeErrorPpm: NOT_ROTATION,
+  minPlaneCoveragePct: { ...NOT_ROTATION, max: false },
+};
+
 const MEASURES: Record<LimitKey, { max: boolean; value: (s: RunScore, x: RunExtras) => number | null; note?: string }> = {
   maxAbsErrorLsb: { max: true, value: (s) => s.summary.overall.maxAbsLsb },
   maxRmsErrorLsb: { max: true, value: (s) => s.summary.overall.rmsLsb },
@@ -44,6 +53,8 @@ const MEASURES: Record<LimitKey, { max: boolean; value: (s: RunScore, x: RunExtr
   maxLinkErrors: { max: true, value: (s) => s.linkErrors },
   minCoveragePct: { max: false, value: (s) => s.summary.coverage.share * 100 },
   maxUnstableCodes: { max: true, value: (_s, x) => x.unstableCodes ?? null, note: 'needs a soak (--soak)' },
+  // A rotation run measures none of the vectoring cores' limits.
+  ...vectoringOnly,
 };
 
 /**

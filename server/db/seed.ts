@@ -1,5 +1,6 @@
 // Demo data for a fresh install: an invented signal-processing lab bringing up two rotator cores
-// on three bench boards, with a month of bench sessions (server/db/seed-sessions.ts).
+// and a vectoring phase detector on three bench boards, with a month of bench sessions
+// (server/db/seed-sessions.ts, seed-vectoring.ts).
 import type { Sequelize } from 'sequelize';
 import { DEFAULT_BCRYPT_COST, hashPassword } from '../auth/passwords';
 import { limitsSchema, linkProfileSchema, modelConfigSchema } from '../schemas/core';
@@ -7,6 +8,7 @@ import { recordAudit } from '../services/audit';
 import { Board, Build, Core, CoreWatcher, initModels, Review, User, type Role } from './models';
 import { seedDemoSessions, seedGoldenVectors } from './seed-sessions';
 import { seedThermalSweep } from './seed-thermal';
+import { seedVectoringCore } from './seed-vectoring';
 
 // Builds are dated before the sessions that ran on them (server/db/seed-sessions.ts).
 const daysAgo = (days: number) => new Date(Date.now() - days * 86_400_000);
@@ -77,9 +79,11 @@ export async function seedIfEmpty(db: Sequelize, password: string, bcryptCost = 
     sessions.push(...(await seedThermalSweep(transaction, engineer.id, { core: reference, build: builds[1], board: boards[2] })));
     await Review.create({ buildId: builds[1].id, reviewerId: reviewer.id, decision: 'approve', note: 'Sweep and edge set within limits on both benches.' }, opts);
     await seedGoldenVectors(reference, transaction);
+    const vectoring = await seedVectoringCore(transaction, engineer.id, { boards });
+    sessions.push(...vectoring.sessions);
     // The reviewer hears of reference-16's regressions.
     await CoreWatcher.create({ coreId: reference.id, userId: reviewer.id }, opts);
-    await recordAudit(transaction, admin.id, 'seed', 'demo', null, { cores: 2, boards: 3, builds: builds.length, sessions: sessions.length });
+    await recordAudit(transaction, admin.id, 'seed', 'demo', null, { cores: 3, boards: 3, builds: builds.length + vectoring.builds.length, sessions: sessions.length });
   });
   return true;
 }

@@ -1,12 +1,12 @@
 import { Router, type Request } from 'express';
 import { currentUser, requireRole } from '../auth';
 import { Core, CoreWatcher, User } from '../db/models';
-import { notFound } from '../http-error';
+import { HttpError, notFound } from '../http-error';
 import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
 import type { RouteDeps } from './deps';
 import { idParams, paramsOf } from './params';
-import { coreCreateBody, coreDetailReply, coreListReply, corePatchBody, coreReply } from '../../shared/contract/cores';
+import { coreCreateBody, coreDetailReply, coreListReply, corePatchBody, coreReply, modeIssues, type CorePatchBody } from '../../shared/contract/cores';
 import { reply } from './reply';
 
 
@@ -48,8 +48,13 @@ export function coresRouter({ db }: RouteDeps) {
     .patch(requireRole('engineer'), validate({ params: idParams, body: corePatchBody }), async (req, res) => {
       const me = currentUser(req);
       const core = await findCore(req);
+      const body = req.body as CorePatchBody;
+      // Its sessions were recorded and scored in its mode: a core keeps the mode it was created with.
+      if (body.mode !== undefined && body.mode !== core.mode) throw new HttpError(400, 'invalid', `body.mode: a core's mode is fixed when it is created (this core is a ${core.mode} core)`);
+      const issues = modeIssues(core.mode, body);
+      if (issues.length) throw new HttpError(400, 'invalid', `body.${issues[0].path.join('.')}: ${issues[0].message}`, issues.map((i) => ({ path: `body.${i.path.join('.')}`, message: i.message })));
       await db.transaction(async (transaction) => {
-        await core.update(req.body, { transaction });
+        await core.update(body, { transaction });
         await recordAudit(transaction, me.id, 'update', 'core', core.id, req.body);
       });
       reply(res, coreReply, { core });

@@ -21,6 +21,9 @@ import { deleteSession, editSession } from '../services/session-edits';
 import { acceptImport, acceptUpload } from '../services/session-intake';
 import { findSession, listSessions, sessionDetail } from '../services/session-listing';
 import { decodeSamples } from '../services/session-scoring';
+import { modeOf, rotationConfigOf } from '../services/core-mode';
+import { decodeVectorSamples } from '../services/vector-scoring';
+import { vectorCsvChunks } from '../../shared/link-engine/vector-sample-csv';
 import { readSessionPart, uploadedFile } from '../uploads/session-multipart';
 import type { RouteDeps } from './deps';
 import { handler } from './handler';
@@ -35,6 +38,11 @@ async function streamChunks(res: Response, chunks: Iterable<string>): Promise<vo
     if (res.destroyed) return;
   }
   res.end();
+}
+
+function rotationCsv(core: Core, samples: Buffer) {
+  const config = rotationConfigOf(core);
+  return sessionCsvChunks(config, decodeSamples(samples, config.angleFormat));
 }
 
 export function sessionHandlers({ db, mailer }: RouteDeps) {
@@ -89,9 +97,10 @@ export function sessionHandlers({ db, mailer }: RouteDeps) {
       const session = await findSession(params.id);
       const core = await Core.findByPk(session.coreId);
       if (!core) throw notFound('Core');
-      const samples = decodeSamples(session.samples, core.modelConfig.angleFormat ?? 'turn');
+      // A vectoring session's CSV is its answers as they came, in the import format (x_code,y_code,angle_code,magnitude_code).
+      const chunks = modeOf(core) === 'vectoring' ? vectorCsvChunks(decodeVectorSamples(session.samples)) : rotationCsv(core, session.samples);
       res.type('text/csv; charset=utf-8').set('content-disposition', `attachment; filename="session-${session.id}.csv"`);
-      await streamChunks(res, sessionCsvChunks(core.modelConfig, samples));
+      await streamChunks(res, chunks);
     }),
   };
 }

@@ -7,14 +7,17 @@ import { parseModelConfig, type ModelConfig } from '../../shared/numeric';
 import type { BenchSession, Core, SessionExplanation } from '../db/models';
 import { HttpError } from '../http-error';
 import { decodeSamples } from './session-scoring';
+import { modeOf, rotationConfigOf } from './core-mode';
 
 /**
  * The explanation of `session`'s answers under `core`'s model configuration.
  * @throws HttpError 400 `no_samples` for a session that holds no answers, `bad_samples` for
  * answers the core's configuration cannot take.
  */
-export function explainStoredSession(session: Pick<BenchSession, 'id' | 'samples'>, core: Pick<Core, 'modelConfig'>): Explanation {
-  const declared = parseModelConfig(core.modelConfig);
+export function explainStoredSession(session: Pick<BenchSession, 'id' | 'samples'>, core: Pick<Core, 'mode' | 'slug' | 'modelConfig' | 'vectorConfig'>): Explanation {
+  // The defect search runs the rotation model's faults; vectoring cores have no catalogue yet.
+  if (modeOf(core) === 'vectoring') throw new HttpError(422, 'not_available', `Explanations are not available for vectoring cores yet (core ${core.slug})`);
+  const declared = rotationConfigOf(core, 'explaining a session');
   const samples = decodeSamples(session.samples, declared.angleFormat);
   if (samples.codes.length === 0) throw new HttpError(400, 'no_samples', `Session ${session.id} holds no answers to explain`);
   try {
@@ -40,7 +43,7 @@ export function applicableConfig(e: Explanation): ModelConfig | null {
 
 /** Whether the core's model configuration is still the one the explanation was computed under. */
 export function coreStillDeclared(core: Pick<Core, 'modelConfig'>, e: Explanation): boolean {
-  return sameConfig(parseModelConfig(core.modelConfig), e.declared);
+  return core.modelConfig !== null && sameConfig(parseModelConfig(core.modelConfig), e.declared);
 }
 
 const person = (u: { id: number; name: string } | null | undefined) => (u ? { id: u.id, name: u.name } : null);

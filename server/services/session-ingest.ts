@@ -5,9 +5,11 @@ import type { Transaction } from 'sequelize';
 import { BenchSession, Board, Build, Core } from '../db/models';
 import { HttpError } from '../http-error';
 import { recordAudit } from './audit';
-import { decodeSamples, judgeSession, regressedLimits, scoreSamples, sessionSpectrum, type LimitKey, type SessionSpectrum, type Verdict } from './session-scoring';
+import { decodeSamples, judgeSession, regressedLimits, scoreSamples, sessionSpectrum, type LimitKey, type Verdict } from './session-scoring';
 import type { EnvelopeBounds } from './error-envelope';
-import type { ScoreSummary } from '../../shared/numeric/score';
+import type { StoredStats } from '../../shared/contract/sessions';
+import { decodeVectorSamples, judgeVectorSession, scoreVectorSamples } from './vector-scoring';
+import { modeOf, rotationConfigOf, vectorConfigOf } from './core-mode';
 import type { Conditions, SoakRecord } from '../../shared/soak';
 import { saveSessionConditions } from './session-conditions';
 
@@ -38,8 +40,8 @@ export interface SessionDraft {
 export interface StoredSession {
   row: BenchSession;
   core: Core;
-  /** The score, with the tone's spectra for a tone session. */
-  stats: ScoreSummary & { spectrum?: SessionSpectrum };
+  /** The score, with the tone's spectra for a tone session; `vectoring` for a vectoring core's session. */
+  stats: StoredStats;
   verdict: Verdict;
   passed: boolean;
   failedLimits: LimitKey[];
@@ -76,9 +78,31 @@ async function resolveBoardId(draft: SessionDraft, transaction: Transaction): Pr
   return (await Board.findOne({ where: { name: draft.board }, transaction }))?.id ?? null;
 }
 
+/** A rotation core's session: the ScoreSummary, with the spectra of a complete coherent tone. */
+function scoreRotation(core: Core, draft: SessionDraft, samples: Buffer, checkFailures: number | undefined) {
+  const config = rotationConfigOf(core);
+  const decoded = decodeSamples(samples, config.angleFormat);
+  const { stats, profile, envelope } = scoreSamples(config, decoded);
+  const spectrum = sessionSpectrum(draft.plan, config, decoded);
+  const sfdrDb = spectrum ? Math.min(spectrum.cos.sfdrDbc, spectrum.sin.sfdrDbc) : undefined;
+  const stored: StoredStats = spectrum ? { ...stats, spectrum } : stats;
+  const { verdict, passed } = judgeSession(core.limits, stats, { checkFailures, sfdrDb, unstableCodes: draft.soak?.unstable.count });
+  return { stored, verdict, passed, profile, envelope, sampleCount: decoded.codes.length };
+}
+
+/** A vectoring core's session: 16-byte records scored by shared/vectoring (stats.vectoring). */
+function scoreVectoring(core: Core, draft: SessionDraft, samples: Buffer, checkFailures: number | undefined) {
+  if (draft.soak) throw new HttpError(400, 'invalid', 'session.soak: soaks of vectoring cores are not kept yet; upload each pass as a session');
+  const decoded = decodeVectorSamples(samples);
+  const { stats, profile, envelope } = scoreVectorSamples(vectorConfigOf(core), decoded);
+  const { verdict, passed } = judgeVectorSession(core.limits, stats, { checkFailures });
+  return { stored: { count: stats.count, vectoring: stats } as StoredStats, verdict, passed, profile, envelope, sampleCount: decoded.xs.length };
+}
+
 /**
  * Score, judge and store one session inside `transaction`. `samples` is the packed sample format
- * of shared/link-engine/sample-pack.ts. @throws HttpError 400 for anything the caller got wrong.
+ * of shared/link-engine/sample-pack.ts (for a vectoring core, vector-sample-pack.ts).
+ * @throws HttpError 400 for anything the caller got wrong.
  */
 export async function storeSession(
   transaction: Transaction,
@@ -92,13 +116,9 @@ export async function storeSession(
   const buildId = await resolveBuildId(draft, core, transaction);
   const boardId = await resolveBoardId(draft, transaction);
 
-  const decoded = decodeSamples(samples, core.modelConfig.angleFormat ?? 'turn');
-  const { stats, profile, envelope } = scoreSamples(core.modelConfig, decoded);
   const checkFailures = typeof draft.link?.checkFailures === 'number' ? draft.link.checkFailures : undefined;
-  const spectrum = sessionSpectrum(draft.plan, core.modelConfig, decoded);
-  const sfdrDb = spectrum ? Math.min(spectrum.cos.sfdrDbc, spectrum.sin.sfdrDbc) : undefined;
-  const stored = spectrum ? { ...stats, spectrum } : stats;
-  const { verdict, passed } = judgeSession(core.limits, stats, { checkFailures, sfdrDb, unstableCodes: draft.soak?.unstable.count });
+  const scored = modeOf(core) === 'vectoring' ? scoreVectoring(core, draft, samples, checkFailures) : scoreRotation(core, draft, samples, checkFailures);
+  const { stored, verdict, passed, profile, envelope, sampleCount } = scored;
   const baseline = core.baselineSessionId ? await BenchSession.findByPk(core.baselineSessionId, { attributes: ['id', 'verdict'], transaction }) : null;
   const failedLimits = baseline ? regressedLimits(baseline.verdict, verdict) : [];
 
@@ -118,7 +138,7 @@ export async function storeSession(
       profile,
       passed,
       regression: failedLimits.length > 0,
-      sampleCount: decoded.codes.length,
+      sampleCount,
       samples,
       archive,
       notes: draft.notes ?? '',

@@ -8,7 +8,8 @@ import type { Mailer } from '../mail/mailer';
 import { sanitizeFileName } from '../uploads/bitstream-storage';
 import { mailRegression } from './regression-mail';
 import { readImport } from './session-import';
-import { storeSession, type StoredSession } from './session-ingest';
+import { resolveCore, storeSession, type StoredSession } from './session-ingest';
+import { modeOf } from './core-mode';
 
 interface IntakeDeps {
   db: Sequelize;
@@ -37,9 +38,10 @@ export function acceptUpload(deps: IntakeDeps, part: SessionUploadPart, samples:
 
 /** An import: what ran is read from the file; `part` says where it belongs. */
 export function acceptImport(deps: IntakeDeps, part: SessionImportPart, file: { buffer: Buffer; originalname: string }) {
-  const imported = readImport(file.buffer, file.originalname);
-  return accept(deps, (transaction) =>
-    storeSession(
+  return accept(deps, async (transaction) => {
+    // The core's mode says which file formats it takes.
+    const imported = readImport(file.buffer, file.originalname, modeOf(await resolveCore(part, transaction)));
+    return storeSession(
       transaction,
       deps.operatorId,
       {
@@ -53,6 +55,6 @@ export function acceptImport(deps: IntakeDeps, part: SessionImportPart, file: { 
       imported.samples,
       imported.archive,
       { action: 'import' },
-    ),
-  );
+    );
+  });
 }

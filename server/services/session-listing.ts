@@ -13,7 +13,7 @@ import { conditionRangeWhere, conditionsView } from './session-conditions';
 const LISTED = {
   attributes: { exclude: ['samples', 'archive'], include: [[literal('"BenchSession"."archive" IS NOT NULL'), 'hasArchive']] as [Literal, string][] },
   include: [
-    { model: Core, as: 'core', attributes: ['id', 'name', 'slug'] },
+    { model: Core, as: 'core', attributes: ['id', 'name', 'slug', 'mode'] },
     { model: Build, as: 'build', attributes: ['id', 'label'] },
     { model: Board, as: 'board', attributes: ['id', 'name'] },
     { model: User, as: 'operator', attributes: ['id', 'name'] },

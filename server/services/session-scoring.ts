@@ -90,7 +90,7 @@ export function sessionSpectrum(planInput: unknown, modelConfig: unknown, sample
   }
 }
 
-const MEASURES: Record<LimitKey, { max: boolean; value: (s: ScoreSummary, c: JudgeContext) => number | null }> = {
+const MEASURES: Partial<Record<LimitKey, { max: boolean; value: (s: ScoreSummary, c: JudgeContext) => number | null }>> = {
   maxAbsErrorLsb: { max: true, value: (s) => s.overall.maxAbsLsb },
   maxRmsErrorLsb: { max: true, value: (s) => s.overall.rmsLsb },
   maxAbsBiasLsb: { max: true, value: (s) => Math.max(Math.abs(s.cos.meanLsb), Math.abs(s.sin.meanLsb)) },
@@ -103,17 +103,20 @@ const MEASURES: Record<LimitKey, { max: boolean; value: (s: ScoreSummary, c: Jud
   maxUnstableCodes: { max: true, value: (_s, c) => c.unstableCodes ?? null },
 };
 
+/** How one limit is measured from a summary of type S: which way it bounds, and its value (null: not measurable). */
+export type Measures<S> = Partial<Record<LimitKey, { max: boolean; value: (s: S, c: JudgeContext) => number | null }>>;
+
 /**
- * Every limit of the core against the summary. An empty session fails every limit it could
- * measure from samples: nothing answered proves nothing.
+ * Every limit of the core that `measures` knows, against the summary. An empty session fails
+ * every limit it could measure from samples: nothing answered proves nothing.
  */
-export function judgeSession(limitsInput: unknown, summary: ScoreSummary, context: JudgeContext = {}): { verdict: Verdict; passed: boolean } {
+export function judgeWith<S extends { count: number }>(measures: Measures<S>, limitsInput: unknown, summary: S, context: JudgeContext = {}): { verdict: Verdict; passed: boolean } {
   const limits = limitsSchema.parse(limitsInput ?? {});
   const verdict: Verdict = {};
-  for (const key of Object.keys(MEASURES) as LimitKey[]) {
+  for (const key of Object.keys(measures) as LimitKey[]) {
     const limit = limits[key];
-    if (limit === undefined) continue;
-    const m = MEASURES[key];
+    const m = measures[key];
+    if (limit === undefined || !m) continue;
     const measured = m.value(summary, context);
     if (measured === null) {
       verdict[key] = { limit, measured: null, pass: null };
@@ -123,6 +126,11 @@ export function judgeSession(limitsInput: unknown, summary: ScoreSummary, contex
     verdict[key] = { limit, measured, pass: !empty && (m.max ? measured <= limit : measured >= limit) };
   }
   return { verdict, passed: Object.values(verdict).every((v) => v.pass !== false) };
+}
+
+/** A rotation core's limits against its session's summary (judgeWith). */
+export function judgeSession(limitsInput: unknown, summary: ScoreSummary, context: JudgeContext = {}): { verdict: Verdict; passed: boolean } {
+  return judgeWith(MEASURES, limitsInput, summary, context);
 }
 
 /** The limits the baseline passed that this session fails (empty: no regression). */

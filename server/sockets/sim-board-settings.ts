@@ -1,6 +1,7 @@
 // What a hosted simulated board is, read from its WebSocket address: a core's link profile and
 // model (`?core=<id or slug>`), or a model configuration of its own (`?config=<json>`), with an
 // optional core fault, line faults and baud rate. Bad input is a 400 with the key named.
+import { rotationConfigOf } from '../services/core-mode';
 import { defaultBoardSettings, type BoardSettings } from '../../mock-device/board-session';
 import { parseCoreFault } from '../../mock-device/faulty-core';
 import { parseLineFaults } from '../../mock-device/line-faults';
@@ -31,7 +32,7 @@ export async function simBoardSettings(query: URLSearchParams): Promise<BoardSet
     const core = /^\d+$/.test(coreRef) ? await Core.findByPk(Number(coreRef)) : await Core.findOne({ where: { slug: coreRef } });
     if (!core) throw new HttpError(404, 'not_found', `Core ${coreRef} not found`);
     const link = linkProfileSchema.parse(core.linkProfile);
-    s.core = parseModelConfig(core.modelConfig);
+    s.core = rotationConfigOf(core, 'the simulated board');
     s.baud = link.baud;
     s.crc = link.crc;
     s.name = `Anglebench simulated board (${core.slug})`;

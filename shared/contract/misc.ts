@@ -20,7 +20,11 @@ export const commentListReply = z.object({ comments: z.array(commentWithAuthor) 
 /** POST /api/sessions/:id/comments */
 export const commentReply = z.object({ comment });
 
-/** A golden-vector set, its rows summarised against the core's current model. */
+/**
+ * A golden-vector set, its rows summarised against the core's current model. For a vectoring core
+ * `distinctCodes` counts distinct (x, y) pairs, `coverageShare` is over the 2^(2·inBits) pairs, and
+ * the differing rows are in `firstVectorMismatches` (`firstMismatches` is empty).
+ */
 export const goldenVectorSet = z.object({
   id: z.number().int(),
   coreId: z.number().int(),
@@ -32,6 +36,9 @@ export const goldenVectorSet = z.object({
   coverageShare: z.number(),
   modelMismatches: z.number().int(),
   firstMismatches: z.array(z.object({ line: z.number().int(), code: z.number(), cos: z.number(), sin: z.number(), modelCos: z.number(), modelSin: z.number() })),
+  firstVectorMismatches: z
+    .array(z.object({ line: z.number().int(), x: z.number(), y: z.number(), angle: z.number(), magnitude: z.number(), modelAngle: z.number(), modelMagnitude: z.number() }))
+    .optional(),
 });
 export type GoldenVectorSet = z.infer<typeof goldenVectorSet>;
 /** GET /api/cores/:id/golden-vectors */

@@ -3,7 +3,9 @@ import { z } from 'zod';
 import { limitsSchema } from '../link-engine/limits';
 import type { ScoreSummary } from '../numeric/score';
 import type { ToneFigures } from '../numeric/spectral';
+import type { VectorScoreSummary } from '../vectoring';
 import { conditionsSchema, CONDITION_RANGES, soakRecordSchema } from '../soak';
+import { coreModeSchema } from './cores';
 import { buildBrief, coreBrief, flag, id, isoDate, jsonObject, named, tags, text, typedObject } from './common';
 
 /**
@@ -110,8 +112,12 @@ export interface SessionSpectrum {
   cos: ToneFigures;
   sin: ToneFigures;
 }
-/** The stored score (the scorer's ScoreSummary, with the tone's spectra); `{}` for a session stored without one. */
-export type StoredStats = Partial<ScoreSummary> & { spectrum?: SessionSpectrum };
+/**
+ * The stored score: a rotation core's session holds the scorer's ScoreSummary (with the tone's
+ * spectra); a vectoring core's holds `count` and `vectoring`, shared/vectoring's
+ * VectorScoreSummary (docs/api.md, "Vectoring cores"). `{}` for a session stored without one.
+ */
+export type StoredStats = Partial<ScoreSummary> & { spectrum?: SessionSpectrum; vectoring?: VectorScoreSummary };
 export const storedStats = typedObject<StoredStats>('stats');
 
 /** What ran: the plan's `kind` and its own fields (see shared/numeric/plans.ts; imports add theirs). */
@@ -135,7 +141,10 @@ export const sessionRow = z.object({
   deviceInfo: jsonObject.nullable(),
   stats: storedStats,
   verdict,
-  /** Largest |error| in LSB per 1/64 of the code range (-1: no answer there); null for old rows. */
+  /**
+   * Largest |error| in LSB per 1/64 of the code range (-1: no answer there); for a vectoring core,
+   * largest |angle error| in angle LSB per 1/64 turn of the input's direction. Null for old rows.
+   */
   profile: z.array(z.number()).nullable(),
   passed: z.boolean(),
   regression: z.boolean(),
@@ -149,7 +158,8 @@ export type SessionRow = z.infer<typeof sessionRow>;
 
 /** A session as the list and the detail show it: its columns, the names of what it belongs to, whether an archive is kept. */
 export const sessionListItem = sessionRow.extend({
-  core: coreBrief,
+  /** With its mode: a vectoring core's session has `stats.vectoring` and vectoring limits in its verdict. */
+  core: coreBrief.extend({ mode: coreModeSchema.default('rotation') }),
   build: buildBrief.nullable(),
   board: named.nullable(),
   operator: named.nullable(),

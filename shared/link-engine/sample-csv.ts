@@ -19,35 +19,43 @@ export class SampleCsvError extends Error {
 const INTEGER = /^[+-]?\d+$/;
 
 /**
- * Parse sample CSV text. Blank lines are skipped; CRLF and a UTF-8 byte-order mark are accepted.
- * @throws SampleCsvError naming the first bad line.
+ * Parse CSV text of integer columns under exactly `header` (lower case, comma-separated). Blank
+ * lines are skipped; CRLF and a UTF-8 byte-order mark are accepted; `fits(column, value)` says
+ * whether a value fits its column. @throws SampleCsvError naming the first bad line.
  */
-export function parseSampleCsv(text: string, maxRows = 1 << 24): UnpackedSamples {
+export function parseCodeColumns(text: string, header: string, fits: (column: number, value: number) => boolean, maxRows = 1 << 24): Float64Array[] {
+  const names = header.split(',');
   const lines = text.replace(/^\uFEFF/, '').split(/\r?\n/);
-  const header = (lines[0] ?? '').trim().toLowerCase().replace(/\s+/g, '');
-  if (header !== SAMPLE_CSV_HEADER) throw new SampleCsvError(1, `the header must be "${SAMPLE_CSV_HEADER}"`);
+  const first = (lines[0] ?? '').trim().toLowerCase().replace(/\s+/g, '');
+  if (first !== header) throw new SampleCsvError(1, `the header must be "${header}"`);
   let rows = 0;
   for (let i = 1; i < lines.length; i++) if (lines[i].trim() !== '') rows++;
   if (rows === 0) throw new SampleCsvError(2, 'no samples after the header');
   if (rows > maxRows) throw new SampleCsvError(maxRows + 2, `more than ${maxRows} samples`);
-  const out: UnpackedSamples = { codes: new Float64Array(rows), cos: new Int32Array(rows), sin: new Int32Array(rows) };
+  const out = names.map(() => new Float64Array(rows));
   let at = 0;
   for (let i = 1; i < lines.length; i++) {
     const line = lines[i].trim();
     if (line === '') continue;
     const cells = line.split(',').map((c) => c.trim());
-    if (cells.length !== 3) throw new SampleCsvError(i + 1, `expected 3 values, found ${cells.length}`);
-    const values = cells.map((c, k) => {
-      if (!INTEGER.test(c)) throw new SampleCsvError(i + 1, `${SAMPLE_CSV_HEADER.split(',')[k]} "${c.slice(0, 20)}" is not an integer`);
-      return Number(c);
-    });
-    if (!Number.isSafeInteger(values[0]) || Math.abs(values[1]) > 2 ** 31 || Math.abs(values[2]) > 2 ** 31) {
-      throw new SampleCsvError(i + 1, 'a value is too large for a 32-bit code');
+    if (cells.length !== names.length) throw new SampleCsvError(i + 1, `expected ${names.length} values, found ${cells.length}`);
+    for (let k = 0; k < cells.length; k++) {
+      if (!INTEGER.test(cells[k])) throw new SampleCsvError(i + 1, `${names[k]} "${cells[k].slice(0, 20)}" is not an integer`);
+      const value = Number(cells[k]);
+      if (!Number.isSafeInteger(value) || !fits(k, value)) throw new SampleCsvError(i + 1, 'a value is too large for a 32-bit code');
+      out[k][at] = value;
     }
-    out.codes[at] = values[0];
-    out.cos[at] = values[1];
-    out.sin[at] = values[2];
     at++;
   }
   return out;
+}
+
+/**
+ * Parse sample CSV text. Blank lines are skipped; CRLF and a UTF-8 byte-order mark are accepted.
+ * @throws SampleCsvError naming the first bad line.
+ */
+export function parseSampleCsv(text: string, maxRows = 1 << 24): UnpackedSamples {
+  // The angle code only has to be an integer (the core's format checks its range); cos and sin are 32-bit.
+  const [codes, cos, sin] = parseCodeColumns(text, SAMPLE_CSV_HEADER, (column, v) => column === 0 || Math.abs(v) <= 2 ** 31, maxRows);
+  return { codes, cos: Int32Array.from(cos), sin: Int32Array.from(sin) };
 }

@@ -67,7 +67,7 @@ describe('the demo seed', () => {
     const reference = await Core.findOne({ where: { slug: 'reference-16' } });
     // The regression fails a limit the baseline met: both judged by the server's scoring of the
     // stored samples, recomputed here with the shared accumulator.
-    const stats = new ScoreAccumulator(reference!.modelConfig).add(...columns(regression)).summary();
+    const stats = new ScoreAccumulator(reference!.modelConfig!).add(...columns(regression)).summary();
     expect(regression.stats).toEqual(JSON.parse(JSON.stringify(stats)));
     expect((regression.verdict as Record<string, { pass: boolean }>).maxModelMismatches.pass).toBe(false);
     expect(stats.mismatches.count).toBeGreaterThan(0);
@@ -76,7 +76,7 @@ describe('the demo seed', () => {
     const golden = await GoldenVectorSet.findAll();
     expect(golden.map((g) => g.coreId)).toEqual([reference!.id]);
     const codes = unpackSamples(golden[0].codes, 'turn');
-    expect(new ScoreAccumulator(reference!.modelConfig).add(codes.codes, codes.cos, codes.sin).summary().mismatches.count).toBe(0);
+    expect(new ScoreAccumulator(reference!.modelConfig!).add(codes.codes, codes.cos, codes.sin).summary().mismatches.count).toBe(0);
     const approved = await Review.findOne({ where: { decision: 'approve' } });
     expect(sessions.find((s) => s.id === reference!.baselineSessionId)?.buildId).toBe(approved?.buildId);
   });

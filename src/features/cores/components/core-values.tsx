@@ -20,9 +20,33 @@ function Row({ term, value, hint }: { term: string; value: string; hint: string 
 
 const MODEL_ORDER: ModelKey[] = ['angleFormat', 'angleBits', 'angleFrac', 'outBits', 'outFrac', 'iterations', 'guardBits', 'zGuardBits', 'shiftRounding', 'outputRounding', 'fold'];
 
+/** A vectoring core's configuration and limits, key by key (docs/model.md, "Vectoring cores"). */
+function VectoringValues({ core }: { core: CoreRecord }) {
+  const limits = Object.entries(core.limits).filter(([, v]) => v !== undefined);
+  return (
+    <div className="grid gap-4 lg:grid-cols-2">
+      <section className={panel} aria-labelledby="v-vector">
+        <h2 id="v-vector" className={panelTitle}>Vectoring model</h2>
+        <dl className="grid gap-2">
+          {Object.entries(core.vectorConfig ?? {}).map(([k, v]) => (
+            <Row key={k} term={k} value={String(v)} hint="" />
+          ))}
+        </dl>
+      </section>
+      <section className={panel} aria-labelledby="v-vlimits">
+        <h2 id="v-vlimits" className={panelTitle}>Acceptance limits</h2>
+        <dl className="grid gap-2">
+          {limits.length === 0 ? <p className="text-sm text-ink-soft">No limits set.</p> : limits.map(([k, v]) => <Row key={k} term={k} value={num(Number(v))} hint="" />)}
+        </dl>
+      </section>
+    </div>
+  );
+}
+
 /** The same three panels as the form, as values only: what a reviewer sees. */
 export function CoreValues({ core }: { core: CoreRecord }) {
   const m = core.modelConfig;
+  if (!m) return <VectoringValues core={core} />;
   const modelValue = (k: ModelKey) => (k === 'fold' ? (m.fold ? 'on' : 'off') : String(m[k]));
   return (
     <div className="grid gap-4 lg:grid-cols-3">

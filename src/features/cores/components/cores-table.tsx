@@ -6,6 +6,10 @@ import { LIMIT_KEYS } from './core-meanings';
 /** "16-bit turn angle → 16-bit output, 14 fraction bits, 16 iterations". */
 export function modelSummary(c: CoreRecord): string {
   const m = c.modelConfig;
+  if (!m) {
+    const v = c.vectorConfig;
+    return v ? `vectoring: ${v.inBits}-bit x/y → ${v.angleBits}-bit angle, ${v.magBits}-bit magnitude, ${v.iterations} iterations` : 'no model configuration';
+  }
   const angle = m.angleFormat === 'turn' ? `${m.angleBits}-bit turn angle` : `${m.angleBits}-bit radian angle (${m.angleFrac} fraction bits)`;
   return `${angle} → ${m.outBits}-bit output, ${m.outFrac} fraction bits, ${m.iterations} iterations`;
 }

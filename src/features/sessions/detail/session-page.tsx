@@ -66,9 +66,9 @@ export function SessionPage({ id }: { id: number }) {
             </h2>
             <VerdictTable verdict={s.verdict} />
           </section>
-          <SoakPanel conditions={s.conditions} soak={s.soak} modelConfig={core.data?.core.modelConfig} />
+          <SoakPanel conditions={s.conditions} soak={s.soak} modelConfig={core.data?.core.modelConfig ?? undefined} />
           <LocalBoundary what="plots">
-            <SessionCharts session={s} config={core.data?.core.modelConfig} />
+            <SessionCharts session={s} config={core.data?.core.modelConfig ?? undefined} />
           </LocalBoundary>
           {core.isError && (
             <p role="alert" className="text-sm font-bold text-fail">

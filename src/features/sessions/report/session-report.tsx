@@ -21,7 +21,7 @@ export function SessionReport({ id }: { id: number }) {
   const s = query.data;
   const core = useCore(s?.coreId ?? null);
   const build = useBuild(s?.buildId ?? null);
-  const plots = useSessionPlots(id, core.data?.core.modelConfig);
+  const plots = useSessionPlots(id, core.data?.core.modelConfig ?? undefined);
   const feed = useMemo(() => (plots.data ? staticFeed({ error: plots.data.charts.error }) : null), [plots.data]);
 
   if (query.isPending) return <p className="text-ink-soft">Preparing the report of session #{id}…</p>;
