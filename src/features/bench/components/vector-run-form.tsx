@@ -1,8 +1,9 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
+import { useCores } from '../../../lib/resources/cores';
 import { useForm } from 'react-hook-form';
 import type { VectoringFormats } from '../../../../shared/link';
-import { bindVectorPlan, inputRange, parseVectorConfig, PlanError } from '../../../../shared/vectoring';
+import { bindVectorPlan, inputRange, parseVectorConfig, PlanError, type VectorConfig } from '../../../../shared/vectoring';
 import type { BenchController, BenchSnapshot } from '../live/bench-controller';
 import { RunButtons } from './run-buttons';
 import { defaultVectorPlanForm, VECTOR_PLAN_KINDS, vectorPlanFieldOf, vectorPlanFormSchema, VectorPlanFieldError, vectorPlanFromForm, type VectorPlanForm } from './vector-plan-from-form';
@@ -16,10 +17,22 @@ export const vectorProfileFromFormats = (f: VectoringFormats) =>
     1,
   );
 
+/** True when a core's configuration has the formats the board reports (a core it may be). */
+const fitsFormats = (c: VectorConfig, f: VectoringFormats) =>
+  c.inBits === f.inBits && c.inFrac === f.inFrac && c.iterations === f.iterations && c.magBits === f.magBits && c.magFrac === f.magFrac && c.angleFormat === f.angleFormat && c.angleBits === f.angleBits && (c.angleFormat !== 'rad' || c.angleFrac === f.angleFrac);
+
 /** The plan form of a vectoring core: which (x, y) pairs to ask, and the profile to score them against. */
 export function VectorRunForm({ controller, snap, formats }: { controller: BenchController; snap: BenchSnapshot; formats: VectoringFormats }) {
   const [profileText, setProfileText] = useState<string | null>(null);
-  const profile = profileText ?? vectorProfileFromFormats(formats);
+  // MODE_INFO carries the formats, not the guard bits, rounding or gain compensation: a saved
+  // vectoring core with the same formats gives the whole configuration, and is offered first.
+  const cores = useCores();
+  const vectorCores = (cores.data ?? []).filter((c) => c.mode === 'vectoring' && c.vectorConfig);
+  const fitting = vectorCores.filter((c) => fitsFormats(c.vectorConfig!, formats));
+  const [source, setSource] = useState<string | null>(null);
+  const chosenSource = source ?? (fitting[0] ? String(fitting[0].id) : 'board');
+  const sourceCore = vectorCores.find((c) => String(c.id) === chosenSource);
+  const profile = profileText ?? (sourceCore ? JSON.stringify(sourceCore.vectorConfig, null, 1) : vectorProfileFromFormats(formats));
   const [problem, setProblem] = useState<{ field: keyof VectorPlanForm | 'profile' | null; message: string } | null>(null);
   // A circle of half the full scale by default: well inside the square, clear of the origin.
   const half = Math.floor(inputRange(formats).max / 2);
@@ -109,6 +122,24 @@ export function VectorRunForm({ controller, snap, formats }: { controller: Bench
             {err('pairs')}
           </label>
         )}
+        <label className={`${label} col-span-2`}>
+          Score against
+          <select
+            className={input}
+            value={chosenSource}
+            onChange={(e) => {
+              setSource(e.target.value);
+              setProfileText(null);
+            }}
+          >
+            <option value="board">the board’s formats (other keys at their defaults)</option>
+            {vectorCores.map((c) => (
+              <option key={c.id} value={c.id}>
+                core {c.name} ({c.slug}){fitsFormats(c.vectorConfig!, formats) ? '' : ' — other formats than the board’s'}
+              </option>
+            ))}
+          </select>
+        </label>
         <details className="col-span-2 text-sm">
           <summary className="cursor-pointer text-ink-soft">Vectoring profile to score against</summary>
           <textarea aria-label="Vectoring profile (JSON)" rows={6} className={`${input} mt-1 font-mono text-xs`} value={profile} onChange={(e) => setProfileText(e.target.value)} />
