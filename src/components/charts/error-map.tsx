@@ -162,18 +162,23 @@ export function ErrorMap({ feed, testId = 'chart-error-map' }: { feed: ErrorMapF
     let raf = 0;
     let first = true;
     let last: ErrorMapData | null = null;
-    let lastWordsAt = 0;
+    let lastWordsAt = -Infinity;
+    let drawn = false;
+    let wordsStale = false;
     const tick = (t: number) => {
       const fresh = feed.poll(first);
       first = false;
       if (fresh) last = fresh;
-      if ((fresh || !lastWordsAt) && last && canvas.current) {
+      if ((fresh || !drawn) && last && canvas.current) {
         draw(canvas.current, last, which);
-        // The description is React state: kept to a few updates a second.
-        if (t - lastWordsAt > 500) {
-          lastWordsAt = t;
-          setWords(mapWords(last, which));
-        }
+        drawn = true;
+        wordsStale = true;
+      }
+      // The description is React state: kept to a few updates a second, the last one always made.
+      if (wordsStale && last && t - lastWordsAt > 500) {
+        lastWordsAt = t;
+        wordsStale = false;
+        setWords(mapWords(last, which));
       }
       raf = requestAnimationFrame(tick);
     };

@@ -31,7 +31,7 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
       fontSize: 12,
       disableStdin: true,
       convertEol: true,
-      theme: { background: '#1f2a2e', foreground: '#f6f3ec', cursor: '#1f2a2e', selectionBackground: '#e0b84a', selectionForeground: '#1f2a2e' },
+      theme: { background: '#1f2a2e', foreground: '#f6f3ec', cursor: '#1f2a2e', selectionBackground: '#e0b84a', selectionForeground: '#1f2a2e', brightBlack: '#a3aeb2' },
     });
     const fit = new FitAddon();
     t.loadAddon(fit);

@@ -27,7 +27,7 @@ export function VectorStatsPanel({ run }: { run: BenchSnapshot['run'] }) {
             {vectorStatRows(s).map((r) => (
               <div key={r.key} className="contents">
                 <dt className="text-ink-soft">{r.label}</dt>
-                <dd className="font-mono" data-testid={r.key === 'count' ? 'stat-scored' : `stat-${r.key}`}>
+                <dd className="font-mono" data-testid={r.key === 'count' ? 'stat-scored' : r.key === 'mismatches' ? undefined : `stat-${r.key}`}>
                   {r.value}
                 </dd>
               </div>
