@@ -26,11 +26,10 @@ export function vectorStatRows(s: VectorScoreSummary | null | undefined): Vector
     { key: 'magnitude-rms', label: 'Magnitude RMS / bias', value: `${n(s.magnitudeLsb.rms)} / ${n(s.magnitudeLsb.mean)} LSB` },
     { key: 'magnitude-ppm', label: 'Magnitude error, largest / RMS', value: `${n(s.magnitudePpm.maxAbs, 1)} / ${n(s.magnitudePpm.rms, 1)} ppm` },
     { key: 'mismatches', label: 'Model mismatches', value: `${int(s.mismatches.count)}${s.mismatches.count ? ` (largest ${n(s.mismatches.maxAbsDiffLsb, 0)} LSB)` : ''}` },
-    {
-      key: 'coverage',
-      label: 'Coverage of the plane',
-      value: `${pct(c.cells.share)} % of ${c.cellsPerAxis} × ${c.cellsPerAxis} cells, ${pct(c.sectors.share)} % of directions, ${pct(c.rings.share)} % of magnitude rings`,
-    },
-    { key: 'distinct', label: 'Distinct pairs', value: c.distinct === null ? '—' : `${int(c.distinct)} of ${int(c.total)} (${pct(c.distinct / c.total)} %)` },
+    { key: 'coverage', label: 'Plane cells covered', value: `${pct(c.cells.share)} % of ${c.cellsPerAxis} × ${c.cellsPerAxis}` },
+    { key: 'sectors', label: 'Directions covered', value: `${pct(c.sectors.share)} % of ${c.sectors.total} sectors` },
+    { key: 'rings', label: 'Magnitude rings covered', value: `${pct(c.rings.share)} % of ${c.rings.total}` },
+    // Distinct pairs are counted exactly only while x and y together have at most 24 bits.
+    { key: 'distinct', label: 'Distinct pairs', value: c.distinct === null ? 'not counted (inputs wider than 12 + 12 bits)' : `${int(c.distinct)} of ${int(c.total)} (${pct(c.distinct / c.total)} %)` },
   ];
 }

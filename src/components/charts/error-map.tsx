@@ -115,12 +115,10 @@ function draw(canvas: HTMLCanvasElement, d: ErrorMapData, which: Which) {
   g.textAlign = 'center';
   g.textBaseline = 'bottom';
   g.fillText('x', LEFT + PLOT_PX / 2, h - 2);
-  g.save();
-  g.translate(12, TOP + PLOT_PX / 2);
-  g.rotate(-Math.PI / 2);
+  // Upright, above the y tick labels' column: a single letter reads best unturned.
+  g.textAlign = 'left';
   g.textBaseline = 'middle';
-  g.fillText('y', 0, 0);
-  g.restore();
+  g.fillText('y', 4, TOP + PLOT_PX / 4);
   // The colour bar: 0 at the bottom, the largest |error| at the top.
   const bx = LEFT + PLOT_PX + 14;
   for (let i = 0; i < PLOT_PX; i++) {
