@@ -4,7 +4,7 @@ import { useForm } from 'react-hook-form';
 import { bindPlan, parseModelConfig, PlanError } from '../../../../shared/numeric';
 import type { BenchController, BenchSnapshot, RunMode } from '../live/bench-controller';
 import { ANGLE_UNITS, defaultPlanForm, PLAN_KINDS, planFieldOf, planFormSchema, PlanFieldError, planFromForm, type PlanForm } from './plan-from-form';
-import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
+import { fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 import { RunButtons } from './run-buttons';
 import { VectorRunForm } from './vector-run-form';
 
@@ -84,98 +84,98 @@ function RotationRunForm({ controller, snap }: { controller: BenchController; sn
   const usesUnit = kind === 'one' || kind === 'list' || kind === 'sweep';
 
   return (
-      <form noValidate onSubmit={handleSubmit(start)} className="grid gap-3">
-        <fieldset disabled={!connected || active} className="grid grid-cols-2 gap-2">
+    <form noValidate onSubmit={handleSubmit(start)} className="grid gap-3">
+      <fieldset disabled={!connected || active} className="grid grid-cols-2 gap-2">
+        <label className={`${label} col-span-2`}>
+          What to ask
+          <select className={input} {...register('kind')}>
+            {PLAN_KINDS.map(([k, text]) => (
+              <option key={k} value={k}>
+                {text}
+              </option>
+            ))}
+          </select>
+        </label>
+        {usesUnit && (
           <label className={`${label} col-span-2`}>
-            What to ask
-            <select className={input} {...register('kind')}>
-              {PLAN_KINDS.map(([k, text]) => (
-                <option key={k} value={k}>
+            Angles in
+            <select className={input} {...register('unit')}>
+              {ANGLE_UNITS.map(([u, text]) => (
+                <option key={u} value={u}>
                   {text}
                 </option>
               ))}
             </select>
           </label>
-          {usesUnit && (
-            <label className={`${label} col-span-2`}>
-              Angles in
-              <select className={input} {...register('unit')}>
-                {ANGLE_UNITS.map(([u, text]) => (
-                  <option key={u} value={u}>
-                    {text}
-                  </option>
-                ))}
-              </select>
-            </label>
-          )}
-          {kind === 'one' && (
-            <label className={`${label} col-span-2`}>
-              Angle
-              <input className={`${input} font-mono`} {...register('angle')} />
-              {err('angle')}
-            </label>
-          )}
-          {kind === 'list' && (
-            <label className={`${label} col-span-2`}>
-              Angles (commas, spaces or lines between)
-              <textarea rows={3} className={`${input} font-mono`} {...register('list')} />
-              {err('list')}
-            </label>
-          )}
-          {kind === 'sweep' && (
-            <>
-              <label className={label}>
-                Start
-                <input className={`${input} font-mono`} {...register('start')} />
-                {err('start')}
-              </label>
-              <label className={label}>
-                Step, codes
-                <input className={`${input} font-mono`} {...register('step')} />
-                {err('step')}
-              </label>
-            </>
-          )}
-          {(kind === 'sweep' || kind === 'random') && (
-            <label className={label}>
-              Count
-              <input className={`${input} font-mono`} {...register('count')} />
-              {err('count')}
-            </label>
-          )}
-          {kind === 'random' && (
-            <label className={label}>
-              Seed
-              <input className={`${input} font-mono`} {...register('seed')} />
-              {err('seed')}
-            </label>
-          )}
-          {kind === 'tone' && (
-            <>
-              <label className={label}>
-                Cycles
-                <input className={`${input} font-mono`} {...register('cycles')} />
-                {err('cycles')}
-              </label>
-              <label className={label}>
-                Samples (power of 2)
-                <input className={`${input} font-mono`} {...register('samples')} />
-                {err('samples')}
-              </label>
-            </>
-          )}
-          <details className="col-span-2 text-sm">
-            <summary className="cursor-pointer text-ink-soft">Core profile to score against</summary>
-            <textarea aria-label="Core profile (JSON)" rows={5} className={`${input} mt-1 font-mono text-xs`} value={profile} onChange={(e) => setProfileText(e.target.value)} />
-          </details>
-          {err('profile')}
-        </fieldset>
-        {problem && problem.field === null && (
-          <p role="alert" className="text-sm text-fail">
-            {problem.message}
-          </p>
         )}
-        <RunButtons controller={controller} snap={snap} />
-      </form>
+        {kind === 'one' && (
+          <label className={`${label} col-span-2`}>
+            Angle
+            <input className={`${input} font-mono`} {...register('angle')} />
+            {err('angle')}
+          </label>
+        )}
+        {kind === 'list' && (
+          <label className={`${label} col-span-2`}>
+            Angles (commas, spaces or lines between)
+            <textarea rows={3} className={`${input} font-mono`} {...register('list')} />
+            {err('list')}
+          </label>
+        )}
+        {kind === 'sweep' && (
+          <>
+            <label className={label}>
+              Start
+              <input className={`${input} font-mono`} {...register('start')} />
+              {err('start')}
+            </label>
+            <label className={label}>
+              Step, codes
+              <input className={`${input} font-mono`} {...register('step')} />
+              {err('step')}
+            </label>
+          </>
+        )}
+        {(kind === 'sweep' || kind === 'random') && (
+          <label className={label}>
+            Count
+            <input className={`${input} font-mono`} {...register('count')} />
+            {err('count')}
+          </label>
+        )}
+        {kind === 'random' && (
+          <label className={label}>
+            Seed
+            <input className={`${input} font-mono`} {...register('seed')} />
+            {err('seed')}
+          </label>
+        )}
+        {kind === 'tone' && (
+          <>
+            <label className={label}>
+              Cycles
+              <input className={`${input} font-mono`} {...register('cycles')} />
+              {err('cycles')}
+            </label>
+            <label className={label}>
+              Samples (power of 2)
+              <input className={`${input} font-mono`} {...register('samples')} />
+              {err('samples')}
+            </label>
+          </>
+        )}
+        <details className="col-span-2 text-sm">
+          <summary className="cursor-pointer text-ink-soft">Core profile to score against</summary>
+          <textarea aria-label="Core profile (JSON)" rows={5} className={`${input} mt-1 font-mono text-xs`} value={profile} onChange={(e) => setProfileText(e.target.value)} />
+        </details>
+        {err('profile')}
+      </fieldset>
+      {problem && problem.field === null && (
+        <p role="alert" className="text-sm text-fail">
+          {problem.message}
+        </p>
+      )}
+      <RunButtons controller={controller} snap={snap} />
+    </form>
   );
 }
