@@ -63,7 +63,7 @@ export interface VectoringFormats {
   iterations: number;
 }
 
-/** A VEC_GRID request: x0 + i·dx for i < nx, y0 + j·dy for j < ny, point j·nx + i. */
+/** A VEC_GRID request: x0 + i·dx for i < nx, y0 + j·dy for j < ny; point i·ny + j (y fastest). */
 export interface VectorGrid {
   x0: number;
   dx: number;
@@ -403,12 +403,12 @@ export function vectorWireProfile(f: VectoringFormats): VectorWireProfile {
 }
 
 /**
- * Vector k of a grid (k = j·nx + i): x0 + i·dx and y0 + j·dy, each wrapped to inBits two's
- * complement, as an inBits-wide adder of the board wraps.
+ * Vector k of a grid (k = i·ny + j, y fastest): x0 + i·dx and y0 + j·dy, each wrapped to inBits
+ * two's complement, as an inBits-wide adder of the board wraps.
  */
 export function gridVector(g: VectorGrid, k: number, p: WireProfile): { x: number; y: number } {
-  const i = k % g.nx;
-  const j = (k - i) / g.nx;
+  const j = k % g.ny;
+  const i = (k - j) / g.ny;
   const bits = vectorProfile(p).inBits;
   return { x: wrapSigned(g.x0 + i * g.dx, bits), y: wrapSigned(g.y0 + j * g.dy, bits) };
 }

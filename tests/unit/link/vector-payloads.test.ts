@@ -77,15 +77,15 @@ describe('vectoring payload codecs (bench link version 2)', () => {
     expect(() => decodePayload(Kind.ModeInfo, bad, dflt)).toThrow(/MODE_INFO: vector\.inBits must be an integer 2\.\.32, got 0/);
   });
 
-  it('makes grid points with x fastest, each coordinate wrapped in inBits', () => {
+  it('makes grid points with y fastest, each coordinate wrapped in inBits', () => {
     const g = { x0: 2040, dx: 5, nx: 3, y0: -2048, dy: -1, ny: 2 };
-    // 12-bit inputs: 2045, 2050 → −2046; y: −2048, then −2049 → 2047.
+    // 12-bit inputs: x 2040, 2045, 2050 → −2046; y −2048, then −2049 → 2047.
     expect([0, 1, 2, 3, 4, 5].map((k) => gridVector(g, k, odd))).toEqual([
       { x: 2040, y: -2048 },
-      { x: 2045, y: -2048 },
-      { x: -2046, y: -2048 },
       { x: 2040, y: 2047 },
+      { x: 2045, y: -2048 },
       { x: 2045, y: 2047 },
+      { x: -2046, y: -2048 },
       { x: -2046, y: 2047 },
     ]);
   });
@@ -141,6 +141,7 @@ describe('the vectoring worked example of docs/protocol.md section 8', () => {
   it('decodes the grid example to the 25 points the board walks, the zero vector in the middle', () => {
     const g = decodePayload(Kind.VecGrid, bytes('00 C0 FF FF 00 20 00 00 00 C0 FF FF 00 20 00 00 05 00 05 00'), dflt) as Extract<Message, { kind: typeof Kind.VecGrid }>;
     expect(gridVector(g, 0, dflt)).toEqual({ x: -16384, y: -16384 });
+    expect(gridVector(g, 1, dflt)).toEqual({ x: -16384, y: -8192 });
     expect(gridVector(g, 12, dflt)).toEqual({ x: 0, y: 0 });
     expect(gridVector(g, 24, dflt)).toEqual({ x: 16384, y: 16384 });
   });
