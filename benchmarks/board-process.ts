@@ -14,9 +14,10 @@ export interface BoardProcess {
   stop(): Promise<void>;
 }
 
-export async function startBoardProcess(baud: number): Promise<BoardProcess> {
+/** `extraArgs`: more `npm run mock` options (`--mode vectoring`). */
+export async function startBoardProcess(baud: number, extraArgs: string[] = []): Promise<BoardProcess> {
   const port = await freePort();
-  const child: ChildProcess = spawn(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), 'mock-device/index.ts', '--ws-port', String(port), '--baud', String(baud)], {
+  const child: ChildProcess = spawn(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), 'mock-device/index.ts', '--ws-port', String(port), '--baud', String(baud), ...extraArgs], {
     cwd: root,
     stdio: ['ignore', 'pipe', 'pipe'],
   });

@@ -36,6 +36,7 @@ const coreRow = z.object({
   id: z.number().int(),
   slug: z.string(),
   name: z.string(),
+  mode: z.string().optional(),
   modelConfig: z.unknown(),
   limits: z.unknown(),
   linkProfile: z.object({ baud: z.number().int().optional(), crc: z.string().optional() }).partial().nullish(),
@@ -78,6 +79,7 @@ export async function fetchCore(fetchImpl: Fetch, server: { url: string; token: 
   if (!list.success) throw new ServerError(`GET ${url} answered an unexpected shape: is --server the Anglebench server?`);
   const row = list.data.find((c) => c.slug === slug);
   if (!row) throw new ServerError(`the server has no core "${slug}" (it has: ${list.data.map((c) => c.slug).join(', ') || 'none'})`);
+  if (row.mode !== undefined && row.mode !== 'rotation') throw new ServerError(`core "${slug}" is a ${row.mode} core: this runner runs rotation cores only`);
   let model: ModelConfig;
   try {
     model = parseModelConfig(row.modelConfig);

@@ -50,8 +50,8 @@ export async function seedVectoringCore(transaction: Transaction, operatorId: nu
   const [benchA, benchB] = lab.boards;
   const sessions: Array<{ build: Build; board: Board; plan: VectorPlan; defective?: boolean; days: number; notes: string; tags: string[]; baseline?: boolean }> = [
     // The defect: the compensating multiply left out, so every magnitude carries the CORDIC growth (about 1.65×).
-    { build: r1, board: benchB, plan: { kind: 'grid', target: 65_536 }, defective: true, days: 11, notes: 'Angles fine, amplitudes about 65% high: the gain multiply is bypassed.', tags: ['bring-up'] },
-    { build: r2, board: benchB, plan: { kind: 'grid', target: 65_536 }, days: 7, notes: 'Multiply restored; every answer equals the model.', tags: ['bring-up'], baseline: true },
+    { build: r1, board: benchB, plan: { kind: 'grid', target: 16_384 }, defective: true, days: 11, notes: 'Angles fine, amplitudes about 65% high: the gain multiply is bypassed.', tags: ['bring-up'] },
+    { build: r2, board: benchB, plan: { kind: 'grid', target: 16_384 }, days: 7, notes: 'Multiply restored; every answer equals the model.', tags: ['bring-up'], baseline: true },
     { build: r2, board: benchA, plan: { kind: 'random', seed: 20_260_301, count: 20_000 }, days: 6, notes: 'Seeded random vectors on bench A.', tags: [] },
   ];
   const stored = [];

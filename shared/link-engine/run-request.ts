@@ -27,7 +27,7 @@ export function expandRequest(req: RunRequest, p: WireProfile): Float64Array {
 
 /**
  * What a vectoring run asks for: an explicit list of (x, y) input codes, or a grid the device
- * expands itself with VEC_GRID (x0 + i·dx for i < nx, y0 + j·dy for j < ny, x fastest; each
+ * expands itself with VEC_GRID (x0 + i·dx for i < nx, y0 + j·dy for j < ny, y fastest; each
  * coordinate wraps in the input format, as the bench link defines).
  */
 export type VectorRunRequest = { kind: 'vectors'; xs: ArrayLike<number>; ys: ArrayLike<number> } | ({ kind: 'grid' } & VectorGrid);

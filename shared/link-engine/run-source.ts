@@ -81,18 +81,18 @@ export function vectorSource(xs: Int32Array, ys: Int32Array, grid: VectorGrid | 
 
 /**
  * The grid's points from run index `first` on, as one smaller grid whose points are consecutive
- * run indexes: whole rows when `first` starts a row and a row fits in `max`, else the rest of
- * one row (at most `max` points).
+ * run indexes: whole columns (one x, every y) when `first` starts a column and a column fits in
+ * `max`, else the rest of one column (at most `max` points).
  */
 export function gridSegment(g: VectorGrid, first: number, max: number, p: WireProfile): { kind: typeof Kind.VecGrid; payload: Uint8Array; count: number } {
-  const column = first % g.nx;
+  const within = first % g.ny;
   const start = gridVector(g, first, p);
   let seg: VectorGrid;
-  if (column === 0 && g.nx <= max) {
-    const rows = Math.min(Math.floor(max / g.nx), g.ny - first / g.nx);
-    seg = { x0: start.x, dx: g.dx, nx: g.nx, y0: start.y, dy: g.dy, ny: rows };
+  if (within === 0 && g.ny <= max) {
+    const columns = Math.min(Math.floor(max / g.ny), g.nx - first / g.ny);
+    seg = { x0: start.x, dx: g.dx, nx: columns, y0: start.y, dy: g.dy, ny: g.ny };
   } else {
-    seg = { x0: start.x, dx: g.dx, nx: Math.min(max, g.nx - column), y0: start.y, dy: g.dy, ny: 1 };
+    seg = { x0: start.x, dx: g.dx, nx: 1, y0: start.y, dy: g.dy, ny: Math.min(max, g.ny - within) };
   }
   return { kind: Kind.VecGrid, count: seg.nx * seg.ny, payload: encodePayload({ kind: Kind.VecGrid, ...seg }, p) };
 }

@@ -63,7 +63,7 @@ export interface VectoringFormats {
   iterations: number;
 }
 
-/** A VEC_GRID request: x0 + i·dx for i < nx, y0 + j·dy for j < ny, point j·nx + i. */
+/** A VEC_GRID request: x0 + i·dx for i < nx, y0 + j·dy for j < ny; point i·ny + j (y fastest). */
 export interface VectorGrid {
   x0: number;
   dx: number;
@@ -106,7 +106,23 @@ export class PayloadError extends Error {
 
 const INFO_FORMATS = ['turn', 'rad'] as const;
 
+// Field limits by width in bytes (1..4), signed and unsigned: put() checks every field, so not
+// recomputed per call.
+const FIELD_MIN = [0, -(2 ** 7), -(2 ** 15), -(2 ** 23), -(2 ** 31)];
+const FIELD_MAX_SIGNED = [0, 2 ** 7 - 1, 2 ** 15 - 1, 2 ** 23 - 1, 2 ** 31 - 1];
+const FIELD_MAX_UNSIGNED = [0, 2 ** 8 - 1, 2 ** 16 - 1, 2 ** 24 - 1, 2 ** 32 - 1];
+
 function put(out: Uint8Array, at: number, width: number, value: number, signed: boolean, field: string): void {
+  if (width <= 4) {
+    const min = signed ? FIELD_MIN[width] : 0;
+    const max = signed ? FIELD_MAX_SIGNED[width] : FIELD_MAX_UNSIGNED[width];
+    if (!Number.isInteger(value) || value < min || value > max) {
+      throw new PayloadError(`${field} must be an integer ${min}..${max} for a ${width}-byte field, got ${value}`);
+    }
+    // Within those limits the low bytes of the 32-bit pattern are the field, either sign.
+    for (let i = 0; i < width; i++) out[at + i] = (value >>> (8 * i)) & 0xff;
+    return;
+  }
   const bits = 8 * width;
   const min = signed ? -(2 ** (bits - 1)) : 0;
   const max = signed ? 2 ** (bits - 1) - 1 : 2 ** bits - 1;
@@ -130,6 +146,11 @@ function get(src: Uint8Array, at: number, width: number, signed: boolean): numbe
   if (width === 4) {
     const v = src[at] | (src[at + 1] << 8) | (src[at + 2] << 16) | (src[at + 3] << 24);
     return signed ? v : v >>> 0;
+  }
+  // 3 bytes: the default vectoring core's 18-bit magnitudes.
+  if (width === 3) {
+    const v = src[at] | (src[at + 1] << 8) | (src[at + 2] << 16);
+    return signed ? (v << 8) >> 8 : v;
   }
   let v = 0;
   for (let i = width - 1; i >= 0; i--) v = v * 256 + src[at + i];
@@ -403,12 +424,12 @@ export function vectorWireProfile(f: VectoringFormats): VectorWireProfile {
 }
 
 /**
- * Vector k of a grid (k = j·nx + i): x0 + i·dx and y0 + j·dy, each wrapped to inBits two's
- * complement, as an inBits-wide adder of the board wraps.
+ * Vector k of a grid (k = i·ny + j, y fastest): x0 + i·dx and y0 + j·dy, each wrapped to inBits
+ * two's complement, as an inBits-wide adder of the board wraps.
  */
 export function gridVector(g: VectorGrid, k: number, p: WireProfile): { x: number; y: number } {
-  const i = k % g.nx;
-  const j = (k - i) / g.nx;
+  const j = k % g.ny;
+  const i = (k - j) / g.ny;
   const bits = vectorProfile(p).inBits;
   return { x: wrapSigned(g.x0 + i * g.dx, bits), y: wrapSigned(g.y0 + j * g.dy, bits) };
 }

@@ -8,6 +8,9 @@ import { CHECK_REPLIES, reply } from '../../server/routes/reply';
 import { modelConfigSchema } from '../../server/schemas/core';
 import * as contract from '../../shared/contract';
 import { createCordicModel } from '../../shared/numeric/cordic-model';
+import { VECTOR_CSV_HEADER } from '../../shared/link-engine/vector-sample-csv';
+import { packVectorSamples } from '../../shared/link-engine/vector-sample-pack';
+import { createVectorModel, parseVectorConfig, planVectors } from '../../shared/vectoring';
 import { testApp, type Agent, type TestApp } from '../support/test-app';
 
 // Every reply of the API, read from the real server, parsed with its contract schema here (the
@@ -115,6 +118,33 @@ describe('every reply parses with its contract schema', () => {
     const vectors = Buffer.from(['angle_code,cos_code,sin_code', ...rows].join('\n'));
     expectContract(contract.goldenVectorReply, (await engineer.post(`/api/cores/${ids.core}/golden-vectors`).field('name', 'sim').attach('file', vectors, 'v.csv').expect(201)).body);
     expectContract(contract.goldenVectorListReply, (await reviewer.get(`/api/cores/${ids.core}/golden-vectors`).expect(200)).body);
+  });
+
+  it('a vectoring core: the core, an upload, an import, list, detail, compare, golden vectors', async () => {
+    const vectorConfig = parseVectorConfig({ inBits: 8, iterations: 10, angleBits: 10 });
+    const created = await engineer.post('/api/cores').send({ name: 'Contract vectoring', slug: 'contract-vec', mode: 'vectoring', vectorConfig, limits: { maxAngleErrorLsb: 8 } }).expect(201);
+    expectContract(contract.coreReply, created.body);
+    const coreId = created.body.core.id as number;
+    expectContract(contract.coreDetailReply, (await reviewer.get(`/api/cores/${coreId}`).expect(200)).body);
+    const { xs, ys } = planVectors({ kind: 'circle', radius: 100, points: 64 }, vectorConfig);
+    const angles = new Int32Array(xs.length);
+    const magnitudes = new Int32Array(xs.length);
+    createVectorModel(vectorConfig).answerInto(xs, ys, angles, magnitudes);
+    const session = { coreId, startedAt: '2026-03-02T09:00:00.000Z', plan: { kind: 'circle', radius: 100, points: 64 }, transport: { kind: 'serial' } };
+    const packed = Buffer.from(packVectorSamples({ xs, ys, angles, magnitudes }));
+    const uploaded = await engineer.post('/api/sessions').field('session', JSON.stringify(session)).attach('samples', packed, 'samples.bin').expect(201);
+    expectContract(contract.sessionStoredReply, uploaded.body);
+    const csv = (await reviewer.get(`/api/sessions/${uploaded.body.id}/export.csv`).expect(200)).text;
+    const imported = await engineer.post('/api/sessions/import').field('session', JSON.stringify({ coreId })).attach('file', Buffer.from(csv), 'vec.csv').expect(201);
+    expectContract(contract.sessionStoredReply, imported.body);
+    expectContract(contract.sessionPage, (await reviewer.get(`/api/sessions?coreId=${coreId}`).expect(200)).body);
+    expectContract(contract.sessionDetailReply, (await reviewer.get(`/api/sessions/${uploaded.body.id}`).expect(200)).body);
+    const compared = await reviewer.get(`/api/compare?ids=${uploaded.body.id},${imported.body.id}`).expect(200);
+    expectContract(contract.compareReply, compared.body);
+    expect(compared.body.pairs[0]).toMatchObject({ sameCore: true, common: 64, differing: 0 });
+    const vectors = Buffer.from([VECTOR_CSV_HEADER, ...Array.from(xs, (x, i) => `${x},${ys[i]},${angles[i]},${magnitudes[i]}`)].join('\n'));
+    expectContract(contract.goldenVectorReply, (await engineer.post(`/api/cores/${coreId}/golden-vectors`).field('name', 'sim').attach('file', vectors, 'v.csv').expect(201)).body);
+    expectContract(contract.goldenVectorListReply, (await reviewer.get(`/api/cores/${coreId}/golden-vectors`).expect(200)).body);
   });
 
   it('people: sign-in, users, invitations, tokens; admin lists; health', async () => {

@@ -9,6 +9,8 @@ import { BenchSession, Board, Build, Core, GoldenVectorSet, Review, SessionCondi
 import { conditionGrid } from '../../server/services/condition-grid';
 import { unpackSamples } from '../../shared/link-engine/sample-pack';
 import { ScoreAccumulator } from '../../shared/numeric/score';
+import { unpackVectorSamples } from '../../shared/link-engine/vector-sample-pack';
+import { VectorScoreAccumulator } from '../../shared/vectoring';
 import { demoAccountsPresent, seedIfEmpty } from '../../server/db/seed';
 import { modelConfigSchema } from '../../server/schemas/core';
 import { tempDatabase } from '../support/temp-db';
@@ -42,16 +44,17 @@ describe('the demo seed', () => {
     ]);
     const reference = await Core.findOne({ where: { slug: 'reference-16' } });
     expect(reference!.modelConfig).toEqual(modelConfigSchema.parse({}));
-    expect(await Core.count()).toBe(2);
+    expect((await Core.findAll({ order: [['id', 'ASC']] })).map((c) => `${c.slug} ${c.mode}`)).toEqual(['reference-16 rotation', 'mixer-nco-18 rotation', 'phase-detector-16 vectoring']);
     expect(await Board.count()).toBe(3);
-    expect(await Build.count()).toBe(4);
+    expect(await Build.count()).toBe(6);
     expect((await Review.findAll()).map((r) => r.decision)).toEqual(['approve']);
     expect(await demoAccountsPresent(db)).toHaveLength(3);
   });
 
   it('holds a dozen scored sessions from the model and the board’s faults: one regression, a passing baseline per core', async () => {
-    // The thermal sweep's soaks are checked on their own below.
-    const sessions = (await BenchSession.findAll({ order: [['startedAt', 'ASC']] })).filter((s) => !s.tags.includes('soak'));
+    // The thermal sweep's soaks and the vectoring core's sessions are checked on their own below.
+    const vectoring = await Core.findOne({ where: { slug: 'phase-detector-16' } });
+    const sessions = (await BenchSession.findAll({ order: [['startedAt', 'ASC']] })).filter((s) => !s.tags.includes('soak') && s.coreId !== vectoring!.id);
     expect(sessions).toHaveLength(12);
     const regressions = sessions.filter((s) => s.regression);
     expect(regressions).toHaveLength(1);
@@ -59,7 +62,7 @@ describe('the demo seed', () => {
     const build = await Build.findByPk(regression.buildId!);
     expect(build?.label).toBe('ref16-r3');
     expect(regression.passed).toBe(false);
-    for (const core of await Core.findAll()) {
+    for (const core of await Core.findAll({ where: { mode: 'rotation' } })) {
       const baseline = sessions.find((s) => s.id === core.baselineSessionId);
       expect(baseline?.passed).toBe(true);
       expect(baseline!.startedAt.getTime()).toBeLessThan(Date.now());
@@ -73,8 +76,8 @@ describe('the demo seed', () => {
     expect(stats.mismatches.count).toBeGreaterThan(0);
     expect(sessions.filter((s) => !s.passed).length).toBe(3);
     expect(sessions.filter((s) => s.archive).length).toBeGreaterThan(0);
-    const golden = await GoldenVectorSet.findAll();
-    expect(golden.map((g) => g.coreId)).toEqual([reference!.id]);
+    const golden = await GoldenVectorSet.findAll({ where: { coreId: reference!.id } });
+    expect(golden).toHaveLength(1);
     const codes = unpackSamples(golden[0].codes, 'turn');
     expect(new ScoreAccumulator(reference!.modelConfig!).add(codes.codes, codes.cos, codes.sin).summary().mismatches.count).toBe(0);
     const approved = await Review.findOne({ where: { decision: 'approve' } });
@@ -97,6 +100,29 @@ describe('the demo seed', () => {
     const row = await SessionConditions.findOne({ where: { sessionId: hot.id } });
     expect(row!.soak!.unstable.codes.every((u) => u.answers.length >= 2)).toBe(true);
     expect(row!.soak!.summary.passes).toBe(5);
+  });
+
+  it('holds a vectoring phase detector: a build without gain compensation that fails, a passing baseline, golden vectors', async () => {
+    const core = await Core.findOne({ where: { slug: 'phase-detector-16' } });
+    expect(core!.modelConfig).toBeNull();
+    const sessions = await BenchSession.findAll({ where: { coreId: core!.id }, order: [['startedAt', 'ASC']] });
+    expect(sessions.map((s) => s.passed)).toEqual([false, true, true]);
+    expect(sessions.some((s) => s.regression)).toBe(false);
+    expect(core!.baselineSessionId).toBe(sessions[1].id);
+    // The server's stored score is the shared vectoring scorer's over the stored answers.
+    for (const s of sessions) {
+      const v = unpackVectorSamples(s.samples);
+      const stats = new VectorScoreAccumulator(core!.vectorConfig!).add(v.xs, v.ys, v.angles, v.magnitudes).summary();
+      expect(s.stats).toEqual(JSON.parse(JSON.stringify({ count: stats.count, vectoring: stats })));
+    }
+    // Without the compensating multiply every magnitude but the zero vector's carries the CORDIC growth (about 1.65).
+    const defect = sessions[0].stats.vectoring!;
+    expect(defect.mismatches.count).toBe(defect.count - 1);
+    expect(sessions[0].verdict.maxMagnitudeErrorLsb?.pass).toBe(false);
+    expect(sessions[0].verdict.maxAngleErrorLsb?.pass).toBe(true);
+    const [golden] = await GoldenVectorSet.findAll({ where: { coreId: core!.id } });
+    const g = unpackVectorSamples(golden.codes);
+    expect(new VectorScoreAccumulator(core!.vectorConfig!).add(g.xs, g.ys, g.angles, g.magnitudes).summary().mismatches.count).toBe(0);
   });
 
   it('lets the demo accounts sign in with the demo password', async () => {

@@ -5,6 +5,7 @@ import { createMigrator } from '../../server/db/migrator';
 import { BenchSession, Comment, initModels, User } from '../../server/db/models';
 import { seedIfEmpty } from '../../server/db/seed';
 import * as sessionConditions from '../../server/db/migrations/0010-session-conditions';
+import * as vectoringCores from '../../server/db/migrations/0015-vectoring-cores';
 import { tempDatabase } from '../support/temp-db';
 
 // Migration 0007 rebuilds `sessions` with its BLOBs last, so reading the other columns never
@@ -18,8 +19,12 @@ beforeAll(async () => {
   // Today's demo also records the conditions its thermal sweep ran under, in a table of a later
   // migration: lend the seed that table, then take it away so the migrator creates it in turn.
   const context = { queryInterface: db.getQueryInterface(), sequelize: db };
+  // Likewise the cores' mode columns: the demo's vectoring core (and its sessions, by cascade) goes with them.
   await sessionConditions.up(context);
+  await vectoringCores.up(context);
   await seedIfEmpty(db, 'demo-password', 4);
+  await db.query("DELETE FROM cores WHERE mode = 'vectoring'");
+  await vectoringCores.down(context);
   await sessionConditions.down(context);
 });
 afterAll(async () => {

@@ -142,6 +142,18 @@ describe('sessions of a vectoring core', () => {
     await engineer.delete(`/api/sessions/${again.body.id}`).expect(204);
   });
 
+  it('land as the runner would send them: a bearer token, build and board by label, its own score ignored, its link errors judged', async () => {
+    const build = await engineer.post('/api/builds').send({ coreId, label: 'pd10-r1', sourceRevision: 'abc', toolVersion: 't', clockMHz: 100 }).expect(201);
+    const token = (await engineer.post('/api/tokens').send({ name: 'bench runner' }).expect(201)).body.token as string;
+    const runner = (await t.visitor()).set('authorization', `Bearer ${token}`);
+    const a = answers();
+    const res = await upload(runner, packVectorSamples(a), { coreId: undefined, coreSlug: 'phase-det', build: 'pd10-r1', board: 'no such board', link: { checkFailures: 2, retries: 1 }, verdict: { passed: true }, sampleCount: 1 }).expect(201);
+    expect(res.body).toMatchObject({ passed: false, verdict: { maxLinkErrors: { limit: 0, measured: 2, pass: false }, maxModelMismatches: { measured: 0, pass: true } } });
+    const stored = await BenchSession.findByPk(res.body.id);
+    expect(stored).toMatchObject({ buildId: build.body.build.id, boardId: null, sampleCount: 4096, transport: { kind: 'serial', linkFigures: { checkFailures: 2, retries: 1 } } });
+    await engineer.delete(`/api/sessions/${res.body.id}`).expect(204);
+  });
+
   it('refuse samples that are not whole 16-byte records, or answers the formats cannot hold, storing nothing', async () => {
     const before = await BenchSession.count();
     const a = answers();
@@ -219,6 +231,27 @@ describe('sessions of a vectoring core', () => {
     expect(imported).toMatchObject({ common: 4096, differing: a.edited.length });
     const self = await reviewer.get(`/api/compare?ids=${ids.defective},${ids.imported}`).expect(200);
     expect(self.body.pairs[0]).toMatchObject({ common: 4096, differing: 0, maxAbsDiffLsb: 0, vector: { firstDiffering: [] } });
+  });
+
+  it('give the compare view an envelope of the angle error by direction that matches errors computed here with Math.atan2', async () => {
+    const a = answers(true);
+    const lo = new Array<number>(720).fill(Infinity);
+    const hi = new Array<number>(720).fill(-Infinity);
+    for (let i = 0; i < a.xs.length; i++) {
+      if (a.xs[i] === 0 && a.ys[i] === 0) continue; // no direction, no angle error
+      const turns = (Math.atan2(a.ys[i], a.xs[i]) / (2 * Math.PI) + 1) % 1;
+      let e = a.angles[i] - turns * TURN;
+      e -= TURN * Math.round(e / TURN);
+      const bin = Math.min(719, Math.floor(turns * 720));
+      lo[bin] = Math.min(lo[bin], e);
+      hi[bin] = Math.max(hi[bin], e);
+    }
+    const res = await reviewer.get(`/api/compare?ids=${ids.defective},${ids.clean}`).expect(200);
+    const env = res.body.sessions[0].errorEnvelope as { degrees: number[]; lo: (number | null)[]; hi: (number | null)[] };
+    expect(env.degrees.slice(0, 2)).toEqual([0.25, 0.75]);
+    const close = (got: number | null, want: number) => (Number.isFinite(want) ? got !== null && Math.abs(got - want) < 1e-3 : got === null);
+    expect(env.lo.filter((v, b) => !close(v, lo[b]))).toEqual([]);
+    expect(env.hi.filter((v, b) => !close(v, hi[b]))).toEqual([]);
   });
 
   it('are not compared with sessions of a rotation core: a clear 400', async () => {

@@ -50,7 +50,7 @@ describe('run options', () => {
     [['--server', 'https://lab.example'], '--server and --token go together'],
     [['--token', 't'], '--server and --token go together'],
     [['--limits', '{maxAbsErrorLsb:2}'], '--limits must be JSON'],
-    [['--limits', '{"maxFoo":1}'], '--limits: "maxFoo" is not a limit (known: maxAbsErrorLsb, maxRmsErrorLsb, maxAbsBiasLsb, minSfdrDb, maxModelMismatches, maxLinkErrors, minCoveragePct, maxUnstableCodes)'],
+    [['--limits', '{"maxFoo":1}'], '--limits: "maxFoo" is not a limit (known: maxAbsErrorLsb, maxRmsErrorLsb, maxAbsBiasLsb, minSfdrDb, maxModelMismatches, maxLinkErrors, minCoveragePct, maxUnstableCodes, maxAngleErrorLsb, maxAngleRmsLsb, maxMagnitudeErrorLsb, maxMagnitudeErrorPpm, minPlaneCoveragePct)'],
     [['--limits', '{"maxModelMismatches":"none"}'], /^--limits: maxModelMismatches /],
     [['--config', 'iterations=14'], '--config must be JSON'],
     [['--config', '{"rounding":"up"}'], /^--config: /],

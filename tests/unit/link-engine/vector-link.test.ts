@@ -8,6 +8,8 @@ import { createVectorModel, planVectors, type VectorConfigInput } from '../../..
 import { parseLineFaults } from '../../../mock-device/line-faults';
 import { inProcessBoard, realEngineClock } from '../../support/in-process-board';
 import type { BoardSettings } from '../../../mock-device/board-session';
+import { gridSegment } from '../../../shared/link-engine/run-source';
+import { gridVector, type VectorGrid } from '../../../shared/link/payloads';
 
 async function connect(vector: BoardSettings['vector'] | undefined, overrides: Partial<BoardSettings> = {}, onFrame?: (f: DecodedFrame) => void) {
   const board = inProcessBoard({ baud: 12_000_000, ...(vector ? { vector } : {}), ...overrides });
@@ -56,9 +58,10 @@ describe('a vectoring board over the bench link, in process', () => {
     expect(r.missing).toEqual([]);
     expect(delivered).toBe(65_536);
     expect(compareWithModel({}, r)).toEqual({ mismatches: 0, answered: 65_536 });
-    expect(r.xs[0]).toBe(-32768);
-    expect(r.xs[255]).toBe(-32768 + 255 * 256);
-    expect(r.ys[256]).toBe(-32768 + 256);
+    // y runs fastest: point 255 ends the first column, point 256 starts the second.
+    expect([r.xs[0], r.ys[0]]).toEqual([-32768, -32768]);
+    expect([r.xs[255], r.ys[255]]).toEqual([-32768, -32768 + 255 * 256]);
+    expect([r.xs[256], r.ys[256]]).toEqual([-32768 + 256, -32768]);
     expect(r.figures.retries).toBe(0);
     await board.link.close();
   });
@@ -67,10 +70,10 @@ describe('a vectoring board over the bench link, in process', () => {
     const config = { inBits: 8 };
     const { engine, board } = await connect({ core: config });
     await engine.modes();
-    // x0 = 100, dx = 20: 100, 120, −116 (140 wrapped in 8 bits), −96.
+    // x0 = 100, dx = 20: 100, 120, −116 (140 wrapped in 8 bits), −96; y −128, then 127 (−129 wrapped).
     const r = await engine.runVectors({ kind: 'grid', x0: 100, dx: 20, nx: 4, y0: -128, dy: -1, ny: 2 }).done;
-    expect(Array.from(r.xs)).toEqual([100, 120, -116, -96, 100, 120, -116, -96]);
-    expect(Array.from(r.ys)).toEqual([-128, -128, -128, -128, 127, 127, 127, 127]);
+    expect(Array.from(r.xs)).toEqual([100, 100, 120, 120, -116, -116, -96, -96]);
+    expect(Array.from(r.ys)).toEqual([-128, 127, -128, 127, -128, 127, -128, 127]);
     expect(compareWithModel(config, r)).toEqual({ mismatches: 0, answered: 8 });
     await board.link.close();
   });
@@ -134,6 +137,26 @@ describe('a vectoring board over the bench link, in process', () => {
     expect(() => engine.runVectors({ kind: 'grid', x0: 0, dx: 1, nx: 2, y0: -513, dy: 1, ny: 1 })).toThrow(/y0 must be an input code/);
     expect(board.link.written).toHaveLength(2); // HELLO and MODES only
     await board.link.close();
+  });
+});
+
+describe('grid segments', () => {
+  it('cover a grid in run order, each a smaller grid: whole columns, or the rest of one column', () => {
+    const p = { angleFormat: 'turn', angleBits: 16, outBits: 16 } as const;
+    const g: VectorGrid = { x0: 30000, dx: 3000, nx: 7, y0: -5, dy: 7, ny: 300 };
+    for (const max of [100, 300, 1000, 8192]) {
+      let first = 0;
+      const seen: Array<{ x: number; y: number }> = [];
+      while (first < g.nx * g.ny) {
+        const seg = gridSegment(g, first, max, p);
+        expect(seg.count).toBeGreaterThan(0);
+        expect(seg.count).toBeLessThanOrEqual(max);
+        const m = decodePayload(Kind.VecGrid, seg.payload, p) as MessageOf<typeof Kind.VecGrid>;
+        for (let k = 0; k < seg.count; k++) seen.push(gridVector(m, k, p));
+        first += seg.count;
+      }
+      expect(seen).toEqual(Array.from({ length: g.nx * g.ny }, (_, k) => gridVector(g, k, p)));
+    }
   });
 });
 
