@@ -33,8 +33,8 @@ export interface VectorRunRecord {
 }
 
 /**
- * The VEC_GRID request of a grid or exhaustive plan: the plan's pairs as one grid. The plan lists
- * them y fastest, VEC_GRID x fastest: the same pairs, in another order, which the record follows.
+ * The VEC_GRID request of a grid or exhaustive plan: the plan's pairs as one grid, y fastest as
+ * the plan lists them, so the request and the saved plan agree pair for pair.
  */
 function gridRequest(plan: VectorPlan, config: VectorConfig): VectorRunRequest {
   const bound = bindVectorPlan(plan, config);
