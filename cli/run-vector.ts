@@ -83,6 +83,12 @@ const VECTOR_MEASURES: Record<LimitKey, { max: boolean; value: (s: VectorRunScor
   maxLinkErrors: { max: true, value: (s) => s.linkErrors },
   minCoveragePct: { max: false, value: (s) => s.summary.coverage.cells.share * 100, note: 'cells of the input plane' },
   maxUnstableCodes: { max: true, value: () => null, note: 'needs a soak, not yet for vectoring cores' },
+  // The vectoring cores' own limits, measured as the server measures them (shared/link-engine/limits.ts).
+  maxAngleErrorLsb: { max: true, value: (s) => s.summary.angleLsb.maxAbs },
+  maxAngleRmsLsb: { max: true, value: (s) => s.summary.angleLsb.rms },
+  maxMagnitudeErrorLsb: { max: true, value: (s) => s.summary.magnitudeLsb.maxAbs },
+  maxMagnitudeErrorPpm: { max: true, value: (s) => s.summary.magnitudePpm.maxAbs },
+  minPlaneCoveragePct: { max: false, value: (s) => s.summary.coverage.cells.share * 100, note: 'cells of the input plane' },
 };
 
 /** Every given limit against the score; an empty run fails every limit it could measure, as run-verdict's judge. */
