@@ -31,7 +31,8 @@ export function TrafficPane({ log }: { log: TrafficLog }) {
       fontSize: 12,
       disableStdin: true,
       convertEol: true,
-      theme: { background: '#1f2a2e', foreground: '#f6f3ec', cursor: '#1f2a2e', selectionBackground: '#e0b84a', selectionForeground: '#1f2a2e', brightBlack: '#a3aeb2' },
+      // Every colour the traffic uses (traffic-format.ts) at 4.5:1 or more on the dark ground (WCAG AA).
+      theme: { background: '#1f2a2e', foreground: '#f6f3ec', cursor: '#1f2a2e', selectionBackground: '#e0b84a', selectionForeground: '#1f2a2e', brightBlack: '#a3aeb2', red: '#f08a78', green: '#8cc46b', yellow: '#e0b84a', cyan: '#6cc7bd' },
     });
     const fit = new FitAddon();
     t.loadAddon(fit);
