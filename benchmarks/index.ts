@@ -12,6 +12,7 @@ const BENCHES: Record<string, Bench> = {
   'decode-score': async () => (await import('./decode-score')).decodeScoreBench(),
   explain: async () => (await import('./explain')).explainBench(),
   link: async () => (await import('./link')).linkBench(),
+  'link-vector': async () => (await import('./link-vector')).linkVectorBench(),
   'hosted-board': async () => (await import('./hosted-board')).hostedBoardBench(),
   ingest: async () => (await import('./ingest')).ingestBench(),
   'list-compare': async () => (await import('./list-compare')).listCompareBench(),

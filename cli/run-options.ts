@@ -3,6 +3,8 @@ import { parseArgs } from 'node:util';
 import { z } from 'zod';
 import { isCrc8Name, type Crc8Name } from '../shared/link';
 import { parseModelConfig, type ModelConfigInput } from '../shared/numeric';
+import { parseVectorConfig, type VectorConfig } from '../shared/vectoring';
+import { parseVectorPlanSpec, type VectorPlanSpec } from './run-vector-plan';
 import { parseLimits, type Limits } from './run-verdict';
 import type { Conditions, SoakSpec } from '../shared/soak';
 import { parseConditionOptions } from './conditions';
@@ -18,13 +20,17 @@ export const RUN_HELP = `${RUN_USAGE}
   --baud N         line rate, 9600..12000000 (default: the core's link profile, else 3000000)
   --crc NAME       frame check, e.g. CRC-8/AUTOSAR (default: the core's link profile, else CRC-8/SMBUS)
   --plan P         exhaustive | sweep:START,STEP,COUNT | random:COUNT,SEED | edges | tone:M,N | file:PATH
+                   a vectoring core: exhaustive | grid:TARGET | circle:RADIUS,POINTS | random:COUNT,SEED
+                   | edges | file:PATH (one "x,y" a line)
+  --mode M         rotation | vectoring (default: what the board says it serves, rotation first)
   --core SLUG      the core under test (its model and limits come from the server when one is given)
   --build LABEL    the bitstream build on the board, for the record
   --board NAME     the bench board, for the record
   --server URL     the Anglebench server; needs --token (a personal API token)
   --token T        personal API token, sent as "Authorization: Bearer T"
   --limits JSON    acceptance limits, e.g. '{"maxAbsErrorLsb":2,"maxModelMismatches":0}'
-  --config JSON    reference-model configuration (default: the server's core, else from INFO)
+  --config JSON    reference-model configuration (default: the server's core, else from INFO;
+                   a vectoring core's keys for --mode vectoring, default from MODE_INFO)
   --out FILE       write the capture archive (both directions) to FILE
   --json           print a machine-readable summary on stdout (progress stays on stderr)
   --soak N|D       repeat the plan: N passes (50) or for a duration (90s, 30m, 2h); lists unstable codes
@@ -60,14 +66,22 @@ export type PlanSpec =
 export interface RunOptions {
   device: string;
   baud: number | null;
-  plan: PlanSpec;
+  /** --mode, or null: the board's own (rotation when it serves both). */
+  mode: 'rotation' | 'vectoring' | null;
+  /** The plan read for a rotating core; null when --plan only reads as a vectoring plan. */
+  plan: PlanSpec | null;
+  /** The plan read for a vectoring core; null when --plan only reads as a rotating one. */
+  vectorPlan: VectorPlanSpec | null;
   planText: string;
   core: string;
   build: string | null;
   board: string | null;
   server: { url: string; token: string } | null;
   limits: Limits | null;
+  /** --config read for a rotating core; null when not given or only a vectoring configuration. */
   config: ModelConfigInput | null;
+  /** --config read for a vectoring core; null when not given or only a rotating configuration. */
+  vectorConfig: VectorConfig | null;
   out: string | null;
   junit: string | null;
   json: boolean;
@@ -133,6 +147,16 @@ function json(text: string, option: string): unknown {
 
 const urlSchema = z.url({ protocol: /^https?$/ });
 
+/** `read()`, or null when it refuses the command line. */
+function attempt<T>(read: () => T): T | null {
+  try {
+    return read();
+  } catch (e) {
+    if (e instanceof UsageError) return null;
+    throw e;
+  }
+}
+
 export function parseRunArgs(argv: string[]): RunOptions {
   let values: Record<string, string | boolean | string[] | undefined>;
   try {
@@ -143,6 +167,7 @@ export function parseRunArgs(argv: string[]): RunOptions {
       options: {
         device: { type: 'string' },
         baud: { type: 'string' },
+        mode: { type: 'string' },
         plan: { type: 'string' },
         core: { type: 'string' },
         build: { type: 'string' },
@@ -178,15 +203,32 @@ export function parseRunArgs(argv: string[]): RunOptions {
   if ((serverUrl === undefined) !== (token === undefined)) throw new UsageError('--server and --token go together');
   if (str('device')!.startsWith('station:') && serverUrl === undefined) throw new UsageError(`--device ${str('device')} needs --server and --token: a station is reached through the team server`);
   if (serverUrl !== undefined && !urlSchema.safeParse(serverUrl).success) throw new UsageError(`--server must be an http(s) URL, got "${serverUrl}"`);
-  let config: ModelConfigInput | null = null;
+  const mode = str('mode') ?? null;
+  if (mode !== null && mode !== 'rotation' && mode !== 'vectoring') throw new UsageError(`--mode must be rotation or vectoring, got "${mode}"`);
+  // Without --mode the board decides, so --plan and --config are read both ways; a text that is
+  // neither is refused as a rotating core's (the older, commoner reading).
+  const both = <R, V>(rotating: () => R, vectoring: () => V): { r: R | null; v: V | null } => {
+    if (mode === 'rotation') return { r: rotating(), v: null };
+    if (mode === 'vectoring') return { r: null, v: vectoring() };
+    const r = attempt(rotating);
+    const v = attempt(vectoring);
+    if (r === null && v === null) rotating();
+    return { r, v };
+  };
+  let config: { r: ModelConfigInput | null; v: VectorConfig | null } = { r: null, v: null };
   if (str('config') !== undefined) {
     const input = json(str('config')!, 'config');
-    try {
-      config = parseModelConfig(input);
-    } catch (e) {
-      throw new UsageError(`--config: ${(e as Error).message}`);
-    }
+    const read = <T>(parse: (i: unknown) => T) => () => {
+      try {
+        return parse(input);
+      } catch (e) {
+        throw new UsageError(`--config: ${(e as Error).message}`);
+      }
+    };
+    config = both(read(parseModelConfig), read(parseVectorConfig));
   }
+  const plan = both(() => parsePlanSpec(str('plan')!), () => parseVectorPlanSpec(str('plan')!));
+  if (mode === 'vectoring' && serverUrl !== undefined) throw new UsageError('--server: vectoring sessions cannot be saved to the server yet; run without --server and keep the capture with --out');
   const crc = str('crc');
   if (crc !== undefined && !isCrc8Name(crc)) throw new UsageError(`--crc must be a catalogued CRC-8 name such as CRC-8/SMBUS, got "${crc}"`);
   const core = str('core')!;
@@ -194,14 +236,17 @@ export function parseRunArgs(argv: string[]): RunOptions {
   return {
     device: str('device')!,
     baud,
-    plan: parsePlanSpec(str('plan')!),
+    mode,
+    plan: plan.r,
+    vectorPlan: plan.v,
     planText: str('plan')!,
     core,
     build: str('build') ?? null,
     board: str('board') ?? null,
     server: serverUrl !== undefined ? { url: serverUrl.replace(/\/+$/, ''), token: token! } : null,
     limits: str('limits') !== undefined ? parseLimits(json(str('limits')!, 'limits'), '--limits') : null,
-    config,
+    config: config.r,
+    vectorConfig: config.v,
     out: str('out') ?? null,
     junit: str('junit') ?? null,
     json: values.json === true,

@@ -1,11 +1,12 @@
 // The run's capture: both directions through the shared Recorder, with a label that says what
 // was asked (plan, model configuration), so an archive alone scores again to the same figures.
-import { Kind, RecordedDecoder, Recorder, decodePayload, profileFromInfo, type Crc8Name, type MessageOf } from '../shared/link';
+import { Kind, RecordedDecoder, Recorder, decodePayload, profileFromInfo, vectorWireProfile, type Crc8Name } from '../shared/link';
 import { samplesFromArchive } from '../shared/link-engine/archive-samples';
 import { expandRequest } from '../shared/link-engine/run-request';
 import { parseModelConfig, planSchema, type ModelConfig, type Plan } from '../shared/numeric';
 import { planToRequest } from './run-plan';
 import { scoreRun, type RunScore } from './run-score';
+import type { VectorRunLabel } from './run-vector';
 
 /** The archive label of a runner capture, as JSON. */
 export interface RunLabel {
@@ -49,7 +50,7 @@ export class RunRecording {
   }
 
   /** Fix the label: write the header and everything recorded so far. */
-  start(label: RunLabel) {
+  start(label: RunLabel | VectorRunLabel) {
     if (this.sides) return;
     const recorder = new Recorder({ crc: this.crc, accept: { 'to-device': 'requests', 'to-host': 'replies' }, label: JSON.stringify(label) });
     const nowMs = () => this.timeMs;
@@ -59,10 +60,14 @@ export class RunRecording {
       direction: 'to-host',
       nowMs,
       onFrame: (f) => {
-        if (f.kind !== Kind.Info) return;
+        if (f.kind !== Kind.Info && f.kind !== Kind.ModeInfo) return;
         try {
-          const { info } = decodePayload(f.kind, f.payload, toHost.decoder.profile) as MessageOf<typeof Kind.Info>;
-          const p = profileFromInfo(info);
+          const m = decodePayload(f.kind, f.payload, toHost.decoder.profile);
+          let p = toHost.decoder.profile;
+          if (m.kind === Kind.Info) p = profileFromInfo(m.info);
+          // MODE_INFO's formats size the VEC_* frames from here on, as the engine's (the archive's
+          // profile records keep only the rotating fields: a replay reads VEC_* at the default widths).
+          else if (m.kind === Kind.ModeInfo && m.modes.vectoring) p = { ...p, vector: vectorWireProfile(m.modes.vectoring) };
           toHost.setProfile(p);
           toDevice.setProfile(p);
         } catch {
@@ -97,11 +102,17 @@ export function scoreArchive(bytes: Uint8Array): { label: RunLabel; score: RunSc
   // The answers in request order (one read of the archive), then the label's plan to place them.
   const found = samplesFromArchive(bytes);
   let label: RunLabel;
+  let vectoring = false;
   try {
-    const raw = JSON.parse(found.label) as RunLabel;
+    const raw = JSON.parse(found.label) as RunLabel | VectorRunLabel;
     if (raw.recordedBy !== 'anglebench run') throw new Error('not a runner label');
+    if ('mode' in raw && raw.mode === 'vectoring') {
+      vectoring = true;
+      throw new Error('a vectoring label');
+    }
     label = { ...raw, plan: planSchema.parse(raw.plan), model: parseModelConfig(raw.model) };
   } catch {
+    if (vectoring) throw new NotARunArchiveError('This archive holds a vectoring run: scoring a vectoring capture again is not supported yet');
     throw new NotARunArchiveError('This archive was not written by `run --out`: its label holds no plan');
   }
   // Each code's answers handed out to the plan's slots in turn.

@@ -75,7 +75,8 @@ export function jsonSummary(r: RunReport, upload: { sessionId: number | null } |
 
 const num = (v: number, digits = 3) => (Number.isInteger(v) ? String(v) : v.toFixed(digits));
 
-function checkLine(c: LimitCheck): string {
+/** One limit's line of the verdict table. */
+export function checkLine(c: LimitCheck): string {
   const op = c.key.startsWith('min') ? '≥' : '≤';
   const value = c.value === null ? 'not measured' : num(c.value);
   const outcome = { pass: 'PASS', fail: 'FAIL', skip: 'skip' }[c.outcome];

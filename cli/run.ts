@@ -23,6 +23,8 @@ import { INTERRUPTED_STATUS, withSigint, type Interrupt } from './interrupt';
 import { junitXml } from './junit';
 import { runConditions } from './conditions';
 import { soakPasses, type SoakRun } from './soak';
+import { runVectoring, VectorRunError } from './run-vector';
+import type { ModeInfo } from '../shared/link';
 
 /** What `run` touches besides the CLI streams, so tests can swap it. */
 export interface RunDeps extends DeviceDeps {
@@ -40,6 +42,19 @@ class RunError extends Error {}
 const clock = realClock;
 
 const oneLine = (text: string) => text.replace(/\s*\n\s*/g, ' ').trim();
+
+/**
+ * Which core to run: --mode, else what the board serves, rotation first when it serves both and
+ * the plan reads as a rotating one. @throws RunError when the board lacks the mode asked for
+ */
+function chooseMode(o: RunOptions, modes: ModeInfo): 'rotation' | 'vectoring' {
+  const serves = modes.vectoring ? (modes.rotation ? 'rotation and vectoring' : 'vectoring only') : 'rotation only';
+  if (o.mode === 'vectoring' && !modes.vectoring) throw new RunError(`--mode vectoring: the device at ${o.device} serves no vectoring core (${serves}): is the right bitstream loaded?`);
+  if (o.mode === 'rotation' && !modes.rotation) throw new RunError(`--mode rotation: the device at ${o.device} serves no rotating core (${serves})`);
+  if (o.mode) return o.mode;
+  if (modes.rotation && (o.plan || !modes.vectoring)) return 'rotation';
+  return 'vectoring';
+}
 
 /** The model to score with: the server's core, --config, or the device's INFO with defaults. */
 function chooseModel(o: RunOptions, core: ServerCore | null, info: DeviceInfo): { model: ModelConfig; from: RunReport['modelFrom'] } {
@@ -89,6 +104,20 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
     } catch (e) {
       throw new RunError(`the device at ${o.device} did not answer HELLO (${(e as Error).message}): check the baud rate, the CRC and that the bitstream is loaded`);
     }
+    let modes: ModeInfo;
+    try {
+      modes = await engine.modes();
+    } catch (e) {
+      throw new RunError(`the device at ${o.device} reports version ${info.version} but did not answer MODES (${(e as Error).message})`);
+    }
+    if (chooseMode(o, modes) === 'vectoring') {
+      return await runVectoring({
+        o, io, engine, info, modes, recording, limits, limitsFrom, baud, t0, warnings,
+        stderrIsTty: deps.stderrIsTty ?? false, writeFile: deps.writeFile, interrupt: deps.interrupt,
+      });
+    }
+    if (!o.plan) throw new UsageError(`--plan ${o.planText} is a vectoring core's plan, and the board serves a rotating core`);
+    if (o.vectorConfig && !o.config) throw new UsageError('--config holds a vectoring core\'s keys, and the board serves a rotating core');
     const { model, from } = chooseModel(o, core, info);
     const plan = resolvePlan(o.plan, model, io.readFile);
     const label: RunLabel = { recordedBy: 'anglebench run', core: o.core, build: o.build, board: o.board, plan, model };
@@ -207,7 +236,7 @@ export async function runRunCommand(argv: string[], io: CliIo, deps: RunDeps = {
       io.stderr(`error: ${oneLine(e.message)}\n${RUN_USAGE}\n`);
       return 2;
     }
-    if (e instanceof RunError || e instanceof ServerError) {
+    if (e instanceof RunError || e instanceof ServerError || e instanceof VectorRunError) {
       io.stderr(`error: ${oneLine(e.message)}\n`);
       return 2;
     }

@@ -8,9 +8,16 @@ import { DEFAULT_LINE_LOW_MARK, SimulatedBoard } from './simulated-board';
 import type { Crc8Name } from '../shared/link/crc8';
 import type { ModelConfigInput } from '../shared/numeric';
 import { nameWithConditions, type Conditions } from '../shared/soak';
+import type { VectorConfigInput } from '../shared/vectoring';
+import { createSimVectorCore, type VectorDeviation } from './vector-core';
 
 export interface BoardSettings {
   core: ModelConfigInput;
+  /**
+   * A vectoring board instead (`--mode vectoring`): its configuration and core fault. `core`,
+   * `coreFault` and `flaky` are then unused.
+   */
+  vector?: { core: VectorConfigInput; fault?: VectorDeviation };
   coreFault?: CoreFault;
   queueDepth: number;
   buildId: number;
@@ -94,6 +101,7 @@ export function openBoardSession(settings: BoardSettings, deliver: (bytes: Uint8
 }
 
 function simCore(settings: BoardSettings, clock: PacerClock) {
+  if (settings.vector) return { vector: createSimVectorCore(settings.vector.core, settings.vector.fault) };
   const core = createSimCore(settings.core, settings.coreFault);
   if (!settings.flaky) return core;
   return createFlakyCore(core, settings.flaky, { seed: settings.seed ?? 1, now: () => clock.now(), onFlip: settings.onCoreFlip });

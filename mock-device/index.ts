@@ -5,8 +5,8 @@ import { startMockServer } from './ws-server';
 try {
   const { port, settings } = parseBoardArgs(process.argv.slice(2));
   const server = await startMockServer(settings, port);
-  const fault = [settings.coreFault, settings.flaky].filter(Boolean).map((f) => `, core fault ${JSON.stringify(f)}`).join('');
-  console.log(`Simulated board listening on ${server.url} at ${settings.baud} baud${fault}`);
+  const fault = [settings.coreFault, settings.flaky, settings.vector?.fault].filter(Boolean).map((f) => `, core fault ${JSON.stringify(f)}`).join('');
+  console.log(`Simulated ${settings.vector ? 'vectoring ' : ''}board listening on ${server.url} at ${settings.baud} baud${fault}`);
   const stop = () => void server.close().then(() => process.exit(0));
   process.once('SIGINT', stop);
   process.once('SIGTERM', stop);

@@ -4,13 +4,17 @@ import { defaultBoardSettings, type BoardSettings } from './board-session';
 import { createSimCore, parseCoreFault } from './faulty-core';
 import { parseLineFaults } from './line-faults';
 import { boardConditionArgs, isFlakyFaultText, parseFlakyFault } from './flaky-options';
+import { parseVectorConfig } from '../shared/vectoring';
+import { createSimVectorCore, parseVectorCoreFault, VECTOR_FAULT_SPELLINGS } from './vector-core';
 
-export const USAGE = `npm run mock -- [--ws-port 5175] [--baud 3000000] [--core '<json model config>']
+export const USAGE = `npm run mock -- [--ws-port 5175] [--baud 3000000] [--mode rotation|vectoring] [--core '<json model config>']
   [--queue-depth 256] [--build-id N] [--name S]
   [--line-faults 'ber=1e-5,drop=1e-6,jitter-ms=2,seed=7'] [--core-fault F] [--seed N] [--condition name=value]…
   F: a catalogue defect (sign-slip:K, atan-entry:K:±D, stuck-bit:cos:B:1, … see docs/explain.md),
      a configuration deviation key=value (iterations=15, fold=false), gain, fold, sign:K, stuck:B,
-     or an intermittent one, flaky:RATE[@SECONDS]`;
+     or an intermittent one, flaky:RATE[@SECONDS]
+  --mode vectoring: a vectoring core; --core takes its keys (docs/model.md "Vectoring cores") and
+     F is ${VECTOR_FAULT_SPELLINGS.join(', ')} or key=value (iterations=15, gainCompensation=none)`;
 
 function int(name: string, text: string, min: number, max: number): number {
   const n = Number(text);
@@ -26,6 +30,7 @@ export function parseBoardArgs(args: string[]): { port: number; settings: BoardS
     options: {
       'ws-port': { type: 'string' },
       baud: { type: 'string' },
+      mode: { type: 'string' },
       core: { type: 'string' },
       'queue-depth': { type: 'string' },
       'build-id': { type: 'string' },
@@ -37,15 +42,24 @@ export function parseBoardArgs(args: string[]): { port: number; settings: BoardS
     },
   });
   const s = defaultBoardSettings();
+  const mode = values.mode ?? 'rotation';
+  if (mode !== 'rotation' && mode !== 'vectoring') throw new Error(`--mode must be rotation or vectoring, got "${mode}"`);
+  let json: unknown;
   if (values.core !== undefined) {
-    let json: unknown;
     try {
       json = JSON.parse(values.core);
     } catch {
-      throw new Error('--core must be JSON, e.g. \'{"outBits":18,"outFrac":16}\'');
+      throw new Error(`--core must be JSON, e.g. '${mode === 'vectoring' ? '{"inBits":12,"iterations":12}' : '{"outBits":18,"outFrac":16}'}'`);
     }
-    s.core = parseModelConfig(json);
   }
+  if (mode === 'vectoring') {
+    const core = parseVectorConfig(json ?? {});
+    const text = values['core-fault'];
+    if (text !== undefined && isFlakyFaultText(text)) throw new Error('--core-fault flaky is not served by a vectoring board yet');
+    const fault = text !== undefined ? parseVectorCoreFault(text) : undefined;
+    createSimVectorCore(core, fault); // a fault the core cannot have is refused now, not at the first connection
+    s.vector = { core, ...(fault ? { fault } : {}) };
+  } else if (json !== undefined) s.core = parseModelConfig(json);
   if (values.baud !== undefined) s.baud = int('baud', values.baud, 9_600, 12_000_000);
   if (values['queue-depth'] !== undefined) s.queueDepth = int('queue-depth', values['queue-depth'], 1, 65_535);
   if (values['build-id'] !== undefined) s.buildId = int('build-id', values['build-id'], 0, 0xffff_ffff);
@@ -55,8 +69,11 @@ export function parseBoardArgs(args: string[]): { port: number; settings: BoardS
   }
   if (values['line-faults'] !== undefined) s.lineFaults = parseLineFaults(values['line-faults']);
   // Wrappers around the core (an intermittent fault) are read before the catalogue entry.
-  if (values['core-fault'] !== undefined && isFlakyFaultText(values['core-fault'])) s.flaky = parseFlakyFault(values['core-fault']);
-  else if (values['core-fault'] !== undefined) s.coreFault = parseCoreFault(values['core-fault']);
+  // (A vectoring board's fault was read above, against the vectoring catalogue.)
+  if (!s.vector && values['core-fault'] !== undefined) {
+    if (isFlakyFaultText(values['core-fault'])) s.flaky = parseFlakyFault(values['core-fault']);
+    else s.coreFault = parseCoreFault(values['core-fault']);
+  }
   if (s.coreFault) createSimCore(s.core, s.coreFault); // a fault the core cannot have is refused now, not at the first connection
   if (values.seed !== undefined) s.seed = int('seed', values.seed, 0, 0xffff_ffff);
   Object.assign(s, boardConditionArgs(values.condition ?? [], s.name));

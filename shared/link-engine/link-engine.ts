@@ -7,14 +7,15 @@
 // are in flight has lost all of them. Both feed the same bounded retry path.
 import type { ByteLink } from './byte-link';
 import { emptyFigures, type LinkFigures, type RunProgress } from './link-figures';
-import { expandRequest, type RunRequest } from './run-request';
+import { expandRequest, expandVectorRequest, type RunRequest, type VectorRunRequest } from './run-request';
 import { Kind, NakReason } from '../link/kinds';
 import { encodeFrame } from '../link/frame';
 import { FrameDecoder, type DecodedFrame, type SkipEvent } from '../link/decoder';
 import { DEFAULT_CRC8, type Crc8Name } from '../link/crc8';
 import type { WireProfile } from '../link/wire-profile';
-import { decodePayload, profileFromInfo, type DeviceInfo, type Message, type MessageOf } from '../link/payloads';
-import { Run } from './link-run';
+import { decodePayload, profileFromInfo, vectorWireProfile, type DeviceInfo, type Message, type MessageOf, type ModeInfo } from '../link/payloads';
+import { Run, type RunOutcome } from './link-run';
+import { rotationSource, vectorSource } from './run-source';
 
 /** Time and timers, injected: shared/ has no clock of its own. */
 export interface EngineClock {
@@ -50,7 +51,7 @@ export interface ResultBatch {
 export interface MissingCode {
   index: number;
   code: number;
-  reason: 'no answer' | 'angle out of range' | 'aborted';
+  reason: 'no answer' | 'angle out of range' | 'vector out of range' | 'aborted';
 }
 
 export interface RunResult {
@@ -66,12 +67,56 @@ export interface RunResult {
   elapsedMs: number;
 }
 
-export interface RunHandle {
+/** Controls of a run in progress, whatever its mode. */
+export interface RunControls {
   pause(): Promise<void>;
   resume(): Promise<void>;
   abort(): Promise<void>;
   progress(): RunProgress;
+}
+
+export interface RunHandle extends RunControls {
   readonly done: Promise<RunResult>;
+}
+
+/** One frame of a vectoring run's results as it arrived: run indexes and their answers. */
+export interface VectorResultBatch {
+  indexes: Uint32Array;
+  angle: Int32Array;
+  magnitude: Int32Array;
+}
+
+/** A vector never answered, and why. */
+export interface MissingVector {
+  index: number;
+  x: number;
+  y: number;
+  reason: MissingCode['reason'];
+}
+
+/** A finished vectoring run: every input in request order, its answer where `answered` is 1. */
+export interface VectorRunResult {
+  status: RunResult['status'];
+  message?: string;
+  xs: Int32Array;
+  ys: Int32Array;
+  angle: Int32Array;
+  magnitude: Int32Array;
+  answered: Uint8Array;
+  missing: MissingVector[];
+  figures: LinkFigures;
+  elapsedMs: number;
+}
+
+export interface VectorRunHandle extends RunControls {
+  readonly done: Promise<VectorRunResult>;
+}
+
+export interface VectorRunHandlers {
+  onResults?: (batch: VectorResultBatch) => void;
+  onProgress?: (p: RunProgress) => void;
+  /** As RunHandlers.confirm: true for an answer worth confirming while the line shows damage. */
+  confirm?: (x: number, y: number, angle: number, magnitude: number) => boolean;
 }
 
 export interface RunHandlers {
@@ -86,15 +131,24 @@ export interface RunHandlers {
 }
 
 export class LinkError extends Error {
-  constructor(message: string) {
+  constructor(
+    message: string,
+    /** The NAK reason when the device refused the request. */
+    readonly nakReason?: number,
+  ) {
     super(message);
     this.name = 'LinkError';
   }
 }
 
+/** What a board that answers no MODES serves: rotation, as every version-1 board. */
+const ROTATION_ONLY: ModeInfo = { rotation: true, vectoring: null };
+
 /** The host end of one connection. */
 export class LinkEngine {
   info: DeviceInfo | null = null;
+  /** What the device serves, once modes() has asked. */
+  modeInfo: ModeInfo | null = null;
   readonly figures: LinkFigures = emptyFigures();
   private readonly decoder: FrameDecoder;
   private readonly o: Required<Omit<LinkEngineOptions, 'onTraffic' | 'onFrame' | 'onSkip'>> & LinkEngineOptions;
@@ -143,10 +197,69 @@ export class LinkEngine {
     return info;
   }
 
+  /**
+   * Which modes the device serves (after hello()). A version-1 board only rotates and is not
+   * asked; a later one answers MODES with MODE_INFO, whose vectoring formats then size the VEC_*
+   * fields. A board that refuses MODES (NAK 3) only rotates, whatever its INFO version said.
+   */
+  async modes(): Promise<ModeInfo> {
+    if (!this.info) throw new LinkError('Say HELLO before asking for the modes: the device INFO tells whether it has any but rotation');
+    if (this.modeInfo) return this.modeInfo;
+    if (this.info.version < 2) return (this.modeInfo = ROTATION_ONLY);
+    let modes: ModeInfo;
+    try {
+      const frame = await this.request(Kind.Modes, new Uint8Array(0), (f) => f.kind === Kind.ModeInfo);
+      modes = (this.decode(frame) as MessageOf<typeof Kind.ModeInfo>).modes;
+    } catch (e) {
+      if (e instanceof LinkError && e.nakReason === NakReason.UnknownKind) return (this.modeInfo = ROTATION_ONLY);
+      throw e;
+    }
+    if (modes.vectoring) this.decoder.setProfile({ ...this.decoder.profile, vector: vectorWireProfile(modes.vectoring) });
+    return (this.modeInfo = modes);
+  }
+
   /** Start a run; the handle pauses, resumes or aborts it, and `done` settles with every code accounted for. */
   run(req: RunRequest, handlers: RunHandlers = {}): RunHandle {
     if (!this.info) throw new LinkError('Say HELLO before running: the device INFO sizes every field');
-    return new Run(this, expandRequest(req, this.profile), req.kind === 'sweep' ? req : null, handlers);
+    const codes = expandRequest(req, this.profile);
+    const { confirm, onResults, onProgress } = handlers;
+    return new Run(
+      this,
+      rotationSource(codes, req.kind === 'sweep' ? req : null, this.profile),
+      { onResults, onProgress, confirm: confirm ? (i, cos, sin) => confirm(codes[i], cos, sin) : undefined },
+      (o: RunOutcome): RunResult => ({ ...o, codes }),
+    );
+  }
+
+  /**
+   * Start a vectoring run (after modes() found a vectoring core): VEC_LIST requests for a list,
+   * VEC_GRID segments for a grid, with the same queue, retry and accounting rules as run().
+   */
+  runVectors(req: VectorRunRequest, handlers: VectorRunHandlers = {}): VectorRunHandle {
+    if (!this.modeInfo?.vectoring) throw new LinkError('The device serves no vectoring core: say HELLO, ask modes(), and run vectors only on a board whose MODE_INFO has the vectoring bit');
+    const { xs, ys } = expandVectorRequest(req, this.profile);
+    const { confirm, onResults, onProgress } = handlers;
+    return new Run(
+      this,
+      vectorSource(xs, ys, req.kind === 'grid' ? req : null, this.profile),
+      {
+        onProgress,
+        onResults: onResults ? (b) => onResults({ indexes: b.indexes, angle: b.cos, magnitude: b.sin }) : undefined,
+        confirm: confirm ? (i, angle, magnitude) => confirm(xs[i], ys[i], angle, magnitude) : undefined,
+      },
+      (o: RunOutcome): VectorRunResult => ({
+        status: o.status,
+        message: o.message,
+        xs,
+        ys,
+        angle: o.cos,
+        magnitude: o.sin,
+        answered: o.answered,
+        missing: o.missing.map((m) => ({ index: m.index, x: xs[m.index], y: ys[m.index], reason: m.reason })),
+        figures: o.figures,
+        elapsedMs: o.elapsedMs,
+      }),
+    );
   }
 
   // ---- used by Run ------------------------------------------------------------------------
@@ -224,7 +337,7 @@ export class LinkEngine {
       if (f && f.kind === Kind.Nak) {
         const nak = this.decode(f) as MessageOf<typeof Kind.Nak>;
         if (nak.reason === NakReason.BadCheck) continue;
-        throw new LinkError(`The device refused ${kindLabel(kind)} (NAK reason ${nak.reason})`);
+        throw new LinkError(`The device refused ${kindLabel(kind)} (NAK reason ${nak.reason})`, nak.reason);
       }
       if (f) return f;
     }
@@ -242,5 +355,5 @@ export class LinkEngine {
   }
 }
 
-const kindLabel = (kind: number) => ({ [Kind.Hello]: 'HELLO', [Kind.Pause]: 'PAUSE', [Kind.Resume]: 'RESUME', [Kind.Abort]: 'ABORT' })[kind] ?? `KIND 0x${kind.toString(16)}`;
+const kindLabel = (kind: number) => ({ [Kind.Hello]: 'HELLO', [Kind.Modes]: 'MODES', [Kind.Pause]: 'PAUSE', [Kind.Resume]: 'RESUME', [Kind.Abort]: 'ABORT' })[kind] ?? `KIND 0x${kind.toString(16)}`;
 

@@ -1,19 +1,39 @@
 // One run on a LinkEngine: what to send when, replies, losses and retries; the books of requests
-// and answers are kept by its RunLedger.
+// and answers are kept by its RunLedger. What is asked (angle codes or vectors) is its RunSource's
+// business: the run sees run indexes and two answer columns.
 import { Kind, NakReason } from '../link/kinds';
-import { encodePayload, type MessageOf } from '../link/payloads';
 import type { DecodedFrame } from '../link/decoder';
-import { maxListCodes } from '../link/wire-profile';
-import type { LinkEngine, MissingCode, RunHandle, RunHandlers, RunResult } from './link-engine';
-import type { RunProgress } from './link-figures';
-import { RunLedger, type InFlight } from './run-ledger';
+import type { LinkEngine, MissingCode, ResultBatch } from './link-engine';
+import type { LinkFigures, RunProgress } from './link-figures';
+import { RunLedger, type InFlight, type NeedsConfirming } from './run-ledger';
+import { isExpandedKind, type AnswerColumns, type RunSource } from './run-source';
+
+/** How a run ended, before the engine dresses it as a rotating or a vectoring result. */
+export interface RunOutcome {
+  status: 'complete' | 'aborted' | 'failed';
+  message?: string;
+  /** The two answer columns (cos, sin or angle, magnitude), by run index. */
+  cos: Int32Array;
+  sin: Int32Array;
+  answered: Uint8Array;
+  missing: MissingCode[];
+  figures: LinkFigures;
+  elapsedMs: number;
+}
+
+/** The run's listeners, by run index. */
+export interface RunListeners {
+  onResults?: (batch: ResultBatch) => void;
+  onProgress?: (p: RunProgress) => void;
+  confirm?: NeedsConfirming;
+}
 
 const PROGRESS_EVERY_MS = 100;
 /** How long after the decoder last skipped damaged bytes answers are confirmed (RunHandlers.confirm). */
 export const CONFIRM_WINDOW_MS = 1000;
 
-export class Run implements RunHandle {
-  readonly done: Promise<RunResult>;
+export class Run<R> {
+  readonly done: Promise<R>;
   private readonly ledger: RunLedger;
   private cursor = 0;
   private paused = false;
@@ -23,15 +43,17 @@ export class Run implements RunHandle {
   private rateMark = { t: 0, done: 0, rate: 0 };
   private readonly unlisten: () => void;
   private cancelTick = () => {};
-  private resolve!: (r: RunResult) => void;
+  private resolve!: (r: R) => void;
+  private readonly total: number;
 
   constructor(
     private readonly engine: LinkEngine,
-    private readonly codes: Float64Array,
-    private readonly sweep: { start: number; step: number } | null,
-    private readonly handlers: RunHandlers,
+    private readonly source: RunSource,
+    private readonly handlers: RunListeners,
+    private readonly dress: (outcome: RunOutcome) => R,
   ) {
-    this.ledger = new RunLedger(codes, engine.options.maxRetries);
+    this.total = source.count;
+    this.ledger = new RunLedger(source.keys, engine.options.maxRetries);
     this.startedAt = engine.options.clock.now();
     this.rxBytesAtStart = engine.figures.bytesReceived;
     this.rateMark = { t: this.startedAt, done: 0, rate: 0 };
@@ -47,7 +69,7 @@ export class Run implements RunHandle {
   progress(): RunProgress {
     const now = this.engine.options.clock.now();
     const done = this.ledger.settled;
-    const total = this.codes.length;
+    const total = this.total;
     const rate = this.rateMark.rate;
     return {
       done,
@@ -88,9 +110,8 @@ export class Run implements RunHandle {
 
   private pump() {
     if (this.finished || this.paused) return;
-    const p = this.engine.profile;
     const depth = Math.max(1, this.engine.info!.queueDepth);
-    const listMax = maxListCodes(p);
+    const listMax = this.source.maxList;
     for (;;) {
       // Codes to ask again go first, in LIST frames, within the device's queue.
       const room = depth - this.ledger.pairsInFlight;
@@ -100,13 +121,13 @@ export class Run implements RunHandle {
         if (k <= 0 || !this.sendList(retry.splice(0, k))) break;
         continue;
       }
-      if (this.cursor >= this.codes.length) break;
-      if (this.sweep) {
-        // The device makes sweep codes itself at line rate; two segments keep the line busy.
+      if (this.cursor >= this.total) break;
+      if (this.source.expanded) {
+        // The device makes sweep codes (grid vectors) itself at line rate; two segments keep the line busy.
         if (this.ledger.sweepsInFlight >= 2 || !this.sendSweep()) break;
         continue;
       }
-      const k = Math.min(listMax, this.codes.length - this.cursor, room);
+      const k = Math.min(listMax, this.total - this.cursor, room);
       if (k <= 0) break;
       const idx: number[] = [];
       for (let i = 0; i < k; i++) idx.push(this.cursor + i);
@@ -122,13 +143,9 @@ export class Run implements RunHandle {
       this.ledger.retry.unshift(...indexes);
       return false;
     }
-    const p = this.engine.profile;
-    const one = indexes.length === 1;
-    const payload = one
-      ? encodePayload({ kind: Kind.One, angleCode: this.codes[indexes[0]] }, p)
-      : encodePayload({ kind: Kind.List, angleCodes: indexes.map((i) => this.codes[i]) }, p);
-    this.ledger.open(tag, one ? Kind.One : Kind.List, Uint32Array.from(indexes), indexes.length);
-    this.transmit(one ? Kind.One : Kind.List, tag, payload);
+    const { kind, payload } = this.source.listRequest(indexes);
+    this.ledger.open(tag, kind, Uint32Array.from(indexes), indexes.length);
+    this.transmit(kind, tag, payload);
     return true;
   }
 
@@ -136,11 +153,10 @@ export class Run implements RunHandle {
     const tag = this.engine.takeTag();
     if (tag < 0) return false;
     const first = this.cursor;
-    const count = Math.min(this.engine.options.sweepSegment, this.codes.length - first);
-    const payload = encodePayload({ kind: Kind.Sweep, start: this.codes[first], step: this.sweep!.step, count }, this.engine.profile);
-    this.ledger.open(tag, Kind.Sweep, Uint32Array.of(first, count), count);
+    const { kind, payload, count } = this.source.expanded!(first, this.engine.options.sweepSegment);
+    this.ledger.open(tag, kind, Uint32Array.of(first, count), count);
     this.cursor += count;
-    this.transmit(Kind.Sweep, tag, payload);
+    this.transmit(kind, tag, payload);
     return true;
   }
 
@@ -155,7 +171,7 @@ export class Run implements RunHandle {
 
   private onReply(f: DecodedFrame) {
     if (this.finished) return;
-    if (f.kind !== Kind.Results && f.kind !== Kind.SweepEnd && f.kind !== Kind.Nak) return;
+    if (f.kind !== Kind.Results && f.kind !== Kind.VecResults && f.kind !== Kind.SweepEnd && f.kind !== Kind.Nak) return;
     const req = this.ledger.request(f.tag);
     if (!req) {
       // A control reply is handled by its own listener; anything else is stray.
@@ -163,30 +179,32 @@ export class Run implements RunHandle {
       return;
     }
     const m = this.engine.decode(f);
-    if (m.kind === Kind.Results) this.onResults(req, m);
+    const answers = this.source.answers(m);
+    if (answers) this.onResults(req, answers);
     else if (m.kind === Kind.SweepEnd) {
-      if (req.kind === Kind.Sweep) this.close(req, false);
+      if (isExpandedKind(req.kind)) this.close(req, false);
     } else if (m.kind === Kind.Nak) {
       if (m.refused !== req.kind) return;
-      if (m.reason === NakReason.AngleOutOfRange) {
-        for (const i of this.ledger.unanswered(req)) this.ledger.giveUp(i, 'angle out of range');
+      const outOfRange = m.reason === NakReason.AngleOutOfRange ? 'angle out of range' : m.reason === NakReason.VectorOutOfRange ? 'vector out of range' : null;
+      if (outOfRange) {
+        for (const i of this.ledger.unanswered(req)) this.ledger.giveUp(i, outOfRange);
         this.close(req, false, true);
       } else this.close(req, true);
-    }
+    } else return; // the other mode's results: not this run's (its TAG was reused by a corrupt frame)
     this.overtake(req.seq);
     this.pump();
   }
 
-  private onResults(req: InFlight, m: MessageOf<typeof Kind.Results>) {
+  private onResults(req: InFlight, m: AnswerColumns) {
     // Confirming costs a second request per doubtful answer, so only while the line is damaging frames.
     const confirm = this.handlers.confirm;
     const damaged = this.engine.options.clock.now() - this.engine.lastDamageAt < CONFIRM_WINDOW_MS;
-    const needsConfirming = confirm && damaged ? (i: number, cos: number, sin: number) => confirm(this.codes[i], cos, sin) : null;
+    const needsConfirming = confirm && damaged ? confirm : null;
     const { batch, duplicates, held } = this.ledger.results(req, m, needsConfirming);
     this.engine.figures.duplicates += duplicates;
     this.engine.figures.confirmations += held;
     if (batch) this.handlers.onResults?.(batch);
-    if (req.kind !== Kind.Sweep && req.received >= req.count) this.close(req, false);
+    if (!isExpandedKind(req.kind) && req.received >= req.count) this.close(req, false);
   }
 
   /** Requests sent before `seq` that are still open have lost what they lack. */
@@ -250,7 +268,7 @@ export class Run implements RunHandle {
     if (this.ledger.complete) this.finish('complete');
   }
 
-  private finish(status: RunResult['status'], message?: string, leftover: MissingCode['reason'] = 'no answer') {
+  private finish(status: RunOutcome['status'], message?: string, leftover: MissingCode['reason'] = 'no answer') {
     if (this.finished) return;
     const open = this.ledger.closeAll(leftover);
     this.finished = true;
@@ -265,6 +283,6 @@ export class Run implements RunHandle {
     figures.lineShare = elapsedMs > 0 ? (rxBytes * 1000) / elapsedMs / (this.engine.options.baud / 10) : 0;
     this.handlers.onProgress?.(this.progress());
     const { cos, sin, missing } = this.ledger;
-    this.resolve({ status, message, codes: this.codes, cos, sin, answered: this.ledger.answeredMask(), missing, figures, elapsedMs });
+    this.resolve(this.dress({ status, message, cos, sin, answered: this.ledger.answeredMask(), missing, figures, elapsedMs }));
   }
 }

@@ -1,18 +1,18 @@
 // The ledger of one run: the requests in flight and, per code, its answer, how often it was
 // asked and whether it is settled (answered, or listed missing with a reason). The run decides
 // what to send and when; the ledger guarantees that every code ends answered exactly once or
-// missing, never both.
-import { Kind } from '../link/kinds';
-import type { MessageOf } from '../link/payloads';
+// missing, never both. Inputs are angle codes or vectors alike: the ledger sees run indexes and
+// the reply's two answer columns (cos and sin, or angle and magnitude), kept as `cos` and `sin`.
 import type { MissingCode, ResultBatch } from './link-engine';
+import { isExpandedKind, type AnswerColumns, type RunKind } from './run-source';
 
 /** One request on the line. */
 export interface InFlight {
   tag: number;
-  kind: typeof Kind.One | typeof Kind.List | typeof Kind.Sweep;
+  kind: RunKind;
   /** Order of sending: a reply to a later request means an earlier one has lost what it lacks. */
   seq: number;
-  /** For ONE/LIST: the run indexes asked for. For SWEEP: [first run index, count]. */
+  /** For ONE/LIST (VEC_ONE/VEC_LIST): the run indexes asked for. For SWEEP (VEC_GRID): [first run index, count]. */
   indexes: Uint32Array;
   count: number;
   received: number;
@@ -46,7 +46,8 @@ export class RunLedger {
   private readonly held = new Map<number, [number, number]>();
 
   constructor(
-    readonly codes: Float64Array,
+    /** What names each input in the missing list (its angle code, or a vector's x). */
+    readonly codes: ArrayLike<number>,
     private readonly maxRetries: number,
   ) {
     const n = codes.length;
@@ -61,7 +62,7 @@ export class RunLedger {
   /** Puts a request on the books, numbered in sending order. */
   open(tag: number, kind: InFlight['kind'], indexes: Uint32Array, count: number): void {
     this.inFlight.set(tag, { tag, kind, seq: this.seq++, indexes, count, received: 0 });
-    if (kind === Kind.Sweep) this.sweepsInFlight++;
+    if (isExpandedKind(kind)) this.sweepsInFlight++;
     else this.pairsInFlight += count;
   }
 
@@ -80,7 +81,7 @@ export class RunLedger {
    */
   close(req: InFlight, settled = false): number[] | null {
     if (!this.inFlight.delete(req.tag)) return null;
-    if (req.kind === Kind.Sweep) this.sweepsInFlight--;
+    if (isExpandedKind(req.kind)) this.sweepsInFlight--;
     else this.pairsInFlight -= req.count;
     return settled ? [] : this.unanswered(req);
   }
@@ -88,7 +89,7 @@ export class RunLedger {
   /** The codes a request asked for that have no answer yet. */
   unanswered(req: InFlight): number[] {
     const out: number[] = [];
-    if (req.kind === Kind.Sweep) {
+    if (isExpandedKind(req.kind)) {
       for (let i = req.indexes[0], end = i + req.count; i < end; i++) if (this.isOpen(i)) out.push(i);
     } else for (const i of req.indexes) if (this.isOpen(i)) out.push(i);
     return out;
@@ -99,8 +100,9 @@ export class RunLedger {
    * answered a code that had its answer already (ignored), and how many were held back to be
    * confirmed (the code stays open, so it is asked for again when its request ends).
    */
-  results(req: InFlight, m: MessageOf<typeof Kind.Results>, needsConfirming: NeedsConfirming | null): { batch: ResultBatch | null; duplicates: number; held: number } {
+  results(req: InFlight, m: AnswerColumns, needsConfirming: NeedsConfirming | null): { batch: ResultBatch | null; duplicates: number; held: number } {
     const n = m.cos.length;
+    const expanded = isExpandedKind(req.kind);
     const indexes = new Uint32Array(n);
     let kept = 0;
     let duplicates = 0;
@@ -108,7 +110,7 @@ export class RunLedger {
     for (let j = 0; j < n; j++) {
       const pos = m.firstIndex + j;
       if (pos >= req.count) continue; // an index the request never had: corrupt, ignore
-      const idx = req.kind === Kind.Sweep ? req.indexes[0] + pos : req.indexes[pos];
+      const idx = expanded ? req.indexes[0] + pos : req.indexes[pos];
       req.received++;
       const cos = m.cos[j];
       const sin = m.sin[j];

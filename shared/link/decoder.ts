@@ -6,7 +6,7 @@
 // so a link engine can add up `bytes` over events to report skipped bytes.
 import { crc8, DEFAULT_CRC8, type Crc8, type Crc8Name } from './crc8';
 import { HEADER_BYTES, FRAME_OVERHEAD, SYNC } from './frame';
-import { REPLY_KINDS, REQUEST_KINDS } from './kinds';
+import { isKnownKind, REPLY_KINDS, REQUEST_KINDS } from './kinds';
 import { DEFAULT_PROFILE, isPossibleLength, validateProfile, type WireProfile } from './wire-profile';
 
 const INITIAL_CAPACITY = 1024;
@@ -58,8 +58,8 @@ export interface FrameDecoderOptions {
   crc?: Crc8Name;
   /** Sizes the LEN check of ONE, LIST and RESULTS. Default: turn, 16-bit angles, 16-bit outputs. */
   profile?: WireProfile;
-  /** Default `all`. */
-  accept?: AcceptedKinds;
+  /** Default `all`. A list of KIND codes: exactly those (a board that serves only some modes). */
+  accept?: AcceptedKinds | readonly number[];
 }
 
 /** Raised when push() is called from inside a decoder callback. */
@@ -95,10 +95,17 @@ export class FrameDecoder {
     this.onSkip = options.onSkip ?? (() => {});
     this.crc = crc8(options.crc ?? DEFAULT_CRC8);
     const accept = options.accept ?? 'all';
-    if (accept !== 'all' && accept !== 'replies' && accept !== 'requests') {
-      throw new TypeError(`FrameDecoder option "accept" must be all, replies or requests, got ${String(accept)}`);
+    if (Array.isArray(accept)) {
+      for (const k of accept as readonly number[]) {
+        if (!isKnownKind(k)) throw new TypeError(`FrameDecoder option "accept" lists ${String(k)}, which is no KIND of the bench link`);
+        this.known[k] = 1;
+      }
+    } else {
+      if (accept !== 'all' && accept !== 'replies' && accept !== 'requests') {
+        throw new TypeError(`FrameDecoder option "accept" must be all, replies, requests or a list of KINDs, got ${String(accept)}`);
+      }
+      for (const k of accept === 'requests' ? REQUEST_KINDS : accept === 'replies' ? REPLY_KINDS : [...REQUEST_KINDS, ...REPLY_KINDS]) this.known[k] = 1;
     }
-    for (const k of accept === 'requests' ? REQUEST_KINDS : accept === 'replies' ? REPLY_KINDS : [...REQUEST_KINDS, ...REPLY_KINDS]) this.known[k] = 1;
     this.currentProfile = DEFAULT_PROFILE;
     this.setProfile(options.profile ?? DEFAULT_PROFILE);
   }

@@ -8,12 +8,20 @@ import {
   angleBytes,
   angleCodeRange,
   INFO_FIXED_BYTES,
+  inputBytes,
   isPossibleLength,
   MAX_PAYLOAD,
   maxListCodes,
   maxResultPairs,
+  maxVectorListPairs,
+  maxVectorResultPairs,
+  MODE_INFO_FIXED_BYTES,
   outBytes,
   RESULTS_HEADER_BYTES,
+  VEC_GRID_BYTES,
+  validateVectorProfile,
+  vectorProfile,
+  type VectorWireProfile,
   type WireProfile,
 } from './wire-profile';
 
@@ -33,9 +41,49 @@ export interface DeviceInfo {
   name: string;
 }
 
+/**
+ * What a version-2 device tells in MODE_INFO: which modes it serves and, when it vectors, the
+ * vectoring core's formats (docs/protocol.md section 8).
+ */
+export interface ModeInfo {
+  rotation: boolean;
+  /** The vectoring core's formats, or null when the device does not vector. */
+  vectoring: VectoringFormats | null;
+}
+
+/** The formats and iteration count of a vectoring core, as MODE_INFO carries them. */
+export interface VectoringFormats {
+  inBits: number;
+  inFrac: number;
+  angleFormat: 'turn' | 'rad';
+  angleBits: number;
+  angleFrac: number;
+  magBits: number;
+  magFrac: number;
+  iterations: number;
+}
+
+/** A VEC_GRID request: x0 + i·dx for i < nx, y0 + j·dy for j < ny; point i·ny + j (y fastest). */
+export interface VectorGrid {
+  x0: number;
+  dx: number;
+  nx: number;
+  y0: number;
+  dy: number;
+  ny: number;
+}
+
+/** The MODE_INFO mode bits. */
+export const ModeBit = { Rotation: 1, Vectoring: 2 } as const;
+
 /** One decoded message; `kind` tells which. */
 export type Message =
-  | { kind: typeof Kind.Hello | typeof Kind.Pause | typeof Kind.Resume | typeof Kind.Abort }
+  | { kind: typeof Kind.Hello | typeof Kind.Modes | typeof Kind.Pause | typeof Kind.Resume | typeof Kind.Abort }
+  | { kind: typeof Kind.VecOne; x: number; y: number }
+  | { kind: typeof Kind.VecList; xs: number[]; ys: number[] }
+  | ({ kind: typeof Kind.VecGrid } & VectorGrid)
+  | { kind: typeof Kind.ModeInfo; modes: ModeInfo }
+  | { kind: typeof Kind.VecResults; firstIndex: number; angle: Int32Array; magnitude: Int32Array }
   | { kind: typeof Kind.One; angleCode: number }
   | { kind: typeof Kind.List; angleCodes: number[] }
   | { kind: typeof Kind.Sweep; start: number; step: number; count: number }
@@ -58,7 +106,23 @@ export class PayloadError extends Error {
 
 const INFO_FORMATS = ['turn', 'rad'] as const;
 
+// Field limits by width in bytes (1..4), signed and unsigned: put() checks every field, so not
+// recomputed per call.
+const FIELD_MIN = [0, -(2 ** 7), -(2 ** 15), -(2 ** 23), -(2 ** 31)];
+const FIELD_MAX_SIGNED = [0, 2 ** 7 - 1, 2 ** 15 - 1, 2 ** 23 - 1, 2 ** 31 - 1];
+const FIELD_MAX_UNSIGNED = [0, 2 ** 8 - 1, 2 ** 16 - 1, 2 ** 24 - 1, 2 ** 32 - 1];
+
 function put(out: Uint8Array, at: number, width: number, value: number, signed: boolean, field: string): void {
+  if (width <= 4) {
+    const min = signed ? FIELD_MIN[width] : 0;
+    const max = signed ? FIELD_MAX_SIGNED[width] : FIELD_MAX_UNSIGNED[width];
+    if (!Number.isInteger(value) || value < min || value > max) {
+      throw new PayloadError(`${field} must be an integer ${min}..${max} for a ${width}-byte field, got ${value}`);
+    }
+    // Within those limits the low bytes of the 32-bit pattern are the field, either sign.
+    for (let i = 0; i < width; i++) out[at + i] = (value >>> (8 * i)) & 0xff;
+    return;
+  }
   const bits = 8 * width;
   const min = signed ? -(2 ** (bits - 1)) : 0;
   const max = signed ? 2 ** (bits - 1) - 1 : 2 ** bits - 1;
@@ -83,6 +147,11 @@ function get(src: Uint8Array, at: number, width: number, signed: boolean): numbe
     const v = src[at] | (src[at + 1] << 8) | (src[at + 2] << 16) | (src[at + 3] << 24);
     return signed ? v : v >>> 0;
   }
+  // 3 bytes: the default vectoring core's 18-bit magnitudes.
+  if (width === 3) {
+    const v = src[at] | (src[at + 1] << 8) | (src[at + 2] << 16);
+    return signed ? (v << 8) >> 8 : v;
+  }
   let v = 0;
   for (let i = width - 1; i >= 0; i--) v = v * 256 + src[at + i];
   const bits = 8 * width;
@@ -95,10 +164,74 @@ export function encodePayload(m: Message, p: WireProfile): Uint8Array {
   const signedAngle = p.angleFormat === 'rad';
   switch (m.kind) {
     case Kind.Hello:
+    case Kind.Modes:
     case Kind.Pause:
     case Kind.Resume:
     case Kind.Abort:
       return new Uint8Array(0);
+    case Kind.VecOne: {
+      const iw = inputBytes(p);
+      const out = new Uint8Array(2 * iw);
+      put(out, 0, iw, m.x, true, 'x');
+      put(out, iw, iw, m.y, true, 'y');
+      return out;
+    }
+    case Kind.VecList: {
+      const iw = inputBytes(p);
+      const k = m.xs.length;
+      if (m.ys.length !== k) throw new PayloadError(`xs and ys must be the same length, got ${k} and ${m.ys.length}`);
+      if (k < 1 || k > maxVectorListPairs(p)) throw new PayloadError(`a VEC_LIST carries 1..${maxVectorListPairs(p)} vectors, got ${k}`);
+      const out = new Uint8Array(2 * iw * k);
+      for (let i = 0, at = 0; i < k; i++, at += 2 * iw) {
+        put(out, at, iw, m.xs[i], true, `xs[${i}]`);
+        put(out, at + iw, iw, m.ys[i], true, `ys[${i}]`);
+      }
+      return out;
+    }
+    case Kind.VecGrid: {
+      const out = new Uint8Array(VEC_GRID_BYTES);
+      put(out, 0, 4, m.x0, true, 'x0');
+      put(out, 4, 4, m.dx, true, 'dx');
+      put(out, 8, 4, m.y0, true, 'y0');
+      put(out, 12, 4, m.dy, true, 'dy');
+      put(out, 16, 2, m.nx, false, 'nx');
+      put(out, 18, 2, m.ny, false, 'ny');
+      return out;
+    }
+    case Kind.ModeInfo: {
+      const out = new Uint8Array(MODE_INFO_FIXED_BYTES);
+      const v = m.modes.vectoring;
+      out[0] = (m.modes.rotation ? ModeBit.Rotation : 0) | (v ? ModeBit.Vectoring : 0);
+      if (v) {
+        const format = INFO_FORMATS.indexOf(v.angleFormat);
+        if (format < 0) throw new PayloadError(`angleFormat must be "turn" or "rad", got ${JSON.stringify(v.angleFormat)}`);
+        put(out, 1, 1, v.inBits, false, 'inBits');
+        put(out, 2, 1, v.inFrac, false, 'inFrac');
+        put(out, 3, 1, format, false, 'angleFormat');
+        put(out, 4, 1, v.angleBits, false, 'angleBits');
+        put(out, 5, 1, v.angleFrac, false, 'angleFrac');
+        put(out, 6, 1, v.magBits, false, 'magBits');
+        put(out, 7, 1, v.magFrac, false, 'magFrac');
+        put(out, 8, 1, v.iterations, false, 'iterations');
+      }
+      return out;
+    }
+    case Kind.VecResults: {
+      const n = m.angle.length;
+      const v = vectorProfile(p);
+      const aw = Math.ceil(v.angleBits / 8);
+      const mw = Math.ceil(v.magBits / 8);
+      if (m.magnitude.length !== n) throw new PayloadError(`angle and magnitude must be the same length, got ${n} and ${m.magnitude.length}`);
+      if (n < 1 || n > maxVectorResultPairs(p)) throw new PayloadError(`a VEC_RESULTS frame carries 1..${maxVectorResultPairs(p)} pairs, got ${n}`);
+      const out = new Uint8Array(RESULTS_HEADER_BYTES + (aw + mw) * n);
+      put(out, 0, 4, m.firstIndex, false, 'firstIndex');
+      const signedOut = v.angleFormat === 'rad';
+      for (let i = 0, at = RESULTS_HEADER_BYTES; i < n; i++, at += aw + mw) {
+        put(out, at, aw, m.angle[i], signedOut, `angle[${i}]`);
+        put(out, at + aw, mw, m.magnitude[i], true, `magnitude[${i}]`);
+      }
+      return out;
+    }
     case Kind.One: {
       const out = new Uint8Array(aw);
       put(out, 0, aw, m.angleCode, signedAngle, 'angleCode');
@@ -182,10 +315,55 @@ export function decodePayload(kind: number, payload: Uint8Array, p: WireProfile)
   const b = payload;
   switch (kind) {
     case Kind.Hello:
+    case Kind.Modes:
     case Kind.Pause:
     case Kind.Resume:
     case Kind.Abort:
       return { kind };
+    case Kind.VecOne: {
+      const iw = inputBytes(p);
+      return { kind, x: get(b, 0, iw, true), y: get(b, iw, iw, true) };
+    }
+    case Kind.VecList: {
+      const iw = inputBytes(p);
+      const k = b.length / (2 * iw);
+      const xs: number[] = new Array(k);
+      const ys: number[] = new Array(k);
+      for (let i = 0, at = 0; i < k; i++, at += 2 * iw) {
+        xs[i] = get(b, at, iw, true);
+        ys[i] = get(b, at + iw, iw, true);
+      }
+      return { kind, xs, ys };
+    }
+    case Kind.VecGrid:
+      return { kind, x0: get(b, 0, 4, true), dx: get(b, 4, 4, true), y0: get(b, 8, 4, true), dy: get(b, 12, 4, true), nx: get(b, 16, 2, false), ny: get(b, 18, 2, false) };
+    case Kind.ModeInfo: {
+      // Bytes past the fixed fields belong to later versions: skipped.
+      if ((b[0] & ModeBit.Vectoring) === 0) return { kind, modes: { rotation: (b[0] & ModeBit.Rotation) !== 0, vectoring: null } };
+      const angleFormat = INFO_FORMATS[b[3]];
+      if (!angleFormat) throw new PayloadError(`MODE_INFO angleFormat code ${b[3]} is neither 0 (turn) nor 1 (rad)`);
+      const vectoring: VectoringFormats = { inBits: b[1], inFrac: b[2], angleFormat, angleBits: b[4], angleFrac: b[5], magBits: b[6], magFrac: b[7], iterations: b[8] };
+      try {
+        validateVectorProfile(vectorWireProfile(vectoring));
+      } catch (e) {
+        throw new PayloadError(`MODE_INFO: ${(e as Error).message}`);
+      }
+      return { kind, modes: { rotation: (b[0] & ModeBit.Rotation) !== 0, vectoring } };
+    }
+    case Kind.VecResults: {
+      const v = vectorProfile(p);
+      const aw = Math.ceil(v.angleBits / 8);
+      const mw = Math.ceil(v.magBits / 8);
+      const n = (b.length - RESULTS_HEADER_BYTES) / (aw + mw);
+      const angle = new Int32Array(n);
+      const magnitude = new Int32Array(n);
+      const signedOut = v.angleFormat === 'rad';
+      for (let i = 0, at = RESULTS_HEADER_BYTES; i < n; i++, at += aw + mw) {
+        angle[i] = get(b, at, aw, signedOut);
+        magnitude[i] = get(b, at + aw, mw, true);
+      }
+      return { kind, firstIndex: get(b, 0, 4, false), angle, magnitude };
+    }
     case Kind.One:
       return { kind, angleCode: get(b, 0, aw, signedAngle) };
     case Kind.List: {
@@ -238,6 +416,30 @@ export function decodePayload(kind: number, payload: Uint8Array, p: WireProfile)
 /** Builds the whole frame for message `m` with `tag`. */
 export function encodeMessage(m: Message, tag: number, p: WireProfile, crcName: Crc8Name = DEFAULT_CRC8): Uint8Array {
   return encodeFrame(m.kind, tag, encodePayload(m, p), crcName);
+}
+
+/** The vectoring wire profile of MODE_INFO's formats. */
+export function vectorWireProfile(f: VectoringFormats): VectorWireProfile {
+  return { inBits: f.inBits, angleFormat: f.angleFormat, angleBits: f.angleBits, magBits: f.magBits };
+}
+
+/**
+ * Vector k of a grid (k = i·ny + j, y fastest): x0 + i·dx and y0 + j·dy, each wrapped to inBits
+ * two's complement, as an inBits-wide adder of the board wraps.
+ */
+export function gridVector(g: VectorGrid, k: number, p: WireProfile): { x: number; y: number } {
+  const j = k % g.ny;
+  const i = (k - j) / g.ny;
+  const bits = vectorProfile(p).inBits;
+  return { x: wrapSigned(g.x0 + i * g.dx, bits), y: wrapSigned(g.y0 + j * g.dy, bits) };
+}
+
+/** `v` wrapped to a two's-complement integer of `bits` bits. */
+function wrapSigned(v: number, bits: number): number {
+  const m = 2 ** bits;
+  // i·dx stays below 2^16 · 2^31 = 2^47: exact in a double.
+  const u = ((v % m) + m) % m;
+  return u >= m / 2 ? u - m : u;
 }
 
 /** The wire profile a device announces in its INFO. */

@@ -9,7 +9,7 @@ import { pageGet, pagePost } from './page-fetch';
 import { connectBoard, runButton, runState } from './bench-steps';
 
 const ctx = appAndBrowser();
-const ids = { session: 0, sameCore: [] as number[], build: 0, core: 0, board: 0 };
+const ids = { session: 0, sameCore: [] as number[], vectoring: [] as number[], build: 0, core: 0, board: 0 };
 let invitationPath = '';
 
 // axe-core goes in as an inline script, which the app's CSP forbids: the audit's contexts bypass it.
@@ -27,7 +27,7 @@ async function signedIn(who: DemoRole, path: string): Promise<Page> {
 
 beforeAll(async () => {
   const page = await signedIn('engineer', '/');
-  const sessions = (await pageGet<{ items: { id: number; coreId: number; sampleCount: number }[] }>(page, '/api/sessions?pageSize=50')).items.filter((s) => s.sampleCount > 0);
+  const sessions = (await pageGet<{ items: { id: number; coreId: number; sampleCount: number; core: { mode: string } }[] }>(page, '/api/sessions?pageSize=50')).items.filter((s) => s.sampleCount > 0);
   ids.session = sessions[0].id;
   // Two of one core, so the compare page diffs them bit for bit (its list of differing codes scrolls).
   ids.sameCore = sessions.filter((s) => s.coreId === sessions[0].coreId).slice(0, 2).map((s) => s.id);
@@ -35,6 +35,9 @@ beforeAll(async () => {
   ids.core = (await pageGet<{ cores: { id: number }[] }>(page, '/api/cores')).cores[0].id;
   ids.board = (await pageGet<{ boards: { id: number }[] }>(page, '/api/boards')).boards[0].id;
   expect(ids.sameCore).toHaveLength(2);
+  // The demo's vectoring core: its first two sessions, the defective build's grid against the mended one's (differing vectors listed).
+  ids.vectoring = sessions.filter((s) => s.core.mode === 'vectoring').map((s) => s.id).sort((a, b) => a - b).slice(0, 2);
+  expect(ids.vectoring).toHaveLength(2);
 
   // An invitation's page is reached through the link the admin's invitation mails.
   const admin = await signedIn('admin', '/');
@@ -73,6 +76,8 @@ describe('every page passes the WCAG 2.1 AA audit (no serious or critical violat
     ['sessions', () => '/sessions', (p) => p.getByTestId('session-row').first().waitFor()],
     ['session', () => `/sessions/${ids.session}`, (p) => p.getByRole('table', { name: 'Verdict per limit' }).waitFor()],
     ['compare', () => `/compare?ids=${ids.sameCore.join(',')}`, (p) => p.getByTestId(`diff-summary-${ids.sameCore[1]}`).waitFor()],
+    ['vectoring session', () => `/sessions/${ids.vectoring[0]}`, (p) => p.getByTestId('chart-error-map').locator('canvas[aria-label*="cells answered"]').waitFor({ timeout: 30_000 })],
+    ['vectoring compare', () => `/compare?ids=${ids.vectoring.join(',')}`, (p) => p.getByRole('region', { name: /^First differing vectors/ }).waitFor()],
     ['builds', () => '/builds', heading('Builds')],
     ['build', () => `/builds/${ids.build}`, heading(/^Build /)],
     ['cores', () => '/cores', heading('Cores')],

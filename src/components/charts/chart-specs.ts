@@ -7,10 +7,13 @@
 //   xy         [cos ascending, sin]
 //   soakByPass [pass, model mismatches, unstable codes so far, link errors, re-asked]
 //   soakByTime [minutes into the soak, the same four]
+// and for vectoring cores (vector-plot-data.ts):
+//   angleError [direction°, angle error LSB]   magnitudeError [input magnitude, magnitude error LSB]
+//   vectorHistogram [bin centre LSB, angle count, magnitude count]
 import uPlot from 'uplot';
 import { axis, dots, FAIL, INK, line, REFERENCE, SIGNAL } from './uplot-theme';
 
-export type ChartId = 'values' | 'error' | 'errorCos' | 'errorSin' | 'histogram' | 'xy' | 'soakByPass' | 'soakByTime';
+export type ChartId = 'values' | 'error' | 'errorCos' | 'errorSin' | 'histogram' | 'xy' | 'soakByPass' | 'soakByTime' | 'angleError' | 'magnitudeError' | 'vectorHistogram';
 
 export interface ChartSpec {
   title: string;
@@ -67,6 +70,25 @@ export const CHART_SPECS: Record<ChartId, ChartSpec> = {
     title: 'Soak timeline, against time',
     testId: 'chart-soak',
     options: { scales: { x: { time: false } }, axes: [axis('minutes into the soak'), countAxis()], series: soakSeries() },
+  },
+  angleError: {
+    title: 'Angle error against direction, LSB',
+    testId: 'chart-angle-error',
+    options: { scales: { x: { time: false, range: [-180, 180] } }, axes: [axis('direction of (x, y), °'), axis('angle LSB')], series: [{}, dots(SIGNAL, 'angle error')] },
+  },
+  magnitudeError: {
+    title: 'Magnitude error against magnitude, LSB',
+    testId: 'chart-magnitude-error',
+    options: { scales: { x: { time: false } }, axes: [axis('input magnitude |(x, y)|'), axis('magnitude LSB')], series: [{}, dots(REFERENCE, 'magnitude error')] },
+  },
+  vectorHistogram: {
+    title: 'Error histogram, angle and magnitude',
+    testId: 'chart-vector-histogram',
+    options: {
+      scales: { x: { time: false } },
+      axes: [axis('error, LSB'), countAxis()],
+      series: [{}, { label: 'angle', stroke: SIGNAL, fill: SIGNAL + '88', paths: bars(-1) }, { label: 'magnitude', stroke: REFERENCE, fill: REFERENCE + '88', paths: bars(1) }],
+    },
   },
   xy: {
     title: 'XY circle (sin against cos)',

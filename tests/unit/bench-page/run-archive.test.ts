@@ -1,7 +1,6 @@
 import { describe, expect, it, vi } from 'vitest';
 import { samplesFromArchive } from '../../../shared/link-engine/archive-samples';
 import { BenchController } from '../../../src/features/bench/live/bench-controller';
-import type { StoredRun } from '../../../src/features/bench/live/unsaved-run';
 import type { UnsavedRunStore } from '../../../src/features/bench/live/unsaved-run-store';
 import { inProcessBoard } from '../../support/in-process-board';
 
@@ -16,7 +15,7 @@ vi.mock('../../../src/features/bench/live/score-client', () => ({
 
 /** A store that keeps what the controller puts away, in place of IndexedDB. */
 function memoryStore() {
-  const puts: StoredRun[] = [];
+  const puts: Parameters<UnsavedRunStore['put']>[0][] = [];
   const store: UnsavedRunStore = { put: async (r) => void puts.push(r), get: async () => puts.at(-1), clear: async () => undefined };
   return { puts, store };
 }

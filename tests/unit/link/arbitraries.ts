@@ -3,7 +3,10 @@ import fc from 'fast-check';
 import { encodeFrame } from '../../../shared/link/frame';
 import { Kind } from '../../../shared/link/kinds';
 
-/** Payload lengths that are possible for each KIND with 16-bit angles and 16-bit outputs. */
+/**
+ * Payload lengths that are possible for each KIND with 16-bit angles and 16-bit outputs, and the
+ * default vectoring core's 16-bit x/y, 16-bit angles and 18-bit (3-byte) magnitudes.
+ */
 const lengthFor: Record<number, fc.Arbitrary<number>> = {
   [Kind.Hello]: fc.constant(0),
   [Kind.One]: fc.constant(2),
@@ -17,6 +20,12 @@ const lengthFor: Record<number, fc.Arbitrary<number>> = {
   [Kind.SweepEnd]: fc.constant(5),
   [Kind.Ack]: fc.constant(1),
   [Kind.Nak]: fc.constant(2),
+  [Kind.Modes]: fc.constant(0),
+  [Kind.VecOne]: fc.constant(4),
+  [Kind.VecList]: fc.integer({ min: 1, max: 63 }).map((k) => 4 * k),
+  [Kind.VecGrid]: fc.constant(20),
+  [Kind.ModeInfo]: fc.integer({ min: 9, max: 255 }),
+  [Kind.VecResults]: fc.integer({ min: 1, max: 50 }).map((n) => 4 + 5 * n),
 };
 
 export interface RawFrame {

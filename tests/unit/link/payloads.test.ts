@@ -181,7 +181,7 @@ describe('payload codecs', () => {
   it('names KINDs, NAK reasons and sweep statuses as the protocol numbers them', () => {
     expect(kindName(Kind.SweepEnd)).toBe('SWEEP_END');
     expect(kindName(0x33)).toBe('0x33');
-    expect(NakReason).toEqual({ BadCheck: 1, BadLength: 2, UnknownKind: 3, Paused: 4, QueueFull: 5, AngleOutOfRange: 6 });
+    expect(NakReason).toEqual({ BadCheck: 1, BadLength: 2, UnknownKind: 3, Paused: 4, QueueFull: 5, AngleOutOfRange: 6, VectorOutOfRange: 7 });
     expect(SweepStatus).toEqual({ Complete: 0, Aborted: 1, Overflow: 2 });
     expect(Kind).toMatchObject({ Hello: 0x01, One: 0x10, List: 0x11, Sweep: 0x12, Info: 0x81, Results: 0x90, SweepEnd: 0x92, Ack: 0xa0, Nak: 0xaf });
   });

@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { postSession, sessionKeys, type SessionStoredReply } from '../../../lib/resources/sessions';
-import type { RunRecord } from '../live/bench-controller';
+import type { RunRecord, VectorRunRecord } from '../live/bench-controller';
 import { packSamples } from '../../../../shared/link-engine/sample-pack';
+import { packVectorSamples } from '../../../../shared/link-engine/vector-sample-pack';
 import type { Conditions } from '../../../../shared/soak';
 
 export type { LimitOutcome } from '../../../lib/resources/sessions';
@@ -9,7 +10,7 @@ export type { LimitOutcome } from '../../../lib/resources/sessions';
 export type SavedSession = SessionStoredReply;
 
 export interface SaveSessionInput {
-  record: RunRecord;
+  record: RunRecord | VectorRunRecord;
   coreId: number;
   buildId: number | null;
   boardId: number | null;
@@ -33,17 +34,22 @@ export function saveSession(input: SaveSessionInput): Promise<SavedSession> {
     endedAt: record.endedAt?.toISOString() ?? null,
     plan: { ...record.plan },
     transport: { label: record.transportLabel, baud: record.baud, source: 'bench' },
-    deviceInfo: record.info ? { ...record.info } : null,
+    deviceInfo: record.info ? { ...record.info, ...('mode' in record && record.modes ? { modes: record.modes } : {}) } : null,
     notes: input.notes,
     tags: input.tags,
     ...(input.conditions && Object.keys(input.conditions).length > 0 ? { conditions: input.conditions } : {}),
     // A soak's books, as the runner uploads them; the samples are its last whole pass.
-    ...(record.soak ? { soak: record.soak } : {}),
+    ...(!('mode' in record) && record.soak ? { soak: record.soak } : {}),
     ...(input.link ? { link: input.link } : {}),
   };
   const form = new FormData();
   form.set('session', JSON.stringify(session));
-  form.set('samples', new Blob([packSamples(record.codes, record.cos, record.sin, record.answered)], { type: 'application/octet-stream' }), 'samples.bin');
+  // A vectoring run's answers go as 16-byte records (x, y, angle, magnitude), a rotation run's as its own format.
+  const samples =
+    'mode' in record
+      ? packVectorSamples({ xs: record.xs, ys: record.ys, angles: record.angle, magnitudes: record.magnitude }, record.answered)
+      : packSamples(record.codes, record.cos, record.sin, record.answered);
+  form.set('samples', new Blob([samples], { type: 'application/octet-stream' }), 'samples.bin');
   if (input.archive) form.set('archive', input.archive, 'capture.abrc');
   return postSession(form);
 }

@@ -127,7 +127,7 @@ export function ConnectPanel({ controller, snap }: { controller: BenchController
           <p className="text-sm">
             <span className="font-bold text-pass">Connected</span> · {snap.transportLabel}
           </p>
-          {snap.info && <DeviceInfoTable info={snap.info} />}
+          {snap.info && <DeviceInfoTable info={snap.info} modes={snap.modes} />}
           <button type="button" className={btn} onClick={() => void controller.disconnect()}>
             Disconnect
           </button>
@@ -255,12 +255,27 @@ function Select({ label: text, options, reg }: { label: string; options: string[
   );
 }
 
-function DeviceInfoTable({ info }: { info: NonNullable<BenchSnapshot['info']> }) {
+function DeviceInfoTable({ info, modes }: { info: NonNullable<BenchSnapshot['info']>; modes: BenchSnapshot['modes'] }) {
+  const v = modes?.vectoring;
+  // A board that only vectors has no rotating core for INFO's formats to describe.
+  const rotates = modes?.rotation !== false;
   const rows: [string, string][] = [
     ['Device', info.name || '—'],
-    ['Angle', `${info.angleFormat}, ${info.angleBits} bit${info.angleFormat === 'rad' ? `, ${info.angleFrac} frac` : ''}`],
-    ['Output', `${info.outBits} bit, ${info.outFrac} frac`],
-    ['Iterations', String(info.iterations)],
+    ...(rotates
+      ? ([
+          ['Angle', `${info.angleFormat}, ${info.angleBits} bit${info.angleFormat === 'rad' ? `, ${info.angleFrac} frac` : ''}`],
+          ['Output', `${info.outBits} bit, ${info.outFrac} frac`],
+          ['Iterations', String(info.iterations)],
+        ] as [string, string][])
+      : []),
+    ...(v
+      ? ([
+          ['Vectoring x, y', `${v.inBits} bit, ${v.inFrac} frac`],
+          ['atan2 out', `${v.angleFormat}, ${v.angleBits} bit${v.angleFormat === 'rad' ? `, ${v.angleFrac} frac` : ''}`],
+          ['Magnitude out', `${v.magBits} bit, ${v.magFrac} frac`],
+          ['Vectoring iterations', String(v.iterations)],
+        ] as [string, string][])
+      : []),
     ['Queue depth', String(info.queueDepth)],
     ['Build', `0x${info.buildId.toString(16).padStart(8, '0')}`],
     ['Clock', `${(info.clockKHz / 1000).toLocaleString()} MHz`],

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useEffect, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { useNavigate } from 'react-router-dom';
 import { z } from 'zod';
@@ -10,6 +10,7 @@ import { useCores } from '../../../lib/resources/cores';
 import { useSaveSession, type LimitOutcome, type SavedSession } from '../api/save-session';
 import type { BenchController, BenchSnapshot } from '../live/bench-controller';
 import { answeredCount } from '../../../../shared/link-engine/sample-pack';
+import { LIMIT_MEANINGS } from '../../../../shared/link-engine/limits';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 import { checkConditionForm, conditionFormFields, ConditionFields, conditionsOfForm, emptyConditionForm } from './condition-fields';
 
@@ -33,16 +34,7 @@ function splitTags(v: string): string[] {
 }
 
 /** Plain words for each limit the server checked. */
-const LIMIT_NAMES: Record<string, { name: string; unit: string; atMost: boolean }> = {
-  maxAbsErrorLsb: { name: 'Largest error', unit: 'LSB', atMost: true },
-  maxRmsErrorLsb: { name: 'RMS error', unit: 'LSB', atMost: true },
-  maxAbsBiasLsb: { name: 'Mean error (bias)', unit: 'LSB', atMost: true },
-  minSfdrDb: { name: 'SFDR', unit: 'dB', atMost: false },
-  maxModelMismatches: { name: 'Model mismatches', unit: '', atMost: true },
-  maxLinkErrors: { name: 'Link errors', unit: '', atMost: true },
-  minCoveragePct: { name: 'Coverage', unit: '%', atMost: false },
-  maxUnstableCodes: { name: 'Unstable codes', unit: '', atMost: true },
-};
+const LIMIT_NAMES: Record<string, { name: string; unit: string; atMost: boolean }> = LIMIT_MEANINGS;
 
 const num = (v: number) => (Number.isInteger(v) ? v.toLocaleString('en-US') : v.toLocaleString('en-US', { maximumFractionDigits: 4 }));
 
@@ -105,6 +97,9 @@ export function SaveSessionPanel({ controller, snap }: { controller: BenchContro
     defaultValues: { coreId: '', buildId: '', boardId: '', notes: '', tags: '', ...emptyConditionForm },
   });
   const coreId = watch('coreId');
+  // A run is saved to a core of its own mode: the server scores it with that core's model.
+  const mode = 'mode' in (record ?? {}) ? 'vectoring' : 'rotation';
+  const modeCores = useMemo(() => cores.data?.filter((c) => c.mode === mode), [cores.data, mode]);
   const builds = useCoreBuilds(coreId ? Number(coreId) : null);
 
   // A new run starts a new save.
@@ -115,15 +110,20 @@ export function SaveSessionPanel({ controller, snap }: { controller: BenchContro
     resetSave();
   }, [record, resetSave]);
 
-  // Default core: reference-16 when the server has it.
+  // Default core: reference-16 for a rotation run when the server has it; the only core of the run's mode otherwise.
   useEffect(() => {
-    if (!cores.data || getValues('coreId')) return;
-    const preferred = cores.data.find((c) => c.slug === DEFAULT_CORE_SLUG) ?? (cores.data.length === 1 ? cores.data[0] : undefined);
-    if (preferred) setValue('coreId', String(preferred.id));
-  }, [cores.data, getValues, setValue]);
+    if (!modeCores) return;
+    const current = getValues('coreId');
+    if (current && modeCores.some((c) => String(c.id) === current)) return;
+    const preferred = (mode === 'rotation' ? modeCores.find((c) => c.slug === DEFAULT_CORE_SLUG) : undefined) ?? (modeCores.length === 1 ? modeCores[0] : undefined);
+    const next = preferred ? String(preferred.id) : '';
+    if (next !== current) setValue('coreId', next);
+  }, [modeCores, mode, getValues, setValue]);
 
   const ended = run?.state === 'finished';
   const count = record && ended ? answeredCount(record.answered) : 0;
+  // A soak's books (a vectoring run has none).
+  const soak = record && !('mode' in record) ? record.soak : null;
   if (!ended || !record || count === 0) return null;
 
   const submit = (v: SaveForm) => {
@@ -163,7 +163,7 @@ export function SaveSessionPanel({ controller, snap }: { controller: BenchContro
       {!open && !saved && (
         <div className="grid gap-2">
           <p className="text-sm text-ink-soft">
-            {count.toLocaleString('en-US')} results {record.soak ? `from the last whole pass of a soak of ${record.soak.summary.passes.toLocaleString('en-US')} passes, with its timeline and ${record.soak.unstable.count.toLocaleString('en-US')} unstable codes` : run.result?.status === 'complete' ? 'from a complete run' : 'from an ended run'}
+            {count.toLocaleString('en-US')} results {soak ? `from the last whole pass of a soak of ${soak.summary.passes.toLocaleString('en-US')} passes, with its timeline and ${soak.unstable.count.toLocaleString('en-US')} unstable codes` : run.result?.status === 'complete' ? 'from a complete run' : 'from an ended run'}
             {run.restoredFrom ? `, restored from this browser (kept ${new Date(run.restoredFrom).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' })})` : ''}. Save them so the server can judge them against the core’s limits; until then this browser keeps them.
           </p>
           <button type="button" className={btnPrimary} onClick={() => setOpen(true)}>
@@ -177,8 +177,8 @@ export function SaveSessionPanel({ controller, snap }: { controller: BenchContro
             <label className={label}>
               Core
               <select className={input} {...register('coreId', { onChange: () => setValue('buildId', '') })}>
-                <option value="">{cores.isPending ? 'Loading cores…' : 'Choose a core'}</option>
-                {cores.data?.map((c) => (
+                <option value="">{cores.isPending ? 'Loading cores…' : mode === 'vectoring' ? 'Choose a vectoring core' : 'Choose a core'}</option>
+                {modeCores?.map((c) => (
                   <option key={c.id} value={c.id}>
                     {c.name} ({c.slug})
                   </option>

@@ -1,5 +1,6 @@
 import type { BenchSnapshot } from '../live/bench-controller';
 import { panel, panelTitle } from '../../../components/ui';
+import { LinkFiguresList } from './link-figures-list';
 import { ToneFigures } from './tone-figures';
 
 const n = (v: number, digits = 3) => (Number.isFinite(v) ? v.toFixed(digits) : '—');
@@ -9,7 +10,6 @@ const int = (v: number) => v.toLocaleString('en-US');
 export function StatsPanel({ run }: { run: BenchSnapshot['run'] }) {
   const s = run?.summary;
   const f = run?.figures;
-  const naks = f ? Object.values(f.naks).reduce((a, b) => a + b, 0) : 0;
   const rows: [string, string, string?][] = s
     ? [
         ['Scored', int(s.count)],
@@ -76,35 +76,7 @@ export function StatsPanel({ run }: { run: BenchSnapshot['run'] }) {
           )}
         </div>
       )}
-      {f && (
-        <dl className="mt-3 grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 border-t border-rule pt-3 text-sm">
-          <dt className="text-ink-soft">Frames out / in</dt>
-          <dd className="font-mono">
-            {int(f.framesSent)} / {int(f.framesReceived)}
-          </dd>
-          <dt className="text-ink-soft">Bytes out / in</dt>
-          <dd className="font-mono">
-            {int(f.bytesSent)} / {int(f.bytesReceived)}
-          </dd>
-          <dt className="text-ink-soft">Line use</dt>
-          <dd className="font-mono">{n(f.lineShare * 100, 1)} %</dd>
-          <dt className="text-ink-soft">Bad CHECK / skipped</dt>
-          <dd className="font-mono">
-            {int(f.checkFailures)} / {int(f.skippedBytes)} B
-          </dd>
-          <dt className="text-ink-soft">NAKs / retries</dt>
-          <dd className="font-mono">
-            {int(naks)} / {int(f.retries)}
-          </dd>
-          <dt className="text-ink-soft" title="Answers off the model that arrived on a damaged line, asked for again before they were taken">
-            Confirmed again
-          </dt>
-          <dd className="font-mono">
-            {int(f.confirmations ?? 0)}
-            {(f.unconfirmed ?? 0) > 0 && <span className="text-fail"> ({int(f.unconfirmed)} not)</span>}
-          </dd>
-        </dl>
-      )}
+      {f && <LinkFiguresList figures={f} />}
     </section>
   );
 }

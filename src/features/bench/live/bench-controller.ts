@@ -5,14 +5,15 @@
 // does not lose it. A soak repeats the plan through the shared soak loop (shared/soak/soak-run.ts):
 // the charts and figures follow the pass under way, the soak's books reach the page at most once a
 // frame, and what is kept for saving is the last whole pass with the books.
-import type { LinkEngine, ResultBatch, RunHandle } from '../../../../shared/link-engine/link-engine';
+import type { LinkEngine, ResultBatch, RunControls } from '../../../../shared/link-engine/link-engine';
 import type { RunRequest } from '../../../../shared/link-engine/run-request';
 import type { ByteLink, LinkCloseReason } from '../../../../shared/link-engine/byte-link';
 import type { RunProgress, LinkFigures } from '../../../../shared/link-engine/link-figures';
 import { confirmOffModel } from '../../../../shared/link-engine/confirm-off-model';
-import type { DeviceInfo } from '../../../../shared/link';
+import type { DeviceInfo, ModeInfo } from '../../../../shared/link';
 import type { Plan, ScoreSummary } from '../../../../shared/numeric';
 import { runSoak, scorePass, type SoakSpec } from '../../../../shared/soak';
+import { createVectorModel, type VectorConfig, type VectorPlan, type VectorScoreSummary } from '../../../../shared/vectoring';
 import type { ConnectionRecording } from './connection-recording';
 import type { RecorderMark } from '../../../../shared/link/recorder';
 import { LiveSamples } from './live-samples';
@@ -25,31 +26,43 @@ import type { ToneResult } from './score-protocol';
 import { TrafficLog } from './traffic-log';
 import { fromStoredRun, restoredProgress, toStoredRun, type RunOutcome, type RunRecord } from './unsaved-run';
 import { unsavedRunStore, type UnsavedRunStore } from './unsaved-run-store';
+import { VectorLiveSamples } from './vector-live-samples';
+import { fromStoredVectorRun, isStoredVectorRun, newVectorRun, takeVectorResults, toStoredVectorRun, type VectorRunRecord } from './vector-run';
+import { VectorScoreClient } from './vector-score-client';
 
 export type { RunRecord } from './unsaved-run';
+export type { VectorRunRecord } from './vector-run';
+
+/** What a run computes: cos/sin of angles, or atan2 and magnitude of (x, y) pairs. */
+export type RunMode = 'rotation' | 'vectoring';
 
 export interface BenchSnapshot {
   status: 'idle' | 'connecting' | 'connected' | 'closed';
   transportLabel: string | null;
   info: DeviceInfo | null;
+  /** What the board serves (MODE_INFO; a version-1 board only rotates). */
+  modes: ModeInfo | null;
   /** A plain-words problem with the connection, shown where it happened. */
   linkMessage: string | null;
   run: {
     state: 'running' | 'paused' | 'finished';
+    mode: RunMode;
     progress: RunProgress | null;
     result: RunOutcome | null;
     summary: ScoreSummary | null;
+    /** A vectoring run's statistics (summary stays null). */
+    vectorSummary: VectorScoreSummary | null;
     tone: ToneResult | null;
     figures: LinkFigures | null;
     error: string | null;
-    plan: Plan;
+    plan: Plan | VectorPlan;
     /** Set when the run was brought back from the browser's store. */
     restoredFrom: number | null;
     /** A soak's pass under way and its books so far; null for a single run. */
     soak: SoakView | null;
   } | null;
   /** An unsaved run found in the browser's store, offered for restoring; when it was stored. */
-  restorable: { storedAt: number; plan: Plan; answered: number } | null;
+  restorable: { storedAt: number; plan: Plan | VectorPlan; answered: number } | null;
   /** A problem keeping or reading the unsaved run. */
   storeMessage: string | null;
 }
@@ -68,16 +81,18 @@ const PROGRESS_EVERY_MS = 250;
 export class BenchController {
   readonly traffic = new TrafficLog();
   samples: LiveSamples | null = null;
+  /** A vectoring run's chart data; null while the latest run rotates. */
+  vectorSamples: VectorLiveSamples | null = null;
   /** The latest run's results (for saving); null before the first run. */
-  record: RunRecord | null = null;
+  record: RunRecord | VectorRunRecord | null = null;
   private baud = 0;
-  private snap: BenchSnapshot = { status: 'idle', transportLabel: null, info: null, linkMessage: null, run: null, restorable: null, storeMessage: null };
+  private snap: BenchSnapshot = { status: 'idle', transportLabel: null, info: null, modes: null, linkMessage: null, run: null, restorable: null, storeMessage: null };
   private listeners = new Set<() => void>();
   private link: ByteLink | null = null;
   private engine: LinkEngine | null = null;
   private recording: ConnectionRecording | null = null;
-  private handle: RunHandle | null = null;
-  private scorer: ScoreClient | null = null;
+  private handle: RunControls | null = null;
+  private scorer: ScoreClient | VectorScoreClient | null = null;
   private lastProgressAt = 0;
   /** The soak under way or last run (its timeline chart reads it every frame); null for a single run. */
   soak: SoakLive | null = null;
@@ -147,7 +162,7 @@ export class BenchController {
   /** Open a link (made by the caller), say HELLO and keep INFO. Everything on it is recorded. */
   async connect(open: () => Promise<ByteLink>, label: string, baud: number) {
     this.baud = baud;
-    this.set({ status: 'connecting', transportLabel: label, linkMessage: null, info: null });
+    this.set({ status: 'connecting', transportLabel: label, linkMessage: null, info: null, modes: null });
     try {
       const onClose = (link: ByteLink, r: LinkCloseReason) => {
         if (this.link !== link) return;
@@ -159,7 +174,9 @@ export class BenchController {
       [this.link, this.engine, this.recording] = [link, engine, recording];
       const info = await engine.hello();
       recording.info(info, clock.now());
-      this.set({ status: 'connected', info });
+      // A version-2 board says whether it also vectors; a version-1 board is not asked.
+      const modes = await engine.modes();
+      this.set({ status: 'connected', info, modes });
     } catch (err) {
       await this.link?.close().catch(() => undefined);
       this.link = null;
@@ -183,7 +200,7 @@ export class BenchController {
     this.soak = soak ? new SoakLive(soak) : null;
     const scorer = this.startScoring(record);
     this.deferred = null;
-    this.set({ restorable: null, run: { state: 'running', progress: null, result: null, summary: null, tone: null, figures: null, error: null, plan, restoredFrom: null, soak: this.soak?.view() ?? null } });
+    this.set({ restorable: null, run: { state: 'running', mode: 'rotation', progress: null, result: null, summary: null, vectorSummary: null, tone: null, figures: null, error: null, plan, restoredFrom: null, soak: this.soak?.view() ?? null } });
     const engine = this.engine;
     this.recording?.markRun();
     if (soak) return this.runSoak(engine, request, record, soak);
@@ -206,14 +223,21 @@ export class BenchController {
   /** What every run or pass does with its answers and progress: into the record, the scorer and the page. */
   private passHandlers(engine: LinkEngine, record: RunRecord) {
     const codes = record.codes;
-    let rxAtStart = engine.figures.bytesReceived;
     return {
       // On a damaged line, an answer off the model is asked for again before it is taken.
       confirm: confirmOffModel(record.config),
       onResults: (b: ResultBatch) => {
         takeResults(record, b);
-        this.scorer?.queue(codes, b.indexes, b.cos, b.sin);
+        if (this.scorer instanceof ScoreClient) this.scorer.queue(codes, b.indexes, b.cos, b.sin);
       },
+      ...this.progressReporter(engine),
+    };
+  }
+
+  /** Progress for the snapshot, at most every PROGRESS_EVERY_MS, in the page's frame slots. */
+  private progressReporter(engine: LinkEngine) {
+    let rxAtStart = engine.figures.bytesReceived;
+    return {
       onProgress: (p: RunProgress) => {
         const now = clock.now();
         if (now - this.lastProgressAt < PROGRESS_EVERY_MS) return;
@@ -226,6 +250,46 @@ export class BenchController {
       /** A soak's next pass: line use is measured over it alone. */
       restart: () => void (rxAtStart = engine.figures.bytesReceived),
     };
+  }
+
+  /** Start a vectoring plan on a board whose MODE_INFO has a vectoring core, scored against `config`. Throws for a bad plan. */
+  startVectorRun(plan: VectorPlan, config: VectorConfig) {
+    if (!this.engine) throw new Error('Connect to a board first');
+    if (!this.snap.modes?.vectoring) throw new Error('The connected board serves no vectoring core');
+    const { request, record } = newVectorRun(plan, config, this.engine.profile, { transportLabel: this.snap.transportLabel, baud: this.baud, info: this.snap.info, modes: this.snap.modes });
+    this.record = record;
+    this.soak = null;
+    const scorer = this.startVectorScoring(record);
+    this.deferred = null;
+    this.set({ restorable: null, run: { state: 'running', mode: 'vectoring', progress: null, result: null, summary: null, vectorSummary: null, tone: null, figures: null, error: null, plan, restoredFrom: null, soak: null } });
+    const engine = this.engine;
+    this.recording?.markRun();
+    const model = createVectorModel(config);
+    const handle = engine.runVectors(request, {
+      // On a damaged line, an answer off the model is asked for again before it is taken.
+      confirm: (x, y, angle, magnitude) => {
+        const m = model.answer(x, y);
+        return m.angle !== angle || m.magnitude !== magnitude;
+      },
+      onResults: (b) => {
+        takeVectorResults(record, b);
+        scorer.queue(record.xs, record.ys, b.indexes, b.angle, b.magnitude);
+      },
+      onProgress: this.progressReporter(engine).onProgress,
+    });
+    this.handle = handle;
+    handle.done.then(
+      (res) => {
+        record.outcome = { status: res.status, message: res.message, elapsedMs: res.elapsedMs, missing: res.missing.length };
+        record.figures = res.figures;
+        this.endRun(record, scorer);
+        this.setRun({ state: 'finished', progress: handle.progress(), figures: res.figures, result: record.outcome });
+      },
+      (err: Error) => {
+        this.endRun(record, scorer);
+        this.setRun({ state: 'finished', error: err.message });
+      },
+    );
   }
 
   /**
@@ -281,14 +345,14 @@ export class BenchController {
         record.outcome = { status: out.status, message: out.message, elapsedMs: soakMs, missing: ended.missing.length };
         record.figures = ended.figures;
         record.soak = out.acc.passes > 0 ? out.acc.record(spec) : null;
-        const scorer = cutAfterWhole ? this.rescore(record) : this.scorer!;
+        const scorer = cutAfterWhole ? this.rescore(record) : (this.scorer as ScoreClient);
         this.endRun(record, scorer);
         const progress = cutAfterWhole ? restoredProgress(record) : this.handle!.progress();
         this.endSoak();
         this.setRun({ state: 'finished', progress, figures: ended.figures, result: record.outcome });
       },
       (err: Error) => {
-        this.endRun(record, this.scorer!);
+        this.endRun(record, this.scorer as ScoreClient);
         this.endSoak();
         this.setRun({ state: 'finished', error: err.message });
       },
@@ -323,7 +387,7 @@ export class BenchController {
   /** Look for an unsaved run from an earlier visit and offer it. */
   async findUnsaved() {
     try {
-      const raw = (await this.store.get()) as { storedAt?: number; plan?: Plan; answered?: Uint8Array } | undefined;
+      const raw = (await this.store.get()) as { storedAt?: number; plan?: Plan | VectorPlan; answered?: Uint8Array } | undefined;
       if (!raw || this.snap.run) return;
       let answered = 0;
       for (const a of raw.answered ?? []) answered += a ? 1 : 0;
@@ -337,20 +401,40 @@ export class BenchController {
   async restoreUnsaved() {
     try {
       const raw = await this.store.get();
-      const record = fromStoredRun(raw);
       const storedAt = (raw as { storedAt: number }).storedAt;
+      if (isStoredVectorRun(raw)) return this.restoreVectorRun(fromStoredVectorRun(raw), storedAt);
+      const record = fromStoredRun(raw);
       this.record = record;
       this.soak = null;
       this.deferred = null;
       this.set({
         restorable: null,
         storeMessage: null,
-        run: { state: 'finished', progress: restoredProgress(record), result: record.outcome, summary: null, tone: null, figures: record.figures, error: null, plan: record.plan, restoredFrom: storedAt, soak: null },
+        run: { state: 'finished', mode: 'rotation', progress: restoredProgress(record), result: record.outcome, summary: null, vectorSummary: null, tone: null, figures: record.figures, error: null, plan: record.plan, restoredFrom: storedAt, soak: null },
       });
       this.rescore(record).finish();
     } catch (err) {
       this.set({ restorable: null, storeMessage: `The unsaved run could not be restored: ${(err as Error).message}` });
     }
+  }
+
+  private restoreVectorRun(record: VectorRunRecord, storedAt: number) {
+    this.record = record;
+    this.soak = null;
+    this.deferred = null;
+    const scorer = this.startVectorScoring(record);
+    const indexes: number[] = [];
+    for (let i = 0; i < record.answered.length; i++) if (record.answered[i]) indexes.push(i);
+    const answered = indexes.length;
+    const missing = record.outcome?.missing ?? record.xs.length - answered;
+    const progress: RunProgress = { done: answered + missing, answered, missing, total: record.xs.length, ratePerS: record.figures?.resultsPerS ?? 0, etaS: null, elapsedMs: record.outcome?.elapsedMs ?? 0, paused: false };
+    this.set({
+      restorable: null,
+      storeMessage: null,
+      run: { state: 'finished', mode: 'vectoring', progress, result: record.outcome, summary: null, vectorSummary: null, tone: null, figures: record.figures, error: null, plan: record.plan, restoredFrom: storedAt, soak: null },
+    });
+    scorer.queue(record.xs, record.ys, indexes, indexes.map((i) => record.angle[i]), indexes.map((i) => record.magnitude[i]));
+    scorer.finish();
   }
 
   /** Forget the stored run: it was saved to the server, or the operator discarded it. */
@@ -376,6 +460,7 @@ export class BenchController {
     this.scorer?.terminate();
     const samples = new LiveSamples(record.config);
     this.samples = samples;
+    this.vectorSamples = null;
     const scorer: ScoreClient = new ScoreClient(record.config, record.plan, samples, {
       summary: (summary, tone, final) => scorer === this.scorer && (final ? this.setRun({ summary, tone }) : this.setRunInSlot({ summary, tone })),
       error: (message) => scorer === this.scorer && this.setRun({ error: message }),
@@ -393,13 +478,26 @@ export class BenchController {
     return scorer;
   }
 
+  private startVectorScoring(record: VectorRunRecord): VectorScoreClient {
+    this.scorer?.terminate();
+    const samples = new VectorLiveSamples(record.config);
+    this.vectorSamples = samples;
+    this.samples = null;
+    const scorer: VectorScoreClient = new VectorScoreClient(record.config, samples, {
+      summary: (vectorSummary) => scorer === this.scorer && this.setRun({ vectorSummary }),
+      error: (message) => scorer === this.scorer && this.setRun({ error: message }),
+    });
+    this.scorer = scorer;
+    return scorer;
+  }
+
   /** The run is over: score what is left, keep the capture and put the run away until saved. */
-  private endRun(record: RunRecord, scorer: ScoreClient) {
+  private endRun(record: RunRecord | VectorRunRecord, scorer: ScoreClient | VectorScoreClient) {
     record.endedAt = new Date();
     record.archive = this.recording?.runArchive() ?? null;
     scorer.finish();
     this.set({ restorable: null });
-    this.store.put(toStoredRun(record, Date.now())).then(
+    this.store.put('mode' in record ? toStoredVectorRun(record, Date.now()) : toStoredRun(record, Date.now())).then(
       () => this.snap.storeMessage && this.set({ storeMessage: null }),
       (err: Error) => this.set({ storeMessage: `This run is not kept in the browser, so a reload loses it: ${err.message}` }),
     );

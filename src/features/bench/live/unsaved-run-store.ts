@@ -1,5 +1,6 @@
 // The one unsaved run kept in IndexedDB (a single key, so only the latest is ever kept).
 import type { StoredRun } from './unsaved-run';
+import type { StoredVectorRun } from './vector-run';
 
 const DB_NAME = 'anglebench-bench';
 const STORE = 'unsaved-run';
@@ -31,7 +32,7 @@ async function withStore<T>(mode: IDBTransactionMode, fn: (s: IDBObjectStore) =>
 }
 
 export const unsavedRunStore = {
-  put: (run: StoredRun) => withStore('readwrite', (s) => s.put(run, KEY)).then(() => undefined),
+  put: (run: StoredRun | StoredVectorRun) => withStore('readwrite', (s) => s.put(run, KEY)).then(() => undefined),
   get: () => withStore<unknown>('readonly', (s) => s.get(KEY)),
   clear: () => withStore('readwrite', (s) => s.delete(KEY)).then(() => undefined),
 };

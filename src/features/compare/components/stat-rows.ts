@@ -28,6 +28,22 @@ export const STAT_ROWS: StatRow[] = [
   { key: 'coveragePct', name: 'Code coverage', unit: '%', better: 'higher', digits: 3 },
 ];
 
+/** The figures of vectoring sessions: angle errors in angle LSB, magnitude errors in magnitude LSB and ppm. */
+export const VECTOR_STAT_ROWS: StatRow[] = [
+  { key: 'count', name: 'Pairs scored', unit: '', better: null, digits: 0 },
+  { key: 'angleMaxAbsLsb', name: 'Largest |angle error|', unit: 'LSB', better: 'lower', digits: 3 },
+  { key: 'angleRmsLsb', name: 'RMS angle error', unit: 'LSB', better: 'lower', digits: 4 },
+  { key: 'angleBiasLsb', name: 'Mean angle error (bias)', unit: 'LSB', better: 'nearer-zero', digits: 4 },
+  { key: 'magnitudeMaxAbsLsb', name: 'Largest |magnitude error|', unit: 'LSB', better: 'lower', digits: 3 },
+  { key: 'magnitudeRmsLsb', name: 'RMS magnitude error', unit: 'LSB', better: 'lower', digits: 4 },
+  { key: 'magnitudeMaxAbsPpm', name: 'Largest relative magnitude error', unit: 'ppm', better: 'lower', digits: 1 },
+  { key: 'modelMismatches', name: 'Model mismatches', unit: '', better: 'lower', digits: 0 },
+  { key: 'coveragePct', name: 'Plane coverage', unit: '% of cells', better: 'higher', digits: 2 },
+];
+
+/** The rows for sessions of one mode (a comparison holds one mode). */
+export const statRowsOf = (mode: 'rotation' | 'vectoring') => (mode === 'vectoring' ? VECTOR_STAT_ROWS : STAT_ROWS);
+
 export const shown = (row: StatRow, v: number | null) => (v === null ? null : v * (row.scale ?? 1));
 
 export function formatStat(row: StatRow, v: number | null): string {

@@ -2,7 +2,7 @@ import { panel, panelTitle } from '../../../components/ui';
 import type { ComparedSession } from '../api/compare-types';
 import { sessionName } from './chart-data';
 import { colourOf } from './chart-look';
-import { compareStat, formatStat, STAT_ROWS, type StatRow } from './stat-rows';
+import { compareStat, formatStat, statRowsOf, type StatRow } from './stat-rows';
 
 const LOOK = { better: 'text-pass', worse: 'text-fail', same: 'text-ink-soft', different: 'text-ink' } as const;
 
@@ -42,7 +42,7 @@ export function StatsTable({ sessions }: { sessions: ComparedSession[] }) {
             </tr>
           </thead>
           <tbody>
-            {STAT_ROWS.map((row) => (
+            {statRowsOf(first.mode).map((row) => (
               <tr key={row.key} className="border-t border-rule/60" data-testid={`stat-row-${row.key}`}>
                 <th scope="row" className="py-1 pr-4 text-left font-normal">
                   {row.name}

@@ -2,7 +2,8 @@
 // reduced to chart data. Samples never change once stored, so the result is kept for good.
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ModelConfig } from '../../../../shared/numeric';
-import { runStoredScore } from '../scoring/run-stored-score';
+import type { VectorConfig } from '../../../../shared/vectoring';
+import { runStoredScore, runVectorStoredScore } from '../scoring/run-stored-score';
 import { scoringProgress } from '../scoring/scoring-progress';
 import { fetchBytes } from './fetch-bytes';
 import { sessionKeys } from '../../../lib/resources/sessions';
@@ -27,3 +28,25 @@ export const sessionPlotsQueryOptions = (id: number, config: ModelConfig | undef
   });
 
 export const useSessionPlots = (id: number, config: ModelConfig | undefined) => useQuery(sessionPlotsQueryOptions(id, config));
+
+/** A vectoring session's samples, scored again in the browser under the core's vectoring configuration. */
+export async function getVectorSessionPlots(id: number, config: VectorConfig, signal?: AbortSignal) {
+  const bytes = await fetchBytes(`/api/sessions/${id}/samples`, signal);
+  try {
+    return await runVectorStoredScore(bytes, config, (done, total) => scoringProgress.set(id, { done, total }), signal);
+  } finally {
+    scoringProgress.set(id, null);
+  }
+}
+
+export const vectorSessionPlotsQueryOptions = (id: number, config: VectorConfig | undefined) =>
+  queryOptions({
+    queryKey: [...sessionKeys.plots(id), 'vectoring', config ?? null],
+    queryFn: ({ signal }) => getVectorSessionPlots(id, config!, signal),
+    enabled: config !== undefined,
+    staleTime: Infinity,
+    gcTime: 5 * 60_000,
+    retry: false,
+  });
+
+export const useVectorSessionPlots = (id: number, config: VectorConfig | undefined) => useQuery(vectorSessionPlotsQueryOptions(id, config));

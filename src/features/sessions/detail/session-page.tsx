@@ -7,6 +7,7 @@ import { CapturePane } from '../capture/capture-pane';
 import { LocalBoundary } from '../components/local-boundary';
 import { SessionFacts } from '../components/session-facts';
 import { SessionStats } from '../components/session-stats';
+import { VectorSessionStats } from '../components/vector-session-stats';
 import { RegressionBadge, VerdictBadge } from '../components/verdict-badges';
 import { VerdictTable } from '../components/verdict-table';
 import { ExplainPanel } from '../explain/explain-panel';
@@ -14,6 +15,7 @@ import { CommentsPanel } from './comments-panel';
 import { NotesPanel } from './notes-panel';
 import { SessionActions } from './session-actions';
 import { SessionCharts } from './session-charts';
+import { VectorSessionCharts } from './vector-session-charts';
 import { SettingsPanel } from './settings-panel';
 import { SoakPanel } from '../soak/soak-panel';
 
@@ -37,6 +39,8 @@ export function SessionPage({ id }: { id: number }) {
   }
   const s = query.data;
   const canEdit = me?.role === 'engineer' || me?.role === 'admin';
+  // A vectoring core's session: angle and magnitude figures and plots; no soak, no defect search yet.
+  const vectoring = s.core?.mode === 'vectoring';
   return (
     <div className="grid gap-4">
       <header className="flex flex-wrap items-center gap-3">
@@ -66,18 +70,22 @@ export function SessionPage({ id }: { id: number }) {
             </h2>
             <VerdictTable verdict={s.verdict} />
           </section>
-          <SoakPanel conditions={s.conditions} soak={s.soak} modelConfig={core.data?.core.modelConfig ?? undefined} />
+          {!vectoring && <SoakPanel conditions={s.conditions} soak={s.soak} modelConfig={core.data?.core.modelConfig ?? undefined} />}
           <LocalBoundary what="plots">
-            <SessionCharts session={s} config={core.data?.core.modelConfig ?? undefined} />
+            {vectoring ? <VectorSessionCharts session={s} config={core.data?.core.vectorConfig ?? undefined} /> : <SessionCharts session={s} config={core.data?.core.modelConfig ?? undefined} />}
           </LocalBoundary>
           {core.isError && (
             <p role="alert" className="text-sm font-bold text-fail">
               The core could not be read, so the plots cannot be scored: {core.error.message}
             </p>
           )}
-          <LocalBoundary what="explanation">
-            <ExplainPanel session={s} core={core.data?.core} canEdit={canEdit} />
-          </LocalBoundary>
+          {vectoring ? (
+            <p className={`${panel} text-sm text-ink-soft`}>The defect search covers rotating cores only; this session’s core vectors.</p>
+          ) : (
+            <LocalBoundary what="explanation">
+              <ExplainPanel session={s} core={core.data?.core} canEdit={canEdit} />
+            </LocalBoundary>
+          )}
           <LocalBoundary what="capture">
             <CapturePane sessionId={s.id} hasArchive={!!s.hasArchive} />
           </LocalBoundary>
@@ -88,7 +96,7 @@ export function SessionPage({ id }: { id: number }) {
             <h2 id="stats-title" className={panelTitle}>
               Figures
             </h2>
-            <SessionStats stats={s.stats} />
+            {vectoring ? <VectorSessionStats stats={s.stats.vectoring} /> : <SessionStats stats={s.stats} />}
           </section>
           <SessionActions session={s} core={core.data?.core} canEdit={canEdit} />
           <NotesPanel key={s.updatedAt} session={s} canEdit={canEdit} />

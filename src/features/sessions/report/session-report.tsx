@@ -8,7 +8,8 @@ import { useBuild } from '../../../lib/resources/build-detail';
 import { useCore } from '../../../lib/resources/core-detail';
 import { useSession } from '../../../lib/resources/sessions';
 import { ReportExplanation } from './report-explanation';
-import { useSessionPlots } from '../api/get-session-plots';
+import { useSessionPlots, useVectorSessionPlots } from '../api/get-session-plots';
+import { vectorStatRows } from '../../../components/vector-stat-rows';
 import { SessionFacts } from '../components/session-facts';
 import { statRows } from '../components/session-stats';
 import { RegressionBadge, VerdictBadge } from '../components/verdict-badges';
@@ -21,8 +22,15 @@ export function SessionReport({ id }: { id: number }) {
   const s = query.data;
   const core = useCore(s?.coreId ?? null);
   const build = useBuild(s?.buildId ?? null);
-  const plots = useSessionPlots(id, core.data?.core.modelConfig ?? undefined);
-  const feed = useMemo(() => (plots.data ? staticFeed({ error: plots.data.charts.error }) : null), [plots.data]);
+  // A vectoring session's report plots its angle error against direction, from its own scoring.
+  const vectoring = s?.core?.mode === 'vectoring';
+  const rotationPlots = useSessionPlots(id, vectoring ? undefined : (core.data?.core.modelConfig ?? undefined));
+  const vectorPlots = useVectorSessionPlots(id, vectoring ? (core.data?.core.vectorConfig ?? undefined) : undefined);
+  const plots = vectoring ? vectorPlots : rotationPlots;
+  const feed = useMemo(
+    () => (vectorPlots.data ? staticFeed({ angleError: vectorPlots.data.charts.angleError }) : rotationPlots.data ? staticFeed({ error: rotationPlots.data.charts.error }) : null),
+    [vectorPlots.data, rotationPlots.data],
+  );
 
   if (query.isPending) return <p className="text-ink-soft">Preparing the report of session #{id}…</p>;
   if (query.isError) {
@@ -72,7 +80,7 @@ export function SessionReport({ id }: { id: number }) {
           Key figures
         </h2>
         <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-0.5 text-sm sm:grid-cols-[auto_1fr_auto_1fr]">
-          {statRows(session.stats).map(([k, v]) => (
+          {(vectoring ? vectorStatRows(session.stats.vectoring).map((r): [string, string] => [r.label, r.value]) : statRows(session.stats)).map(([k, v]) => (
             <div key={k} className="contents">
               <dt className="text-ink-soft">{k}</dt>
               <dd className="font-mono">{v}</dd>
@@ -82,7 +90,7 @@ export function SessionReport({ id }: { id: number }) {
       </section>
       <section aria-labelledby="r-plot" className="break-inside-avoid">
         <h2 id="r-plot" className={h2}>
-          Error against angle, LSB
+          {vectoring ? 'Angle error against direction, LSB' : 'Error against angle, LSB'}
         </h2>
         {session.sampleCount === 0 ? (
           <p className="text-sm text-ink-soft">No samples to plot.</p>
@@ -91,7 +99,7 @@ export function SessionReport({ id }: { id: number }) {
             The plot could not be drawn: {plots.error.message}
           </p>
         ) : feed ? (
-          <SignalCharts charts={['error']} feed={feed} heightPx={240} className="grid" showTitles={false} />
+          <SignalCharts charts={vectoring ? ['angleError'] : ['error']} feed={feed} heightPx={240} className="grid" showTitles={false} />
         ) : (
           <p className="text-sm text-ink-soft">Scoring the stored samples for the plot…</p>
         )}

@@ -1,0 +1,140 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { runRunCommand } from '../../../cli/run';
+import { scoreArchive } from '../../../cli/run-record';
+import { parseVectorPlanSpec, resolveVectorPlan, vectorPlanToRequest } from '../../../cli/run-vector-plan';
+import { parseRunArgs } from '../../../cli/run-options';
+import { defaultBoardSettings } from '../../../mock-device/board-session';
+import { parseVectorCoreFault } from '../../../mock-device/vector-core';
+import { startMockServer, type MockServer } from '../../../mock-device/ws-server';
+import { Kind, replayArchive } from '../../../shared/link';
+import { expandVectorRequest } from '../../../shared/link-engine/run-request';
+import { parseVectorConfig, planVectors } from '../../../shared/vectoring';
+import { captureIo } from './run-support';
+
+const FAST = ['--baud', '12000000'];
+const LIMITS = JSON.stringify({ maxModelMismatches: 0, maxLinkErrors: 0 });
+
+let vectoring: MockServer;
+let slipped: MockServer;
+let rotating: MockServer;
+const dir = mkdtempSync(join(tmpdir(), 'anglebench-run-vector-'));
+
+beforeAll(async () => {
+  const settings = { ...defaultBoardSettings(), baud: 12_000_000 };
+  const quiet = () => undefined;
+  vectoring = await startMockServer({ ...settings, vector: { core: {} } }, 0, '127.0.0.1', quiet);
+  slipped = await startMockServer({ ...settings, vector: { core: { inBits: 12 }, fault: parseVectorCoreFault('sign-slip:3') } }, 0, '127.0.0.1', quiet);
+  rotating = await startMockServer(settings, 0, '127.0.0.1', quiet);
+});
+afterAll(async () => {
+  await vectoring.close();
+  await slipped.close();
+  await rotating.close();
+});
+
+const run = async (args: string[], files: Record<string, string> = {}) => {
+  const io = captureIo(files);
+  const status = await runRunCommand(args, io, { stderrIsTty: false, interrupt: { requested: false, onRequest: () => () => undefined } });
+  return { status, out: io.out, err: io.err };
+};
+
+describe('run against a vectoring board', { timeout: 60_000 }, () => {
+  it('finds the vectoring core in MODE_INFO, runs a grid bit-exact with the model and passes', async () => {
+    const r = await run(['--device', vectoring.url, ...FAST, '--plan', 'grid:4096', '--core', 'vec-16', '--limits', LIMITS, '--json']);
+    expect(r.err).not.toMatch(/^error/m);
+    expect(r.status).toBe(0);
+    const s = JSON.parse(r.out);
+    expect(s.mode).toBe('vectoring');
+    expect(s.device.modes).toEqual({ rotation: false, vectoring: expect.objectContaining({ inBits: 16, magBits: 18 }) });
+    expect(s.results).toEqual({ total: 4096, answered: 4096, missing: 0 });
+    expect(s.stats.mismatches.count).toBe(0);
+    // The default core leaves the magnitude K_n times the input's: errors of a few LSB, never more.
+    expect(s.stats.magnitudeLsb.maxAbs).toBeLessThan(8);
+    expect(s.stats.angleLsb.count).toBe(4095); // the zero vector has no angle
+    expect(s.verdict).toMatchObject({ passed: true, limitsFrom: 'option' });
+  });
+
+  it('exits 1 when the board has a sign slip, naming the mismatches; a list plan travels as VEC_LIST', async () => {
+    const r = await run(['--device', slipped.url, ...FAST, '--plan', 'random:3000,9', '--core', 'vec-12', '--limits', LIMITS]);
+    expect(r.status).toBe(1);
+    expect(r.out).toMatch(/model mismatches (\d+)/);
+    expect(Number(/model mismatches (\d+)/.exec(r.out)![1])).toBeGreaterThan(2500);
+    expect(r.out).toMatch(/FAIL {2}maxModelMismatches/);
+    expect(r.out).toMatch(/verdict: FAIL/);
+  });
+
+  it('takes vectors from a file and checks --config against the device formats', async () => {
+    const files = { 'v.txt': '# x,y\n16384,0\n0,16384\n-16384,-16384 # third quadrant\n0x1000,-0x1000\n' };
+    const ok = await run(['--device', vectoring.url, ...FAST, '--plan', 'file:v.txt', '--core', 'vec-16', '--config', '{"iterations":16}', '--json'], files);
+    expect(ok.status).toBe(0);
+    expect(JSON.parse(ok.out).results).toEqual({ total: 4, answered: 4, missing: 0 });
+    const wrong = await run(['--device', vectoring.url, ...FAST, '--plan', 'file:v.txt', '--core', 'vec-16', '--config', '{"inBits":12}'], files);
+    expect(wrong.status).toBe(2);
+    expect(wrong.err).toMatch(/^error: the device's formats differ from the model of core "vec-16" \(inBits 16 on the device, 12 in the model; inFrac 14 on the device, 10 in the model/m);
+    const bad = await run(['--device', vectoring.url, ...FAST, '--plan', 'file:b.txt', '--core', 'vec-16'], { 'b.txt': '1,2\n40000,0\n' });
+    expect(bad.status).toBe(2);
+    expect(bad.err).toMatch(/b\.txt line 2: x 40000 is not an input code -32768\.\.32767/);
+  });
+
+  it('writes the capture with --out; scoring it again is refused with a clear reason', async () => {
+    const out = join(dir, 'grid.abrc');
+    const r = await run(['--device', vectoring.url, ...FAST, '--plan', 'exhaustive', '--core', 'vec-8', '--config', '{"inBits":8}', '--out', out]);
+    // An 8-bit board is not what this board has: refused before anything is recorded.
+    expect(r.status).toBe(2);
+    const r2 = await run(['--device', vectoring.url, ...FAST, '--plan', 'circle:10000,500', '--core', 'vec-16', '--out', out]);
+    expect(r2.status).toBe(0);
+    const bytes = new Uint8Array(readFileSync(out));
+    const replay = replayArchive(bytes);
+    const toHost = replay.frames.filter((f) => f.direction === 'to-host').map((f) => f.frame);
+    expect(toHost.filter((f) => f.kind === Kind.ModeInfo)).toHaveLength(1);
+    // 500 vectors, 5 bytes a pair after a 4-byte firstIndex; with the default widths a replay reads them all.
+    const pairs = toHost.filter((f) => f.kind === Kind.VecResults).reduce((n, f) => n + (f.payload.length - 4) / 5, 0);
+    expect(pairs).toBe(500);
+    expect(replay.skips).toEqual([]);
+    expect(JSON.parse(replay.archive.header.label)).toMatchObject({ mode: 'vectoring', plan: { kind: 'circle', radius: 10000, points: 500 } });
+    expect(() => scoreArchive(bytes)).toThrow('This archive holds a vectoring run: scoring a vectoring capture again is not supported yet');
+  });
+
+  it('refuses what it cannot do for a vectoring core, and what the board does not serve', async () => {
+    const rot = await run(['--device', rotating.url, ...FAST, '--plan', 'edges', '--core', 'r', '--mode', 'vectoring']);
+    expect(rot.status).toBe(2);
+    expect(rot.err).toMatch(/^error: --mode vectoring: the device at ws:\/\/127\.0\.0\.1:\d+\/ serves no vectoring core \(rotation only\)/m);
+    const circle = await run(['--device', rotating.url, ...FAST, '--plan', 'circle:100,10', '--core', 'r']);
+    expect(circle.status).toBe(2);
+    expect(circle.err).toMatch(/^error: --plan circle:100,10 is a vectoring core's plan, and the board serves a rotating core/m);
+    const sweep = await run(['--device', vectoring.url, ...FAST, '--plan', 'sweep:0,1,10', '--core', 'v']);
+    expect(sweep.status).toBe(2);
+    expect(sweep.err).toMatch(/^error: --plan sweep:0,1,10 is a rotating core's plan, and the board serves a vectoring core/m);
+    const soak = await run(['--device', vectoring.url, ...FAST, '--plan', 'edges', '--core', 'v', '--soak', '3']);
+    expect(soak.err).toMatch(/^error: --soak is not available for vectoring cores yet/m);
+    expect(() => parseRunArgs(['--device', 'ws://x/', '--plan', 'edges', '--core', 'v', '--mode', 'vectoring', '--server', 'http://s', '--token', 't'])).toThrow(/vectoring sessions cannot be saved to the server yet/);
+    expect(() => parseRunArgs(['--device', 'ws://x/', '--plan', 'sweep:0,1,2', '--core', 'v', '--mode', 'vectoring'])).toThrow(/--plan for a vectoring core must be exhaustive, grid:TARGET/);
+  });
+
+  it('runs a rotating board exactly as before when no --mode is given', async () => {
+    const r = await run(['--device', rotating.url, ...FAST, '--plan', 'sweep:0,16,4096', '--core', 'reference-16', '--limits', LIMITS, '--json']);
+    expect(r.status).toBe(0);
+    const s = JSON.parse(r.out);
+    expect(s.mode).toBeUndefined();
+    expect(s.results).toEqual({ total: 4096, answered: 4096, missing: 0 });
+    expect(s.link.framesSent).toBe(2); // HELLO and one SWEEP: no MODES asked of a version-1 board
+  });
+});
+
+describe('vectoring plans as requests', () => {
+  it('turns grid and exhaustive plans into VEC_GRID requests that walk the plan in its own order', () => {
+    for (const [text, inBits] of [['grid:5000', 16], ['exhaustive', 6], ['grid:10', 4]] as const) {
+      const c = parseVectorConfig({ inBits });
+      const bound = resolveVectorPlan(parseVectorPlanSpec(text), c, () => '');
+      const req = vectorPlanToRequest(bound, c);
+      expect(req.kind).toBe('grid');
+      const profile = { angleFormat: 'turn', angleBits: 16, outBits: 16, vector: { inBits, angleFormat: 'turn', angleBits: 16, magBits: 18 } } as const;
+      const walked = expandVectorRequest(req, profile);
+      const planned = planVectors(bound.plan, c);
+      expect(walked).toEqual(planned);
+    }
+  });
+});
