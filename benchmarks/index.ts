@@ -18,6 +18,7 @@ const BENCHES: Record<string, Bench> = {
   'list-compare': async () => (await import('./list-compare')).listCompareBench(),
   page: async () => (await import('./page')).pageBench(),
   station: async () => (await import('./station')).stationBench(),
+  'vector-score': async () => (await import('./vector-score')).vectorScoreBench(),
 };
 
 async function main(): Promise<number> {

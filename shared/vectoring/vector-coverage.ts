@@ -93,7 +93,7 @@ export class VectorCoverage {
         if (a < 0) a += 2 * Math.PI;
         sectors[Math.min(sectors.length - 1, Math.floor(a * sectorScale))]++;
       }
-      rings[Math.min(rings.length - 1, Math.floor(Math.hypot(x, y) * ringScale))]++;
+      rings[Math.min(rings.length - 1, Math.floor(Math.sqrt(x * x + y * y) * ringScale))]++;
       if (seen) {
         const at = dx * span + dy; // below 2^24: the bit arithmetic is exact
         const mask = 1 << (at & 7);

@@ -41,7 +41,8 @@ export function exactVectorInto(c: VectorConfig, xs: ArrayLike<number>, ys: Arra
     let a = Math.atan2(y, x) * angleScale;
     if (turn && a < 0) a += span;
     anglesOut[k] = a;
-    magnitudesOut[k] = Math.hypot(x, y) * gain * magScale;
+    // x² + y² < 2^49 is exact, so the square root is correctly rounded (and cheaper than Math.hypot).
+    magnitudesOut[k] = Math.sqrt(x * x + y * y) * gain * magScale;
   }
 }
 
