@@ -358,8 +358,11 @@ export function decodePayload(kind: number, payload: Uint8Array, p: WireProfile)
       const angle = new Int32Array(n);
       const magnitude = new Int32Array(n);
       const signedOut = v.angleFormat === 'rad';
+      // A turn angle is its low angleBits bits (the rest is zero fill): angleBits ≤ 31 keeps it in
+      // an Int32Array even when a damaged or careless 4-byte field has its top bit set.
+      const turnMask = signedOut ? 0 : 2 ** v.angleBits;
       for (let i = 0, at = RESULTS_HEADER_BYTES; i < n; i++, at += aw + mw) {
-        angle[i] = get(b, at, aw, signedOut);
+        angle[i] = signedOut ? get(b, at, aw, true) : get(b, at, aw, false) % turnMask;
         magnitude[i] = get(b, at + aw, mw, true);
       }
       return { kind, firstIndex: get(b, 0, 4, false), angle, magnitude };

@@ -6,17 +6,43 @@ import { Kind, kindName } from '../../shared/link/kinds';
 import { decodePayload, encodePayload, PayloadError } from '../../shared/link/payloads';
 import type { WireProfile } from '../../shared/link/wire-profile';
 
-const profileArb: fc.Arbitrary<WireProfile> = fc.record({
-  angleFormat: fc.constantFrom('turn' as const, 'rad' as const),
-  angleBits: fc.integer({ min: 1, max: 32 }),
-  outBits: fc.integer({ min: 2, max: 32 }),
-});
+const profileArb: fc.Arbitrary<WireProfile> = fc.record(
+  {
+    angleFormat: fc.constantFrom('turn' as const, 'rad' as const),
+    angleBits: fc.integer({ min: 1, max: 32 }),
+    outBits: fc.integer({ min: 2, max: 32 }),
+    // Version 2: the vectoring formats of MODE_INFO, absent before it (the default core's then).
+    vector: fc.record({
+      inBits: fc.integer({ min: 2, max: 32 }),
+      angleFormat: fc.constantFrom('turn' as const, 'rad' as const),
+      angleBits: fc.integer({ min: 1, max: 31 }),
+      magBits: fc.integer({ min: 2, max: 32 }),
+    }),
+  },
+  { requiredKeys: ['angleFormat', 'angleBits', 'outBits'] },
+);
 
 /** The LEN rules of docs/protocol.md "5. Which LEN values are possible", restated here from the table. */
 function protocolAllows(kind: number, len: number, p: WireProfile): boolean {
   const angle = Math.ceil(p.angleBits / 8);
   const pair = 2 * Math.ceil(p.outBits / 8);
+  // Section 5's v, p and m: the default vectoring core (16-bit x/y, 16-bit angles, 18-bit magnitudes) before MODE_INFO.
+  const v = p.vector ?? { inBits: 16, angleBits: 16, magBits: 18 };
+  const vec = 2 * Math.ceil(v.inBits / 8);
+  const answer = Math.ceil(v.angleBits / 8) + Math.ceil(v.magBits / 8);
   switch (kind) {
+    case Kind.Modes:
+      return len === 0;
+    case Kind.VecOne:
+      return len === vec;
+    case Kind.VecList:
+      return len > 0 && len % vec === 0;
+    case Kind.VecGrid:
+      return len === 20;
+    case Kind.ModeInfo:
+      return len >= 9;
+    case Kind.VecResults:
+      return len > 4 && (len - 4) % answer === 0;
     case Kind.Hello:
     case Kind.Pause:
     case Kind.Resume:
@@ -67,8 +93,9 @@ describe('every payload codec under fuzzing', () => {
             m = decodePayload(kind, payload, profile);
           } catch (e) {
             expect(e).toBeInstanceOf(PayloadError);
-            // Refused: the length is impossible, or an INFO names an angle format other than 0 or 1.
-            expect(!protocolAllows(kind, payload.length, profile) || (kind === Kind.Info && payload[1] > 1)).toBe(true);
+            // Refused: the length is impossible, or an INFO names an angle format other than 0 or 1,
+            // or a MODE_INFO with the vectoring bit names formats no vectoring core can have.
+            expect(!protocolAllows(kind, payload.length, profile) || (kind === Kind.Info && payload[1] > 1) || (kind === Kind.ModeInfo && (payload[0] & 2) !== 0)).toBe(true);
             return;
           }
           decoded++;
@@ -78,6 +105,13 @@ describe('every payload codec under fuzzing', () => {
             // The reader keeps any name byte; the writer only writes printable ASCII.
             expect([...m.info.name].map((c) => c.charCodeAt(0))).toEqual([...payload.subarray(17)]);
             expect(() => encodePayload(m, profile)).toThrow(PayloadError);
+            return;
+          }
+          if (m.kind === Kind.ModeInfo || m.kind === Kind.VecResults) {
+            // MODE_INFO's reader skips what later versions append and what the mode bits leave
+            // meaningless, VEC_RESULTS a turn angle's zero fill: what they read encodes to a payload
+            // that reads back the same.
+            expect(decodePayload(kind, encodePayload(m, profile), profile)).toEqual(m);
             return;
           }
           expect([...encodePayload(m, profile)]).toEqual([...payload]);

@@ -36,7 +36,10 @@ export interface StreamOptions {
   mode: 'open' | 'closed';
 }
 
-/** Payload lengths possible for each KIND under the default profile (16-bit angles and outputs). */
+/**
+ * Payload lengths possible for each KIND under the default profile (16-bit angles and outputs;
+ * the default vectoring core's 16-bit x/y, 16-bit angles and 18-bit magnitudes).
+ */
 function payloadLength(kind: number, random: () => number): number {
   const upTo = (n: number) => 1 + Math.floor(random() * n);
   switch (kind) {
@@ -56,8 +59,18 @@ function payloadLength(kind: number, random: () => number): number {
       return 1;
     case Kind.Nak:
       return 2;
+    case Kind.VecOne:
+      return 4;
+    case Kind.VecList:
+      return 4 * upTo(63);
+    case Kind.VecGrid:
+      return 20;
+    case Kind.ModeInfo:
+      return 9 + Math.floor(random() * 247);
+    case Kind.VecResults:
+      return 4 + 5 * upTo(50);
     default:
-      return 0; // HELLO, PAUSE, RESUME, ABORT
+      return 0; // HELLO, MODES, PAUSE, RESUME, ABORT
   }
 }
 
