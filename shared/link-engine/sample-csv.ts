@@ -36,7 +36,7 @@ export function parseCodeColumns(text: string, header: string, fits: (column: nu
   const names = (lines[h] ?? '').trim().toLowerCase().replace(/\s+/g, '').split(',');
   const at = wanted.map((w) => names.indexOf(w));
   if (at.some((i) => i < 0)) {
-    throw new SampleCsvError(h + 1, `the header must be "${header}" (other columns may sit beside them, as in a session's CSV export)`);
+    throw new SampleCsvError(h + 1, `the header must be "${header}"`);
   }
   const width = names.length;
   let rows = 0;
