@@ -5,6 +5,11 @@ import { LIMIT_MEANINGS } from '../shared/link-engine/limits';
 import type { RunReport } from './run-report';
 import type { LimitCheck } from './run-verdict';
 
+/** What the JUnit document reads of a run's report: a rotating or a vectoring run's. */
+export type JunitRun = Pick<RunReport, 'core' | 'build' | 'board' | 'device' | 'planText' | 'status' | 'elapsedMs' | 'verdict' | 'archive'> & {
+  score: { answered: number; total: number };
+};
+
 /** Text and attribute values: the five XML specials escaped, characters XML 1.0 forbids dropped. */
 export function xmlEscape(text: string): string {
   return text
@@ -31,7 +36,7 @@ export function limitMessage(c: LimitCheck): string {
  * The JUnit document for one judged run.
  * @param sessionUrl  the saved session's address, when the run was uploaded
  */
-export function junitXml(r: RunReport, sessionUrl: string | null): string {
+export function junitXml(r: JunitRun, sessionUrl: string | null): string {
   const suiteName = `anglebench run: ${r.core}`;
   const seconds = (r.elapsedMs / 1000).toFixed(3);
   const checks = r.verdict.checks;

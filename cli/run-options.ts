@@ -228,7 +228,6 @@ export function parseRunArgs(argv: string[]): RunOptions {
     config = both(read(parseModelConfig), read(parseVectorConfig));
   }
   const plan = both(() => parsePlanSpec(str('plan')!), () => parseVectorPlanSpec(str('plan')!));
-  if (mode === 'vectoring' && serverUrl !== undefined) throw new UsageError('--server: vectoring sessions cannot be saved to the server yet; run without --server and keep the capture with --out');
   const crc = str('crc');
   if (crc !== undefined && !isCrc8Name(crc)) throw new UsageError(`--crc must be a catalogued CRC-8 name such as CRC-8/SMBUS, got "${crc}"`);
   const core = str('core')!;

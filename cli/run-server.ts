@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { errorReply } from '../shared/contract/common';
 import { isCrc8Name, type Crc8Name } from '../shared/link';
 import { parseModelConfig, type ModelConfig } from '../shared/numeric';
+import { parseVectorConfig, type VectorConfig } from '../shared/vectoring';
 import { parseLimits, type Limits } from './run-verdict';
 
 export type Fetch = typeof fetch;
@@ -23,15 +24,17 @@ export class UploadUnavailableError extends ServerError {
   }
 }
 
-export interface ServerCore {
+interface ServerCoreCommon {
   id: number;
   slug: string;
   name: string;
-  model: ModelConfig;
   limits: Limits;
   baud: number | null;
   crc: Crc8Name | null;
 }
+
+/** A core as the runner reads it: a rotation core's model, or a vectoring core's configuration. */
+export type ServerCore = ServerCoreCommon & ({ mode: 'rotation'; model: ModelConfig } | { mode: 'vectoring'; vectorConfig: VectorConfig });
 
 const coreRow = z.object({
   id: z.number().int(),
@@ -39,6 +42,7 @@ const coreRow = z.object({
   name: z.string(),
   mode: z.string().optional(),
   modelConfig: z.unknown(),
+  vectorConfig: z.unknown().optional(),
   limits: z.unknown(),
   linkProfile: z.object({ baud: z.number().int().optional(), crc: z.string().optional() }).partial().nullish(),
 });
@@ -84,29 +88,37 @@ export async function fetchCore(fetchImpl: Fetch, server: { url: string; token: 
   if (!list.success) throw new ServerError(`GET ${url} answered an unexpected shape: is --server the Anglebench server?`);
   const row = list.data.find((c) => c.slug === slug);
   if (!row) throw new ServerError(`the server has no core "${slug}" (it has: ${list.data.map((c) => c.slug).join(', ') || 'none'})`);
-  if (row.mode !== undefined && row.mode !== 'rotation') throw new ServerError(`core "${slug}" is a ${row.mode} core: this runner runs rotation cores only`);
-  let model: ModelConfig;
-  try {
-    model = parseModelConfig(row.modelConfig);
-  } catch (e) {
-    throw new ServerError(`core "${slug}" on the server has a model configuration this runner cannot use: ${(e as Error).message}`);
-  }
+  // Servers before vectoring cores send no mode: every core of theirs rotates.
+  const mode = row.mode ?? 'rotation';
+  if (mode !== 'rotation' && mode !== 'vectoring') throw new ServerError(`core "${slug}" is a ${mode} core: this runner runs rotation and vectoring cores only`);
+  const readConfig = <T>(parse: (input: unknown) => T, input: unknown): T => {
+    try {
+      return parse(input);
+    } catch (e) {
+      throw new ServerError(`core "${slug}" on the server has a ${mode === 'vectoring' ? 'vectoring' : 'model'} configuration this runner cannot use: ${(e as Error).message}`);
+    }
+  };
   const crc = row.linkProfile?.crc;
-  return {
+  const common: ServerCoreCommon = {
     id: row.id,
     slug: row.slug,
     name: row.name,
-    model,
     limits: parseLimits(row.limits ?? {}, `core "${slug}" limits`),
     baud: row.linkProfile?.baud ?? null,
     crc: crc !== undefined && isCrc8Name(crc) ? crc : null,
   };
+  return mode === 'vectoring'
+    ? { ...common, mode, vectorConfig: readConfig(parseVectorConfig, row.vectorConfig ?? {}) }
+    : { ...common, mode, model: readConfig(parseModelConfig, row.modelConfig) };
 }
 
 /** What the runner uploads: the session as JSON, the packed samples and the capture archive. */
 export interface SessionUpload {
   session: Record<string, unknown>;
-  /** Answered results in request order: (angle code, cos, sin) as little-endian i32 triples. */
+  /**
+   * Answered results in request order, little-endian i32: (angle code, cos, sin) triples for a
+   * rotation core, (x, y, angle, magnitude) records for a vectoring core.
+   */
   samples: Uint8Array;
   archive: Uint8Array;
 }
@@ -139,3 +151,9 @@ export async function uploadSession(fetchImpl: Fetch, server: { url: string; tok
 
 /** The upload's sample packing is shared with the Bench page and the server. */
 export { packSamples } from '../shared/link-engine/sample-pack';
+export { packVectorSamples } from '../shared/link-engine/vector-sample-pack';
+
+/** The session's `transport`: how the runner reached the board. */
+export function transportOf(o: { device: string }, baud: number, crc: Crc8Name): Record<string, unknown> {
+  return { kind: o.device.startsWith('ws') ? 'websocket' : 'serial', device: o.device, baud, crc };
+}

@@ -1,17 +1,22 @@
 // `run` against a vectoring core (issue #20): after HELLO and MODES, the plan through the link
-// engine's vectoring run, scoring with shared/vectoring's scorer, the verdict against the same
-// limits as a rotating core's (read for angle and magnitude), the capture archive and the report.
-// Saving to the server waits for the server to know vectoring sessions: refused with a clear error.
+// engine's vectoring run, scoring with shared/vectoring's scorer, the verdict against the
+// vectoring limits measured as the server measures them (shared/link-engine/vector-measures.ts),
+// the capture archive, the report, and with --server the session upload of 16-byte records.
 import { writeFileSync } from 'node:fs';
 import type { LinkEngine, VectorRunResult } from '../shared/link-engine/link-engine';
 import type { LinkFigures } from '../shared/link-engine/link-figures';
-import type { DeviceInfo, ModeInfo, VectoringFormats } from '../shared/link';
+import type { Crc8Name, DeviceInfo, ModeInfo, VectoringFormats } from '../shared/link';
 import { createVectorModel, parseVectorConfig, VectorScoreAccumulator, type VectorConfig, type VectorPlan, type VectorScoreSummary } from '../shared/vectoring';
 import type { CliIo } from './io';
 import { progressSink } from './progress';
 import { UsageError, type RunOptions } from './run-options';
 import { MAX_LABEL_BYTES, type RunRecording } from './run-record';
-import type { Limits, LimitCheck, LimitKey, Verdict } from './run-verdict';
+import type { Limits, LimitCheck, Verdict } from './run-verdict';
+import { limitOutsideMode, VECTOR_LIMIT_KEYS } from '../shared/link-engine/limits';
+import { VECTOR_MEASURES } from '../shared/link-engine/vector-measures';
+import { packVectorSamples, transportOf, type Fetch, type ServerCore } from './run-server';
+import { publishRun } from './run-upload';
+import { junitXml } from './junit';
 import { resolveVectorPlan, vectorPlanToRequest } from './run-vector-plan';
 import { checkLine } from './run-report';
 import type { Interrupt } from './interrupt';
@@ -70,53 +75,41 @@ export function scoreVectorRun(config: VectorConfig, r: Pick<VectorRunResult, 'x
 }
 
 /**
- * The limits as a vectoring core reads them: errors in output LSB of the angle or the magnitude,
- * whichever is larger; coverage is the share of the input plane's cells asked about. SFDR and
- * unstable codes are not measured by a vectoring run.
+ * The vectoring limits against the score, measured by the server's own table so the stored
+ * session's verdict is the runner's; link errors are the frames that failed their CHECK, the
+ * count the upload sends as `link.checkFailures`. An empty run fails every limit it could measure.
  */
-const VECTOR_MEASURES: Record<LimitKey, { max: boolean; value: (s: VectorRunScore) => number | null; note?: string }> = {
-  maxAbsErrorLsb: { max: true, value: (s) => Math.max(s.summary.angleLsb.maxAbs, s.summary.magnitudeLsb.maxAbs) },
-  maxRmsErrorLsb: { max: true, value: (s) => Math.max(s.summary.angleLsb.rms, s.summary.magnitudeLsb.rms) },
-  maxAbsBiasLsb: { max: true, value: (s) => Math.max(Math.abs(s.summary.angleLsb.mean), Math.abs(s.summary.magnitudeLsb.mean)) },
-  minSfdrDb: { max: false, value: () => null, note: 'not measured by a vectoring run' },
-  maxModelMismatches: { max: true, value: (s) => s.summary.mismatches.count },
-  maxLinkErrors: { max: true, value: (s) => s.linkErrors },
-  minCoveragePct: { max: false, value: (s) => s.summary.coverage.cells.share * 100, note: 'cells of the input plane' },
-  maxUnstableCodes: { max: true, value: () => null, note: 'needs a soak, not yet for vectoring cores' },
-  // The vectoring cores' own limits, measured as the server measures them (shared/link-engine/limits.ts).
-  maxAngleErrorLsb: { max: true, value: (s) => s.summary.angleLsb.maxAbs },
-  maxAngleRmsLsb: { max: true, value: (s) => s.summary.angleLsb.rms },
-  maxMagnitudeErrorLsb: { max: true, value: (s) => s.summary.magnitudeLsb.maxAbs },
-  maxMagnitudeErrorPpm: { max: true, value: (s) => s.summary.magnitudePpm.maxAbs },
-  minPlaneCoveragePct: { max: false, value: (s) => s.summary.coverage.cells.share * 100, note: 'cells of the input plane' },
-};
-
-/** Every given limit against the score; an empty run fails every limit it could measure, as run-verdict's judge. */
-export function judgeVector(score: VectorRunScore, limits: Limits): Verdict {
+export function judgeVector(score: VectorRunScore, limits: Limits, checkFailures: number): Verdict {
   const checks: LimitCheck[] = [];
-  for (const key of Object.keys(VECTOR_MEASURES) as LimitKey[]) {
+  for (const key of VECTOR_LIMIT_KEYS) {
     const limit = limits[key];
-    if (limit === undefined) continue;
     const m = VECTOR_MEASURES[key];
-    const value = m.value(score);
+    if (limit === undefined || !m) continue;
+    const value = m.value(score.summary, { checkFailures });
     if (value === null) {
-      checks.push({ key, limit, value, outcome: 'skip', note: m.note });
+      checks.push({ key, limit, value, outcome: 'skip' });
       continue;
     }
     const empty = score.summary.count === 0 && key !== 'maxLinkErrors';
     const ok = !empty && (m.max ? value <= limit : value >= limit);
-    checks.push({ key, limit, value, outcome: ok ? 'pass' : 'fail', ...(empty ? { note: 'no results' } : m.note ? { note: m.note } : {}) });
+    checks.push({ key, limit, value, outcome: ok ? 'pass' : 'fail', ...(empty ? { note: 'no results' } : {}) });
   }
   return { passed: checks.every((c) => c.outcome !== 'fail'), checks };
 }
 
-/** The model to score with: --config, else MODE_INFO's formats with every other key at its default; formats must agree. */
-export function chooseVectorModel(config: VectorConfig | null, f: VectoringFormats, core: string): { model: VectorConfig; from: 'config' | 'device' } {
+/** @throws UsageError for a limit only rotation cores have: the server would never judge it. */
+export function checkVectorLimits(limits: Limits, from: string): void {
+  const key = limitOutsideMode('vectoring', limits);
+  if (key) throw new UsageError(`${from}: ${key} is a limit of rotation cores; a vectoring core's are ${VECTOR_LIMIT_KEYS.join(', ')}`);
+}
+
+/** The model to score with: --config or the server's core, else MODE_INFO's formats with every other key at its default; formats must agree. */
+export function chooseVectorModel(given: { config: VectorConfig; from: 'config' | 'server' } | null, f: VectoringFormats, core: string): { model: VectorConfig; from: VectorModelFrom } {
   const fromDevice = () =>
     parseVectorConfig({ inBits: f.inBits, inFrac: f.inFrac, angleFormat: f.angleFormat, angleBits: f.angleBits, magBits: f.magBits, magFrac: f.magFrac, iterations: f.iterations, ...(f.angleFormat === 'rad' ? { angleFrac: f.angleFrac } : {}) });
   let model: VectorConfig;
   try {
-    model = config ?? fromDevice();
+    model = given?.config ?? fromDevice();
   } catch (e) {
     throw new VectorRunError(`the device's MODE_INFO describes no core the model can hold (${(e as Error).message})`);
   }
@@ -127,8 +120,11 @@ export function chooseVectorModel(config: VectorConfig | null, f: VectoringForma
     const what = differ.map((k) => `${k} ${String(f[k])} on the device, ${String(model[k])} in the model`).join('; ');
     throw new VectorRunError(`the device's formats differ from the model of core "${core}" (${what}): is the right bitstream loaded?`);
   }
-  return { model, from: config ? 'config' : 'device' };
+  return { model, from: given?.from ?? 'device' };
 }
+
+/** Where a vectoring run's model came from. */
+export type VectorModelFrom = 'config' | 'server' | 'device';
 
 export interface VectorRunContext {
   o: RunOptions;
@@ -140,6 +136,10 @@ export interface VectorRunContext {
   limits: Limits;
   limitsFrom: 'server' | 'option' | 'none';
   baud: number;
+  crc: Crc8Name;
+  /** The server's vectoring core when --server was given: its configuration, limits and the upload's target. */
+  core: (ServerCore & { mode: 'vectoring' }) | null;
+  fetchImpl: Fetch;
   stderrIsTty: boolean;
   writeFile?: (path: string, bytes: Uint8Array) => void;
   interrupt?: Interrupt;
@@ -150,19 +150,21 @@ export interface VectorRunContext {
 /** Runs the plan on the vectoring core; returns the exit status (0 pass, 1 a limit fails, 130 interrupted). */
 export async function runVectoring(c: VectorRunContext): Promise<number> {
   const { o, io, engine } = c;
-  if (o.server) throw new VectorRunError('the board serves a vectoring core, and vectoring sessions cannot be saved to the server yet: run without --server and keep the capture with --out');
-  for (const [given, name] of [[o.soak, '--soak'], [o.explain, '--explain'], [o.junit, '--junit']] as const) {
+  for (const [given, name] of [[o.soak, '--soak'], [o.explain, '--explain']] as const) {
     if (given) throw new UsageError(`${name} is not available for vectoring cores yet`);
   }
   if (!o.vectorPlan) throw new UsageError(`--plan ${o.planText} is a rotating core's plan, and the board serves a vectoring core (plans: exhaustive, grid:TARGET, circle:RADIUS,POINTS, random:COUNT,SEED, edges, file:PATH)`);
-  const { model, from } = chooseVectorModel(o.vectorConfig, c.modes.vectoring!, o.core);
+  checkVectorLimits(c.limits, c.limitsFrom === 'option' ? '--limits' : `core "${o.core}" limits on the server`);
+  const given = o.vectorConfig ? { config: o.vectorConfig, from: 'config' as const } : c.core ? { config: c.core.vectorConfig, from: 'server' as const } : null;
+  const { model, from } = chooseVectorModel(given, c.modes.vectoring!, o.core);
   const bound = resolveVectorPlan(o.vectorPlan, model, io.readFile);
   const label: VectorRunLabel = { recordedBy: 'anglebench run', mode: 'vectoring', core: o.core, build: o.build, board: o.board, plan: bound.plan, model };
   const labelSize = new TextEncoder().encode(JSON.stringify(label)).length;
   if (o.out && labelSize > MAX_LABEL_BYTES) throw new UsageError(`--plan file: too many vectors to record in the archive's label (${labelSize} bytes, at most ${MAX_LABEL_BYTES})`);
   c.recording.start(label);
   const request = vectorPlanToRequest(bound, model);
-  const progress = progressSink(io.stderr, c.stderrIsTty, () => realClock.now());
+  const progress = progressSink(io.stderr, c.stderrIsTty, () => realClock.now(), 'vectors');
+  const startedAt = new Date();
   const reference = createVectorModel(model);
   // As confirmOffModel for rotating cores: on a damaged line, answers off the model are asked twice.
   const confirm = (x: number, y: number, angle: number, magnitude: number) => {
@@ -179,6 +181,7 @@ export async function runVectoring(c: VectorRunContext): Promise<number> {
     stop();
     progress.end(null);
   }
+  const endedAt = new Date();
   if (result.status === 'failed') throw new VectorRunError(result.message ?? 'the run failed');
   const archive = c.recording.finish(realClock.now() - c.t0);
   if (o.out) {
@@ -189,17 +192,38 @@ export async function runVectoring(c: VectorRunContext): Promise<number> {
     }
   }
   const score = scoreVectorRun(model, result, result.figures.checkFailures);
-  const verdict = judgeVector(score, c.limits);
+  const verdict = judgeVector(score, c.limits, result.figures.checkFailures);
   const report: VectorRunReport = {
     core: o.core, build: o.build, board: o.board, device: o.device, baud: c.baud, info: c.info, modes: c.modes, plan: bound.plan, planText: o.planText,
     model, modelFrom: from, limitsFrom: c.limitsFrom, status: result.status, elapsedMs: result.elapsedMs, score, figures: result.figures, verdict, archive: o.out,
   };
   for (const w of c.warnings.slice(0, 5)) io.stderr(`warning: ${w}\n`);
-  io.stdout(o.json ? JSON.stringify(vectorJsonSummary(report), null, 2) + '\n' : vectorHumanReport(report));
   if (c.interrupt?.requested) {
-    io.stderr(`interrupted: ${score.answered} of ${score.total} vectors answered${o.out ? `, the capture written to ${o.out}` : ''}\n`);
+    // What was captured is on record (--out); a partial session is not uploaded.
+    io.stdout(o.json ? JSON.stringify(vectorJsonSummary(report, null), null, 2) + '\n' : vectorHumanReport(report));
+    io.stderr(`interrupted: ${score.answered} of ${score.total} vectors answered${o.out ? `, the capture written to ${o.out}` : ''}${o.server ? '; nothing uploaded' : ''}\n`);
     return INTERRUPTED_STATUS;
   }
+  const core = c.core;
+  await publishRun({
+    o, io, fetchImpl: c.fetchImpl, core, writeFile: c.writeFile,
+    human: vectorHumanReport(report),
+    json: (upload) => vectorJsonSummary(report, upload),
+    junit: (sessionUrl) => junitXml(report, sessionUrl),
+    upload: () => {
+      const summary = vectorJsonSummary(report, null);
+      return {
+        // The records and the link's CHECK failures are what the server scores and judges (docs/api.md, "Vectoring cores").
+        session: {
+          coreId: core!.id, coreSlug: core!.slug, build: o.build, board: o.board, plan: bound.plan, startedAt: startedAt.toISOString(), endedAt: endedAt.toISOString(),
+          transport: transportOf(o, c.baud, c.crc),
+          deviceInfo: c.info, stats: summary.stats, link: result.figures, verdict: summary.verdict, passed: verdict.passed, sampleCount: score.answered,
+        },
+        samples: packVectorSamples({ xs: result.xs, ys: result.ys, angles: result.angle, magnitudes: result.magnitude }, result.answered),
+        archive,
+      };
+    },
+  });
   return verdict.passed ? 0 : 1;
 }
 
@@ -214,7 +238,7 @@ export interface VectorRunReport {
   plan: VectorPlan;
   planText: string;
   model: VectorConfig;
-  modelFrom: 'config' | 'device';
+  modelFrom: VectorModelFrom;
   limitsFrom: 'server' | 'option' | 'none';
   status: VectorRunResult['status'];
   elapsedMs: number;
@@ -225,7 +249,7 @@ export interface VectorRunReport {
 }
 
 /** The machine-readable summary of a vectoring run (`mode: "vectoring"` tells it from a rotating one's). */
-export function vectorJsonSummary(r: VectorRunReport): Record<string, unknown> {
+export function vectorJsonSummary(r: VectorRunReport, upload: { sessionId: number | null } | null): Record<string, unknown> {
   const s = r.score.summary;
   return {
     mode: 'vectoring',
@@ -251,7 +275,7 @@ export function vectorJsonSummary(r: VectorRunReport): Record<string, unknown> {
     link: r.figures,
     verdict: { passed: r.verdict.passed, limitsFrom: r.limitsFrom, checks: r.verdict.checks },
     archive: r.archive,
-    upload: null,
+    upload,
   };
 }
 
@@ -268,7 +292,7 @@ export function vectorHumanReport(r: VectorRunReport): string {
     `device ${r.device} at ${r.baud.toLocaleString('en-US')} baud: "${r.info.name}", build id 0x${r.info.buildId.toString(16).padStart(8, '0')}, ${m.inBits}-bit x/y (${m.inFrac} fraction bits) in, ${m.angleFormat} ${m.angleBits}-bit angles and ${m.magBits}-bit magnitudes (${m.magFrac} fraction bits) out, ${m.iterations} iterations`,
   );
   out.push(`plan ${r.planText}: ${r.score.total.toLocaleString('en-US')} vectors, ${r.score.answered.toLocaleString('en-US')} answered, ${r.score.missing} missing, ${(r.elapsedMs / 1000).toFixed(2)} s (${r.status})`);
-  out.push(`model from ${r.modelFrom === 'config' ? '--config' : 'the device MODE_INFO (other keys at their defaults)'}`);
+  out.push(`model from ${{ config: '--config', server: 'the server', device: 'the device MODE_INFO (other keys at their defaults)' }[r.modelFrom]}`);
   out.push('');
   out.push('              max |err|       RMS      mean   at (x, y)');
   const row = (name: string, e: VectorScoreSummary['angleLsb'], unit: string) =>

@@ -15,7 +15,8 @@ import { planToRequest, resolvePlan } from './run-plan';
 import { labelBytes, MAX_LABEL_BYTES, RunRecording, type RunLabel } from './run-record';
 import { humanReport, jsonSummary, type RunReport } from './run-report';
 import { scoreRun } from './run-score';
-import { fetchCore, packSamples, ServerError, uploadSession, type Fetch, type ServerCore } from './run-server';
+import { fetchCore, packSamples, ServerError, transportOf, type Fetch, type ServerCore } from './run-server';
+import { publishRun } from './run-upload';
 import { judge, type Limits } from './run-verdict';
 import { explainRun } from './run-explain';
 import { realClock } from './clock';
@@ -44,11 +45,19 @@ const clock = realClock;
 const oneLine = (text: string) => text.replace(/\s*\n\s*/g, ' ').trim();
 
 /**
- * Which core to run: --mode, else what the board serves, rotation first when it serves both and
- * the plan reads as a rotating one. @throws RunError when the board lacks the mode asked for
+ * Which core to run: the server's core's mode when --server names one, else --mode, else what the
+ * board serves, rotation first when it serves both and the plan reads as a rotating one.
+ * @throws RunError when the board lacks the mode asked for, or --mode contradicts the server's core
  */
-function chooseMode(o: RunOptions, modes: ModeInfo): 'rotation' | 'vectoring' {
+function chooseMode(o: RunOptions, modes: ModeInfo, core: ServerCore | null): 'rotation' | 'vectoring' {
   const serves = modes.vectoring ? (modes.rotation ? 'rotation and vectoring' : 'vectoring only') : 'rotation only';
+  if (core) {
+    if (o.mode && o.mode !== core.mode) throw new RunError(`--mode ${o.mode}: core "${core.slug}" on the server is a ${core.mode} core`);
+    const served = core.mode === 'vectoring' ? modes.vectoring : modes.rotation;
+    const board = core.mode === 'vectoring' ? 'a rotating core' : 'a vectoring core';
+    if (!served) throw new RunError(`core "${core.slug}" on the server is a ${core.mode} core, and the device at ${o.device} serves ${board} (${serves}): is the right bitstream loaded, or the right --core named?`);
+    return core.mode;
+  }
   if (o.mode === 'vectoring' && !modes.vectoring) throw new RunError(`--mode vectoring: the device at ${o.device} serves no vectoring core (${serves}): is the right bitstream loaded?`);
   if (o.mode === 'rotation' && !modes.rotation) throw new RunError(`--mode rotation: the device at ${o.device} serves no rotating core (${serves})`);
   if (o.mode) return o.mode;
@@ -57,7 +66,7 @@ function chooseMode(o: RunOptions, modes: ModeInfo): 'rotation' | 'vectoring' {
 }
 
 /** The model to score with: the server's core, --config, or the device's INFO with defaults. */
-function chooseModel(o: RunOptions, core: ServerCore | null, info: DeviceInfo): { model: ModelConfig; from: RunReport['modelFrom'] } {
+function chooseModel(o: RunOptions, core: (ServerCore & { mode: 'rotation' }) | null, info: DeviceInfo): { model: ModelConfig; from: RunReport['modelFrom'] } {
   let model: ModelConfig;
   let from: RunReport['modelFrom'];
   if (o.config) [model, from] = [parseModelConfig(o.config), 'config'];
@@ -110,15 +119,15 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
     } catch (e) {
       throw new RunError(`the device at ${o.device} reports version ${info.version} but did not answer MODES (${(e as Error).message})`);
     }
-    if (chooseMode(o, modes) === 'vectoring') {
+    if (chooseMode(o, modes, core) === 'vectoring') {
       return await runVectoring({
-        o, io, engine, info, modes, recording, limits, limitsFrom, baud, t0, warnings,
+        o, io, engine, info, modes, recording, limits, limitsFrom, baud, crc, t0, warnings, fetchImpl, core: core?.mode === 'vectoring' ? core : null,
         stderrIsTty: deps.stderrIsTty ?? false, writeFile: deps.writeFile, interrupt: deps.interrupt,
       });
     }
     if (!o.plan) throw new UsageError(`--plan ${o.planText} is a vectoring core's plan, and the board serves a rotating core`);
     if (o.vectorConfig && !o.config) throw new UsageError('--config holds a vectoring core\'s keys, and the board serves a rotating core');
-    const { model, from } = chooseModel(o, core, info);
+    const { model, from } = chooseModel(o, core?.mode === 'rotation' ? core : null, info);
     const plan = resolvePlan(o.plan, model, io.readFile);
     const label: RunLabel = { recordedBy: 'anglebench run', core: o.core, build: o.build, board: o.board, plan, model };
     if (o.out && labelBytes(label) > MAX_LABEL_BYTES) throw new UsageError(`--plan file: too many codes to record in the archive's label (${labelBytes(label)} bytes, at most ${MAX_LABEL_BYTES})`);
@@ -168,48 +177,31 @@ async function execute(o: RunOptions, io: CliIo, deps: RunDeps): Promise<number>
       explanation: o.explain ? explainRun(model, result) : undefined,
     };
     for (const w of warnings.slice(0, 5)) io.stderr(`warning: ${w}\n`);
-    const writeJunit = (sessionUrl: string | null) => {
-      if (!o.junit) return;
-      try {
-        (deps.writeFile ?? writeFileSync)(o.junit, new TextEncoder().encode(junitXml(report, sessionUrl)));
-      } catch (e) {
-        throw new RunError(`cannot write the JUnit report to ${o.junit}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
-      }
-    };
     if (deps.interrupt?.requested) {
       // What was captured is on record (--out); a partial session is not uploaded.
       io.stdout(o.json ? JSON.stringify(jsonSummary(report, null), null, 2) + '\n' : humanReport(report));
       io.stderr(`interrupted: ${score.answered} of ${score.total} codes answered${o.out ? `, the capture written to ${o.out}` : ''}; nothing uploaded\n`);
       return INTERRUPTED_STATUS;
     }
-    let sessionId: number | null = null;
-    let sessionUrl: string | null = null;
-    if (o.server && core) {
-      // Print the verdict first: a refused upload must not hide what the board did.
-      if (!o.json) io.stdout(humanReport(report));
-      const summary = jsonSummary(report, null);
-      try {
-        ({ id: sessionId, url: sessionUrl } = await uploadSession(fetchImpl, o.server, {
+    await publishRun({
+      o, io, fetchImpl, core, writeFile: deps.writeFile,
+      human: humanReport(report),
+      json: (upload) => jsonSummary(report, upload),
+      junit: (sessionUrl) => junitXml(report, sessionUrl),
+      upload: () => {
+        const summary = jsonSummary(report, null);
+        return {
           session: {
-            coreId: core.id, coreSlug: core.slug, build: o.build, board: o.board, plan, startedAt: startedAt.toISOString(), endedAt: endedAt.toISOString(),
-            transport: { kind: o.device.startsWith('ws') ? 'websocket' : 'serial', device: o.device, baud, crc },
+            coreId: core!.id, coreSlug: core!.slug, build: o.build, board: o.board, plan, startedAt: startedAt.toISOString(), endedAt: endedAt.toISOString(),
+            transport: transportOf(o, baud, crc),
             deviceInfo: info, stats: summary.stats, link: result.figures, verdict: summary.verdict, passed: verdict.passed, sampleCount: score.answered,
             ...soakUpload(conditions, soak),
           },
           samples: packSamples(result.codes, result.cos, result.sin, result.answered),
           archive,
-        }));
-      } catch (e) {
-        if (o.json) io.stdout(JSON.stringify({ ...summary, upload: { error: (e as Error).message } }, null, 2) + '\n');
-        writeJunit(null); // the verdict stands without the session's address
-        throw e;
-      }
-      if (o.json) io.stdout(JSON.stringify(jsonSummary(report, { sessionId }), null, 2) + '\n');
-      // The server's own address for it (PUBLIC_URL), else the one the runner was given.
-      else io.stdout(`session uploaded${sessionId !== null ? `: ${sessionUrl ?? `${o.server.url}/sessions/${sessionId}`}` : ''}\n`);
-    } else if (o.json) io.stdout(JSON.stringify(jsonSummary(report, null), null, 2) + '\n');
-    else io.stdout(humanReport(report));
-    writeJunit(o.server && sessionId !== null ? `${o.server.url}/sessions/${sessionId}` : null);
+        };
+      },
+    });
     return verdict.passed ? 0 : 1;
   } finally {
     await link.close().catch(() => undefined);

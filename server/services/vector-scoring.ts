@@ -3,12 +3,13 @@
 // and judged against the core's vectoring limits. Besides the score: the list's 64-bin profile and
 // the compare view's envelope, both of the angle error against the vector's direction.
 import { SamplePackError } from '../../shared/link-engine/sample-pack';
+import { VECTOR_MEASURES } from '../../shared/link-engine/vector-measures';
 import { unpackVectorSamples, type VectorSamples } from '../../shared/link-engine/vector-sample-pack';
 import { PROFILE_BINS } from '../../shared/numeric';
 import { exactVectorInto, parseVectorConfig, VectorScoreAccumulator, wrapAngleError, type VectorConfig, type VectorScoreSummary } from '../../shared/vectoring';
 import { HttpError } from '../http-error';
 import { ENVELOPE_BINS, type EnvelopeBounds, type ErrorEnvelope } from './error-envelope';
-import { judgeWith, type JudgeContext, type Measures, type Verdict } from './session-scoring';
+import { judgeWith, type JudgeContext, type Verdict } from './session-scoring';
 
 const SCORE_BATCH = 65_536;
 const TWO_PI = 2 * Math.PI;
@@ -88,17 +89,7 @@ export function vectorEnvelopeFromBounds(bounds: EnvelopeBounds): ErrorEnvelope 
   };
 }
 
-const VECTOR_MEASURES: Measures<VectorScoreSummary> = {
-  maxAngleErrorLsb: { max: true, value: (s) => s.angleLsb.maxAbs },
-  maxAngleRmsLsb: { max: true, value: (s) => s.angleLsb.rms },
-  maxMagnitudeErrorLsb: { max: true, value: (s) => s.magnitudeLsb.maxAbs },
-  maxMagnitudeErrorPpm: { max: true, value: (s) => s.magnitudePpm.maxAbs },
-  maxModelMismatches: { max: true, value: (s) => s.mismatches.count },
-  maxLinkErrors: { max: true, value: (_s, c) => c.checkFailures ?? null },
-  minPlaneCoveragePct: { max: false, value: (s) => s.coverage.cells.share * 100 },
-};
-
-/** A vectoring core's limits against its session's summary. */
+/** A vectoring core's limits against its session's summary (the runner judges by the same VECTOR_MEASURES). */
 export function judgeVectorSession(limitsInput: unknown, summary: VectorScoreSummary, context: JudgeContext = {}): { verdict: Verdict; passed: boolean } {
   return judgeWith(VECTOR_MEASURES, limitsInput, summary, context);
 }

@@ -110,7 +110,9 @@ describe('run against a vectoring board', { timeout: 60_000 }, () => {
     expect(sweep.err).toMatch(/^error: --plan sweep:0,1,10 is a rotating core's plan, and the board serves a vectoring core/m);
     const soak = await run(['--device', vectoring.url, ...FAST, '--plan', 'edges', '--core', 'v', '--soak', '3']);
     expect(soak.err).toMatch(/^error: --soak is not available for vectoring cores yet/m);
-    expect(() => parseRunArgs(['--device', 'ws://x/', '--plan', 'edges', '--core', 'v', '--mode', 'vectoring', '--server', 'http://s', '--token', 't'])).toThrow(/vectoring sessions cannot be saved to the server yet/);
+    const rotationLimit = await run(['--device', vectoring.url, ...FAST, '--plan', 'edges', '--core', 'v', '--limits', '{"maxAbsErrorLsb":2}']);
+    expect(rotationLimit.status).toBe(2);
+    expect(rotationLimit.err).toMatch(/^error: --limits: maxAbsErrorLsb is a limit of rotation cores; a vectoring core's are maxModelMismatches, maxLinkErrors, maxAngleErrorLsb/m);
     expect(() => parseRunArgs(['--device', 'ws://x/', '--plan', 'sweep:0,1,2', '--core', 'v', '--mode', 'vectoring'])).toThrow(/--plan for a vectoring core must be exhaustive, grid:TARGET/);
   });
 
