@@ -52,10 +52,10 @@ afterAll(async () => {
 });
 
 /** The runner in-process against the real server, keeping what it would write to files. */
-async function run(device: string, core: string, extra: string[] = []) {
+async function run(device: string, core: string, extra: string[] = [], plan = 'grid:4096') {
   const files = new Map<string, Uint8Array>();
   const io = captureIo();
-  const status = await runRunCommand(['--device', device, '--plan', 'grid:4096', '--core', core, '--server', serverUrl, '--token', token, ...extra], io, {
+  const status = await runRunCommand(['--device', device, '--plan', plan, '--core', core, '--server', serverUrl, '--token', token, ...extra], io, {
     stderrIsTty: false,
     writeFile: (path, bytes) => files.set(path, bytes),
     interrupt: createInterrupt(),
@@ -146,7 +146,7 @@ describe('the runner saving vectoring sessions', { timeout: 90_000 }, () => {
     const vec = await run(rotating.url, 'phase-det');
     expect(vec.status).toBe(2);
     expect(vec.err).toMatch(/^error: core "phase-det" on the server is a vectoring core, and the device at ws:\/\/127\.0\.0\.1:\d+\/ serves a rotating core \(rotation only\)/m);
-    const mode = await run(healthy.url, 'phase-det', ['--mode', 'rotation']);
+    const mode = await run(healthy.url, 'phase-det', ['--mode', 'rotation'], 'edges');
     expect(mode.status).toBe(2);
     expect(mode.err).toMatch(/^error: --mode rotation: core "phase-det" on the server is a vectoring core$/m);
     const limits = await run(healthy.url, 'phase-det', ['--limits', '{"maxRmsErrorLsb":1}']);
