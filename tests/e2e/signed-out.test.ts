@@ -53,6 +53,9 @@ describe('signed out', () => {
     await page.getByLabel('Password').fill('anglebench');
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.waitForURL((u) => u.pathname === '/sessions');
+    // The list has asked for its data; a sign-out racing those requests is a separate case (the
+    // server may refuse them after the sign-out, and the browser logs each refusal).
+    await page.waitForLoadState('networkidle');
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.waitForURL((u) => u.pathname === '/sign-in');
     await expectSignInForm(page);
