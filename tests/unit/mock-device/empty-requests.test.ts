@@ -4,7 +4,8 @@ import { createSimCore } from '../../../mock-device/faulty-core';
 import { createSimVectorCore } from '../../../mock-device/vector-core';
 import { FrameDecoder } from '../../../shared/link/decoder';
 import { Kind, SweepStatus } from '../../../shared/link/kinds';
-import { decodePayload, encodeMessage, type Message, type WireProfile } from '../../../shared/link/payloads';
+import { decodePayload, encodeMessage, type Message } from '../../../shared/link/payloads';
+import type { WireProfile } from '../../../shared/link/wire-profile';
 
 // docs/protocol.md: a SWEEP of count 0, or a VEC_GRID with nx or ny 0, is answered at once with
 // SWEEP_END done 0 — no RESULTS frame, empty or not, before it.
