@@ -216,6 +216,12 @@ describe('server-hosted simulated boards', () => {
       const slipped = await vectorGrid(`${boards.url}?mode=vectoring&fault=sign-slip:2&baud=12000000`, {}, undefined, 12_000_000);
       expect(slipped.modes.vectoring).toMatchObject({ inBits: 16, iterations: 16 });
       expect(slipped.offModel).toBeGreaterThan(3000);
+      // An intermittent fault, seeded: the same vectors go wrong on every board with the same seed.
+      const flaky = `${boards.url}?mode=vectoring&fault=flaky:0.02&seed=11&baud=12000000`;
+      const [f1, f2] = [await vectorGrid(flaky, {}, undefined, 12_000_000), await vectorGrid(flaky, {}, undefined, 12_000_000)];
+      expect(f1.offModel).toBeGreaterThan(0);
+      expect(f1.offModel).toBeLessThan(400);
+      expect(f2.offModel).toBe(f1.offModel);
 
       await expect(NodeSocketLink.open(`${boards.url}?mode=spiral`)).rejects.toThrow(/400 Bad Request: mode must be rotation or vectoring, got "spiral"/);
       await expect(NodeSocketLink.open(`${boards.url}?mode=vectoring&fault=fold`)).rejects.toThrow(/400 Bad Request: fault: .*not a vectoring core fault/);
