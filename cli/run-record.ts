@@ -1,6 +1,6 @@
 // The run's capture: both directions through the shared Recorder, with a label that says what
 // was asked (plan, model configuration), so an archive alone scores again to the same figures.
-import { Kind, RecordedDecoder, Recorder, decodePayload, profileFromInfo, vectorWireProfile, type Crc8Name } from '../shared/link';
+import { Kind, RecordedDecoder, Recorder, decodePayload, profileFromInfo, type Crc8Name } from '../shared/link';
 import { samplesFromArchive } from '../shared/link-engine/archive-samples';
 import { expandRequest } from '../shared/link-engine/run-request';
 import { parseModelConfig, planSchema, type ModelConfig, type Plan } from '../shared/numeric';
@@ -63,13 +63,16 @@ export class RunRecording {
         if (f.kind !== Kind.Info && f.kind !== Kind.ModeInfo) return;
         try {
           const m = decodePayload(f.kind, f.payload, toHost.decoder.profile);
-          let p = toHost.decoder.profile;
-          if (m.kind === Kind.Info) p = profileFromInfo(m.info);
-          // MODE_INFO's formats size the VEC_* frames from here on, as the engine's (the archive's
-          // profile records keep only the rotating fields: a replay reads VEC_* at the default widths).
-          else if (m.kind === Kind.ModeInfo && m.modes.vectoring) p = { ...p, vector: vectorWireProfile(m.modes.vectoring) };
-          toHost.setProfile(p);
-          toDevice.setProfile(p);
+          if (m.kind === Kind.Info) {
+            const p = profileFromInfo(m.info);
+            toHost.setProfile(p);
+            toDevice.setProfile(p);
+          } else if (m.kind === Kind.ModeInfo && m.modes.vectoring) {
+            // MODE_INFO's formats size the VEC_* frames from here on, as the engine's; the archive
+            // keeps them (a VECTOR_FORMATS record, docs/archive.md), so a replay sizes them the same.
+            toHost.setVectorFormats(m.modes.vectoring);
+            toDevice.setVectorFormats(m.modes.vectoring);
+          }
         } catch {
           // An INFO the engine cannot use either: the run fails on its own.
         }

@@ -20,6 +20,9 @@ const LIMITS = JSON.stringify({ maxModelMismatches: 0, maxLinkErrors: 0 });
 let vectoring: MockServer;
 let slipped: MockServer;
 let rotating: MockServer;
+/** 12-bit inputs and 20-bit angles (3-byte fields): pairs the default widths would misread. */
+let odd: MockServer;
+const ODD = { inBits: 12, angleBits: 20 };
 const dir = mkdtempSync(join(tmpdir(), 'anglebench-run-vector-'));
 
 beforeAll(async () => {
@@ -28,11 +31,13 @@ beforeAll(async () => {
   vectoring = await startMockServer({ ...settings, vector: { core: {} } }, 0, '127.0.0.1', quiet);
   slipped = await startMockServer({ ...settings, vector: { core: { inBits: 12 }, fault: parseVectorCoreFault('sign-slip:3') } }, 0, '127.0.0.1', quiet);
   rotating = await startMockServer(settings, 0, '127.0.0.1', quiet);
+  odd = await startMockServer({ ...settings, vector: { core: ODD } }, 0, '127.0.0.1', quiet);
 });
 afterAll(async () => {
   await vectoring.close();
   await slipped.close();
   await rotating.close();
+  await odd.close();
 });
 
 const run = async (args: string[], files: Record<string, string> = {}) => {
@@ -96,6 +101,27 @@ describe('run against a vectoring board', { timeout: 60_000 }, () => {
     expect(replay.skips).toEqual([]);
     expect(JSON.parse(replay.archive.header.label)).toMatchObject({ mode: 'vectoring', plan: { kind: 'circle', radius: 10000, points: 500 } });
     expect(() => scoreArchive(bytes)).toThrow('This archive holds a vectoring run: scoring a vectoring capture again is not supported yet');
+  });
+
+  it("keeps a vectoring core's formats in the capture (archive version 2), so a replay reads its VEC_* frames at their own widths", async () => {
+    const out = join(dir, 'odd.abrc');
+    const r = await run(['--device', odd.url, ...FAST, '--plan', 'grid:1024', '--core', 'vec-odd', '--out', out, '--json']);
+    expect(r.err).not.toMatch(/^error/m);
+    expect(r.status).toBe(0);
+    const bytes = new Uint8Array(readFileSync(out));
+    const replay = replayArchive(bytes);
+    expect(replay.archive.version).toBe(2);
+    const formats = replay.archive.records.flatMap((x) => (x.type === 'vector-formats' ? [x] : []));
+    const v = parseVectorConfig(ODD);
+    const declared = { inBits: 12, inFrac: v.inFrac, angleFormat: 'turn', angleBits: 20, angleFrac: 0, magBits: v.magBits, magFrac: v.magFrac, iterations: v.iterations };
+    expect(formats.map((x) => x.direction).sort()).toEqual(['to-device', 'to-host']);
+    for (const x of formats) expect(x.formats).toEqual(declared);
+    expect(JSON.parse(r.out).device.modes.vectoring).toEqual(declared);
+    // Every frame read back, the 1,024 answers in pairs of 3 bytes of angle and the magnitude's field.
+    expect(replay.skips).toEqual([]);
+    const pair = 3 + Math.ceil(v.magBits / 8);
+    const toHost = replay.frames.filter((f) => f.direction === 'to-host').map((f) => f.frame);
+    expect(toHost.filter((f) => f.kind === Kind.VecResults).reduce((n, f) => n + (f.payload.length - 4) / pair, 0)).toBe(1024);
   });
 
   it('refuses what it cannot do for a vectoring core, and what the board does not serve', async () => {

@@ -176,6 +176,7 @@ export class BenchController {
       recording.info(info, clock.now());
       // A version-2 board says whether it also vectors; a version-1 board is not asked.
       const modes = await engine.modes();
+      recording.modes(modes, clock.now());
       this.set({ status: 'connected', info, modes });
     } catch (err) {
       await this.link?.close().catch(() => undefined);
