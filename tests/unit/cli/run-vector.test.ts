@@ -3,7 +3,7 @@ import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runRunCommand } from '../../../cli/run';
-import { scoreArchive } from '../../../cli/run-record';
+import { scoreArchive, scoreVectorArchive } from '../../../cli/run-record';
 import { parseVectorPlanSpec, resolveVectorPlan, vectorPlanToRequest } from '../../../cli/run-vector-plan';
 import { parseRunArgs } from '../../../cli/run-options';
 import { defaultBoardSettings } from '../../../mock-device/board-session';
@@ -84,7 +84,7 @@ describe('run against a vectoring board', { timeout: 60_000 }, () => {
     expect(bad.err).toMatch(/b\.txt line 2: x 40000 is not an input code -32768\.\.32767/);
   });
 
-  it('writes the capture with --out; scoring it again is refused with a clear reason', async () => {
+  it('writes the capture with --out, which scores again as a vectoring capture only', async () => {
     const out = join(dir, 'grid.abrc');
     const r = await run(['--device', vectoring.url, ...FAST, '--plan', 'exhaustive', '--core', 'vec-8', '--config', '{"inBits":8}', '--out', out]);
     // An 8-bit board is not what this board has: refused before anything is recorded.
@@ -100,7 +100,8 @@ describe('run against a vectoring board', { timeout: 60_000 }, () => {
     expect(pairs).toBe(500);
     expect(replay.skips).toEqual([]);
     expect(JSON.parse(replay.archive.header.label)).toMatchObject({ mode: 'vectoring', plan: { kind: 'circle', radius: 10000, points: 500 } });
-    expect(() => scoreArchive(bytes)).toThrow('This archive holds a vectoring run: scoring a vectoring capture again is not supported yet');
+    expect(() => scoreArchive(bytes)).toThrow('This archive holds a vectoring run: score it with scoreVectorArchive');
+    expect(scoreVectorArchive(bytes).score).toMatchObject({ total: 500, answered: 500, missing: 0 });
   });
 
   it("keeps a vectoring core's formats in the capture (archive version 2), so a replay reads its VEC_* frames at their own widths", async () => {
@@ -122,6 +123,17 @@ describe('run against a vectoring board', { timeout: 60_000 }, () => {
     const pair = 3 + Math.ceil(v.magBits / 8);
     const toHost = replay.frames.filter((f) => f.direction === 'to-host').map((f) => f.frame);
     expect(toHost.filter((f) => f.kind === Kind.VecResults).reduce((n, f) => n + (f.payload.length - 4) / pair, 0)).toBe(1024);
+    // Scored again from the archive alone: the run's own figures.
+    const again = scoreVectorArchive(bytes);
+    const s = JSON.parse(r.out) as { stats: Record<string, unknown>; results: unknown };
+    expect(again.label.model).toEqual(v);
+    expect({ total: again.score.total, answered: again.score.answered, missing: again.score.missing }).toEqual(s.results);
+    expect(JSON.parse(JSON.stringify({ angleLsb: again.score.summary.angleLsb, magnitudeLsb: again.score.summary.magnitudeLsb, mismatches: again.score.summary.mismatches }))).toEqual({
+      angleLsb: s.stats.angleLsb,
+      magnitudeLsb: s.stats.magnitudeLsb,
+      mismatches: s.stats.mismatches,
+    });
+    expect(again.score.summary.mismatches.count).toBe(0);
   });
 
   it('refuses what it cannot do for a vectoring core, and what the board does not serve', async () => {
