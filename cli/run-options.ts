@@ -34,6 +34,7 @@ export const RUN_HELP = `${RUN_USAGE}
   --out FILE       write the capture archive (both directions) to FILE
   --json           print a machine-readable summary on stdout (progress stays on stderr)
   --soak N|D       repeat the plan: N passes (50) or for a duration (90s, 30m, 2h); lists unstable codes
+                   (vectors for a vectoring core, which the server does not keep yet: not with --server)
   --condition K=V  an operating condition, repeatable: temperature_c=85, vccint_v=0.95, clock_mhz=200,
                    or any name=value; saved with the session
   --junit FILE     write the verdict as JUnit XML to FILE: a test case per limit, the session's address

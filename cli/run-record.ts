@@ -1,12 +1,14 @@
 // The run's capture: both directions through the shared Recorder, with a label that says what
 // was asked (plan, model configuration), so an archive alone scores again to the same figures.
-import { Kind, RecordedDecoder, Recorder, decodePayload, profileFromInfo, vectorWireProfile, type Crc8Name } from '../shared/link';
+import { Kind, RecordedDecoder, Recorder, decodePayload, profileFromInfo, type Crc8Name } from '../shared/link';
 import { samplesFromArchive } from '../shared/link-engine/archive-samples';
+import { vectorSamplesFromArchive } from '../shared/link-engine/vector-archive-samples';
+import { parseVectorConfig, planVectors, vectorPlanSchema } from '../shared/vectoring';
 import { expandRequest } from '../shared/link-engine/run-request';
 import { parseModelConfig, planSchema, type ModelConfig, type Plan } from '../shared/numeric';
 import { planToRequest } from './run-plan';
 import { scoreRun, type RunScore } from './run-score';
-import type { VectorRunLabel } from './run-vector';
+import { scoreVectorRun, type VectorRunLabel, type VectorRunScore } from './run-vector';
 
 /** The archive label of a runner capture, as JSON. */
 export interface RunLabel {
@@ -63,13 +65,16 @@ export class RunRecording {
         if (f.kind !== Kind.Info && f.kind !== Kind.ModeInfo) return;
         try {
           const m = decodePayload(f.kind, f.payload, toHost.decoder.profile);
-          let p = toHost.decoder.profile;
-          if (m.kind === Kind.Info) p = profileFromInfo(m.info);
-          // MODE_INFO's formats size the VEC_* frames from here on, as the engine's (the archive's
-          // profile records keep only the rotating fields: a replay reads VEC_* at the default widths).
-          else if (m.kind === Kind.ModeInfo && m.modes.vectoring) p = { ...p, vector: vectorWireProfile(m.modes.vectoring) };
-          toHost.setProfile(p);
-          toDevice.setProfile(p);
+          if (m.kind === Kind.Info) {
+            const p = profileFromInfo(m.info);
+            toHost.setProfile(p);
+            toDevice.setProfile(p);
+          } else if (m.kind === Kind.ModeInfo && m.modes.vectoring) {
+            // MODE_INFO's formats size the VEC_* frames from here on, as the engine's; the archive
+            // keeps them (a VECTOR_FORMATS record, docs/archive.md), so a replay sizes them the same.
+            toHost.setVectorFormats(m.modes.vectoring);
+            toDevice.setVectorFormats(m.modes.vectoring);
+          }
         } catch {
           // An INFO the engine cannot use either: the run fails on its own.
         }
@@ -112,7 +117,7 @@ export function scoreArchive(bytes: Uint8Array): { label: RunLabel; score: RunSc
     }
     label = { ...raw, plan: planSchema.parse(raw.plan), model: parseModelConfig(raw.model) };
   } catch {
-    if (vectoring) throw new NotARunArchiveError('This archive holds a vectoring run: scoring a vectoring capture again is not supported yet');
+    if (vectoring) throw new NotARunArchiveError('This archive holds a vectoring run: score it with scoreVectorArchive');
     throw new NotARunArchiveError('This archive was not written by `run --out`: its label holds no plan');
   }
   // Each code's answers handed out to the plan's slots in turn.
@@ -137,4 +142,42 @@ export function scoreArchive(bytes: Uint8Array): { label: RunLabel; score: RunSc
     answered[i] = 1;
   }
   return { label, score: scoreRun(label.model, label.plan, { codes, cos, sin, answered }, found.checkFailures) };
+}
+
+/**
+ * Score a vectoring capture written by `run --out` again, from the archive alone: its label's plan
+ * and model, its VEC_* frames read at the formats its VECTOR_FORMATS records keep (archive version
+ * 2), each vector's answers handed out to the plan's slots in turn.
+ */
+export function scoreVectorArchive(bytes: Uint8Array): { label: VectorRunLabel; score: VectorRunScore } {
+  const found = vectorSamplesFromArchive(bytes);
+  let label: VectorRunLabel;
+  try {
+    const raw = JSON.parse(found.label) as VectorRunLabel;
+    if (raw.recordedBy !== 'anglebench run' || raw.mode !== 'vectoring') throw new Error('not a vectoring runner label');
+    label = { ...raw, plan: vectorPlanSchema.parse(raw.plan), model: parseVectorConfig(raw.model) };
+  } catch {
+    throw new NotARunArchiveError('This archive was not written by `run --out` against a vectoring core: its label holds no vectoring plan');
+  }
+  const key = (x: number, y: number) => x * 2 ** 32 + y;
+  const answers = new Map<number, Array<[number, number]>>();
+  for (let i = 0; i < found.xs.length; i++) {
+    const k = key(found.xs[i], found.ys[i]);
+    answers.set(k, [...(answers.get(k) ?? []), [found.angle[i], found.magnitude[i]]]);
+  }
+  const { xs, ys } = planVectors(label.plan, label.model);
+  const angle = new Int32Array(xs.length);
+  const magnitude = new Int32Array(xs.length);
+  const answered = new Uint8Array(xs.length);
+  const used = new Map<number, number>();
+  for (let i = 0; i < xs.length; i++) {
+    const k = key(xs[i], ys[i]);
+    const list = answers.get(k);
+    const u = used.get(k) ?? 0;
+    if (!list || u >= list.length) continue;
+    [angle[i], magnitude[i]] = list[u];
+    used.set(k, u + 1);
+    answered[i] = 1;
+  }
+  return { label, score: scoreVectorRun(label.model, { xs, ys, angle, magnitude, answered }, found.checkFailures) };
 }

@@ -10,12 +10,13 @@ import type { ModelConfigInput } from '../shared/numeric';
 import { nameWithConditions, type Conditions } from '../shared/soak';
 import type { VectorConfigInput } from '../shared/vectoring';
 import { createSimVectorCore, type VectorDeviation } from './vector-core';
+import { createFlakyVectorCore, type VectorCoreFlip } from './flaky-vector-core';
 
 export interface BoardSettings {
   core: ModelConfigInput;
   /**
-   * A vectoring board instead (`--mode vectoring`): its configuration and core fault. `core`,
-   * `coreFault` and `flaky` are then unused.
+   * A vectoring board instead (`--mode vectoring`): its configuration and core fault. `core` and
+   * `coreFault` are then unused; `flaky` flips its angle or magnitude bits.
    */
   vector?: { core: VectorConfigInput; fault?: VectorDeviation };
   coreFault?: CoreFault;
@@ -33,6 +34,8 @@ export interface BoardSettings {
   seed?: number;
   /** Every answer the flaky core got wrong, as it happens: the board's own record of its flips. */
   onCoreFlip?: (flip: CoreFlip) => void;
+  /** The same record for a vectoring board's flips. */
+  onVectorFlip?: (flip: VectorCoreFlip) => void;
   /** Conditions the board reports, at the end of its INFO name (shared/soak/board-conditions.ts). */
   conditions?: Conditions;
 }
@@ -101,7 +104,11 @@ export function openBoardSession(settings: BoardSettings, deliver: (bytes: Uint8
 }
 
 function simCore(settings: BoardSettings, clock: PacerClock) {
-  if (settings.vector) return { vector: createSimVectorCore(settings.vector.core, settings.vector.fault) };
+  if (settings.vector) {
+    const vector = createSimVectorCore(settings.vector.core, settings.vector.fault);
+    if (!settings.flaky) return { vector };
+    return { vector: createFlakyVectorCore(vector, settings.flaky, { seed: settings.seed ?? 1, now: () => clock.now(), onFlip: settings.onVectorFlip }) };
+  }
   const core = createSimCore(settings.core, settings.coreFault);
   if (!settings.flaky) return core;
   return createFlakyCore(core, settings.flaky, { seed: settings.seed ?? 1, now: () => clock.now(), onFlip: settings.onCoreFlip });

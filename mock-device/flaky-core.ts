@@ -47,12 +47,19 @@ export interface FlakyOptions {
 }
 
 /** Cumulative weights for bit 0..outBits-1, growing as (bit+1)²: the MSB is flipped most often. */
-function bitWeights(outBits: number): Float64Array {
+export function bitWeights(outBits: number): Float64Array {
   const w = new Float64Array(outBits);
   let sum = 0;
   for (let b = 0; b < outBits; b++) w[b] = sum += (b + 1) ** 2;
   for (let b = 0; b < outBits; b++) w[b] /= sum;
   return w;
+}
+
+/** Index of the bit a uniform draw `r` picks from cumulative weights (bitWeights). */
+export function pickBit(weights: Float64Array, r: number): number {
+  let bit = 0;
+  while (bit < weights.length - 1 && weights[bit] < r) bit++;
+  return bit;
 }
 
 export function createFlakyCore(core: SimCore, fault: FlakyFault, o: FlakyOptions): SimCore {
@@ -73,9 +80,7 @@ export function createFlakyCore(core: SimCore, fault: FlakyFault, o: FlakyOption
       const healthy = core.evaluate(code);
       const now = o.now();
       if (now < healthyUntil || random() >= fault.rate) return healthy;
-      const r = random();
-      let bit = 0;
-      while (bit < outBits - 1 && weights[bit] < r) bit++;
+      const bit = pickBit(weights, random());
       const channel = random() < 0.5 ? 'cos' : 'sin';
       const answer = channel === 'cos' ? { cos: flip(healthy.cos, bit), sin: healthy.sin } : { cos: healthy.cos, sin: flip(healthy.sin, bit) };
       o.onFlip?.({ code, channel, bit, healthy, answer, atMs: now });

@@ -1,11 +1,11 @@
 import { parseArgs } from 'node:util';
 import { parseModelConfig } from '../shared/numeric';
 import { defaultBoardSettings, type BoardSettings } from './board-session';
-import { createSimCore, parseCoreFault } from './faulty-core';
+import { applyCoreFaultText } from './core-fault-text';
 import { parseLineFaults } from './line-faults';
-import { boardConditionArgs, isFlakyFaultText, parseFlakyFault } from './flaky-options';
+import { boardConditionArgs } from './flaky-options';
 import { parseVectorConfig } from '../shared/vectoring';
-import { createSimVectorCore, parseVectorCoreFault, VECTOR_FAULT_SPELLINGS } from './vector-core';
+import { VECTOR_FAULT_SPELLINGS } from './vector-core';
 
 export const USAGE = `npm run mock -- [--ws-port 5175] [--baud 3000000] [--mode rotation|vectoring] [--core '<json model config>']
   [--queue-depth 256] [--build-id N] [--name S]
@@ -14,7 +14,7 @@ export const USAGE = `npm run mock -- [--ws-port 5175] [--baud 3000000] [--mode 
      a configuration deviation key=value (iterations=15, fold=false), gain, fold, sign:K, stuck:B,
      or an intermittent one, flaky:RATE[@SECONDS]
   --mode vectoring: a vectoring core; --core takes its keys (docs/model.md "Vectoring cores") and
-     F is ${VECTOR_FAULT_SPELLINGS.join(', ')} or key=value (iterations=15, gainCompensation=none)`;
+     F is ${VECTOR_FAULT_SPELLINGS.join(', ')}, key=value (iterations=15, gainCompensation=none) or flaky:RATE[@SECONDS]`;
 
 function int(name: string, text: string, min: number, max: number): number {
   const n = Number(text);
@@ -52,14 +52,8 @@ export function parseBoardArgs(args: string[]): { port: number; settings: BoardS
       throw new Error(`--core must be JSON, e.g. '${mode === 'vectoring' ? '{"inBits":12,"iterations":12}' : '{"outBits":18,"outFrac":16}'}'`);
     }
   }
-  if (mode === 'vectoring') {
-    const core = parseVectorConfig(json ?? {});
-    const text = values['core-fault'];
-    if (text !== undefined && isFlakyFaultText(text)) throw new Error('--core-fault flaky is not served by a vectoring board yet');
-    const fault = text !== undefined ? parseVectorCoreFault(text) : undefined;
-    createSimVectorCore(core, fault); // a fault the core cannot have is refused now, not at the first connection
-    s.vector = { core, ...(fault ? { fault } : {}) };
-  } else if (json !== undefined) s.core = parseModelConfig(json);
+  if (mode === 'vectoring') s.vector = { core: parseVectorConfig(json ?? {}) };
+  else if (json !== undefined) s.core = parseModelConfig(json);
   if (values.baud !== undefined) s.baud = int('baud', values.baud, 9_600, 12_000_000);
   if (values['queue-depth'] !== undefined) s.queueDepth = int('queue-depth', values['queue-depth'], 1, 65_535);
   if (values['build-id'] !== undefined) s.buildId = int('build-id', values['build-id'], 0, 0xffff_ffff);
@@ -68,13 +62,7 @@ export function parseBoardArgs(args: string[]): { port: number; settings: BoardS
     s.name = values.name;
   }
   if (values['line-faults'] !== undefined) s.lineFaults = parseLineFaults(values['line-faults']);
-  // Wrappers around the core (an intermittent fault) are read before the catalogue entry.
-  // (A vectoring board's fault was read above, against the vectoring catalogue.)
-  if (!s.vector && values['core-fault'] !== undefined) {
-    if (isFlakyFaultText(values['core-fault'])) s.flaky = parseFlakyFault(values['core-fault']);
-    else s.coreFault = parseCoreFault(values['core-fault']);
-  }
-  if (s.coreFault) createSimCore(s.core, s.coreFault); // a fault the core cannot have is refused now, not at the first connection
+  if (values['core-fault'] !== undefined) applyCoreFaultText(s, values['core-fault']);
   if (values.seed !== undefined) s.seed = int('seed', values.seed, 0, 0xffff_ffff);
   Object.assign(s, boardConditionArgs(values.condition ?? [], s.name));
   const port = values['ws-port'] !== undefined ? int('ws-port', values['ws-port'], 0, 65_535) : 5175;

@@ -1,18 +1,25 @@
-// The capture archive, version 1. Byte layout in docs/archive.md; in short:
+// The capture archive, versions 1 and 2. Byte layout in docs/archive.md; in short:
 //   "ABRC" · version u8 · header length u16 · header · records … · END record
+// Version 2 is version 1 plus one record type, VECTOR_FORMATS (a vectoring core's formats from
+// MODE_INFO); an archive without one is written as version 1, byte for byte as before.
 // Every record opens with a type byte (low 4 bits: type; bit 7: direction, 1 = to-host) and the
 // time in ms as float64. Frames are stored as references into the recorded byte stream.
 import { ByteCursor, ByteLog, EndOfBytesError } from './byte-log';
 import { isCrc8Name, type Crc8Name } from './crc8';
 import type { AcceptedKinds, DecodedFrame, SkipEvent, SkipReason } from './decoder';
+import type { VectoringFormats } from './payloads';
 import { HEADER_BYTES, FRAME_OVERHEAD, SYNC } from './frame';
-import { validateProfile, WireProfileError, type WireProfile } from './wire-profile';
+import { validateProfile, validateVectorProfile, WireProfileError, type WireProfile } from './wire-profile';
 import { decodeUtf8, encodeUtf8 } from './text-codec';
 
 /** First four bytes of an archive: ASCII "ABRC". */
 export const ARCHIVE_MAGIC = Uint8Array.of(0x41, 0x42, 0x52, 0x43);
-/** The format version this code writes and reads. */
-export const ARCHIVE_VERSION = 1;
+/** The newest format version this code writes and reads (it reads every version from 1). */
+export const ARCHIVE_VERSION = 2;
+/** The version of an archive that holds no VECTOR_FORMATS record. */
+export const ARCHIVE_BASE_VERSION = 1;
+/** Offset of the version byte, which the recorder raises to 2 once it writes vectoring formats. */
+export const ARCHIVE_VERSION_OFFSET = 4;
 
 /** Which way bytes travelled. */
 export type Direction = 'to-device' | 'to-host';
@@ -34,10 +41,14 @@ export type ArchiveRecord =
   | { type: 'frame'; direction: Direction; timeMs: number; frame: DecodedFrame }
   | { type: 'skip'; direction: Direction; timeMs: number; event: SkipEvent }
   | { type: 'profile'; direction: Direction; timeMs: number; offset: number; profile: WireProfile }
+  /** Version 2: the decoder of `direction` took a vectoring core's formats (MODE_INFO) at `offset`. */
+  | { type: 'vector-formats'; direction: Direction; timeMs: number; offset: number; formats: VectoringFormats }
   | { type: 'finish'; direction: Direction; timeMs: number };
 
 /** An archive read back: header, records, and each direction's bytes in one array. */
 export interface Archive {
+  /** 1, or 2 when it holds VECTOR_FORMATS records. */
+  version: number;
   header: ArchiveHeader;
   records: ArchiveRecord[];
   streams: Record<Direction, Uint8Array>;
@@ -60,7 +71,7 @@ export class ArchiveTruncatedError extends ArchiveError {
 }
 
 /** Record types (low 4 bits of a record's first byte). */
-export const RecordType = { End: 0, Chunk: 1, Frame: 2, Skip: 3, Profile: 4, Finish: 5 } as const;
+export const RecordType = { End: 0, Chunk: 1, Frame: 2, Skip: 3, Profile: 4, Finish: 5, VectorFormats: 6 } as const;
 const TO_HOST_BIT = 0x80;
 const REASONS: readonly SkipReason[] = ['garbage', 'bad-check', 'bad-length', 'unknown-kind', 'truncated'];
 const ACCEPTS: readonly AcceptedKinds[] = ['all', 'requests', 'replies'];
@@ -74,7 +85,7 @@ export function writeHeader(log: ByteLog, h: ArchiveHeader): void {
   const label = encodeUtf8(h.label);
   if (label.length > 0xffff - 16) throw new RangeError('label must be under 65,519 bytes of UTF-8');
   log.bytes(ARCHIVE_MAGIC);
-  log.u8(ARCHIVE_VERSION);
+  log.u8(ARCHIVE_BASE_VERSION);
   log.u16(3 + 1 + crc.length + 2 + 2 + label.length);
   log.u8(FORMATS.indexOf(p.angleFormat));
   log.u8(p.angleBits);
@@ -115,6 +126,36 @@ export function writeProfileBody(log: ByteLog, offset: number, p: WireProfile): 
   log.u8(p.outBits);
 }
 
+/** The 8 format bytes of a VECTOR_FORMATS record, in MODE_INFO's order (protocol.md section 8). */
+export const VECTOR_FORMATS_BYTES = 8;
+
+/** Writes the body of a VECTOR_FORMATS record: offset, then MODE_INFO's format bytes 1–8. */
+export function writeVectorFormatsBody(log: ByteLog, offset: number, f: VectoringFormats): void {
+  checkVectorFormats(f);
+  log.varint(offset);
+  for (const v of [f.inBits, f.inFrac, FORMATS.indexOf(f.angleFormat), f.angleBits, f.angleFrac, f.magBits, f.magFrac, f.iterations]) log.u8(v);
+}
+
+function checkVectorFormats(f: VectoringFormats): VectoringFormats {
+  try {
+    validateVectorProfile({ inBits: f.inBits, angleFormat: f.angleFormat, angleBits: f.angleBits, magBits: f.magBits });
+  } catch (e) {
+    if (e instanceof WireProfileError) throw new ArchiveError('corrupt', `archive holds invalid vectoring formats: ${e.message}`);
+    throw e;
+  }
+  for (const k of ['inFrac', 'angleFrac', 'magFrac', 'iterations'] as const) {
+    if (!Number.isInteger(f[k]) || f[k] < 0 || f[k] > 255) throw new ArchiveError('corrupt', `archive holds invalid vectoring formats: ${k} must be a byte, got ${f[k]}`);
+  }
+  return f;
+}
+
+function readVectorFormats(c: ByteCursor): VectoringFormats {
+  const [inBits, inFrac, format, angleBits, angleFrac, magBits, magFrac, iterations] = Array.from(c.bytes(VECTOR_FORMATS_BYTES));
+  const angleFormat = FORMATS[format];
+  if (!angleFormat) throw new ArchiveError('corrupt', `archive holds an unknown vectoring angle format ${format}`);
+  return checkVectorFormats({ inBits, inFrac, angleFormat, angleBits, angleFrac, magBits, magFrac, iterations });
+}
+
 function readProfile(c: ByteCursor): WireProfile {
   const format = FORMATS[c.u8()];
   const profile = { angleFormat: format, angleBits: c.u8(), outBits: c.u8() };
@@ -126,11 +167,13 @@ function readProfile(c: ByteCursor): WireProfile {
   }
 }
 
-function readHeader(c: ByteCursor): ArchiveHeader {
+function readHeader(c: ByteCursor): ArchiveHeader & { version: number } {
   const magic = c.bytes(4);
   if (!magic.every((b, i) => b === ARCHIVE_MAGIC[i])) throw new ArchiveError('bad-magic', 'not an Anglebench capture archive (magic is not "ABRC")');
   const version = c.u8();
-  if (version !== ARCHIVE_VERSION) throw new ArchiveError('unsupported-version', `archive version ${version} is not supported (this reader knows ${ARCHIVE_VERSION})`);
+  if (version < ARCHIVE_BASE_VERSION || version > ARCHIVE_VERSION) {
+    throw new ArchiveError('unsupported-version', `archive version ${version} is not supported (this reader knows ${ARCHIVE_BASE_VERSION} to ${ARCHIVE_VERSION})`);
+  }
   const h = new ByteCursor(c.bytes(c.u16()));
   const profile = readProfile(h);
   const crc = decodeUtf8(h.bytes(h.u8()));
@@ -139,7 +182,7 @@ function readHeader(c: ByteCursor): ArchiveHeader {
   const toHost = ACCEPTS[h.u8()];
   if (!toDevice || !toHost) throw new ArchiveError('corrupt', 'archive header has an unknown decoder KIND set');
   const label = decodeUtf8(h.bytes(h.u16()));
-  return { profile, crc, accept: { 'to-device': toDevice, 'to-host': toHost }, label };
+  return { version, profile, crc, accept: { 'to-device': toDevice, 'to-host': toHost }, label };
 }
 
 function concatViews(parts: Uint8Array[]): Uint8Array {
@@ -156,7 +199,7 @@ function concatViews(parts: Uint8Array[]): Uint8Array {
 export function readArchive(bytes: Uint8Array): Archive {
   const c = new ByteCursor(bytes);
   try {
-    const header = readHeader(c);
+    const { version, ...header } = readHeader(c);
     const records: ArchiveRecord[] = [];
     const parts: Record<Direction, Uint8Array[]> = { 'to-device': [], 'to-host': [] };
     const pendingFrames: Array<{ direction: Direction; frame: DecodedFrame; len: number }> = [];
@@ -176,7 +219,7 @@ export function readArchive(bytes: Uint8Array): Archive {
           throw new ArchiveError('corrupt', 'END byte counts do not match the chunks recorded');
         }
         for (const { direction: d, frame, len } of pendingFrames) resolvePayload(streams[d], frame, len);
-        return { header, records, streams };
+        return { version, header, records, streams };
       }
       const timeMs = c.f64();
       switch (type) {
@@ -214,6 +257,12 @@ export function readArchive(bytes: Uint8Array): Archive {
         case RecordType.Finish:
           records.push({ type: 'finish', direction, timeMs });
           break;
+        case RecordType.VectorFormats: {
+          if (version < 2) throw new ArchiveError('corrupt', `a version-${version} archive has no record type ${type} (offset ${c.pos - 9})`);
+          const offset = c.varint();
+          records.push({ type: 'vector-formats', direction, timeMs, offset, formats: readVectorFormats(c) });
+          break;
+        }
         default:
           throw new ArchiveError('corrupt', `unknown record type ${type} at offset ${c.pos - 9}`);
       }

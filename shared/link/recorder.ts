@@ -5,7 +5,20 @@ import { DEFAULT_CRC8, type Crc8Name } from './crc8';
 import { FrameDecoder, type AcceptedKinds, type DecodedFrame, type FrameDecoderOptions, type SkipEvent } from './decoder';
 import { FRAME_OVERHEAD } from './frame';
 import { DEFAULT_PROFILE, validateProfile, type WireProfile } from './wire-profile';
-import { readArchive, RecordType, writeHeader, writeProfileBody, writeRecordStart, writeSkipBody, type Archive, type ArchiveHeader, type Direction } from './archive';
+import { vectorWireProfile, type VectoringFormats } from './payloads';
+import {
+  ARCHIVE_VERSION_OFFSET,
+  readArchive,
+  RecordType,
+  writeHeader,
+  writeProfileBody,
+  writeRecordStart,
+  writeSkipBody,
+  writeVectorFormatsBody,
+  type Archive,
+  type ArchiveHeader,
+  type Direction,
+} from './archive';
 
 /** Archive header fields; each has a default (default profile, CRC-8/SMBUS, all KINDs, no label). */
 export interface RecorderOptions {
@@ -30,6 +43,8 @@ export class Recorder {
   private readonly log = new ByteLog();
   private count = 0;
   private readonly streamBytes: Record<Direction, number> = { 'to-device': 0, 'to-host': 0 };
+  /** A VECTOR_FORMATS record was written: the archive is version 2. */
+  private vectoring = false;
 
   constructor(options: RecorderOptions = {}) {
     this.header = {
@@ -88,6 +103,14 @@ export class Recorder {
     this.count++;
   }
 
+  /** The decoder of `direction` took a vectoring core's formats (MODE_INFO); `offset` as for profile(). */
+  vectorFormats(direction: Direction, timeMs: number, offset: number, f: VectoringFormats): void {
+    writeRecordStart(this.log, RecordType.VectorFormats, direction, timeMs);
+    writeVectorFormatsBody(this.log, offset, f);
+    this.vectoring = true;
+    this.count++;
+  }
+
   /** The decoder of `direction` was finished (end of stream). */
   finish(direction: Direction, timeMs: number): void {
     writeRecordStart(this.log, RecordType.Finish, direction, timeMs);
@@ -117,6 +140,7 @@ export class Recorder {
       else if (r.type === 'frame') out.frame(r.direction, r.timeMs, { ...r.frame, offset: at(r.frame.offset) });
       else if (r.type === 'skip') out.skip(r.direction, r.timeMs, { ...r.event, offset: at(r.event.offset) });
       else if (r.type === 'profile') out.profile(r.direction, r.timeMs, at(Math.max(r.offset, moved ? cut[r.direction] : 0)), r.profile);
+      else if (r.type === 'vector-formats') out.vectorFormats(r.direction, r.timeMs, at(Math.max(r.offset, moved ? cut[r.direction] : 0)), r.formats);
       else out.finish(r.direction, r.timeMs);
     };
     for (let i = 0; i < preambleEnd.records; i++) copy(records[i], false);
@@ -135,7 +159,10 @@ export class Recorder {
     end.varint(this.count);
     end.varint(this.streamBytes['to-device']);
     end.varint(this.streamBytes['to-host']);
-    return this.log.toBytes(end.toBytes());
+    const bytes = this.log.toBytes(end.toBytes());
+    // Version 2 only when it holds what version 1 has no record for, so a rotating capture stays version 1.
+    if (this.vectoring) bytes[ARCHIVE_VERSION_OFFSET] = 2;
+    return bytes;
   }
 }
 
@@ -199,6 +226,13 @@ export class RecordedDecoder {
     const offset = this.frameEnd >= 0 ? this.frameEnd : this.decoder.bytesReceived;
     this.rec.profile(this.direction, this.nowMs(), offset, p);
   }
+
+  /** The vectoring formats a MODE_INFO announced: VEC_* frames are sized by them from here on, and the archive says so. */
+  setVectorFormats(f: VectoringFormats): void {
+    this.decoder.setProfile({ ...this.decoder.profile, vector: vectorWireProfile(f) });
+    const offset = this.frameEnd >= 0 ? this.frameEnd : this.decoder.bytesReceived;
+    this.rec.vectorFormats(this.direction, this.nowMs(), offset, f);
+  }
 }
 
 /** What a replay produced, in order, for comparison with the recorded frames and events. */
@@ -217,8 +251,9 @@ export function replayArchive(bytes: Uint8Array): ReplayResult {
   const archive = readArchive(bytes);
   const out: ReplayResult = { archive, frames: [], skips: [] };
   const make = (direction: Direction) => {
-    const changes = archive.records.flatMap((r) => (r.type === 'profile' && r.direction === direction ? [r] : []));
+    const changes = archive.records.flatMap((r) => ((r.type === 'profile' || r.type === 'vector-formats') && r.direction === direction ? [r] : []));
     let next = 0;
+    const apply = (r: (typeof changes)[number]) => decoder.setProfile(r.type === 'profile' ? r.profile : { ...decoder.profile, vector: vectorWireProfile(r.formats) });
     const decoder: FrameDecoder = new FrameDecoder({
       crc: archive.header.crc,
       profile: archive.header.profile,
@@ -226,12 +261,12 @@ export function replayArchive(bytes: Uint8Array): ReplayResult {
       onFrame: (frame) => {
         out.frames.push({ direction, frame });
         const end = frame.offset + frame.payload.length + FRAME_OVERHEAD;
-        if (next < changes.length && changes[next].offset === end) decoder.setProfile(changes[next++].profile);
+        while (next < changes.length && changes[next].offset === end) apply(changes[next++]);
       },
       onSkip: (event) => out.skips.push({ direction, event }),
     });
     const catchUp = () => {
-      while (next < changes.length && changes[next].offset <= decoder.bytesReceived) decoder.setProfile(changes[next++].profile);
+      while (next < changes.length && changes[next].offset <= decoder.bytesReceived) apply(changes[next++]);
     };
     return { decoder, catchUp };
   };

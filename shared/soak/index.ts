@@ -5,3 +5,4 @@ export * from './soak-accumulator';
 export * from './soak-record';
 export * from './board-conditions';
 export * from './soak-run';
+export * from './vector-soak';

@@ -152,6 +152,11 @@ describe('the runner saving vectoring sessions', { timeout: 90_000 }, () => {
     const limits = await run(healthy.url, 'phase-det', ['--limits', '{"maxRmsErrorLsb":1}']);
     expect(limits.status).toBe(2);
     expect(limits.err).toMatch(/^error: --limits: maxRmsErrorLsb is a limit of rotation cores; a vectoring core's are /m);
+    // The server keeps no vectoring soak: refused before the first pass, nothing asked of the board.
+    const soak = await run(healthy.url, 'phase-det', ['--soak', '3']);
+    expect(soak.status).toBe(2);
+    expect(soak.err).toMatch(/^error: --soak with --server: the server does not keep the soaks of vectoring cores yet; run the soak without --server/m);
+    expect(soak.err).not.toMatch(/soak pass/);
     expect(await BenchSession.count()).toBe(before);
   });
 });

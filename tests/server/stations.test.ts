@@ -27,6 +27,10 @@ import { createInterrupt } from '../../cli/interrupt';
 import { Core } from '../../server/db/models';
 import { modelConfigSchema } from '../../server/schemas/core';
 import { makeLabCertificate } from '../../scripts/lab-certificate';
+import { NodeSocketLink } from '../../cli/transport/ws-link';
+import { parseVectorConfig } from '../../shared/vectoring';
+import { DEFAULT_PROFILE, encodeFrame, encodeMessage, Kind } from '../../shared/link';
+import type { ByteLink } from '../../shared/link-engine/byte-link';
 
 /** A WebSocket client that keeps what it hears: the upgrade's outcome, binary and text messages, the close. */
 function client(url: string, headers: Record<string, string> = {}, autoPong = true) {
@@ -250,6 +254,48 @@ describe('the CLI station through the relay', { timeout: 60_000 }, () => {
     expect(status).toBe(0);
     const summary = JSON.parse(io.out) as { verdict: { passed: boolean }; sessionId: number | null };
     expect(summary).toMatchObject({ verdict: { passed: true } });
+    const sessions = await fetch(`${srv.url}/api/sessions`, { headers: bearer('reviewer') }).then((r) => r.json() as Promise<{ items: { sampleCount: number }[] }>);
+    expect(sessions.items.map((x) => x.sampleCount)).toEqual([4096]);
+  });
+
+  it('relays a vectoring board byte for byte: HELLO, MODES and a VEC_GRID answer exactly as the board answers them directly', async () => {
+    const settings = { ...defaultBoardSettings(), baud: 12_000_000, vector: { core: {} } };
+    board = await startMockServer(settings, 0, '127.0.0.1', () => undefined);
+    // The requests as raw frames (docs/protocol.md sections 4 and 8): a 64 × 64 grid over the square.
+    const grid = encodeMessage({ kind: Kind.VecGrid, x0: -32768, dx: 1024, nx: 64, y0: -32768, dy: 1024, ny: 64 }, 3, DEFAULT_PROFILE);
+    const requests = [encodeFrame(Kind.Hello, 1), encodeFrame(Kind.Modes, 2), grid];
+    // SWEEP_END done 4096 status 0 ends the reply stream: 4,096 answers in 82 VEC_RESULTS frames of at most 50.
+    // SWEEP_END is A5 92 TAG 05, done u32 LE (00 10 00 00), status, CHECK.
+    const ends = (b: Uint8Array) => b.length >= 10 && b[b.length - 9] === Kind.SweepEnd && b[b.length - 8] === 3 && b[b.length - 6] === 0x00 && b[b.length - 5] === 0x10 && b[b.length - 2] === 0;
+    const exchange = async (link: ByteLink) => {
+      const got: number[] = [];
+      link.onBytes((bytes) => got.push(...bytes));
+      for (const r of requests) await link.write(r);
+      await until(() => ends(Uint8Array.from(got)), 15_000);
+      await link.close();
+      return Uint8Array.from(got);
+    };
+    // Straight to a second board of the same settings (the station holds its board's one connection), and through the station.
+    const twin = await startMockServer(settings, 0, '127.0.0.1', () => undefined);
+    const direct = await exchange(await NodeSocketLink.open(twin.url)).finally(() => twin.close());
+    station = await startStation({ server: srv.url, token: tokens.engineer, device: board.url, name: 'Vec bay', baud: 12_000_000, ca: null, insecure: false }, { log: () => undefined });
+    await until(() => station!.online);
+    const relayed = await exchange(await openDevice('station:Vec bay', 12_000_000, { server: { url: srv.url, token: tokens.admin } }));
+    expect(relayed.length).toBeGreaterThan(4096 * 5);
+    expect(Buffer.from(relayed).equals(Buffer.from(direct))).toBe(true);
+  });
+
+  it('carries a vectoring run from `run --device station:NAME`: every vector answered as the model, the session uploaded', async () => {
+    await Core.create({ name: 'Station phase detector', slug: 'station-vec', mode: 'vectoring', linkProfile: { baud: 12_000_000 }, modelConfig: null, vectorConfig: parseVectorConfig({ inBits: 12 }), limits: { maxModelMismatches: 0 }, baselineSessionId: null });
+    board = await startMockServer({ ...defaultBoardSettings(), baud: 12_000_000, vector: { core: { inBits: 12 } } }, 0, '127.0.0.1', () => undefined);
+    station = await startStation({ server: srv.url, token: tokens.engineer, device: board.url, name: 'Vec run bay', baud: 12_000_000, ca: null, insecure: false }, { log: () => undefined });
+    await until(() => station!.online);
+    const io = captureIo();
+    const status = await runRunCommand(['--device', 'station:Vec run bay', '--server', srv.url, '--token', tokens.engineer, '--plan', 'grid:4096', '--core', 'station-vec', '--json'], io, { interrupt: createInterrupt() });
+    expect(io.err).not.toMatch(/^error:/m);
+    expect(status).toBe(0);
+    const summary = JSON.parse(io.out) as { mode: string; results: { answered: number; missing: number }; stats: { mismatches: { count: number } }; verdict: { passed: boolean } };
+    expect(summary).toMatchObject({ mode: 'vectoring', results: { answered: 4096, missing: 0 }, stats: { mismatches: { count: 0 } }, verdict: { passed: true } });
     const sessions = await fetch(`${srv.url}/api/sessions`, { headers: bearer('reviewer') }).then((r) => r.json() as Promise<{ items: { sampleCount: number }[] }>);
     expect(sessions.items.map((x) => x.sampleCount)).toEqual([4096]);
   });

@@ -12,6 +12,10 @@ import { boardsBusyReason, idleReason, registerSimBoards, SIM_BOARD_PATH, TRY_AG
 import { createSocketDispatcher, type SocketDispatcher } from '../../../server/sockets/upgrade';
 import { LinkEngine } from '../../../shared/link-engine/link-engine';
 import { createCordicModel, parseModelConfig } from '../../../shared/numeric';
+import { createVectorModel, parseVectorConfig, type VectorConfigInput } from '../../../shared/vectoring';
+import type { Crc8Name } from '../../../shared/link';
+import { PHASE_DETECTOR_CONFIG } from '../../../server/db/seed-vectoring';
+import { linkProfileSchema } from '../../../server/schemas/core';
 import { realEngineClock } from '../../support/in-process-board';
 import { testApp, type TestApp } from '../../support/test-app';
 
@@ -51,6 +55,27 @@ async function exhaustiveSweep(url: string, modelConfig = {}) {
       missing: result.missing.length,
       bitExact: Buffer.from(result.cos.buffer).equals(Buffer.from(cos.buffer)) && Buffer.from(result.sin.buffer).equals(Buffer.from(sin.buffer)),
     };
+  } finally {
+    await link.close();
+  }
+}
+
+/** HELLO, MODES and a 64 × 64 grid over the whole x–y square on its own connection, compared bit for bit with the model. */
+async function vectorGrid(url: string, config: VectorConfigInput, crc?: Crc8Name, baud = 3_000_000) {
+  const link = await NodeSocketLink.open(url);
+  try {
+    const engine = new LinkEngine({ link, clock: realEngineClock, baud, crc });
+    const info = await engine.hello();
+    const modes = await engine.modes();
+    const v = parseVectorConfig(config);
+    const step = 2 ** (v.inBits - 6);
+    const r = await engine.runVectors({ kind: 'grid', x0: -(2 ** (v.inBits - 1)), dx: step, nx: 64, y0: -(2 ** (v.inBits - 1)), dy: step, ny: 64 }).done;
+    const angle = new Int32Array(r.xs.length);
+    const magnitude = new Int32Array(r.xs.length);
+    createVectorModel(v).answerInto(r.xs, r.ys, angle, magnitude);
+    let offModel = 0;
+    for (let i = 0; i < angle.length; i++) if (angle[i] !== r.angle[i] || magnitude[i] !== r.magnitude[i]) offModel++;
+    return { info, modes, status: r.status, answered: r.xs.length - r.missing.length, missing: r.missing.length, offModel };
   } finally {
     await link.close();
   }
@@ -150,6 +175,60 @@ describe('server-hosted simulated boards', () => {
       await expect(NodeSocketLink.open(`${boards.url}?core=no-such-core`)).rejects.toThrow(/404 Not Found: Core no-such-core not found/);
       await expect(NodeSocketLink.open(`${boards.url}?colour=red`)).rejects.toThrow(/Unknown setting "colour"/);
       expect(boards.counts).toEqual([]);
+    } finally {
+      await boards.close();
+    }
+  });
+
+  it("serves a vectoring core's board from ?core=: its formats in MODE_INFO, its CRC and baud, a grid bit-exact with the model", async () => {
+    await Core.create({
+      name: 'Phase detector under test',
+      slug: 'pd-hosted',
+      mode: 'vectoring',
+      linkProfile: linkProfileSchema.parse({ baud: 2_000_000, crc: 'CRC-8/AUTOSAR' }),
+      modelConfig: null,
+      vectorConfig: parseVectorConfig(PHASE_DETECTOR_CONFIG),
+      limits: {},
+    });
+    const boards = await hostedBoards(4);
+    try {
+      const r = await vectorGrid(`${boards.url}?core=pd-hosted`, PHASE_DETECTOR_CONFIG, 'CRC-8/AUTOSAR', 2_000_000);
+      // docs/protocol.md section 8: a vectoring board says version 2 and only the vectoring bit.
+      expect(r.info).toMatchObject({ version: 2, name: 'Anglebench simulated board (pd-hosted)', outBits: 18 });
+      expect(r.modes.rotation).toBe(false);
+      expect(r.modes.vectoring).toEqual({ inBits: 16, inFrac: 14, angleFormat: 'turn', angleBits: 16, angleFrac: 0, magBits: 18, magFrac: 14, iterations: 16 });
+      expect(r).toMatchObject({ status: 'complete', answered: 4096, missing: 0, offModel: 0 });
+      // The same core asked for as a rotation board is refused, naming the key.
+      await expect(NodeSocketLink.open(`${boards.url}?core=pd-hosted&mode=rotation`)).rejects.toThrow(/400 Bad Request: mode: core pd-hosted is a vectoring core, not rotation/);
+    } finally {
+      await boards.close();
+    }
+  });
+
+  it('serves ?mode=vectoring with a vectoring ?config= and reads fault= against the vectoring catalogue', async () => {
+    const boards = await hostedBoards(4);
+    try {
+      const config = { inBits: 12, inFrac: 10, iterations: 12 };
+      const own = await vectorGrid(`${boards.url}?mode=vectoring&config=${encodeURIComponent(JSON.stringify(config))}&baud=12000000`, config, undefined, 12_000_000);
+      expect(own.modes.vectoring).toMatchObject({ inBits: 12, inFrac: 10, iterations: 12 });
+      expect(own).toMatchObject({ status: 'complete', answered: 4096, offModel: 0 });
+      // An iteration turning the wrong way: nearly every angle off the declared core's model.
+      const slipped = await vectorGrid(`${boards.url}?mode=vectoring&fault=sign-slip:2&baud=12000000`, {}, undefined, 12_000_000);
+      expect(slipped.modes.vectoring).toMatchObject({ inBits: 16, iterations: 16 });
+      expect(slipped.offModel).toBeGreaterThan(3000);
+      // An intermittent fault, seeded: the same vectors go wrong on every board with the same seed.
+      const flaky = `${boards.url}?mode=vectoring&fault=flaky:0.02&seed=11&baud=12000000`;
+      const [f1, f2] = [await vectorGrid(flaky, {}, undefined, 12_000_000), await vectorGrid(flaky, {}, undefined, 12_000_000)];
+      expect(f1.offModel).toBeGreaterThan(0);
+      expect(f1.offModel).toBeLessThan(400);
+      expect(f2.offModel).toBe(f1.offModel);
+
+      await expect(NodeSocketLink.open(`${boards.url}?mode=spiral`)).rejects.toThrow(/400 Bad Request: mode must be rotation or vectoring, got "spiral"/);
+      await expect(NodeSocketLink.open(`${boards.url}?mode=vectoring&fault=fold`)).rejects.toThrow(/400 Bad Request: fault: .*not a vectoring core fault/);
+      await expect(NodeSocketLink.open(`${boards.url}?mode=vectoring&fault=sign-slip:40`)).rejects.toThrow(/400 Bad Request: fault: .*not 40/);
+      await expect(NodeSocketLink.open(`${boards.url}?mode=vectoring&config=${encodeURIComponent('{"outBits":18}')}`)).rejects.toThrow(/400 Bad Request: config: /);
+      await expect(NodeSocketLink.open(`${boards.url}?mode=vectoring&seed=-1`)).rejects.toThrow(/400 Bad Request: seed must be a whole number/);
+      expect(Math.max(...boards.counts)).toBe(1);
     } finally {
       await boards.close();
     }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { LinkEngine } from '../../../shared/link-engine/link-engine';
 import { samplesFromArchive } from '../../../shared/link-engine/archive-samples';
-import { readArchive, replayArchive } from '../../../shared/link';
+import { Kind, readArchive, replayArchive } from '../../../shared/link';
 import { ConnectionRecording } from '../../../src/features/bench/live/connection-recording';
 import { inProcessBoard, realEngineClock } from '../../support/in-process-board';
 
@@ -87,5 +87,34 @@ describe('the capture of a bench connection', () => {
     const before = rec.byteLength;
     rec.traffic('rx', Uint8Array.of(1, 2, 3), now());
     expect(rec.byteLength).toBe(before);
+  });
+
+  it("keeps a vectoring board's formats in a run's archive (version 2), so its VEC_RESULTS replay at their own widths", async () => {
+    // 20-bit angles: 3-byte angle fields where the default core has 2.
+    const board = inProcessBoard({ baud: 12_000_000, vector: { core: { inBits: 12, angleBits: 20 } } });
+    const rec = new ConnectionRecording({ transport: 'in-process board', baud: 12_000_000, openedAt: '2026-03-01T10:00:00.000Z' });
+    const now = () => realEngineClock.now();
+    const engine = new LinkEngine({
+      link: board.link,
+      clock: realEngineClock,
+      baud: 12_000_000,
+      onTraffic: (d, bytes, at) => rec.traffic(d, bytes, at),
+      onFrame: (f, at) => rec.frame(f, at),
+      onSkip: (e, at) => rec.skip(e, at),
+    });
+    rec.info(await engine.hello(), now());
+    const modes = await engine.modes();
+    rec.modes(modes, now());
+    rec.markRun();
+    const r = await engine.runVectors({ kind: 'grid', x0: -2048, dx: 128, nx: 32, y0: -2048, dy: 128, ny: 32 }).done;
+    expect(r.status).toBe('complete');
+    await board.link.close();
+    const replay = replayArchive(rec.runArchive());
+    expect(replay.archive.version).toBe(2);
+    expect(replay.archive.records.flatMap((x) => (x.type === 'vector-formats' ? [x.formats] : []))).toEqual([modes.vectoring, modes.vectoring]);
+    expect(replay.skips).toEqual([]);
+    const pair = 3 + Math.ceil(modes.vectoring!.magBits / 8);
+    const answers = replay.frames.filter((f) => f.direction === 'to-host' && f.frame.kind === Kind.VecResults).reduce((n, f) => n + (f.frame.payload.length - 4) / pair, 0);
+    expect(answers).toBe(1024);
   });
 });

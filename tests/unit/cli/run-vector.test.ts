@@ -3,7 +3,7 @@ import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runRunCommand } from '../../../cli/run';
-import { scoreArchive } from '../../../cli/run-record';
+import { scoreArchive, scoreVectorArchive } from '../../../cli/run-record';
 import { parseVectorPlanSpec, resolveVectorPlan, vectorPlanToRequest } from '../../../cli/run-vector-plan';
 import { parseRunArgs } from '../../../cli/run-options';
 import { defaultBoardSettings } from '../../../mock-device/board-session';
@@ -20,6 +20,9 @@ const LIMITS = JSON.stringify({ maxModelMismatches: 0, maxLinkErrors: 0 });
 let vectoring: MockServer;
 let slipped: MockServer;
 let rotating: MockServer;
+/** 12-bit inputs and 20-bit angles (3-byte fields): pairs the default widths would misread. */
+let odd: MockServer;
+const ODD = { inBits: 12, angleBits: 20 };
 const dir = mkdtempSync(join(tmpdir(), 'anglebench-run-vector-'));
 
 beforeAll(async () => {
@@ -28,11 +31,13 @@ beforeAll(async () => {
   vectoring = await startMockServer({ ...settings, vector: { core: {} } }, 0, '127.0.0.1', quiet);
   slipped = await startMockServer({ ...settings, vector: { core: { inBits: 12 }, fault: parseVectorCoreFault('sign-slip:3') } }, 0, '127.0.0.1', quiet);
   rotating = await startMockServer(settings, 0, '127.0.0.1', quiet);
+  odd = await startMockServer({ ...settings, vector: { core: ODD } }, 0, '127.0.0.1', quiet);
 });
 afterAll(async () => {
   await vectoring.close();
   await slipped.close();
   await rotating.close();
+  await odd.close();
 });
 
 const run = async (args: string[], files: Record<string, string> = {}) => {
@@ -79,7 +84,7 @@ describe('run against a vectoring board', { timeout: 60_000 }, () => {
     expect(bad.err).toMatch(/b\.txt line 2: x 40000 is not an input code -32768\.\.32767/);
   });
 
-  it('writes the capture with --out; scoring it again is refused with a clear reason', async () => {
+  it('writes the capture with --out, which scores again as a vectoring capture only', async () => {
     const out = join(dir, 'grid.abrc');
     const r = await run(['--device', vectoring.url, ...FAST, '--plan', 'exhaustive', '--core', 'vec-8', '--config', '{"inBits":8}', '--out', out]);
     // An 8-bit board is not what this board has: refused before anything is recorded.
@@ -95,7 +100,40 @@ describe('run against a vectoring board', { timeout: 60_000 }, () => {
     expect(pairs).toBe(500);
     expect(replay.skips).toEqual([]);
     expect(JSON.parse(replay.archive.header.label)).toMatchObject({ mode: 'vectoring', plan: { kind: 'circle', radius: 10000, points: 500 } });
-    expect(() => scoreArchive(bytes)).toThrow('This archive holds a vectoring run: scoring a vectoring capture again is not supported yet');
+    expect(() => scoreArchive(bytes)).toThrow('This archive holds a vectoring run: score it with scoreVectorArchive');
+    expect(scoreVectorArchive(bytes).score).toMatchObject({ total: 500, answered: 500, missing: 0 });
+  });
+
+  it("keeps a vectoring core's formats in the capture (archive version 2), so a replay reads its VEC_* frames at their own widths", async () => {
+    const out = join(dir, 'odd.abrc');
+    const r = await run(['--device', odd.url, ...FAST, '--plan', 'grid:1024', '--core', 'vec-odd', '--out', out, '--json']);
+    expect(r.err).not.toMatch(/^error/m);
+    expect(r.status).toBe(0);
+    const bytes = new Uint8Array(readFileSync(out));
+    const replay = replayArchive(bytes);
+    expect(replay.archive.version).toBe(2);
+    const formats = replay.archive.records.flatMap((x) => (x.type === 'vector-formats' ? [x] : []));
+    const v = parseVectorConfig(ODD);
+    const declared = { inBits: 12, inFrac: v.inFrac, angleFormat: 'turn', angleBits: 20, angleFrac: 0, magBits: v.magBits, magFrac: v.magFrac, iterations: v.iterations };
+    expect(formats.map((x) => x.direction).sort()).toEqual(['to-device', 'to-host']);
+    for (const x of formats) expect(x.formats).toEqual(declared);
+    expect(JSON.parse(r.out).device.modes.vectoring).toEqual(declared);
+    // Every frame read back, the 1,024 answers in pairs of 3 bytes of angle and the magnitude's field.
+    expect(replay.skips).toEqual([]);
+    const pair = 3 + Math.ceil(v.magBits / 8);
+    const toHost = replay.frames.filter((f) => f.direction === 'to-host').map((f) => f.frame);
+    expect(toHost.filter((f) => f.kind === Kind.VecResults).reduce((n, f) => n + (f.payload.length - 4) / pair, 0)).toBe(1024);
+    // Scored again from the archive alone: the run's own figures.
+    const again = scoreVectorArchive(bytes);
+    const s = JSON.parse(r.out) as { stats: Record<string, unknown>; results: unknown };
+    expect(again.label.model).toEqual(v);
+    expect({ total: again.score.total, answered: again.score.answered, missing: again.score.missing }).toEqual(s.results);
+    expect(JSON.parse(JSON.stringify({ angleLsb: again.score.summary.angleLsb, magnitudeLsb: again.score.summary.magnitudeLsb, mismatches: again.score.summary.mismatches }))).toEqual({
+      angleLsb: s.stats.angleLsb,
+      magnitudeLsb: s.stats.magnitudeLsb,
+      mismatches: s.stats.mismatches,
+    });
+    expect(again.score.summary.mismatches.count).toBe(0);
   });
 
   it('refuses what it cannot do for a vectoring core, and what the board does not serve', async () => {
@@ -108,8 +146,9 @@ describe('run against a vectoring board', { timeout: 60_000 }, () => {
     const sweep = await run(['--device', vectoring.url, ...FAST, '--plan', 'sweep:0,1,10', '--core', 'v']);
     expect(sweep.status).toBe(2);
     expect(sweep.err).toMatch(/^error: --plan sweep:0,1,10 is a rotating core's plan, and the board serves a vectoring core/m);
-    const soak = await run(['--device', vectoring.url, ...FAST, '--plan', 'edges', '--core', 'v', '--soak', '3']);
-    expect(soak.err).toMatch(/^error: --soak is not available for vectoring cores yet/m);
+    const explain = await run(['--device', vectoring.url, ...FAST, '--plan', 'edges', '--core', 'v', '--explain']);
+    expect(explain.status).toBe(2);
+    expect(explain.err).toMatch(/^error: --explain is not available for vectoring cores yet/m);
     const rotationLimit = await run(['--device', vectoring.url, ...FAST, '--plan', 'edges', '--core', 'v', '--limits', '{"maxAbsErrorLsb":2}']);
     expect(rotationLimit.status).toBe(2);
     expect(rotationLimit.err).toMatch(/^error: --limits: maxAbsErrorLsb is a limit of rotation cores; a vectoring core's are maxModelMismatches, maxLinkErrors, maxAngleErrorLsb/m);

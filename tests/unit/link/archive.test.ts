@@ -160,3 +160,72 @@ describe('capture archive', () => {
     expect(recorder.toArchive()).toEqual(Uint8Array.from(doc.split(' '), (h) => parseInt(h, 16)));
   });
 });
+
+describe('capture archive version 2: a vectoring core’s formats', () => {
+  /** 12-bit inputs, 20-bit rad angles, 8-bit magnitudes: 4-byte pairs where the default core has 5. */
+  const formats = { inBits: 12, inFrac: 10, angleFormat: 'rad', angleBits: 20, angleFrac: 17, magBits: 8, magFrac: 4, iterations: 14 } as const;
+  const vp: WireProfile = { ...p16, vector: { inBits: 12, angleFormat: 'rad', angleBits: 20, magBits: 8 } };
+  const modeInfo = encodeMessage({ kind: Kind.ModeInfo, modes: { rotation: false, vectoring: formats } }, 2, p16);
+  const results = encodeMessage({ kind: Kind.VecResults, firstIndex: 0, angle: Int32Array.of(-(2 ** 19), 5, 2 ** 19 - 1), magnitude: Int32Array.of(-128, 0, 127) }, 3, vp);
+
+  /** The board's side of a session: MODE_INFO, then VEC_RESULTS at the formats it announced. */
+  function vectoringSession() {
+    const recorder = new Recorder();
+    let t = 0;
+    const seen: DecodedFrame[] = [];
+    const host: RecordedDecoder = new RecordedDecoder({
+      recorder,
+      direction: 'to-host',
+      nowMs: () => (t += 1),
+      onFrame: (f) => {
+        seen.push(f);
+        if (f.kind === Kind.ModeInfo) host.setVectorFormats(formats);
+      },
+    });
+    host.push(concat([modeInfo, results]));
+    const preamble = recorder.mark();
+    host.push(results);
+    return { recorder, seen, preamble };
+  }
+
+  it('replays VEC_* frames at the announced widths, and says version 2', () => {
+    const { recorder, seen } = vectoringSession();
+    expect(seen.map((f) => f.kind)).toEqual([Kind.ModeInfo, Kind.VecResults, Kind.VecResults]);
+    const bytes = recorder.toArchive();
+    expect(bytes[4]).toBe(2);
+    const replay = replayArchive(bytes);
+    expect(replay.archive.version).toBe(2);
+    expect(replay.archive.records.filter((r) => r.type === 'vector-formats')).toEqual([{ type: 'vector-formats', direction: 'to-host', timeMs: 3, offset: modeInfo.length, formats }]);
+    expect(replay.skips).toEqual([]);
+    expect(replay.frames.map((f) => f.frame)).toEqual(seen);
+  });
+
+  it('keeps the formats in an excerpt, and a rotating capture stays version 1', () => {
+    const { recorder, preamble } = vectoringSession();
+    const cut = readArchive(recorder.excerpt(preamble, preamble));
+    expect(cut.version).toBe(2);
+    expect(cut.records.some((r) => r.type === 'vector-formats')).toBe(true);
+    const { archive } = recordSession([one], []);
+    expect(archive[4]).toBe(1);
+    expect(readArchive(archive).version).toBe(1);
+  });
+
+  it('refuses the record in a version-1 archive, bad formats in it, and a version it does not know', () => {
+    const bytes = vectoringSession().recorder.toArchive();
+    const asV1 = bytes.slice();
+    asV1[4] = 1;
+    expect(() => readArchive(asV1)).toThrow(expect.objectContaining({ code: 'corrupt', message: expect.stringMatching(/version-1 archive has no record type 6/) }));
+    const v3 = bytes.slice();
+    v3[4] = 3;
+    expect(() => readArchive(v3)).toThrow(expect.objectContaining({ code: 'unsupported-version', message: expect.stringMatching(/knows 1 to 2/) }));
+    const recorder = new Recorder();
+    expect(() => recorder.vectorFormats('to-host', 0, 0, { ...formats, angleBits: 40 })).toThrow(/angleBits/);
+  });
+
+  it('writes the byte-for-byte example of docs/archive.md', () => {
+    const recorder = new Recorder();
+    recorder.vectorFormats('to-host', 4, 0, { inBits: 16, inFrac: 14, angleFormat: 'turn', angleBits: 16, angleFrac: 0, magBits: 18, magFrac: 14, iterations: 16 });
+    const doc = '41 42 52 43 02 13 00 00 10 10 0B 43 52 43 2D 38 2F 53 4D 42 55 53 00 00 00 00 86 00 00 00 00 00 00 10 40 00 10 0E 00 10 00 12 0E 10 00 01 00 00';
+    expect(recorder.toArchive()).toEqual(Uint8Array.from(doc.split(' '), (h) => parseInt(h, 16)));
+  });
+});

@@ -121,6 +121,13 @@ describe('the vectoring worked example of docs/protocol.md section 8', () => {
     ['VEC_GRID', { kind: Kind.VecGrid, x0: -16384, dx: 8192, nx: 5, y0: -16384, dy: 8192, ny: 5 }, 0x32, 'A5 15 32 14 00 C0 FF FF 00 20 00 00 00 C0 FF FF 00 20 00 00 05 00 05 00 05'],
     ['SWEEP_END', { kind: Kind.SweepEnd, done: 25, status: 0 }, 0x32, 'A5 92 32 05 19 00 00 00 00 A1'],
     ['NAK 7', { kind: Kind.Nak, refused: Kind.VecOne, reason: 7 }, 0x33, 'A5 AF 33 02 13 07 FB'],
+    ['VEC_LIST of two', { kind: Kind.VecList, xs: [12288, 0], ys: [16384, -16384] }, 0x34, 'A5 14 34 08 00 30 00 40 00 00 00 C0 A8'],
+    [
+      'VEC_RESULTS of two',
+      { kind: Kind.VecResults, firstIndex: 0, angle: Int32Array.of(9672, 49152), magnitude: Int32Array.of(33727, 26981) },
+      0x34,
+      'A5 91 34 0E 00 00 00 00 C8 25 BF 83 00 00 C0 65 69 00 8F',
+    ],
   ];
 
   for (const [name, m, tag, wire] of examples) {
@@ -136,6 +143,23 @@ describe('the vectoring worked example of docs/protocol.md section 8', () => {
     // (K_16 = 1.646760…, docs/references.md). The model's codes are what the example shows.
     expect(createVectorModel({}).answer(12288, 16384)).toEqual({ angle: 9672, magnitude: 33727 });
     expect((Math.atan2(4, 3) / (2 * Math.PI)) * 65536).toBeCloseTo(9672.04, 2);
+  });
+
+  it('packs VEC_RESULTS as RESULTS: whole-byte fields back to back, pair k at 4 + k·(p + m), no padding', () => {
+    // The two-pair example: pair 1 begins at byte 4 + 5 of the payload, right after pair 0's 3-byte magnitude.
+    const payload = bytes('00 00 00 00 C8 25 BF 83 00 00 C0 65 69 00');
+    const m = decodePayload(Kind.VecResults, payload, dflt) as Extract<Message, { kind: typeof Kind.VecResults }>;
+    expect(Array.from(m.angle)).toEqual([9672, 49152]);
+    expect(Array.from(m.magnitude)).toEqual([33727, 26981]);
+    // atan2(-1, 0) = -90°, sent as a turn minus a quarter: 3/4 of 65536 (section 8, "Numbers").
+    expect(createVectorModel({}).answer(0, -16384)).toEqual({ angle: 49152, magnitude: 26981 });
+    // RESULTS of an 18-bit core has 3-byte fields the same way: pair k at 4 + 6k, sign-extended (cos 0, sin 0, cos 1, sin 1).
+    const wide: WireProfile = { angleFormat: 'turn', angleBits: 16, outBits: 18 };
+    const r = decodePayload(Kind.Results, bytes('00 00 00 00 FF FF FF 01 00 00 00 02 00 FE FF FF'), wide) as Extract<Message, { kind: typeof Kind.Results }>;
+    expect([Array.from(r.cos), Array.from(r.sin)]).toEqual([[-1, 512], [1, -2]]);
+    // A pair one byte longer or shorter is an impossible length, in both.
+    expect(isPossibleLength(Kind.VecResults, payload.length + 1, dflt)).toBe(false);
+    expect(isPossibleLength(Kind.Results, 4 + 6 * 2 - 1, wide)).toBe(false);
   });
 
   it('decodes the grid example to the 25 points the board walks, the zero vector in the middle', () => {

@@ -134,11 +134,18 @@ describe('npm run mock -- --mode vectoring', () => {
     expect(settings.coreFault).toBeUndefined();
   });
 
+  it('takes an intermittent fault with its seed, wrapping the vectoring core', () => {
+    const { settings } = parseBoardArgs(['--mode', 'vectoring', '--core-fault', 'flaky:0.01@5', '--seed', '9']);
+    expect(settings.flaky).toEqual({ kind: 'flaky', rate: 0.01, onsetS: 5 });
+    expect(settings.seed).toBe(9);
+    expect(settings.vector).toEqual({ core: expect.objectContaining({ inBits: 16 }) });
+  });
+
   it('leaves the rotating board as it was, and names what is wrong', () => {
     expect(parseBoardArgs([]).settings.vector).toBeUndefined();
     expect(() => parseBoardArgs(['--mode', 'spiral'])).toThrow('--mode must be rotation or vectoring, got "spiral"');
     expect(() => parseBoardArgs(['--mode', 'vectoring', '--core', '{"outBits":18}'])).toThrow(/outBits/);
-    expect(() => parseBoardArgs(['--mode', 'vectoring', '--core-fault', 'flaky:0.01'])).toThrow(/flaky is not served by a vectoring board/);
+    expect(() => parseBoardArgs(['--mode', 'vectoring', '--core-fault', 'flaky:2'])).toThrow(/above 0 and at most 1/);
     expect(() => parseBoardArgs(['--mode', 'vectoring', '--core-fault', 'sign-slip:40'])).toThrow(/not 40/);
   });
 });

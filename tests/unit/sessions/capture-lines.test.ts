@@ -59,4 +59,21 @@ describe('capture records as terminal lines', () => {
     expect(line).toContain(C.warn);
     expect(plain(line)).toContain('to-host: skipped 1 B (bad-check) at offset 12');
   });
+
+  it("follows a vectoring board's formats and summarises its VEC_* frames at their widths", () => {
+    // 20-bit angles: VEC_RESULTS pairs of 3 + 3 bytes, unreadable at the default core's 2 + 3.
+    const formats = { inBits: 16, inFrac: 14, angleFormat: 'turn', angleBits: 20, angleFrac: 0, magBits: 18, magFrac: 14, iterations: 16 } as const;
+    const vp: WireProfile = { ...p16, vector: { inBits: 16, angleFormat: 'turn', angleBits: 20, magBits: 18 } };
+    const recorder = new Recorder({ accept: { 'to-host': 'replies', 'to-device': 'requests' } });
+    let t = 0;
+    const host: RecordedDecoder = new RecordedDecoder({ recorder, direction: 'to-host', nowMs: () => (t += 1), onFrame: (f) => f.kind === Kind.ModeInfo && host.setVectorFormats(formats) });
+    host.push(encodeMessage({ kind: Kind.ModeInfo, modes: { rotation: false, vectoring: formats } }, 3, p16));
+    host.push(encodeMessage({ kind: Kind.VecResults, firstIndex: 4, angle: Int32Array.of(2 ** 19, 5), magnitude: Int32Array.of(26981, 0) }, 4, vp));
+    const a = readArchive(recorder.toArchive());
+    const ps = profilesByRecord(a.records, a.header.profile);
+    const text = a.records.flatMap((r, i) => recordLines(r, 0, ps[i]).map(plain));
+    expect(text.some((l) => l.includes('⇐ MODE_INFO tag 3: vectoring, 16-bit x/y, turn 20-bit angles, 18-bit magnitudes'))).toBe(true);
+    expect(text.some((l) => l.includes('to-host: vectoring formats now 16-bit x/y, turn 20-bit angles, 18-bit magnitudes'))).toBe(true);
+    expect(text.some((l) => l.includes('⇐ VEC_RESULTS tag 4: 2 vector results from index 4'))).toBe(true);
+  });
 });

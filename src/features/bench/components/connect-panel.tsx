@@ -4,13 +4,14 @@ import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import type { BenchController, BenchSnapshot } from '../live/bench-controller';
 import { COMMON_BAUD_RATES, MAX_BAUD, MIN_BAUD, recommendedBufferSize, type SerialSettings } from '../transport/serial-options';
-import { browserFacts, hostedBoardUrl, serialSupport } from '../transport/browser-links';
+import { browserFacts, hostedBoardCore, hostedBoardUrl, hostedBoardUrlFor, serialSupport } from '../transport/browser-links';
 import { WebSerialLink } from '../transport/web-serial-link';
 import { SocketLink } from '../transport/socket-link';
 import { openStationLink } from '../transport/station-link';
 import { StationPicker } from './station-picker';
 import { queryClient } from '../../../lib/query-client';
 import { stationKeys, type StationListing } from '../../../lib/resources/stations';
+import { coresQueryOptions, useCores } from '../../../lib/resources/cores';
 import { SerialCaution, serialCautionSeen } from './serial-caution';
 import { btn, btnPrimary, fieldError, input, label, panel, panelTitle } from '../../../components/ui';
 
@@ -80,8 +81,15 @@ export function ConnectPanel({ controller, snap }: { controller: BenchController
     if (Number.isInteger(b) && b >= MIN_BAUD) setValue('bufferSize', String(recommendedBufferSize(b)));
   };
 
-  const connect = (v: z.output<typeof connectSchema>) => {
-    if (v.transport === 'simulated') return controller.connect(() => SocketLink.open(v.simulatedUrl.trim()), `Simulated board ${v.simulatedUrl}`, 3_000_000);
+  const connect = async (v: z.output<typeof connectSchema>) => {
+    if (v.transport === 'simulated') {
+      // A hosted board for a core speaks that core's link profile (CRC and baud): the page talks the same.
+      const address = v.simulatedUrl.trim();
+      const named = hostedBoardCore(address);
+      const core = named.core ? (await queryClient.fetchQuery(coresQueryOptions()).catch(() => [])).find((c) => c.slug === named.core || String(c.id) === named.core) : undefined;
+      const baud = named.baud ?? core?.linkProfile.baud ?? 3_000_000;
+      return controller.connect(() => SocketLink.open(address), `Simulated board ${address}`, baud, core?.linkProfile.crc);
+    }
     if (v.transport === 'station' && v.station) {
       const station = queryClient.getQueryData<StationListing[]>(stationKeys.list())?.find((s) => s.name === v.station);
       return controller.connect(() => openStationLink(v.station!), `Station ${v.station}`, station?.baud ?? 3_000_000);
@@ -155,6 +163,7 @@ export function ConnectPanel({ controller, snap }: { controller: BenchController
             )}
           </fieldset>
 
+          {transport === 'simulated' && <HostedCorePicker onPick={(slug) => setValue('simulatedUrl', hostedBoardUrlFor(window.location, slug))} />}
           {transport === 'simulated' && (
             <label className={label}>
               Board address
@@ -239,6 +248,24 @@ export function ConnectPanel({ controller, snap }: { controller: BenchController
         />
       )}
     </section>
+  );
+}
+
+/** Which core the server's simulated board plays: its mode, configuration and link profile (`?core=` of the address). */
+function HostedCorePicker({ onPick }: { onPick: (slug: string | null) => void }) {
+  const cores = useCores();
+  return (
+    <label className={label}>
+      Core on the simulated board
+      <select className={input} defaultValue="" onChange={(e) => onPick(e.target.value || null)}>
+        <option value="">Default rotating core</option>
+        {(cores.data ?? []).map((c) => (
+          <option key={c.id} value={c.slug}>
+            {c.slug} ({c.mode === 'vectoring' ? 'vectoring' : 'rotation'})
+          </option>
+        ))}
+      </select>
+    </label>
   );
 }
 

@@ -10,7 +10,7 @@ import type { RunRequest } from '../../../../shared/link-engine/run-request';
 import type { ByteLink, LinkCloseReason } from '../../../../shared/link-engine/byte-link';
 import type { RunProgress, LinkFigures } from '../../../../shared/link-engine/link-figures';
 import { confirmOffModel } from '../../../../shared/link-engine/confirm-off-model';
-import type { DeviceInfo, ModeInfo } from '../../../../shared/link';
+import type { Crc8Name, DeviceInfo, ModeInfo } from '../../../../shared/link';
 import type { Plan, ScoreSummary } from '../../../../shared/numeric';
 import { runSoak, scorePass, type SoakSpec } from '../../../../shared/soak';
 import { createVectorModel, type VectorConfig, type VectorPlan, type VectorScoreSummary } from '../../../../shared/vectoring';
@@ -159,8 +159,8 @@ export class BenchController {
     if (this.snap.run) this.set({ run: { ...this.snap.run, ...patch } });
   };
 
-  /** Open a link (made by the caller), say HELLO and keep INFO. Everything on it is recorded. */
-  async connect(open: () => Promise<ByteLink>, label: string, baud: number) {
+  /** Open a link (made by the caller), say HELLO and keep INFO. Everything on it is recorded. `crc`: the board's frame check, when not the protocol's default. */
+  async connect(open: () => Promise<ByteLink>, label: string, baud: number, crc?: Crc8Name) {
     this.baud = baud;
     this.set({ status: 'connecting', transportLabel: label, linkMessage: null, info: null, modes: null });
     try {
@@ -170,12 +170,13 @@ export class BenchController {
         this.engine = null;
         this.set({ status: 'closed', linkMessage: r.requested ? null : r.message });
       };
-      const { link, engine, recording } = recordedLink(await open(), { label, baud, clock, traffic: this.traffic, onClose });
+      const { link, engine, recording } = recordedLink(await open(), { label, baud, crc, clock, traffic: this.traffic, onClose });
       [this.link, this.engine, this.recording] = [link, engine, recording];
       const info = await engine.hello();
       recording.info(info, clock.now());
       // A version-2 board says whether it also vectors; a version-1 board is not asked.
       const modes = await engine.modes();
+      recording.modes(modes, clock.now());
       this.set({ status: 'connected', info, modes });
     } catch (err) {
       await this.link?.close().catch(() => undefined);

@@ -3,7 +3,7 @@
 // until it closes. A run's archive is cut from it: the HELLO → INFO preamble, so it still says what
 // device and profile it came from, then that run's own traffic only. It uses the engine's decoder events rather than a second decoder, so recording
 // costs the page almost nothing; docs/archive.md has the byte layout.
-import { profileFromInfo, Recorder, type DecodedFrame, type DeviceInfo, type SkipEvent } from '../../../../shared/link';
+import { profileFromInfo, Recorder, type Crc8Name, type DecodedFrame, type DeviceInfo, type ModeInfo, type SkipEvent } from '../../../../shared/link';
 import type { RecorderMark } from '../../../../shared/link/recorder';
 
 /** What the archive label says about where the capture came from (JSON). */
@@ -22,8 +22,8 @@ export class ConnectionRecording {
   private preambleEnd: RecorderMark;
   private runStart: RecorderMark | null = null;
 
-  constructor(label: Omit<BenchLabel, 'recordedBy'>) {
-    this.recorder = new Recorder({ accept: { 'to-device': 'requests', 'to-host': 'replies' }, label: JSON.stringify({ recordedBy: 'anglebench bench', ...label } satisfies BenchLabel) });
+  constructor(label: Omit<BenchLabel, 'recordedBy'>, crc?: Crc8Name) {
+    this.recorder = new Recorder({ crc, accept: { 'to-device': 'requests', 'to-host': 'replies' }, label: JSON.stringify({ recordedBy: 'anglebench bench', ...label } satisfies BenchLabel) });
     this.preambleEnd = this.recorder.mark();
   }
 
@@ -50,6 +50,14 @@ export class ConnectionRecording {
     const p = profileFromInfo(info);
     this.recorder.profile('to-host', atMs, this.bytes['to-host'], p);
     this.recorder.profile('to-device', atMs, this.bytes['to-device'], p);
+    this.preambleEnd = this.recorder.mark();
+  }
+
+  /** MODE_INFO of a vectoring board: its formats size VEC_* frames from here on, and the archive keeps them (so the preamble runs to here). */
+  modes(modes: ModeInfo, atMs: number) {
+    if (this.finished || !modes.vectoring) return;
+    this.recorder.vectorFormats('to-host', atMs, this.bytes['to-host'], modes.vectoring);
+    this.recorder.vectorFormats('to-device', atMs, this.bytes['to-device'], modes.vectoring);
     this.preambleEnd = this.recorder.mark();
   }
 

@@ -3,6 +3,7 @@
 // what the page shows about the connection.
 import { LinkEngine, type EngineClock } from '../../../../shared/link-engine/link-engine';
 import type { ByteLink, LinkCloseReason } from '../../../../shared/link-engine/byte-link';
+import type { Crc8Name } from '../../../../shared/link/crc8';
 import { ConnectionRecording } from './connection-recording';
 import { LOSS_SILENCE_MS, sweepSegmentFor } from './link-settings';
 import type { TrafficLog } from './traffic-log';
@@ -16,6 +17,8 @@ export interface RecordedLink {
 export interface RecordedLinkOptions {
   label: string;
   baud: number;
+  /** The frame check the board uses (default CRC-8/SMBUS, the protocol's). */
+  crc?: Crc8Name;
   clock: EngineClock;
   traffic: TrafficLog;
   /** The link closed, after the capture was finished. */
@@ -25,7 +28,7 @@ export interface RecordedLinkOptions {
 /** Wires an opened link; the capture starts now, before HELLO, so it holds the whole exchange. */
 export function recordedLink(link: ByteLink, o: RecordedLinkOptions): RecordedLink {
   const { clock, traffic } = o;
-  const recording = new ConnectionRecording({ transport: o.label, baud: o.baud, openedAt: new Date().toISOString() });
+  const recording = new ConnectionRecording({ transport: o.label, baud: o.baud, openedAt: new Date().toISOString() }, o.crc);
   link.onWarning((m) => traffic.push({ type: 'note', text: m, atMs: clock.now() }));
   link.onClose((r) => {
     recording.finish(clock.now());
@@ -35,6 +38,7 @@ export function recordedLink(link: ByteLink, o: RecordedLinkOptions): RecordedLi
     link,
     clock,
     baud: o.baud,
+    crc: o.crc,
     timeoutMs: LOSS_SILENCE_MS,
     sweepSegment: sweepSegmentFor(o.baud),
     onTraffic: (direction, bytes, atMs) => {

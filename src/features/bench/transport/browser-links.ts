@@ -47,3 +47,19 @@ export function sameOriginSocketUrl(location: Pick<Location, 'protocol' | 'host'
 
 /** The hosted board on the server this page came from. */
 export const hostedBoardUrl = (location: Pick<Location, 'protocol' | 'host'>) => sameOriginSocketUrl(location, HOSTED_BOARD_PATH);
+
+/** What a hosted board address says about the link: the core it names (`?core=<slug or id>`) and a `baud=` of its own. */
+export function hostedBoardCore(address: string): { core: string | null; baud: number | null } {
+  let query: URLSearchParams;
+  try {
+    query = new URL(address).searchParams;
+  } catch {
+    return { core: null, baud: null };
+  }
+  const baud = Number(query.get('baud'));
+  return { core: query.get('core'), baud: query.has('baud') && Number.isInteger(baud) ? baud : null };
+}
+
+/** The address of the hosted board that serves `coreSlug` (its mode, configuration and link profile); null: the default rotating core. */
+export const hostedBoardUrlFor = (location: Pick<Location, 'protocol' | 'host'>, coreSlug: string | null) =>
+  hostedBoardUrl(location) + (coreSlug ? `?core=${encodeURIComponent(coreSlug)}` : '');

@@ -1,7 +1,7 @@
 // A capture archive's records as terminal lines: time since the first record, direction, bytes
 // in hex and ASCII, and each decoded frame summarised from its payload. ANSI colours as on the
 // Bench page's traffic pane.
-import { decodePayload, Kind, kindName, NakReason, SweepStatus, type ArchiveRecord, type DecodedFrame, type Direction, type WireProfile } from '../../../../shared/link';
+import { decodePayload, Kind, kindName, NakReason, SweepStatus, vectorWireProfile, type ArchiveRecord, type DecodedFrame, type Direction, type WireProfile } from '../../../../shared/link';
 
 export const C = { dim: '\x1b[90m', tx: '\x1b[33m', rx: '\x1b[36m', frame: '\x1b[32m', warn: '\x1b[31m', off: '\x1b[0m' };
 
@@ -33,6 +33,18 @@ export function frameSummary(f: DecodedFrame, profile: WireProfile): string {
       return `${head}: "${m.info.name}", ${m.info.angleFormat} ${m.info.angleBits}-bit angles, ${m.info.outBits}-bit outputs (${m.info.outFrac} fraction bits)`;
     case Kind.Results:
       return `${head}: ${m.cos.length} results from index ${m.firstIndex}`;
+    case Kind.ModeInfo:
+      return m.modes.vectoring
+        ? `${head}: vectoring, ${m.modes.vectoring.inBits}-bit x/y, ${m.modes.vectoring.angleFormat} ${m.modes.vectoring.angleBits}-bit angles, ${m.modes.vectoring.magBits}-bit magnitudes`
+        : `${head}: rotation only`;
+    case Kind.VecOne:
+      return `${head}: vector (${m.x}, ${m.y})`;
+    case Kind.VecList:
+      return `${head}: ${m.xs.length} vectors from (${m.xs[0] ?? '—'}, ${m.ys[0] ?? '—'})`;
+    case Kind.VecGrid:
+      return `${head}: ${m.nx} × ${m.ny} grid from (${m.x0}, ${m.y0}), steps ${m.dx}, ${m.dy}`;
+    case Kind.VecResults:
+      return `${head}: ${m.angle.length} vector results from index ${m.firstIndex}`;
     case Kind.SweepEnd:
       return `${head}: ${m.done} done, ${nameOf(SweepStatus, m.status).toLowerCase()}`;
     case Kind.Ack:
@@ -66,6 +78,8 @@ export function recordLines(r: ArchiveRecord, t0Ms: number, profile: WireProfile
       return [`${t} ${C.warn}! ${r.direction}: skipped ${r.event.bytes} B (${r.event.reason}) at offset ${r.event.offset}${C.off}`];
     case 'profile':
       return [`${t} ${C.dim}${r.direction}: profile now ${r.profile.angleFormat}, ${r.profile.angleBits}-bit angles, ${r.profile.outBits}-bit outputs${C.off}`];
+    case 'vector-formats':
+      return [`${t} ${C.dim}${r.direction}: vectoring formats now ${r.formats.inBits}-bit x/y, ${r.formats.angleFormat} ${r.formats.angleBits}-bit angles, ${r.formats.magBits}-bit magnitudes${C.off}`];
     case 'finish':
       return [`${t} ${C.dim}${r.direction}: end of stream${C.off}`];
   }
@@ -76,6 +90,7 @@ export function profilesByRecord(records: readonly ArchiveRecord[], start: WireP
   const now: Record<Direction, WireProfile> = { 'to-device': start, 'to-host': start };
   return records.map((r) => {
     if (r.type === 'profile') now[r.direction] = r.profile;
+    else if (r.type === 'vector-formats') now[r.direction] = { ...now[r.direction], vector: vectorWireProfile(r.formats) };
     return now[r.direction];
   });
 }
