@@ -1,24 +1,30 @@
 // `explain`: which configuration deviation or catalogue defect reproduces a core's answers
-// (docs/explain.md). Prints { "declared", "answered", "hypotheses" } as JSON; exit 0 when the best
-// hypothesis reproduces every answer, 1 when none does, 2 on an error (one line on stderr).
+// (docs/explain.md). Prints { "declared", "answered", "hypotheses" } as JSON (a vectoring core's
+// with "mode": "vectoring" first); exit 0 when the best hypothesis reproduces every answer, 1 when
+// none does, 2 on an error (one line on stderr).
 import { readFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
-import { explain, ExplainInputError, type Explanation } from '../shared/explain';
+import { explain, explainVectors, ExplainInputError, type Explanation, type VectorExplanation } from '../shared/explain';
 import { ArchiveError } from '../shared/link';
 import { samplesFromArchive } from '../shared/link-engine/archive-samples';
 import { parseSampleCsv, SampleCsvError } from '../shared/link-engine/sample-csv';
+import { parseVectorCsv } from '../shared/link-engine/vector-sample-csv';
 import { angleCodeRange, ModelConfigError, outputCodeRange, parseModelConfig, type ModelConfig } from '../shared/numeric';
+import { angleOutputRange, inputRange, magnitudeRange, parseVectorConfig, type VectorConfig } from '../shared/vectoring';
 import { runCommand, UsageError } from './command';
 import type { CliIo } from './io';
 
-const HELP = `usage: npm run --silent cli -- explain [--config '<json>'] (--samples-file F | --archive F)
+const HELP = `usage: npm run --silent cli -- explain [--mode M] [--config '<json>'] (--samples-file F | --archive F)
 
-  --config JSON       the core's declared model configuration (missing keys take their defaults);
-                      with --archive, the archive's label gives it unless this is given
-  --samples-file F    answers as CSV: the header angle_code,cos_code,sin_code, then one row each
-  --archive F         a capture archive (run --out, or the Bench page's recording)
+  --mode M            rotation (default) or vectoring: the kind of core that answered
+  --config JSON       the core's declared model configuration (missing keys take their defaults;
+                      a vectoring configuration with --mode vectoring); with --archive, the
+                      archive's label gives it unless this is given
+  --samples-file F    answers as CSV: the header angle_code,cos_code,sin_code, then one row each;
+                      with --mode vectoring the header x_code,y_code,angle_code,magnitude_code
+  --archive F         a capture archive (run --out, or the Bench page's recording); rotation only
 
-Prints { "declared", "answered", "hypotheses": [ { "label", "config", "fault", "exact",
+Prints { ["mode": "vectoring",] "declared", "answered", "hypotheses": [ { "label", "config", "fault", "exact",
 "maxDiffLsb", "equivalent" }, … ] }, best first, at most 10. Exit 0 when the best reproduces every
 answer, 1 when none does, 2 on an error.
 `;
@@ -124,11 +130,60 @@ function checkRanges(config: ModelConfig, s: Samples): void {
   }
 }
 
-/** The command's JSON: the keys outside scripts rely on, in this order. */
-export function explanationJson(e: Explanation): string {
-  const ref = (h: { label: string; config: ModelConfig; fault: unknown }) => ({ label: h.label, config: h.config, fault: h.fault });
+/** A vectoring core's answers as CSV (`x_code,y_code,angle_code,magnitude_code`), each code in the declared formats. */
+function readVectorCsv(path: string, io: CliIo, config: VectorConfig) {
+  let text: string;
+  try {
+    text = io.readFile(path);
+  } catch (e) {
+    throw fileError('samples-file', path, e);
+  }
+  let s;
+  try {
+    s = parseVectorCsv(text);
+  } catch (e) {
+    if (e instanceof SampleCsvError) throw new UsageError(`samples-file ${e.message}`);
+    throw e;
+  }
+  const lines: number[] = [];
+  text.replace(/^\uFEFF/, '').split(/\r?\n/).forEach((line, i) => {
+    if (i > 0 && line.trim() !== '') lines.push(i + 1);
+  });
+  const inputs = inputRange(config);
+  const angle = angleOutputRange(config);
+  const magnitude = magnitudeRange(config);
+  for (let k = 0; k < s.xs.length; k++) {
+    const where = `samples-file line ${lines[k]}`;
+    for (const [name, v] of [['x', s.xs[k]], ['y', s.ys[k]]] as const) {
+      if (v < inputs.min || v > inputs.max) throw new UsageError(`${where}: ${name} code ${v} is not ${inputs.min}..${inputs.max} (${config.inBits} bits)`);
+    }
+    if (s.angles[k] < angle.min || s.angles[k] > angle.max) throw new UsageError(`${where}: angle code ${s.angles[k]} is not ${angle.min}..${angle.max} (${config.angleFormat}, ${config.angleBits} bits)`);
+    if (s.magnitudes[k] < magnitude.min || s.magnitudes[k] > magnitude.max) throw new UsageError(`${where}: magnitude code ${s.magnitudes[k]} is not ${magnitude.min}..${magnitude.max} (${config.magBits} bits)`);
+  }
+  return { x: s.xs, y: s.ys, angle: s.angles, magnitude: s.magnitudes };
+}
+
+function parseVectorConfigText(text: string): VectorConfig {
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch {
+    throw new UsageError('config: is not valid JSON');
+  }
+  try {
+    return parseVectorConfig(json);
+  } catch (e) {
+    if (e instanceof ModelConfigError) throw new UsageError(`config.${e.message}`);
+    throw e;
+  }
+}
+
+/** The command's JSON: the keys outside scripts rely on, in this order ("mode" only for a vectoring core). */
+export function explanationJson(e: Explanation | VectorExplanation): string {
+  const ref = (h: { label: string; config: object; fault: unknown }) => ({ label: h.label, config: h.config, fault: h.fault });
   const hypotheses = e.hypotheses.map((h) => ({ ...ref(h), exact: h.exact, maxDiffLsb: h.maxDiffLsb, equivalent: h.equivalent.map(ref) }));
-  return `${JSON.stringify({ declared: e.declared, answered: e.answered, hypotheses }, null, 2)}\n`;
+  const mode = e.mode === 'vectoring' ? { mode: e.mode } : {};
+  return `${JSON.stringify({ ...mode, declared: e.declared, answered: e.answered, hypotheses }, null, 2)}\n`;
 }
 
 /** The options, or 'help'; parseArgs' own errors are bad options (exit 2). */
@@ -136,6 +191,7 @@ function parseExplainArgs(argv: string[]) {
   const { values } = parseArgs({
     args: argv,
     options: {
+      mode: { type: 'string' },
       config: { type: 'string' },
       'samples-file': { type: 'string' },
       archive: { type: 'string' },
@@ -155,6 +211,9 @@ export const runExplainCommand = (argv: string[], io: CliIo, deps: ExplainDeps =
 async function explainCommand(values: ExplainArgsValues, io: CliIo, deps: ExplainDeps): Promise<number> {
   const given = (['samples-file', 'archive'] as const).filter((k) => values[k] !== undefined);
   if (given.length !== 1) throw new UsageError(`give exactly one of --samples-file, --archive (got ${given.length ? given.map((k) => `--${k}`).join(', ') : 'none'})`);
+  const mode = values.mode ?? 'rotation';
+  if (mode !== 'rotation' && mode !== 'vectoring') throw new UsageError(`--mode must be rotation or vectoring, got "${mode}"`);
+  if (mode === 'vectoring') return explainVectorCommand(values, io);
   let config: ModelConfig;
   let samples: Samples;
   if (values['samples-file'] !== undefined) {
@@ -171,6 +230,23 @@ async function explainCommand(values: ExplainArgsValues, io: CliIo, deps: Explai
   let explanation: Explanation;
   try {
     explanation = explain(config, samples);
+  } catch (e) {
+    if (e instanceof ExplainInputError) throw new UsageError(e.message);
+    throw e;
+  }
+  io.stdout(explanationJson(explanation));
+  return explanation.hypotheses[0].exact === explanation.answered ? 0 : 1;
+}
+
+/** `explain --mode vectoring`: a vectoring core's CSV answers against its declared vectoring configuration. */
+function explainVectorCommand(values: ExplainArgsValues, io: CliIo): number {
+  if (values.archive !== undefined) throw new UsageError('--archive: a vectoring capture is not read yet; export the session as CSV (x_code,y_code,angle_code,magnitude_code) and give it with --samples-file');
+  if (values.config === undefined) throw new UsageError("give the core's declared vectoring configuration with --config (a CSV does not hold it)");
+  const config = parseVectorConfigText(values.config);
+  const samples = readVectorCsv(values['samples-file']!, io, config);
+  let explanation: VectorExplanation;
+  try {
+    explanation = explainVectors(config, samples);
   } catch (e) {
     if (e instanceof ExplainInputError) throw new UsageError(e.message);
     throw e;
