@@ -4,7 +4,9 @@ import { ByteLog } from './byte-log';
 import { DEFAULT_CRC8, type Crc8Name } from './crc8';
 import { FrameDecoder, type AcceptedKinds, type DecodedFrame, type FrameDecoderOptions, type SkipEvent } from './decoder';
 import { FRAME_OVERHEAD } from './frame';
-import { DEFAULT_PROFILE, validateProfile, type WireProfile } from './wire-profile';
+import { DEFAULT_PROFILE, validateProfile, type VectorWireProfile, type WireProfile } from './wire-profile';
+import { Kind } from './kinds';
+import { decodePayload, vectorWireProfile } from './payloads';
 import { readArchive, RecordType, writeHeader, writeProfileBody, writeRecordStart, writeSkipBody, type Archive, type ArchiveHeader, type Direction } from './archive';
 
 /** Archive header fields; each has a default (default profile, CRC-8/SMBUS, all KINDs, no label). */
@@ -209,13 +211,34 @@ export interface ReplayResult {
   skips: Array<{ direction: Direction; event: SkipEvent }>;
 }
 
+export interface ReplayOptions {
+  /**
+   * Size the VEC_* frames by the vectoring formats a MODE_INFO reply announces, from that reply on,
+   * as the engine did on the bench: the archive's profile records keep only the rotating fields,
+   * so without this a vectoring core of other widths than the default reads as damaged frames.
+   */
+  vectorFormats?: boolean;
+}
+
 /**
  * Pushes the recorded chunks, with their original boundaries, through fresh decoders built from
  * the header, switching profile where the recording did and finishing where it finished.
  */
-export function replayArchive(bytes: Uint8Array): ReplayResult {
+export function replayArchive(bytes: Uint8Array, options: ReplayOptions = {}): ReplayResult {
   const archive = readArchive(bytes);
   const out: ReplayResult = { archive, frames: [], skips: [] };
+  let vector: VectorWireProfile | undefined;
+  const withVector = (p: WireProfile): WireProfile => (vector ? { ...p, vector } : p);
+  const announce = (frame: DecodedFrame, profile: WireProfile) => {
+    try {
+      const m = decodePayload(frame.kind, frame.payload, profile);
+      if (m.kind !== Kind.ModeInfo || !m.modes.vectoring) return;
+      vector = vectorWireProfile(m.modes.vectoring);
+      for (const side of Object.values(sides)) side.decoder.setProfile(withVector(side.decoder.profile));
+    } catch {
+      // A MODE_INFO the engine could not use either: the VEC_* frames keep the default widths.
+    }
+  };
   const make = (direction: Direction) => {
     const changes = archive.records.flatMap((r) => (r.type === 'profile' && r.direction === direction ? [r] : []));
     let next = 0;
@@ -226,15 +249,17 @@ export function replayArchive(bytes: Uint8Array): ReplayResult {
       onFrame: (frame) => {
         out.frames.push({ direction, frame });
         const end = frame.offset + frame.payload.length + FRAME_OVERHEAD;
-        if (next < changes.length && changes[next].offset === end) decoder.setProfile(changes[next++].profile);
+        if (next < changes.length && changes[next].offset === end) decoder.setProfile(withVector(changes[next++].profile));
+        if (options.vectorFormats && direction === 'to-host' && frame.kind === Kind.ModeInfo) announce(frame, decoder.profile);
       },
       onSkip: (event) => out.skips.push({ direction, event }),
     });
     const catchUp = () => {
-      while (next < changes.length && changes[next].offset <= decoder.bytesReceived) decoder.setProfile(changes[next++].profile);
+      while (next < changes.length && changes[next].offset <= decoder.bytesReceived) decoder.setProfile(withVector(changes[next++].profile));
     };
     return { decoder, catchUp };
   };
+  // announce() reads it from a frame callback, once both decoders exist.
   const sides = { 'to-device': make('to-device'), 'to-host': make('to-host') };
   for (const r of archive.records) {
     const side = sides[r.direction];

@@ -1,15 +1,31 @@
-import { afterAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runExplainCommand } from '../../../cli/explain';
+import { runRunCommand } from '../../../cli/run';
+import { defaultBoardSettings } from '../../../mock-device/board-session';
+import { startMockServer, type MockServer } from '../../../mock-device/ws-server';
 import { createSimVectorCore, parseVectorCoreFault } from '../../../mock-device/vector-core';
 import { vectorCsvChunks } from '../../../shared/link-engine/vector-sample-csv';
 import { DEFAULT_VECTOR_CONFIG, edgePairs, parseVectorConfig, planVectors } from '../../../shared/vectoring';
 import { captureIo, cli } from './run-support';
 
 const dir = mkdtempSync(join(tmpdir(), 'anglebench-explain-vector-'));
-afterAll(() => rmSync(dir, { recursive: true, force: true }));
+// Simulated vectoring boards with a defect, for runs recorded with --out.
+let boards: MockServer[] = [];
+beforeAll(async () => {
+  const settings = { ...defaultBoardSettings(), baud: 12_000_000 };
+  const quiet = () => undefined;
+  boards = [
+    await startMockServer({ ...settings, vector: { core: {}, fault: parseVectorCoreFault('atan-entry:1:+2') } }, 0, '127.0.0.1', quiet),
+    await startMockServer({ ...settings, vector: { core: { inBits: 12, angleBits: 14 }, fault: parseVectorCoreFault('iterations=12') } }, 0, '127.0.0.1', quiet),
+  ];
+});
+afterAll(async () => {
+  await Promise.all(boards.map((b) => b.close()));
+  if (!process.env.KEEP_DIR) rmSync(dir, { recursive: true, force: true });
+});
 
 const CONFIG = '{"inBits":12}';
 const config = parseVectorConfig(JSON.parse(CONFIG));
@@ -80,7 +96,7 @@ describe('the explain command on a vectoring core', { timeout: 120_000 }, () => 
       [[...vec, '--config', CONFIG], file('1,1,0,0\n\n3000,0,0,0\n'), /^error: samples-file line 4: x code 3000 is not -2048\.\.2047 \(12 bits\)$/],
       [[...vec, '--config', CONFIG], file('1,1,70000,0\n'), /^error: samples-file line 2: angle code 70000 is not 0\.\.65535/],
       [[...vec, '--config', CONFIG], file('1,1,0,99999\n'), /^error: samples-file line 2: magnitude code 99999 is not -8192\.\.8191 \(14 bits\)$/],
-      [['--mode', 'vectoring', '--config', CONFIG, '--archive', 'run.abrc'], {}, /^error: --archive: a vectoring capture is not read yet/],
+      [['--mode', 'vectoring', '--config', CONFIG, '--archive', join(dir, 'none.abrc')], {}, /^error: archive: cannot read .*none\.abrc \(ENOENT\)$/],
       [[...vec, '--config', CONFIG], {}, /^error: samples-file: cannot read v\.csv \(ENOENT\)$/],
     ];
     for (const [argv, files, message] of bad) {
@@ -89,6 +105,29 @@ describe('the explain command on a vectoring core', { timeout: 120_000 }, () => 
       expect(io.out).toBe('');
       expect(io.err.split('\n').filter(Boolean)).toHaveLength(1);
       expect(io.err.trimEnd()).toMatch(message);
+    }
+  });
+
+  it('explains a vectoring run of the simulated board from its capture archive, the mode and configuration from its label', async () => {
+    for (const [board, name, expected] of [
+      [boards[0], 'default', { label: 'arctangent entry 1 is 2 LSB high', fault: { kind: 'atan-entry', iteration: 1, delta: 2 } }],
+      [boards[1], 'narrow', { label: '12 iterations instead of 16', fault: null }],
+    ] as const) {
+      const out = join(dir, `${name}.abrc`);
+      const runIo = captureIo();
+      const ran = await runRunCommand(['--device', board.url, '--baud', '12000000', '--plan', 'grid:4096', '--core', `vec-${name}`, '--out', out, '--json'], runIo, { stderrIsTty: false, interrupt: { requested: false, onRequest: () => () => undefined } });
+      expect(runIo.err).not.toMatch(/^error/m);
+      // No limits given: the run itself passes, and its answers differ from the declared model.
+      expect(ran).toBe(0);
+      expect(JSON.parse(runIo.out).stats.mismatches.count).toBeGreaterThan(0);
+      const io = captureIo();
+      const status = await runExplainCommand(['--archive', out], io);
+      expect(io.err).toBe('');
+      expect(status).toBe(0);
+      const result = JSON.parse(io.out);
+      expect(result.mode).toBe('vectoring');
+      expect(result.answered).toBe(JSON.parse(runIo.out).results.answered);
+      expect(result.hypotheses[0]).toMatchObject({ ...expected, exact: result.answered });
     }
   });
 
