@@ -96,6 +96,7 @@ export function explain(declaredInput: ModelConfig, samples: ExplainSamples, opt
       total: 1 + deviationCandidates(declared).length + 2 * defectsPerCore,
       periodA: 0,
       restOrder: full.codes,
+      inputWord: 'code',
     },
     options,
   );

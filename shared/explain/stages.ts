@@ -106,6 +106,8 @@ export interface Search<C, F, L extends Level> {
   periodA: number;
   /** Neighbour order of the inputs of `full`, for the rest's classification (docs/explain.md). */
   restOrder: ArrayLike<number>;
+  /** What one answered input is called in the summary: "code" (an angle code), "input" (a vector). */
+  inputWord: string;
 }
 
 /** A level over the picked answers (all of them when `pick` is null). */
@@ -245,7 +247,7 @@ function summarise<C, F, L extends Level>(s: Search<C, F, L>, n: number, tried: 
     rest = classifyRest(s.restOrder, full.a, full.b, full.outA, full.outB);
   }
   const others = best.equivalent.length;
-  const alike = others > 0 ? ` ${others === 1 ? 'One other hypothesis gives' : `${others} other hypotheses give`} the same answers on every code.` : '';
+  const alike = others > 0 ? ` ${others === 1 ? 'One other hypothesis gives' : `${others} other hypotheses give`} the same answers on every ${s.inputWord}.` : '';
   let summary: string;
   switch (outcome) {
     case 'matches-model':

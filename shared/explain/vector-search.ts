@@ -118,6 +118,7 @@ export function explainVectors(declaredInput: VectorConfig, samples: VectorExpla
       // A binary angle's difference goes the short way round; radians saturate at ±π.
       periodA: declared.angleFormat === 'turn' ? 2 ** declared.angleBits : 0,
       restOrder: direction,
+      inputWord: 'input',
     },
     options,
   );
