@@ -22,6 +22,8 @@ import { checkLine } from './run-report';
 import type { Interrupt } from './interrupt';
 import { INTERRUPTED_STATUS } from './interrupt';
 import { realClock } from './clock';
+import { explainVectorRun, explanationText } from './run-explain';
+import type { VectorExplanation } from '../shared/explain';
 
 /** The archive label of a vectoring capture, as JSON. */
 export interface VectorRunLabel {
@@ -150,9 +152,7 @@ export interface VectorRunContext {
 /** Runs the plan on the vectoring core; returns the exit status (0 pass, 1 a limit fails, 130 interrupted). */
 export async function runVectoring(c: VectorRunContext): Promise<number> {
   const { o, io, engine } = c;
-  for (const [given, name] of [[o.soak, '--soak'], [o.explain, '--explain']] as const) {
-    if (given) throw new UsageError(`${name} is not available for vectoring cores yet`);
-  }
+  if (o.soak) throw new UsageError('--soak is not available for vectoring cores yet');
   if (!o.vectorPlan) throw new UsageError(`--plan ${o.planText} is a rotating core's plan, and the board serves a vectoring core (plans: exhaustive, grid:TARGET, circle:RADIUS,POINTS, random:COUNT,SEED, edges, file:PATH)`);
   checkVectorLimits(c.limits, c.limitsFrom === 'option' ? '--limits' : `core "${o.core}" limits on the server`);
   const given = o.vectorConfig ? { config: o.vectorConfig, from: 'config' as const } : c.core ? { config: c.core.vectorConfig, from: 'server' as const } : null;
@@ -196,6 +196,7 @@ export async function runVectoring(c: VectorRunContext): Promise<number> {
   const report: VectorRunReport = {
     core: o.core, build: o.build, board: o.board, device: o.device, baud: c.baud, info: c.info, modes: c.modes, plan: bound.plan, planText: o.planText,
     model, modelFrom: from, limitsFrom: c.limitsFrom, status: result.status, elapsedMs: result.elapsedMs, score, figures: result.figures, verdict, archive: o.out,
+    explanation: o.explain && score.answered > 0 ? explainVectorRun(model, result) : undefined,
   };
   for (const w of c.warnings.slice(0, 5)) io.stderr(`warning: ${w}\n`);
   if (c.interrupt?.requested) {
@@ -246,6 +247,8 @@ export interface VectorRunReport {
   figures: LinkFigures;
   verdict: Verdict;
   archive: string | null;
+  /** With --explain: which deviation or defect reproduces the answers (shared/explain). */
+  explanation?: VectorExplanation;
 }
 
 /** The machine-readable summary of a vectoring run (`mode: "vectoring"` tells it from a rotating one's). */
@@ -275,6 +278,7 @@ export function vectorJsonSummary(r: VectorRunReport, upload: { sessionId: numbe
     link: r.figures,
     verdict: { passed: r.verdict.passed, limitsFrom: r.limitsFrom, checks: r.verdict.checks },
     archive: r.archive,
+    ...(r.explanation ? { explanation: r.explanation } : {}),
     upload,
   };
 }
@@ -312,5 +316,5 @@ export function vectorHumanReport(r: VectorRunReport): string {
     out.push(`verdict: ${r.verdict.passed ? 'PASS' : 'FAIL'}`);
   }
   if (r.archive) out.push(`archive written to ${r.archive}`);
-  return out.join('\n') + '\n';
+  return out.join('\n') + '\n' + (r.explanation ? explanationText(r.explanation) : '');
 }
