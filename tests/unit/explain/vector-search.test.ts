@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { createSimVectorCore, parseVectorCoreFault } from '../../../mock-device/vector-core';
-import { explainVectors, ExplainInputError, ExplainStopped, formatVectorFault, parseVectorCoreFault as parseSpelling, vectorFaultLabel } from '../../../shared/explain';
+import { createVectorFaultyModel, explainVectors, ExplainInputError, ExplainStopped, formatVectorFault, parseVectorCoreFault as parseSpelling, vectorFaultLabel } from '../../../shared/explain';
+import { Remoteness } from '../../../shared/explain/catalogue';
+import { vectorDefectCandidates, vectorDeviationCandidates } from '../../../shared/explain/vector-catalogue';
 import { edgePairs, parseVectorConfig, planVectors, type VectorConfigInput } from '../../../shared/vectoring';
 
 /** The simulated vectoring board's answers to a random spread plus the format's edges. */
@@ -110,5 +112,19 @@ describe('the explain search on vectoring cores', { timeout: 300_000 }, () => {
       expect(formatVectorFault(parseSpelling(spec).fault!)).toBe(spec);
     }
     expect(() => parseSpelling('swap')).toThrow(/not a vectoring core fault/);
+  });
+
+  it('tries every defect the simulated board can be given, spelled as the board reads it', () => {
+    // The board injects through the same faulty model: each hypothesis's spelling, given to the
+    // board, answers as the hypothesis does (checked on a few inputs of each).
+    const config = parseVectorConfig({ inBits: 10, iterations: 8, gainCompensation: 'multiply' });
+    const probes: [number, number][] = [[300, -200], [-511, 17], [0, 0], [-3, -400], [511, 511]];
+    const faults = [...vectorDefectCandidates(config, Remoteness.Defect), ...vectorDeviationCandidates(config)].flatMap((c) => (c.fault ? [c.fault] : []));
+    expect(new Set(faults.map((f) => f.kind))).toEqual(new Set(['sign-slip', 'atan-entry', 'stuck-bit', 'gain']));
+    for (const f of faults) {
+      const board = createSimVectorCore(config, parseVectorCoreFault(formatVectorFault(f)));
+      const model = createVectorFaultyModel(config, f);
+      for (const [x, y] of probes) expect(board.answer(x, y), formatVectorFault(f)).toEqual(model.answer(x, y));
+    }
   });
 });
