@@ -49,8 +49,9 @@ export async function publishRun(r: RunOutcome): Promise<void> {
     writeJunit(null); // the verdict stands without the session's address
     throw e;
   }
-  if (o.json) io.stdout(JSON.stringify(r.json({ sessionId }), null, 2) + '\n');
   // The server's own address for it (PUBLIC_URL), else the one the runner was given.
-  else io.stdout(`session uploaded${sessionId !== null ? `: ${sessionUrl ?? `${o.server.url}/sessions/${sessionId}`}` : ''}\n`);
-  writeJunit(sessionId !== null ? `${o.server.url}/sessions/${sessionId}` : null);
+  const address = sessionId !== null ? (sessionUrl ?? `${o.server.url}/sessions/${sessionId}`) : null;
+  if (o.json) io.stdout(JSON.stringify(r.json({ sessionId }), null, 2) + '\n');
+  else io.stdout(`session uploaded${address !== null ? `: ${address}` : ''}\n`);
+  writeJunit(address);
 }

@@ -211,7 +211,8 @@ export class SimulatedBoard {
       }
     }
     const vector = job.kind === 'vectors' || job.kind === 'grid';
-    let waiting = this.reply(vector ? { kind: Kind.VecResults, firstIndex: job.next, angle: a, magnitude: b } : { kind: Kind.Results, firstIndex: job.next, cos: a, sin: b }, job.tag);
+    // An empty sweep or grid is answered with its SWEEP_END alone, never an empty RESULTS frame.
+    let waiting = n === 0 ? 0 : this.reply(vector ? { kind: Kind.VecResults, firstIndex: job.next, angle: a, magnitude: b } : { kind: Kind.Results, firstIndex: job.next, cos: a, sin: b }, job.tag);
     job.next += n;
     if (job.kind === 'list' || job.kind === 'vectors') this.pendingPairs -= n;
     if (job.next >= total) {

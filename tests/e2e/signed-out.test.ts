@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { Page } from 'playwright-core';
+import type { Page, Request } from 'playwright-core';
 import { appAndBrowser } from './harness';
 
 // Signed out, the app opens on the sign-in form rather than on pages whose data it may not read,
@@ -56,6 +56,47 @@ describe('signed out', () => {
     // The list has asked for its data; a sign-out racing those requests is a separate case (the
     // server may refuse them after the sign-out, and the browser logs each refusal).
     await page.waitForLoadState('networkidle');
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL((u) => u.pathname === '/sign-in');
+    await expectSignInForm(page);
+    await page.waitForLoadState('networkidle');
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
+  it('signing out while the list is still loading its data leaves no refused request behind', async () => {
+    const page = await env.browser.newPage();
+    const errors = watchForErrors(page);
+    await page.goto(`${env.app.url}/sessions`);
+    await expectSignInForm(page);
+    await page.getByLabel('E-mail').fill('reviewer@anglebench.test');
+    await page.getByLabel('Password').fill('anglebench');
+    // The worst order, made certain: the list's own request is held until the server has signed
+    // out, then let through before the page hears the sign-out's answer. Unless the page dropped
+    // it before signing out, it reaches the server signed out and is refused (a logged 401).
+    let release!: () => void;
+    const released = new Promise<void>((resolve) => (release = resolve));
+    let listAsked!: (request: Request) => void;
+    const listRequest = new Promise<Request>((resolve) => (listAsked = resolve));
+    await page.route(
+      (u) => u.pathname === '/api/sessions',
+      async (route) => {
+        listAsked(route.request());
+        await released;
+        await route.continue().catch(() => undefined); // dropped by the page meanwhile
+      },
+    );
+    await page.route(
+      (u) => u.pathname === '/api/auth/logout',
+      async (route) => {
+        const signedOut = await route.fetch();
+        release();
+        await (await listRequest).response(); // null when the page dropped it
+        await route.fulfill({ response: signedOut });
+      },
+    );
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await listRequest;
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.waitForURL((u) => u.pathname === '/sign-in');
     await expectSignInForm(page);

@@ -71,7 +71,10 @@ describe('run --junit', { timeout: 30_000 }, () => {
     expect(props.session).toBeUndefined(); // no server: no session
   });
 
-  it('names the saved session\u2019s address when the run is uploaded', async () => {
+  it.each([
+    ['the address the runner was given, when the server names none', null],
+    ['the server\u2019s own public address for it', 'https://bench.lab.example/sessions/41'],
+  ])('names the saved session\u2019s address when the run is uploaded: %s', async (_what, publicUrl) => {
     const server: Server = createServer((req, res) => {
       if (req.method === 'GET' && req.url === '/api/cores') {
         const core = { id: 3, slug: 'reference-16', name: 'Reference 16', linkProfile: { baud: 12_000_000, crc: 'CRC-8/SMBUS' }, modelConfig: {}, limits: { maxModelMismatches: 0 } };
@@ -79,7 +82,7 @@ describe('run --junit', { timeout: 30_000 }, () => {
         return;
       }
       req.resume();
-      req.on('end', () => res.writeHead(201, { 'content-type': 'application/json' }).end(JSON.stringify({ session: { id: 41 } })));
+      req.on('end', () => res.writeHead(201, { 'content-type': 'application/json' }).end(JSON.stringify(publicUrl ? { id: 41, url: publicUrl } : { session: { id: 41 } })));
     });
     await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
     const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
@@ -87,7 +90,7 @@ describe('run --junit', { timeout: 30_000 }, () => {
       const { status, files } = await run(['--device', faulty.url, '--plan', 'edges', '--core', 'reference-16', '--server', url, '--token', 'a-token', '--junit', 'ci/report.xml']);
       expect(status).toBe(1);
       const [suite] = childrenNamed(parseXml(files.get('ci/report.xml')!), 'testsuite');
-      expect(properties(suite).session).toBe(`${url}/sessions/41`);
+      expect(properties(suite).session).toBe(publicUrl ?? `${url}/sessions/41`);
       expect(childrenNamed(suite, 'testcase').map((c) => [c.attributes.name, childrenNamed(c, 'failure').length])).toEqual([['maxModelMismatches: Model mismatches', 1]]);
     } finally {
       server.close();
