@@ -39,12 +39,24 @@ function stuckOutputs(c: VectorConfig, f: Extract<VectorFault, { kind: 'stuck-bi
   };
 }
 
+/** Runs one pair; the answer is left in `out` (reused, so the batch path allocates nothing). */
+type Runner = (x: number, y: number, out: AngleMagnitude) => void;
+
 /**
  * The vectoring arithmetic with a defect in the loop or the gain constant (null: none, for the
  * test that holds this reading to the model), in doubles: every value an exact integer below
  * 2^53, as the configuration's bounds guarantee. Inputs are not checked.
  */
 export function faultyIteration(c: VectorConfig, f: Exclude<VectorFault, { kind: 'stuck-bit' }> | null): Answer {
+  const run = faultyRunner(c, f);
+  return (x, y) => {
+    const out = { angle: 0, magnitude: 0 };
+    run(x, y, out);
+    return out;
+  };
+}
+
+function faultyRunner(c: VectorConfig, f: Exclude<VectorFault, { kind: 'stuck-bit' }> | null): Runner {
   const t = buildVectorTables(c);
   const n = c.iterations;
   const atan = Float64Array.from(t.atan);
@@ -60,7 +72,9 @@ export function faultyIteration(c: VectorConfig, f: Exclude<VectorFault, { kind:
     gainConst = exact === 0 ? 0 : c.gainRounding === 'nearest' ? Math.round(exact) : Math.floor(exact);
   }
   const guard = 2 ** c.guardBits;
-  const nearestShift = c.shiftRounding === 'nearest';
+  // Multiplying by 2^−i is exact, as dividing by 2^i is, and cheaper in the loop.
+  const inv = Float64Array.from({ length: n }, (_, i) => 2 ** -i);
+  const add = Float64Array.from({ length: n }, (_, i) => (c.shiftRounding === 'nearest' && i > 0 ? 2 ** (i - 1) : 0));
   const roundDrop = (v: number, drop: number): number => {
     if (drop <= 0) return v * 2 ** -drop;
     const bias = c.outputRounding === 'nearest' ? 2 ** (drop - 1) : 0;
@@ -71,8 +85,14 @@ export function faultyIteration(c: VectorConfig, f: Exclude<VectorFault, { kind:
   const mag = magnitudeRange(c);
   const ang = angleOutputRange(c);
   const span = 2 ** c.angleBits;
-  return (xIn, yIn) => {
-    if (c.zeroVector === 'zero' && xIn === 0 && yIn === 0) return { angle: 0, magnitude: 0 };
+  const turn = c.angleFormat === 'turn';
+  const zeroIsZero = c.zeroVector === 'zero';
+  return (xIn, yIn, out) => {
+    if (zeroIsZero && xIn === 0 && yIn === 0) {
+      out.angle = 0;
+      out.magnitude = 0;
+      return;
+    }
     let x = xIn * guard;
     let y = yIn * guard;
     let z = 0;
@@ -81,15 +101,15 @@ export function faultyIteration(c: VectorConfig, f: Exclude<VectorFault, { kind:
       x = 0 - x;
       y = 0 - y;
     } else if (x < 0 && c.prerotation === 'quadrant') {
-      const [px, py] = y >= 0 ? [y, 0 - x] : [0 - y, x];
+      const px = y >= 0 ? y : 0 - y;
+      const py = y >= 0 ? 0 - x : x;
       z = y >= 0 ? t.zQuarter : -t.zQuarter;
       x = px;
       y = py;
     }
     for (let i = 0; i < n; i++) {
-      const add = nearestShift && i > 0 ? 2 ** (i - 1) : 0;
-      const sx = Math.floor((x + add) / 2 ** i);
-      const sy = Math.floor((y + add) / 2 ** i);
+      const sx = Math.floor((x + add[i]) * inv[i]);
+      const sy = Math.floor((y + add[i]) * inv[i]);
       // y < 0 turns counter-clockwise; the slipped iteration turns the other way.
       const up = (y < 0) !== (i === slip);
       if (up) {
@@ -104,10 +124,8 @@ export function faultyIteration(c: VectorConfig, f: Exclude<VectorFault, { kind:
     }
     const m = roundDrop(gainConst > 0 ? x * gainConst : x, magDrop);
     const a = roundDrop(z, c.zGuardBits);
-    return {
-      angle: c.angleFormat === 'turn' ? a - Math.floor(a / span) * span : Math.min(ang.max, Math.max(ang.min, a)),
-      magnitude: Math.min(mag.max, Math.max(mag.min, m)),
-    };
+    out.angle = turn ? a - Math.floor(a / span) * span : Math.min(ang.max, Math.max(ang.min, a));
+    out.magnitude = Math.min(mag.max, Math.max(mag.min, m));
   };
 }
 
@@ -120,7 +138,12 @@ export function createVectorFaultyModel(input: VectorConfig, fault: VectorFault 
   const model = createVectorModel(config);
   if (!fault) return { config: model.config, fault: null, answer: model.answer, answerInto: model.answerInto };
   checkVectorFault(config, fault);
-  const raw = fault.kind === 'stuck-bit' ? stuckOutputs(config, fault, model.answer) : faultyIteration(config, fault);
+  const r: AngleMagnitude = { angle: 0, magnitude: 0 };
+  let run: Runner;
+  if (fault.kind === 'stuck-bit') {
+    const stuck = stuckOutputs(config, fault, model.answer);
+    run = (x, y, out) => Object.assign(out, stuck(x, y));
+  } else run = faultyRunner(config, fault);
   const { min, max } = inputRange(config);
   const isCode = (v: number) => Number.isInteger(v) && v >= min && v <= max;
   const check = (x: number, y: number, where: string) => {
@@ -132,14 +155,16 @@ export function createVectorFaultyModel(input: VectorConfig, fault: VectorFault 
     fault,
     answer(x, y) {
       check(x, y, '');
-      return raw(x, y);
+      const out = { angle: 0, magnitude: 0 };
+      run(x, y, out);
+      return out;
     },
     answerInto(xs, ys, angles, magnitudes) {
       if (ys.length !== xs.length) throw new RangeError(`x and y differ in length (${xs.length}, ${ys.length})`);
       if (angles.length < xs.length || magnitudes.length < xs.length) throw new RangeError(`output arrays hold ${Math.min(angles.length, magnitudes.length)} results, ${xs.length} inputs given`);
       for (let k = 0; k < xs.length; k++) {
         if (!(isCode(xs[k]) && isCode(ys[k]))) check(xs[k], ys[k], `inputs[${k}]: `);
-        const r = raw(xs[k], ys[k]);
+        run(xs[k], ys[k], r);
         angles[k] = r.angle;
         magnitudes[k] = r.magnitude;
       }
