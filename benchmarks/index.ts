@@ -11,6 +11,7 @@ type Bench = () => Promise<BenchResult[]>;
 const BENCHES: Record<string, Bench> = {
   'decode-score': async () => (await import('./decode-score')).decodeScoreBench(),
   explain: async () => (await import('./explain')).explainBench(),
+  'explain-vector': async () => (await import('./explain-vector')).explainVectorBench(),
   link: async () => (await import('./link')).linkBench(),
   'link-vector': async () => (await import('./link-vector')).linkVectorBench(),
   'hosted-board': async () => (await import('./hosted-board')).hostedBoardBench(),

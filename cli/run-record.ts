@@ -163,7 +163,7 @@ export function scoreVectorArchive(bytes: Uint8Array): { label: VectorRunLabel; 
   const answers = new Map<number, Array<[number, number]>>();
   for (let i = 0; i < found.xs.length; i++) {
     const k = key(found.xs[i], found.ys[i]);
-    answers.set(k, [...(answers.get(k) ?? []), [found.angle[i], found.magnitude[i]]]);
+    answers.set(k, [...(answers.get(k) ?? []), [found.angles[i], found.magnitudes[i]]]);
   }
   const { xs, ys } = planVectors(label.plan, label.model);
   const angle = new Int32Array(xs.length);

@@ -24,6 +24,8 @@ import { checkLine } from './run-report';
 import type { Interrupt } from './interrupt';
 import { INTERRUPTED_STATUS } from './interrupt';
 import { realClock } from './clock';
+import { explainVectorRun, explanationText } from './run-explain';
+import type { VectorExplanation } from '../shared/explain';
 
 /** The archive label of a vectoring capture, as JSON. */
 export interface VectorRunLabel {
@@ -152,7 +154,6 @@ export interface VectorRunContext {
 /** Runs the plan on the vectoring core; returns the exit status (0 pass, 1 a limit fails, 130 interrupted). */
 export async function runVectoring(c: VectorRunContext): Promise<number> {
   const { o, io, engine } = c;
-  if (o.explain) throw new UsageError('--explain is not available for vectoring cores yet');
   // The server refuses a vectoring session's soak (its record lists codes, not vectors): say so before the soak runs for nothing.
   if (o.soak && o.server) {
     throw new UsageError('--soak with --server: the server does not keep the soaks of vectoring cores yet; run the soak without --server (its unstable vectors are in the report and in --json), or save single passes');
@@ -213,6 +214,7 @@ export async function runVectoring(c: VectorRunContext): Promise<number> {
     core: o.core, build: o.build, board: o.board, device: o.device, baud: c.baud, info: c.info, modes: c.modes, plan: bound.plan, planText: o.planText,
     model, modelFrom: from, limitsFrom: c.limitsFrom, status: result.status, elapsedMs: result.elapsedMs, score, figures: result.figures, verdict, archive: o.out,
     soak: soak?.record ?? null,
+    explanation: o.explain && score.answered > 0 ? explainVectorRun(model, result) : undefined,
   };
   for (const w of c.warnings.slice(0, 5)) io.stderr(`warning: ${w}\n`);
   if (c.interrupt?.requested) {
@@ -263,6 +265,8 @@ export interface VectorRunReport {
   figures: LinkFigures;
   verdict: Verdict;
   archive: string | null;
+  /** With --explain: which deviation or defect reproduces the answers (shared/explain). */
+  explanation?: VectorExplanation;
   /** The soak's books when --soak was given; the other figures are then its last pass. */
   soak: VectorSoakRecord | null;
 }
@@ -301,6 +305,7 @@ export function vectorJsonSummary(r: VectorRunReport, upload: { sessionId: numbe
     verdict: { passed: r.verdict.passed, limitsFrom: r.limitsFrom, checks: r.verdict.checks },
     archive: r.archive,
     ...(r.soak ? { soak: r.soak } : {}),
+    ...(r.explanation ? { explanation: r.explanation } : {}),
     upload,
   };
 }
@@ -339,5 +344,5 @@ export function vectorHumanReport(r: VectorRunReport): string {
   }
   if (r.soak) out.push('', ...soakReportLines(r.soak));
   if (r.archive) out.push(`archive written to ${r.archive}`);
-  return out.join('\n') + '\n';
+  return out.join('\n') + '\n' + (r.explanation ? explanationText(r.explanation) : '');
 }

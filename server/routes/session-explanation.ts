@@ -4,8 +4,8 @@ import { BenchSession, Core, SessionExplanation, User } from '../db/models';
 import { HttpError, notFound } from '../http-error';
 import { validate } from '../middleware/validate';
 import { recordAudit } from '../services/audit';
-import { applicableConfig, coreStillDeclared, explainStoredSession, storedExplanation } from '../services/session-explanation';
-import type { Explanation } from '../../shared/explain';
+import { applicableConfig, configKeyOf, coreStillDeclared, explainStoredSession, storedExplanation } from '../services/session-explanation';
+import type { AnyExplanation } from '../../shared/explain';
 import type { RouteDeps } from './deps';
 import { paramsOf } from './params';
 import { explanationDecisionBody, explanationDecisionReply, explanationParams, explanationReply, type ExplanationDecisionBody } from '../../shared/contract/session-explanation';
@@ -68,19 +68,20 @@ export function sessionExplanationRouter({ db }: RouteDeps) {
     const choice = (req.body as ExplanationDecisionBody).decision;
     const row = await findStored(req);
     if (row.decision) throw new HttpError(409, 'conflict', `The explanation was already ${row.decision === 'applied' ? 'applied to the core' : 'set aside, keeping the core as declared'}`);
-    const explanation = row.explanation as unknown as Explanation;
+    const explanation = row.explanation as unknown as AnyExplanation;
     const config = applicableConfig(explanation);
     if (!config) throw new HttpError(409, 'conflict', 'decision: only a configuration deviation that reproduces every answer can be applied or kept');
     const session = await BenchSession.findByPk(row.sessionId, { attributes: ['id', 'coreId'] });
     const core = session ? await Core.findByPk(session.coreId) : null;
     if (!core) throw notFound('Core');
+    const key = configKeyOf(explanation);
     if (choice === 'apply' && !coreStillDeclared(core, explanation)) {
-      throw new HttpError(409, 'conflict', 'The core’s model configuration has changed since this explanation was saved: explain the session again first');
+      throw new HttpError(409, 'conflict', `The core’s ${key === 'vectorConfig' ? 'vectoring' : 'model'} configuration has changed since this explanation was saved: explain the session again first`);
     }
     await db.transaction(async (transaction) => {
       if (choice === 'apply') {
-        await core.update({ modelConfig: config }, { transaction });
-        await recordAudit(transaction, me.id, 'update', 'core', core.id, { modelConfig: config, fromExplanationOfSession: row.sessionId, hypothesis: explanation.hypotheses[0].label });
+        await core.update({ [key]: config }, { transaction });
+        await recordAudit(transaction, me.id, 'update', 'core', core.id, { [key]: config, fromExplanationOfSession: row.sessionId, hypothesis: explanation.hypotheses[0].label });
       }
       await row.update({ decision: choice === 'apply' ? 'applied' : 'kept', decidedById: me.id, decidedAt: new Date() }, { transaction });
       await recordAudit(transaction, me.id, choice === 'apply' ? 'apply-explanation' : 'keep-declared', 'session', row.sessionId, { coreId: core.id, hypothesis: explanation.hypotheses[0].label });

@@ -1,7 +1,8 @@
 // The session explanation API: what /api/sessions/:sessionId/explanation accepts and answers.
 import { z } from 'zod';
-import type { Explanation } from '../explain';
+import type { AnyExplanation } from '../explain';
 import { modelConfigSchema } from '../numeric/model-config';
+import { vectorConfigSchema } from '../vectoring/vector-config';
 import { id, isoDate, named, typedObject } from './common';
 import { coreRecord } from './cores';
 
@@ -20,9 +21,13 @@ export const explanationReply = z.object({
   savedAt: isoDate,
   savedBy: named.nullable(),
   decision: z.object({ choice: z.enum(['applied', 'kept']), by: named.nullable(), at: isoDate }).nullable(),
-  /** The configuration an engineer may still apply to the core, else null. */
-  applicableConfig: modelConfigSchema.nullable(),
-  explanation: typedObject<Explanation>('explanation'),
+  /**
+   * The configuration an engineer may still apply to the core, else null: a rotation model
+   * configuration, or a vectoring one when the explanation's `mode` is `vectoring`.
+   */
+  applicableConfig: z.union([modelConfigSchema, vectorConfigSchema]).nullable(),
+  /** A rotation explanation (no `mode`) or a vectoring one (`mode: 'vectoring'`), shared/explain's shape. */
+  explanation: typedObject<AnyExplanation>('explanation'),
 });
 export type StoredExplanation = z.infer<typeof explanationReply>;
 /** POST …/explanation/decision: the explanation with the decision, and the core as it now is. */

@@ -8,9 +8,10 @@ import { DEVIATION_KEYS, type Fault } from './fault';
 export const Remoteness = { Declared: 0, Deviation: 1, Defect: 2, DefectOnDeviation: 3 } as const;
 export type Remoteness = (typeof Remoteness)[keyof typeof Remoteness];
 
-export interface Candidate {
-  config: ModelConfig;
-  fault: Fault | null;
+/** One hypothesis to try: a configuration and a defect (or none), and how remote it is. */
+export interface Candidate<C = ModelConfig, F = Fault> {
+  config: C;
+  fault: F | null;
   remoteness: Remoteness;
 }
 

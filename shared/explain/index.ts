@@ -29,3 +29,17 @@ export {
   type Hypothesis,
   type HypothesisRef,
 } from './search';
+export {
+  applyVectorDeviation,
+  checkVectorFault,
+  formatVectorFault,
+  parseVectorCoreFault,
+  VECTOR_DEVIATION_KEYS,
+  VECTOR_FAULT_SPELLINGS,
+  type VectorDeviation,
+  type VectorDeviationKey,
+  type VectorFault,
+} from './vector-fault';
+export { createVectorFaultyModel, type VectorFaultyModel } from './vector-faulty-model';
+export { vectorFaultLabel, vectorFaultWords } from './vector-labels';
+export { explainVectors, type AnyExplanation, type VectorExplainSamples, type VectorExplanation, type VectorHypothesis, type VectorHypothesisRef } from './vector-search';

@@ -26,22 +26,32 @@ function octantBoundaries(c: ModelConfig): number[] {
 
 /** Indices into `codes` of the two screening sets; the small set is part of the large one. */
 export function pickScreen(c: ModelConfig, codes: Float64Array): { small: Int32Array; large: Int32Array } {
-  const n = codes.length;
-  const order = Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => codes[a] - codes[b]);
+  return pickScreenBy(codes, octantBoundaries(c), []);
+}
+
+/**
+ * The two screening sets over answers ordered by `keys` (an angle code, or a vector's direction):
+ * the extremes, a spread, both neighbours of each of the `boundaries`, the `extra` indices, then
+ * seeded random ones.
+ */
+export function pickScreenBy(keys: ArrayLike<number>, boundaries: readonly number[], extra: readonly number[]): { small: Int32Array; large: Int32Array } {
+  const n = keys.length;
+  const order = Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => keys[a] - keys[b]);
   const small = new Set<number>([order[0], order[n - 1]]);
   const spread = Math.min(n, SMALL_SCREEN / 2);
   for (let k = 0; k < spread; k++) small.add(order[Math.floor((k * n) / spread)]);
   // Both neighbours of each boundary: the fold and the direction decisions change there.
-  for (const b of octantBoundaries(c)) {
+  for (const b of boundaries) {
     let lo = 0;
     let hi = n;
     while (lo < hi) {
       const mid = (lo + hi) >> 1;
-      if (codes[order[mid]] < b) lo = mid + 1;
+      if (keys[order[mid]] < b) lo = mid + 1;
       else hi = mid;
     }
     for (const at of [lo - 1, lo, lo + 1]) if (at >= 0 && at < n) small.add(order[at]);
   }
+  for (const i of extra) small.add(i);
   const random = seededRandom(0x5eed);
   while (small.size < Math.min(n, SMALL_SCREEN + 32)) small.add(Math.floor(random() * n));
   const large = new Set(small);

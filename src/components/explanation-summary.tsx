@@ -1,11 +1,11 @@
 // A saved or fresh explanation in words: the outcome, the search's own summary, and the ranked
 // hypotheses with how many answers each reproduces.
-import type { Explanation } from '../../shared/explain';
+import type { AnyExplanation } from '../../shared/explain';
 import { equivalentWords, outcomeHeading, outcomeTone, reproducedWords } from './explanation-words';
 
 const TONE = { pass: 'border-pass bg-pass-soft', warn: 'border-signal bg-signal-soft', fail: 'border-fail bg-fail-soft' };
 
-export function ExplanationSummary({ explanation: e, top = 5, headingLevel = 3 }: { explanation: Explanation; top?: number; headingLevel?: 3 | 4 }) {
+export function ExplanationSummary({ explanation: e, top = 5, headingLevel = 3 }: { explanation: AnyExplanation; top?: number; headingLevel?: 3 | 4 }) {
   const H = `h${headingLevel}` as const;
   const shown = e.outcome === 'matches-model' ? [] : e.hypotheses.slice(0, top);
   return (

@@ -34,7 +34,7 @@ export function reproducedWords(h: { exact: number; maxDiffLsb: number }, answer
 }
 
 /** The labels of the hypotheses giving identical answers, listed together: the first `shown`, then how many more. */
-export function equivalentWords(equivalent: HypothesisRef[], shown = 3): string {
+export function equivalentWords(equivalent: readonly Pick<HypothesisRef, 'label'>[], shown = 3): string {
   if (equivalent.length === 0) return '';
   const more = equivalent.length - shown;
   return `same answers as: ${equivalent.slice(0, shown).map((h) => h.label).join('; ')}${more > 0 ? ` and ${more} more` : ''}`;

@@ -89,4 +89,36 @@ describe('Explain panel', () => {
       await page.close();
     }
   });
+
+  it('explains the demo vectoring core\'s bypassed gain multiply on the server and applies the deviation to its vectoring configuration', async () => {
+    const page = await ctx.browser.newPage({ viewport: { width: 1400, height: 1800 } });
+    try {
+      await signInAs(page, ctx.app, 'engineer', '/sessions');
+      // pd16-r1: the phase detector built without its gain-compensating multiply (server/db/seed-vectoring.ts).
+      const id = await sessionOfBuild(page, 'pd16-r1');
+      await page.goto(`${ctx.app.url}/sessions/${id}`);
+      const panel = page.getByTestId('explain-panel');
+      await panel.getByRole('button', { name: 'Explain on the server' }).click();
+      const saved = panel.getByTestId('saved-explanation');
+      await saved.waitFor({ timeout: 60_000 });
+      expect(await saved.getByTestId('explanation-outcome').textContent()).toBe('Explained');
+      const first = await saved.getByTestId('explanation-hypotheses').locator('li').first().textContent();
+      expect(first).toContain('no gain compensation: the magnitude keeps the CORDIC gain');
+      expect(first).toMatch(/reproduces ([\d,]+) of \1 answers exactly/);
+      // A rotating core's differences and trace are not offered for a vectoring one.
+      expect(await panel.getByRole('button', { name: 'Show the differences and a trace' }).count()).toBe(0);
+      expect(await saved.textContent()).toContain('gainCompensation "multiply" → "none"');
+      if (SHOTS) await panel.screenshot({ path: `${SHOTS}/explain-vectoring.png` });
+
+      await saved.getByRole('button', { name: 'Apply to the core' }).click();
+      await saved.getByTestId('explanation-decision').filter({ hasText: 'Applied to the core’s vectoring configuration' }).waitFor();
+      const core = await page.evaluate(async (sessionId) => {
+        const { session } = (await (await fetch(`/api/sessions/${sessionId}`)).json()) as { session: { coreId: number } };
+        return ((await (await fetch(`/api/cores/${session.coreId}`)).json()) as { core: { mode: string; vectorConfig: { gainCompensation: string } } }).core;
+      }, id);
+      expect(core).toMatchObject({ mode: 'vectoring', vectorConfig: { gainCompensation: 'none' } });
+    } finally {
+      await page.close();
+    }
+  });
 });

@@ -170,6 +170,20 @@ describe('every reply parses with its contract schema', () => {
     const vectors = Buffer.from([VECTOR_CSV_HEADER, ...Array.from(xs, (x, i) => `${x},${ys[i]},${angles[i]},${magnitudes[i]}`)].join('\n'));
     expectContract(contract.goldenVectorReply, (await engineer.post(`/api/cores/${coreId}/golden-vectors`).field('name', 'sim').attach('file', vectors, 'v.csv').expect(201)).body);
     expectContract(contract.goldenVectorListReply, (await reviewer.get(`/api/cores/${coreId}/golden-vectors`).expect(200)).body);
+
+    // Its explanation: the same reply, `mode: 'vectoring'`; a core built with 8 iterations where 10
+    // were declared gives a vectoring configuration to decide on.
+    expectContract(contract.explanationReply, (await engineer.post(`/api/sessions/${uploaded.body.id}/explanation`).expect(201)).body);
+    createVectorModel({ ...vectorConfig, iterations: 8 }).answerInto(xs, ys, angles, magnitudes);
+    const eight = Buffer.from(packVectorSamples({ xs, ys, angles, magnitudes }));
+    const deviant = (await engineer.post('/api/sessions').field('session', JSON.stringify(session)).attach('samples', eight, 'samples.bin').expect(201)).body.id;
+    const explained = (await engineer.post(`/api/sessions/${deviant}/explanation`).expect(201)).body;
+    expectContract(contract.explanationReply, explained);
+    expect(explained.explanation.mode).toBe('vectoring');
+    expect(explained.applicableConfig).toEqual({ ...vectorConfig, iterations: 8 });
+    expectContract(contract.explanationReply, (await reviewer.get(`/api/sessions/${deviant}/explanation`).expect(200)).body);
+    const decided = (await engineer.post(`/api/sessions/${deviant}/explanation/decision`).send({ decision: 'keep' }).expect(200)).body;
+    expectContract(contract.explanationDecisionReply, decided);
   });
 
   it('people: sign-in, users, invitations, tokens; admin lists; health', async () => {

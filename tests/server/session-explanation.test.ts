@@ -3,6 +3,10 @@ import { AuditEntry, BenchSession, Core, SessionExplanation } from '../../server
 import { explain } from '../../shared/explain';
 import { packColumns } from '../../shared/link-engine/sample-pack';
 import { createCordicModel, parseModelConfig, type ModelConfigInput } from '../../shared/numeric';
+import { createSimVectorCore, parseVectorCoreFault } from '../../mock-device/vector-core';
+import { explainVectors } from '../../shared/explain';
+import { packVectorSamples } from '../../shared/link-engine/vector-sample-pack';
+import { parseVectorConfig, planVectors } from '../../shared/vectoring';
 import { testApp, type Agent, type TestApp } from '../support/test-app';
 
 // The explanation endpoint: the server recomputes the search from the stored samples under the
@@ -158,5 +162,64 @@ describe('POST /api/sessions/:id/explanation/decision', () => {
     await agents.engineer.post(`${url(never.id)}/decision`).send({ decision: 'keep' }).expect(404);
     await core.reload();
     expect(core.modelConfig).toEqual(declared);
+  });
+});
+
+describe('explanations of a vectoring core', () => {
+  const vectorDeclared = parseVectorConfig({ inBits: 12, iterations: 14, gainCompensation: 'multiply' });
+
+  /** The simulated vectoring board's answers to 3,000 random vectors, with `spec` injected. */
+  function vectorAnswers(spec: string) {
+    const { xs, ys } = planVectors({ kind: 'random', seed: 5, count: 3000 }, vectorDeclared);
+    const sim = createSimVectorCore(vectorDeclared, parseVectorCoreFault(spec));
+    const angles = new Int32Array(xs.length);
+    const magnitudes = new Int32Array(xs.length);
+    for (let i = 0; i < xs.length; i++) ({ angle: angles[i], magnitude: magnitudes[i] } = sim.answer(xs[i], ys[i]));
+    return { xs, ys, angles, magnitudes };
+  }
+  async function vectorSession(spec: string) {
+    const own = await Core.create({ name: 'Phase core', slug: `phase-${Date.now()}-${Math.round(Math.random() * 1e6)}`, mode: 'vectoring', linkProfile: {}, modelConfig: null, vectorConfig: vectorDeclared, limits: {}, baselineSessionId: null });
+    const a = vectorAnswers(spec);
+    const session = await storedSession(Buffer.from(packVectorSamples(a)), own);
+    return { own, session, a };
+  }
+
+  it('finds a defect of the simulated board, the same result as the shared search, and offers nothing to apply', async () => {
+    const { session, a } = await vectorSession('atan-entry:3:-1');
+    const res = await agents.engineer.post(url(session.id)).expect(201);
+    const expected = JSON.parse(JSON.stringify(explainVectors(vectorDeclared, { x: a.xs, y: a.ys, angle: a.angles, magnitude: a.magnitudes }))) as unknown;
+    expect(res.body.explanation).toEqual(expected);
+    expect(res.body.explanation).toMatchObject({ mode: 'vectoring', declared: vectorDeclared, answered: 3000, outcome: 'explained' });
+    expect(res.body.explanation.hypotheses[0]).toMatchObject({ label: 'arctangent entry 3 is 1 LSB low', fault: { kind: 'atan-entry', iteration: 3, delta: -1 }, exact: 3000 });
+    expect(res.body.applicableConfig).toBeNull();
+    await agents.engineer.post(`${url(session.id)}/decision`).send({ decision: 'apply' }).expect(409);
+  });
+
+  it('applies a configuration deviation to the core\'s vectoring configuration in one audited step', async () => {
+    const { own, session } = await vectorSession('iterations=13');
+    const res = await agents.engineer.post(url(session.id)).expect(201);
+    const best = res.body.explanation.hypotheses[0];
+    expect(best).toMatchObject({ label: '13 iterations instead of 14', fault: null, exact: 3000, config: { ...vectorDeclared, iterations: 13 } });
+    expect(res.body.applicableConfig).toEqual(best.config);
+    const applied = await agents.engineer.post(`${url(session.id)}/decision`).send({ decision: 'apply' }).expect(200);
+    expect(applied.body.core).toMatchObject({ mode: 'vectoring', modelConfig: null, vectorConfig: best.config });
+    await own.reload();
+    expect(own.vectorConfig).toEqual(best.config);
+    expect(own.modelConfig).toBeNull();
+    const audit = await AuditEntry.findOne({ where: { action: 'update', entity: 'core', entityId: own.id } });
+    expect(audit?.detail).toMatchObject({ vectorConfig: best.config, fromExplanationOfSession: session.id });
+  });
+
+  it('refuses to apply over a vectoring configuration changed since, and broken vectoring samples', async () => {
+    const { own, session } = await vectorSession('gainCompensation=none');
+    const res = await agents.engineer.post(url(session.id)).expect(201);
+    expect(res.body.applicableConfig).toEqual({ ...vectorDeclared, gainCompensation: 'none' });
+    await own.update({ vectorConfig: parseVectorConfig({ ...vectorDeclared, guardBits: 3 }) });
+    const refused = await agents.engineer.post(`${url(session.id)}/decision`).send({ decision: 'apply' }).expect(409);
+    expect(refused.body.error.message).toMatch(/vectoring configuration has changed since/);
+    const broken = await storedSession(Buffer.alloc(20), own);
+    expect((await agents.engineer.post(url(broken.id)).expect(400)).body.error.code).toBe('bad_samples');
+    const empty = await storedSession(Buffer.alloc(0), own);
+    expect((await agents.engineer.post(url(empty.id)).expect(400)).body.error.code).toBe('no_samples');
   });
 });

@@ -264,10 +264,15 @@ describe('sessions of a vectoring core', () => {
     expect(res.body.error).toMatchObject({ code: 'mixed_modes', message: expect.stringMatching(/^ids: session \d+ is of a vectoring core and session \d+ of a rotation core/) });
   });
 
-  it('have no explanation search yet: 422 naming why, nothing saved', async () => {
-    const res = await engineer.post(`/api/sessions/${ids.defective}/explanation`).send({}).expect(422);
-    expect(res.body.error).toMatchObject({ code: 'not_available', message: expect.stringMatching(/not available for vectoring cores yet/) });
-    await reviewer.get(`/api/sessions/${ids.defective}/explanation`).expect(404);
+  it('are explained by the vectoring search: the damaged answers leave no single hypothesis, and the rest is called structured', async () => {
+    const res = await engineer.post(`/api/sessions/${ids.defective}/explanation`).send({}).expect(201);
+    const e = res.body.explanation;
+    const edited = answers(true).edited.length;
+    expect(e).toMatchObject({ mode: 'vectoring', declared: config, answered: 4096, outcome: 'partly-explained', rest: 'structured' });
+    // The declared model reproduces every answer this test left alone, and nothing does better.
+    expect(e.hypotheses[0]).toMatchObject({ label: 'the declared model', fault: null, exact: 4096 - edited });
+    expect(res.body.applicableConfig).toBeNull();
+    expect((await reviewer.get(`/api/sessions/${ids.defective}/explanation`).expect(200)).body.explanation).toEqual(e);
   });
 });
 

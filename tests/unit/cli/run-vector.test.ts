@@ -136,6 +136,18 @@ describe('run against a vectoring board', { timeout: 60_000 }, () => {
     expect(again.score.summary.mismatches.count).toBe(0);
   });
 
+  it('with --explain names the board’s sign slip, in the JSON summary and the printed report', async () => {
+    const r = await run(['--device', slipped.url, ...FAST, '--plan', 'grid:4096', '--core', 'vec-12', '--explain', '--json']);
+    expect(r.err).not.toMatch(/^error/m);
+    const s = JSON.parse(r.out);
+    expect(s.explanation).toMatchObject({ mode: 'vectoring', answered: s.results.answered, outcome: 'explained' });
+    expect(s.explanation.hypotheses[0]).toMatchObject({ label: 'iteration 3 turns the wrong way', fault: { kind: 'sign-slip', iteration: 3 }, exact: s.results.answered });
+    const human = await run(['--device', slipped.url, ...FAST, '--plan', 'grid:1024', '--core', 'vec-12', '--explain']);
+    expect(human.out).toMatch(/^explanation: iteration 3 turns the wrong way — reproduces 1,024 of 1,024 answers exactly\.$/m);
+    // Without --explain the summary has none.
+    expect(JSON.parse((await run(['--device', slipped.url, ...FAST, '--plan', 'grid:1024', '--core', 'vec-12', '--json'])).out).explanation).toBeUndefined();
+  });
+
   it('refuses what it cannot do for a vectoring core, and what the board does not serve', async () => {
     const rot = await run(['--device', rotating.url, ...FAST, '--plan', 'edges', '--core', 'r', '--mode', 'vectoring']);
     expect(rot.status).toBe(2);

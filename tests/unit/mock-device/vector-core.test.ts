@@ -1,7 +1,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { createVectorModel, parseVectorConfig, planVectors, type VectorConfigInput } from '../../../shared/vectoring';
-import { createSimVectorCore, faultyIteration, parseVectorCoreFault } from '../../../mock-device/vector-core';
+import { createSimVectorCore, parseVectorCoreFault } from '../../../mock-device/vector-core';
+import { faultyIteration } from '../../../shared/explain/vector-faulty-model';
 import { parseBoardArgs } from '../../../mock-device/options';
 
 const configArb: fc.Arbitrary<VectorConfigInput> = fc.record({

@@ -11,6 +11,7 @@ import { VectorSessionStats } from '../components/vector-session-stats';
 import { RegressionBadge, VerdictBadge } from '../components/verdict-badges';
 import { VerdictTable } from '../components/verdict-table';
 import { ExplainPanel } from '../explain/explain-panel';
+import { VectorExplainPanel } from '../explain/vector-explain-panel';
 import { CommentsPanel } from './comments-panel';
 import { NotesPanel } from './notes-panel';
 import { SessionActions } from './session-actions';
@@ -39,7 +40,7 @@ export function SessionPage({ id }: { id: number }) {
   }
   const s = query.data;
   const canEdit = me?.role === 'engineer' || me?.role === 'admin';
-  // A vectoring core's session: angle and magnitude figures and plots; no soak, no defect search yet.
+  // A vectoring core's session: angle and magnitude figures and plots, the server's defect search; no soak.
   const vectoring = s.core?.mode === 'vectoring';
   return (
     <div className="grid gap-4">
@@ -79,13 +80,9 @@ export function SessionPage({ id }: { id: number }) {
               The core could not be read, so the plots cannot be scored: {core.error.message}
             </p>
           )}
-          {vectoring ? (
-            <p className={`${panel} text-sm text-ink-soft`}>The defect search covers rotating cores only; this session’s core vectors.</p>
-          ) : (
-            <LocalBoundary what="explanation">
-              <ExplainPanel session={s} core={core.data?.core} canEdit={canEdit} />
-            </LocalBoundary>
-          )}
+          <LocalBoundary what="explanation">
+            {vectoring ? <VectorExplainPanel session={s} core={core.data?.core} canEdit={canEdit} /> : <ExplainPanel session={s} core={core.data?.core} canEdit={canEdit} />}
+          </LocalBoundary>
           <LocalBoundary what="capture">
             <CapturePane sessionId={s.id} hasArchive={!!s.hasArchive} />
           </LocalBoundary>

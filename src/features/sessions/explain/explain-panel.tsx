@@ -7,15 +7,14 @@ import type { HypothesisRef } from '../../../../shared/explain';
 import { traceFaulty } from '../../../../shared/explain';
 import { parseModelConfig, type CordicTrace, type ModelConfig } from '../../../../shared/numeric';
 import { ExplanationSummary } from '../../../components/explanation-summary';
-import { configChanges } from '../../../components/explanation-words';
 import { btn, btnPrimary, input, panel, panelTitle } from '../../../components/ui';
-import { useExplanation, type StoredExplanation } from '../../../lib/resources/explanations';
+import { useExplanation } from '../../../lib/resources/explanations';
 import type { CoreRecord } from '../../../lib/resources/cores';
-import { useDecideExplanation } from '../api/decide-explanation';
 import { fetchBytes } from '../api/fetch-bytes';
 import { useSaveExplanation } from '../api/save-explanation';
 import type { SessionRecord } from '../../../lib/resources/sessions';
 import { DiffChart } from './diff-chart';
+import { SavedExplanation } from './saved-explanation';
 import { runExplain, type ExplainResult } from './run-explain';
 import { TraceTable } from './trace-table';
 
@@ -114,65 +113,6 @@ function Controls({ phase, ready, onStart, onCancel }: { phase: Phase; ready: bo
         <span role="alert" className="text-sm text-fail">
           {phase.message}
         </span>
-      )}
-    </div>
-  );
-}
-
-function SavedExplanation({ saved, core, canEdit, onShow, busy }: { saved: StoredExplanation; core: CoreRecord | undefined; canEdit: boolean; onShow: (best: HypothesisRef) => void; busy: boolean }) {
-  const e = saved.explanation;
-  const best = e.hypotheses[0];
-  return (
-    <div className="grid gap-2 rounded border border-rule p-3" data-testid="saved-explanation">
-      <p className="text-xs text-ink-soft">
-        Saved {new Date(saved.savedAt).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' })}
-        {saved.savedBy ? ` by ${saved.savedBy.name}` : ''}, searched by the server over {count(e.answered)} answers.
-      </p>
-      <ExplanationSummary explanation={e} />
-      {best && e.outcome !== 'matches-model' && (
-        <div>
-          <button type="button" className={btn} disabled={busy || !core} onClick={() => onShow(best)}>
-            Show the differences and a trace
-          </button>
-        </div>
-      )}
-      <Decision saved={saved} core={core} canEdit={canEdit} />
-    </div>
-  );
-}
-
-function Decision({ saved, core, canEdit }: { saved: StoredExplanation; core: CoreRecord | undefined; canEdit: boolean }) {
-  const decide = useDecideExplanation(saved.sessionId, core?.id ?? 0);
-  if (saved.decision) {
-    const who = saved.decision.by ? ` by ${saved.decision.by.name}` : '';
-    return (
-      <p className="text-sm" data-testid="explanation-decision">
-        {saved.decision.choice === 'applied' ? `Applied to the core’s model configuration${who}.` : `The core was kept as declared${who}.`}
-      </p>
-    );
-  }
-  if (!saved.applicableConfig || !core) return null;
-  const changes = configChanges(saved.explanation.declared, saved.applicableConfig);
-  return (
-    <div className="grid gap-2 rounded bg-signal-soft p-2 text-sm">
-      <p>
-        A configuration deviation reproduces every answer: <span className="font-mono">{changes.join(', ')}</span>.{' '}
-        {canEdit ? 'If the RTL is right as built, apply it to the core’s model; if the design intent stands, keep the core as declared and fix the RTL.' : 'An engineer may apply it to the core or keep the core as declared.'}
-      </p>
-      {canEdit && (
-        <div className="flex flex-wrap gap-2">
-          <button type="button" className={btn} disabled={decide.isPending} onClick={() => decide.mutate('apply')}>
-            Apply to the core
-          </button>
-          <button type="button" className={btn} disabled={decide.isPending} onClick={() => decide.mutate('keep')}>
-            Keep the core as declared
-          </button>
-        </div>
-      )}
-      {decide.isError && (
-        <p role="alert" className="text-fail">
-          {decide.error.message}
-        </p>
       )}
     </div>
   );
