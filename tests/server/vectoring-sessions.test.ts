@@ -101,8 +101,10 @@ describe('vectoring cores', () => {
     expect(ok.body.core).toMatchObject({ name: 'Phase detector, 10-bit', mode: 'vectoring', vectorConfig: config });
   });
 
-  it('are refused by rotation-only work with a clear 400: the hosted simulated board', async () => {
-    await expect(simBoardSettings(new URLSearchParams({ core: 'phase-det' }))).rejects.toMatchObject({ status: 400, message: expect.stringMatching(/phase-det is a vectoring core: the simulated board needs a rotation core/) });
+  it('get a vectoring hosted simulated board of their own configuration; asking it to rotate is a clear 400', async () => {
+    const settings = await simBoardSettings(new URLSearchParams({ core: 'phase-det' }));
+    expect(settings.vector?.core).toMatchObject(config);
+    await expect(simBoardSettings(new URLSearchParams({ core: 'phase-det', mode: 'rotation' }))).rejects.toMatchObject({ status: 400, message: expect.stringMatching(/mode/) });
   });
 });
 

@@ -158,9 +158,6 @@ describe('run against a vectoring board', { timeout: 60_000 }, () => {
     const sweep = await run(['--device', vectoring.url, ...FAST, '--plan', 'sweep:0,1,10', '--core', 'v']);
     expect(sweep.status).toBe(2);
     expect(sweep.err).toMatch(/^error: --plan sweep:0,1,10 is a rotating core's plan, and the board serves a vectoring core/m);
-    const explain = await run(['--device', vectoring.url, ...FAST, '--plan', 'edges', '--core', 'v', '--explain']);
-    expect(explain.status).toBe(2);
-    expect(explain.err).toMatch(/^error: --explain is not available for vectoring cores yet/m);
     const rotationLimit = await run(['--device', vectoring.url, ...FAST, '--plan', 'edges', '--core', 'v', '--limits', '{"maxAbsErrorLsb":2}']);
     expect(rotationLimit.status).toBe(2);
     expect(rotationLimit.err).toMatch(/^error: --limits: maxAbsErrorLsb is a limit of rotation cores; a vectoring core's are maxModelMismatches, maxLinkErrors, maxAngleErrorLsb/m);
