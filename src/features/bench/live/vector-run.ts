@@ -3,10 +3,11 @@
 // VEC_GRID segments the board expands itself; every other plan as its (x, y) pairs.
 import type { VectorResultBatch } from '../../../../shared/link-engine/link-engine';
 import { expandVectorRequest, type VectorRunRequest } from '../../../../shared/link-engine/run-request';
+import { vectorPlanRequest } from '../../../../shared/link-engine/vector-plan-request';
 import type { LinkFigures } from '../../../../shared/link-engine/link-figures';
 import type { WireProfile } from '../../../../shared/link/wire-profile';
 import type { DeviceInfo, ModeInfo } from '../../../../shared/link';
-import { bindVectorPlan, parseVectorConfig, planVectors, vectorPlanSchema, type VectorConfig, type VectorPlan } from '../../../../shared/vectoring';
+import { bindVectorPlan, parseVectorConfig, vectorPlanSchema, type VectorConfig, type VectorPlan } from '../../../../shared/vectoring';
 import type { RunContext } from './new-run';
 import { StoredRunError, UNSAVED_RUN_VERSION, type RunOutcome } from './unsaved-run';
 
@@ -32,31 +33,10 @@ export interface VectorRunRecord {
   figures: LinkFigures | null;
 }
 
-/**
- * The VEC_GRID request of a grid or exhaustive plan: the plan's pairs as one grid, y fastest as
- * the plan lists them, so the request and the saved plan agree pair for pair.
- */
-function gridRequest(plan: VectorPlan, config: VectorConfig): VectorRunRequest {
-  const bound = bindVectorPlan(plan, config);
-  const n = Math.round(Math.sqrt(bound.length));
-  const xs = new Int32Array(Math.min(bound.length, n + 1));
-  const ys = new Int32Array(xs.length);
-  for (let i = 0; i < xs.length; i++) bound.pointInto(i, xs, ys, i);
-  return { kind: 'grid', x0: xs[0], y0: ys[0], nx: n, ny: n, dx: n > 1 ? xs[n] - xs[0] : 1, dy: n > 1 ? ys[1] - ys[0] : 1 };
-}
-
 /** @throws PlanError for a plan the input format cannot take, RangeError for one the link cannot carry. */
 export function newVectorRun(plan: VectorPlan, config: VectorConfig, profile: WireProfile, at: RunContext & { modes: ModeInfo | null }): { request: VectorRunRequest; record: VectorRunRecord } {
-  let request: VectorRunRequest;
-  let xs: Int32Array;
-  let ys: Int32Array;
-  if (plan.kind === 'grid' || plan.kind === 'exhaustive') {
-    request = gridRequest(plan, config);
-    ({ xs, ys } = expandVectorRequest(request, profile));
-  } else {
-    ({ xs, ys } = planVectors(plan, config));
-    request = { kind: 'vectors', xs, ys };
-  }
+  const request = vectorPlanRequest(bindVectorPlan(plan, config), config);
+  const { xs, ys } = request.kind === 'grid' ? expandVectorRequest(request, profile) : request;
   const n = xs.length;
   const record: VectorRunRecord = {
     mode: 'vectoring',
