@@ -17,7 +17,8 @@ import { createVectorModel, type VectorConfig, type VectorPlan, type VectorScore
 import type { ConnectionRecording } from './connection-recording';
 import type { RecorderMark } from '../../../../shared/link/recorder';
 import { LiveSamples } from './live-samples';
-import { clearAnswers, newRun, takeResults } from './new-run';
+import { newRun } from './new-run';
+import { clearAnswers, ROTATION_COLUMNS, takeAnswers, VECTOR_COLUMNS } from './run-record';
 import { recordedLink } from './recorded-link';
 import { slotGate } from './frame-slot';
 import { ScoreClient } from './score-client';
@@ -27,7 +28,7 @@ import { TrafficLog } from './traffic-log';
 import { fromStoredRun, restoredProgress, toStoredRun, type RunOutcome, type RunRecord } from './unsaved-run';
 import { unsavedRunStore, type UnsavedRunStore } from './unsaved-run-store';
 import { VectorLiveSamples } from './vector-live-samples';
-import { fromStoredVectorRun, isStoredVectorRun, newVectorRun, takeVectorResults, toStoredVectorRun, type VectorRunRecord } from './vector-run';
+import { fromStoredVectorRun, isStoredVectorRun, newVectorRun, toStoredVectorRun, type VectorRunRecord } from './vector-run';
 import { VectorScoreClient } from './vector-score-client';
 
 export type { RunRecord } from './unsaved-run';
@@ -227,7 +228,7 @@ export class BenchController {
       // On a damaged line, an answer off the model is asked for again before it is taken.
       confirm: confirmOffModel(record.config),
       onResults: (b: ResultBatch) => {
-        takeResults(record, b);
+        takeAnswers(record, ROTATION_COLUMNS, b);
         if (this.scorer instanceof ScoreClient) this.scorer.queue(codes, b.indexes, b.cos, b.sin);
       },
       ...this.progressReporter(engine),
@@ -272,7 +273,7 @@ export class BenchController {
         return m.angle !== angle || m.magnitude !== magnitude;
       },
       onResults: (b) => {
-        takeVectorResults(record, b);
+        takeAnswers(record, VECTOR_COLUMNS, b);
         scorer.queue(record.xs, record.ys, b.indexes, b.angle, b.magnitude);
       },
       onProgress: this.progressReporter(engine).onProgress,
@@ -316,7 +317,7 @@ export class BenchController {
         if (this.pausedByOperator) void handle.pause();
         soak.passStarted(pass);
         if (pass > 1) {
-          clearAnswers(record);
+          clearAnswers(record, ROTATION_COLUMNS);
           this.startScoring(record);
           restart();
           this.setRun({ summary: null, tone: null, progress: null });

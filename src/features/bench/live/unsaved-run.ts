@@ -1,7 +1,7 @@
 // The latest run's results as kept in the browser until they are saved or discarded: plain,
 // structured-clone-safe data. The codes are not kept: the plan and model make them again.
-import type { LinkFigures, RunProgress } from '../../../../shared/link-engine/link-figures';
-import type { DeviceInfo } from '../../../../shared/link';
+import type { RunProgress } from '../../../../shared/link-engine/link-figures';
+import type { RecordBookkeeping, RunContext } from './run-record';
 import { parseModelConfig, planCodes, planSchema, type ModelConfig, type Plan } from '../../../../shared/numeric';
 import { parseSoakRecord, type SoakRecord } from '../../../../shared/soak';
 
@@ -15,23 +15,12 @@ export interface RunOutcome {
 }
 
 /** Every answered result of a run, in request order, with what is needed to save it. */
-export interface RunRecord {
+export interface RunRecord extends RunContext, RecordBookkeeping {
   codes: Float64Array;
   cos: Int32Array;
   sin: Int32Array;
-  /** 1 where the board answered that index. */
-  answered: Uint8Array;
   plan: Plan;
   config: ModelConfig;
-  startedAt: Date;
-  endedAt: Date | null;
-  transportLabel: string | null;
-  baud: number;
-  info: DeviceInfo | null;
-  /** The run's capture: the connection's HELLO → INFO preamble, then the run's own traffic. */
-  archive: Uint8Array | null;
-  outcome: RunOutcome | null;
-  figures: LinkFigures | null;
   /** A soak's books (the answers above are then its last whole pass); null for a single run. */
   soak: SoakRecord | null;
 }

@@ -1,70 +1,32 @@
 // A vectoring run as a plan asks for it: the request the link engine sends, and the record its
 // answers fill in, in request order. Grids (and exhaustive plans, a grid of stride 1) go out as
 // VEC_GRID segments the board expands itself; every other plan as its (x, y) pairs.
-import type { VectorResultBatch } from '../../../../shared/link-engine/link-engine';
 import { expandVectorRequest, type VectorRunRequest } from '../../../../shared/link-engine/run-request';
 import { vectorPlanRequest } from '../../../../shared/link-engine/vector-plan-request';
-import type { LinkFigures } from '../../../../shared/link-engine/link-figures';
 import type { WireProfile } from '../../../../shared/link/wire-profile';
-import type { DeviceInfo, ModeInfo } from '../../../../shared/link';
+import type { ModeInfo } from '../../../../shared/link';
 import { bindVectorPlan, parseVectorConfig, vectorPlanSchema, type VectorConfig, type VectorPlan } from '../../../../shared/vectoring';
-import type { RunContext } from './new-run';
-import { StoredRunError, UNSAVED_RUN_VERSION, type RunOutcome } from './unsaved-run';
+import { openRecord, VECTOR_COLUMNS, type RecordBookkeeping, type RunContext } from './run-record';
+import { StoredRunError, UNSAVED_RUN_VERSION } from './unsaved-run';
 
 /** Every answered pair of a vectoring run, in request order, with what is needed to save it. */
-export interface VectorRunRecord {
+export interface VectorRunRecord extends RunContext, RecordBookkeeping {
   mode: 'vectoring';
   xs: Int32Array;
   ys: Int32Array;
   angle: Int32Array;
   magnitude: Int32Array;
-  /** 1 where the board answered that index. */
-  answered: Uint8Array;
   plan: VectorPlan;
   config: VectorConfig;
-  startedAt: Date;
-  endedAt: Date | null;
-  transportLabel: string | null;
-  baud: number;
-  info: DeviceInfo | null;
   modes: ModeInfo | null;
-  archive: Uint8Array | null;
-  outcome: RunOutcome | null;
-  figures: LinkFigures | null;
 }
 
 /** @throws PlanError for a plan the input format cannot take, RangeError for one the link cannot carry. */
 export function newVectorRun(plan: VectorPlan, config: VectorConfig, profile: WireProfile, at: RunContext & { modes: ModeInfo | null }): { request: VectorRunRequest; record: VectorRunRecord } {
   const request = vectorPlanRequest(bindVectorPlan(plan, config), config);
   const { xs, ys } = request.kind === 'grid' ? expandVectorRequest(request, profile) : request;
-  const n = xs.length;
-  const record: VectorRunRecord = {
-    mode: 'vectoring',
-    xs,
-    ys,
-    angle: new Int32Array(n),
-    magnitude: new Int32Array(n),
-    answered: new Uint8Array(n),
-    plan,
-    config,
-    startedAt: new Date(),
-    endedAt: null,
-    ...at,
-    archive: null,
-    outcome: null,
-    figures: null,
-  };
+  const record: VectorRunRecord = openRecord(VECTOR_COLUMNS, xs.length, { mode: 'vectoring' as const, xs, ys, plan, config, ...at });
   return { request, record };
-}
-
-/** One batch of answers into the record. */
-export function takeVectorResults(record: VectorRunRecord, b: VectorResultBatch) {
-  for (let k = 0; k < b.indexes.length; k++) {
-    const i = b.indexes[k];
-    record.angle[i] = b.angle[k];
-    record.magnitude[i] = b.magnitude[k];
-    record.answered[i] = 1;
-  }
 }
 
 /** A vectoring record as IndexedDB keeps it (its inputs too: a grid's order is the board's). */
