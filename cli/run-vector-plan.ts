@@ -3,7 +3,7 @@
 import type { VectorRunRequest } from '../shared/link-engine/run-request';
 import { vectorPlanRequest } from '../shared/link-engine/vector-plan-request';
 import { bindVectorPlan, inputRange, PlanError, type BoundVectorPlan, type VectorConfig } from '../shared/vectoring';
-import { parseInteger, UsageError } from './run-options';
+import { parseInteger, parsePlanArg, UsageError, type PlanArgs } from './run-options';
 
 /** The plan as typed for a vectoring core. */
 export type VectorPlanSpec =
@@ -16,37 +16,19 @@ export type VectorPlanSpec =
 
 export const VECTOR_PLAN_SPELLINGS = 'exhaustive, grid:TARGET, circle:RADIUS,POINTS, random:COUNT,SEED, edges or file:PATH';
 
-function ints(text: string, n: number, name: string, names: string): number[] {
-  const parts = text.split(',');
-  if (parts.length !== n) throw new UsageError(`--plan ${name} needs ${names}, got "${text}"`);
-  return parts.map((p) => parseInteger(p, `--plan ${name}`));
-}
+/** The plans of a vectoring core, as --plan spells them. */
+const VECTOR_PLANS: Record<VectorPlanSpec['kind'], PlanArgs> = {
+  exhaustive: 'none',
+  edges: 'none',
+  grid: { fields: ['target'], spelled: 'TARGET (about how many vectors)' },
+  circle: { fields: ['radius', 'points'], spelled: 'RADIUS,POINTS' },
+  random: { fields: ['count', 'seed'], spelled: 'COUNT,SEED' },
+  file: 'path',
+};
 
 /** Parse --plan for a vectoring core; ranges are checked once the input format is known. */
 export function parseVectorPlanSpec(text: string): VectorPlanSpec {
-  const [name, ...rest] = text.split(':');
-  const arg = rest.join(':');
-  switch (name) {
-    case 'exhaustive':
-    case 'edges':
-      if (arg !== '') throw new UsageError(`--plan ${name} takes no arguments`);
-      return { kind: name };
-    case 'grid':
-      return { kind: 'grid', target: ints(arg, 1, 'grid', 'TARGET (about how many vectors)')[0] };
-    case 'circle': {
-      const [radius, points] = ints(arg, 2, 'circle', 'RADIUS,POINTS');
-      return { kind: 'circle', radius, points };
-    }
-    case 'random': {
-      const [count, seed] = ints(arg, 2, 'random', 'COUNT,SEED');
-      return { kind: 'random', count, seed };
-    }
-    case 'file':
-      if (arg === '') throw new UsageError('--plan file needs a path: file:PATH');
-      return { kind: 'file', path: arg };
-    default:
-      throw new UsageError(`--plan for a vectoring core must be ${VECTOR_PLAN_SPELLINGS}, got "${text}"`);
-  }
+  return parsePlanArg(text, VECTOR_PLANS, `--plan for a vectoring core must be ${VECTOR_PLAN_SPELLINGS}`) as VectorPlanSpec;
 }
 
 /** Vectors from a file: one "x,y" a line, decimal or 0x hex; # starts a comment. */
