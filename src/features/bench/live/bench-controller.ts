@@ -5,7 +5,7 @@
 // does not lose it. A soak repeats the plan through the shared soak loop (shared/soak/soak-run.ts):
 // the charts and figures follow the pass under way, the soak's books reach the page at most once a
 // frame, and what is kept for saving is the last whole pass with the books.
-import type { LinkEngine, ResultBatch, RunControls } from '../../../../shared/link-engine/link-engine';
+import type { LinkEngine, ResultBatch, RunControls, RunHandle, VectorRunHandle } from '../../../../shared/link-engine/link-engine';
 import type { RunRequest } from '../../../../shared/link-engine/run-request';
 import type { ByteLink, LinkCloseReason } from '../../../../shared/link-engine/byte-link';
 import type { RunProgress, LinkFigures } from '../../../../shared/link-engine/link-figures';
@@ -207,18 +207,7 @@ export class BenchController {
     if (soak) return this.runSoak(engine, request, record, soak);
     const handle = engine.run(request, this.passHandlers(engine, record));
     this.handle = handle;
-    handle.done.then(
-      (res) => {
-        record.outcome = { status: res.status, message: res.message, elapsedMs: res.elapsedMs, missing: res.missing.length };
-        record.figures = res.figures;
-        this.endRun(record, scorer);
-        this.setRun({ state: 'finished', progress: handle.progress(), figures: res.figures, result: record.outcome });
-      },
-      (err: Error) => {
-        this.endRun(record, scorer);
-        this.setRun({ state: 'finished', error: err.message });
-      },
-    );
+    this.settle(handle, record, scorer);
   }
 
   /** What every run or pass does with its answers and progress: into the record, the scorer and the page. */
@@ -279,18 +268,7 @@ export class BenchController {
       onProgress: this.progressReporter(engine).onProgress,
     });
     this.handle = handle;
-    handle.done.then(
-      (res) => {
-        record.outcome = { status: res.status, message: res.message, elapsedMs: res.elapsedMs, missing: res.missing.length };
-        record.figures = res.figures;
-        this.endRun(record, scorer);
-        this.setRun({ state: 'finished', progress: handle.progress(), figures: res.figures, result: record.outcome });
-      },
-      (err: Error) => {
-        this.endRun(record, scorer);
-        this.setRun({ state: 'finished', error: err.message });
-      },
-    );
+    this.settle(handle, record, scorer);
   }
 
   /**
@@ -490,6 +468,22 @@ export class BenchController {
     });
     this.scorer = scorer;
     return scorer;
+  }
+
+  /** A single run's end, either way: its outcome into the record, then endRun and the finished state. */
+  private settle(handle: RunHandle | VectorRunHandle, record: RunRecord | VectorRunRecord, scorer: ScoreClient | VectorScoreClient) {
+    handle.done.then(
+      (res) => {
+        record.outcome = { status: res.status, message: res.message, elapsedMs: res.elapsedMs, missing: res.missing.length };
+        record.figures = res.figures;
+        this.endRun(record, scorer);
+        this.setRun({ state: 'finished', progress: handle.progress(), figures: res.figures, result: record.outcome });
+      },
+      (err: Error) => {
+        this.endRun(record, scorer);
+        this.setRun({ state: 'finished', error: err.message });
+      },
+    );
   }
 
   /** The run is over: score what is left, keep the capture and put the run away until saved. */
