@@ -3,7 +3,7 @@
 // happened. newRun and newVectorRun open their records here; the controller fills them here.
 import type { LinkFigures } from '../../../../shared/link-engine/link-figures';
 import type { DeviceInfo } from '../../../../shared/link';
-import type { RunOutcome } from './unsaved-run';
+import { StoredRunError, type RunOutcome } from './unsaved-run';
 
 /** Where the run happens, as the record keeps it. */
 export interface RunContext {
@@ -51,4 +51,22 @@ export function takeAnswers<C extends string>(record: Answers<C>, columns: reado
 export function clearAnswers<C extends string>(record: Answers<C>, columns: readonly C[]) {
   for (const c of columns) record[c].fill(0);
   record.answered.fill(0);
+}
+
+/** A stored record's context and bookkeeping as IndexedDB kept them: dates as ISO text, any of them perhaps absent. */
+type StoredBookkeeping = Partial<RunContext & Omit<RecordBookkeeping, 'answered' | 'startedAt' | 'endedAt'> & { startedAt: string; endedAt: string | null }>;
+
+/** The context and bookkeeping of a stored record back as a record keeps them. @throws StoredRunError for a capture that is not bytes */
+export function restoredBookkeeping(s: StoredBookkeeping): RunContext & Omit<RecordBookkeeping, 'answered'> {
+  if (s.archive != null && !(s.archive instanceof Uint8Array)) throw new StoredRunError('its capture is not bytes');
+  return {
+    startedAt: new Date(s.startedAt ?? 0),
+    endedAt: s.endedAt ? new Date(s.endedAt) : null,
+    transportLabel: s.transportLabel ?? null,
+    baud: s.baud ?? 0,
+    info: s.info ?? null,
+    archive: s.archive ?? null,
+    outcome: s.outcome ?? null,
+    figures: s.figures ?? null,
+  };
 }

@@ -6,7 +6,7 @@ import { vectorPlanRequest } from '../../../../shared/link-engine/vector-plan-re
 import type { WireProfile } from '../../../../shared/link/wire-profile';
 import type { ModeInfo } from '../../../../shared/link';
 import { bindVectorPlan, parseVectorConfig, vectorPlanSchema, type VectorConfig, type VectorPlan } from '../../../../shared/vectoring';
-import { openRecord, VECTOR_COLUMNS, type RecordBookkeeping, type RunContext } from './run-record';
+import { openRecord, restoredBookkeeping, VECTOR_COLUMNS, type RecordBookkeeping, type RunContext } from './run-record';
 import { StoredRunError, UNSAVED_RUN_VERSION } from './unsaved-run';
 
 /** Every answered pair of a vectoring run, in request order, with what is needed to save it. */
@@ -60,7 +60,7 @@ export function fromStoredVectorRun(raw: unknown): VectorRunRecord {
   if (!cols.every((c) => c instanceof Int32Array) || !(s.answered instanceof Uint8Array)) throw new StoredRunError('its results are not typed arrays');
   const n = s.answered.length;
   if (cols.some((c) => c!.length !== n)) throw new StoredRunError('its inputs and answers differ in length');
-  if (s.archive != null && !(s.archive instanceof Uint8Array)) throw new StoredRunError('its capture is not bytes');
+  const kept = restoredBookkeeping(s);
   return {
     mode: 'vectoring',
     xs: s.xs!,
@@ -70,14 +70,7 @@ export function fromStoredVectorRun(raw: unknown): VectorRunRecord {
     answered: s.answered,
     plan: plan.data,
     config,
-    startedAt: new Date(s.startedAt ?? 0),
-    endedAt: s.endedAt ? new Date(s.endedAt) : null,
-    transportLabel: s.transportLabel ?? null,
-    baud: s.baud ?? 0,
-    info: s.info ?? null,
+    ...kept,
     modes: s.modes ?? null,
-    archive: s.archive ?? null,
-    outcome: s.outcome ?? null,
-    figures: s.figures ?? null,
   };
 }
