@@ -103,39 +103,44 @@ export function parseInteger(text: string, where: string): number {
   return t.startsWith('-') ? -v : v;
 }
 
-function ints(text: string, n: number, where: string, names: string): number[] {
-  const parts = text.split(',');
-  if (parts.length !== n) throw new UsageError(`--plan ${where} needs ${names}, got "${text}"`);
-  return parts.map((p) => parseInteger(p, `--plan ${where}`));
+/**
+ * How one plan of a `--plan NAME[:ARGS]` table reads: 'none' without arguments, 'path' as
+ * NAME:PATH, or whole numbers, comma-separated, into these fields (`spelled` as messages name them).
+ */
+export type PlanArgs = 'none' | 'path' | { fields: readonly string[]; spelled: string };
+
+/** Reads `--plan NAME[:ARGS]` by a table of plans; `others` names them for a NAME not in it. Ranges are checked later. */
+export function parsePlanArg(text: string, plans: Readonly<Record<string, PlanArgs>>, others: string): { kind: string } & Record<string, number | string> {
+  const [name, ...rest] = text.split(':');
+  const arg = rest.join(':');
+  const shape = Object.hasOwn(plans, name) ? plans[name] : undefined;
+  if (shape === undefined) throw new UsageError(`${others}, got "${text}"`);
+  if (shape === 'path') {
+    if (arg === '') throw new UsageError(`--plan ${name} needs a path: ${name}:PATH`);
+    return { kind: name, path: arg };
+  }
+  if (shape === 'none') {
+    if (arg !== '') throw new UsageError(`--plan ${name} takes no arguments`);
+    return { kind: name };
+  }
+  const parts = arg.split(',');
+  if (parts.length !== shape.fields.length) throw new UsageError(`--plan ${name} needs ${shape.spelled}, got "${arg}"`);
+  return { kind: name, ...Object.fromEntries(shape.fields.map((f, i) => [f, parseInteger(parts[i], `--plan ${name}`)])) };
 }
+
+/** The plans of a rotating core, as --plan spells them. */
+const ROTATION_PLANS: Record<PlanSpec['kind'], PlanArgs> = {
+  exhaustive: 'none',
+  edges: 'none',
+  sweep: { fields: ['start', 'step', 'count'], spelled: 'START,STEP,COUNT' },
+  random: { fields: ['count', 'seed'], spelled: 'COUNT,SEED' },
+  tone: { fields: ['cycles', 'samples'], spelled: 'M,N (M cycles in N samples)' },
+  file: 'path',
+};
 
 /** Parse a --plan value; ranges are checked later, against the core's format. */
 export function parsePlanSpec(text: string): PlanSpec {
-  const [name, ...rest] = text.split(':');
-  const arg = rest.join(':');
-  switch (name) {
-    case 'exhaustive':
-    case 'edges':
-      if (arg !== '') throw new UsageError(`--plan ${name} takes no arguments`);
-      return { kind: name };
-    case 'sweep': {
-      const [start, step, count] = ints(arg, 3, 'sweep', 'START,STEP,COUNT');
-      return { kind: 'sweep', start, step, count };
-    }
-    case 'random': {
-      const [count, seed] = ints(arg, 2, 'random', 'COUNT,SEED');
-      return { kind: 'random', count, seed };
-    }
-    case 'tone': {
-      const [cycles, samples] = ints(arg, 2, 'tone', 'M,N (M cycles in N samples)');
-      return { kind: 'tone', cycles, samples };
-    }
-    case 'file':
-      if (arg === '') throw new UsageError('--plan file needs a path: file:PATH');
-      return { kind: 'file', path: arg };
-    default:
-      throw new UsageError(`--plan must be exhaustive, sweep:START,STEP,COUNT, random:COUNT,SEED, edges, tone:M,N or file:PATH, got "${text}"`);
-  }
+  return parsePlanArg(text, ROTATION_PLANS, '--plan must be exhaustive, sweep:START,STEP,COUNT, random:COUNT,SEED, edges, tone:M,N or file:PATH') as PlanSpec;
 }
 
 function json(text: string, option: string): unknown {

@@ -1,10 +1,11 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { bindPlan, parseModelConfig, PlanError } from '../../../../shared/numeric';
+import { bindPlan, parseModelConfig } from '../../../../shared/numeric';
 import type { BenchController, BenchSnapshot, RunMode } from '../live/bench-controller';
 import { ANGLE_UNITS, defaultPlanForm, PLAN_KINDS, planFieldOf, planFormSchema, PlanFieldError, planFromForm, soakFromForm, type PlanForm } from './plan-from-form';
-import { fieldError, input, label, panel, panelTitle } from '../../../components/ui';
+import { input, label, panel, panelTitle } from '../../../components/ui';
+import { CodeField, OptionSelect, ProblemAlert, ProfileEditor, usePlanProblem } from './plan-form-parts';
 import { RunButtons } from './run-buttons';
 import { VectorRunForm } from './vector-run-form';
 
@@ -51,7 +52,7 @@ function RotationRunForm({ controller, snap }: { controller: BenchController; sn
   const info = snap.info;
   const [profileText, setProfileText] = useState<string | null>(null);
   const profile = profileText ?? (info ? profileFromInfo(info) : '');
-  const [problem, setProblem] = useState<{ field: keyof PlanForm | 'profile' | null; message: string } | null>(null);
+  const { problem, setProblem, err, readProfile, planFailed } = usePlanProblem<keyof PlanForm>();
   const { register, handleSubmit, watch } = useForm<PlanForm>({ resolver: zodResolver(planFormSchema), defaultValues: defaultPlanForm });
   const kind = watch('kind');
   const run = snap.run;
@@ -60,108 +61,37 @@ function RotationRunForm({ controller, snap }: { controller: BenchController; sn
 
   const start = (v: PlanForm) => {
     setProblem(null);
-    let config;
-    try {
-      config = parseModelConfig(JSON.parse(profile));
-    } catch (e) {
-      return setProblem({ field: 'profile', message: `Core profile: ${(e as Error).message}` });
-    }
+    const config = readProfile(profile, parseModelConfig);
+    if (!config) return;
     try {
       const plan = planFromForm(v, config);
       bindPlan(plan, config);
       controller.startRun(plan, config, soakFromForm(v.soak));
     } catch (e) {
-      if (e instanceof PlanFieldError) setProblem({ field: e.field, message: e.message });
-      else if (e instanceof PlanError) {
-        // Shown by the field it is about, without the plan's own key in front.
-        const field = planFieldOf(e.key);
-        setProblem({ field, message: field ? e.message.slice(e.key.length + 2) : e.message });
-      }
-      else setProblem({ field: null, message: (e as Error).message });
+      planFailed(e, PlanFieldError, planFieldOf);
     }
   };
-  const err = (f: keyof PlanForm | 'profile') => problem?.field === f && <span className={fieldError}>{problem.message}</span>;
   const usesUnit = kind === 'one' || kind === 'list' || kind === 'sweep';
 
   return (
     <form noValidate onSubmit={handleSubmit(start)} className="grid gap-3">
       <fieldset disabled={!connected || active} className="grid grid-cols-2 gap-2">
-        <label className={`${label} col-span-2`}>
-          What to ask
-          <select className={input} {...register('kind')}>
-            {PLAN_KINDS.map(([k, text]) => (
-              <option key={k} value={k}>
-                {text}
-              </option>
-            ))}
-          </select>
-        </label>
-        {usesUnit && (
-          <label className={`${label} col-span-2`}>
-            Angles in
-            <select className={input} {...register('unit')}>
-              {ANGLE_UNITS.map(([u, text]) => (
-                <option key={u} value={u}>
-                  {text}
-                </option>
-              ))}
-            </select>
-          </label>
-        )}
-        {kind === 'one' && (
-          <label className={`${label} col-span-2`}>
-            Angle
-            <input className={`${input} font-mono`} {...register('angle')} />
-            {err('angle')}
-          </label>
-        )}
-        {kind === 'list' && (
-          <label className={`${label} col-span-2`}>
-            Angles (commas, spaces or lines between)
-            <textarea rows={3} className={`${input} font-mono`} {...register('list')} />
-            {err('list')}
-          </label>
-        )}
+        <OptionSelect caption="What to ask" options={PLAN_KINDS} reg={register('kind')} />
+        {usesUnit && <OptionSelect caption="Angles in" options={ANGLE_UNITS} reg={register('unit')} />}
+        {kind === 'one' && <CodeField wide caption="Angle" reg={register('angle')} error={err('angle')} />}
+        {kind === 'list' && <CodeField wide rows={3} caption="Angles (commas, spaces or lines between)" reg={register('list')} error={err('list')} />}
         {kind === 'sweep' && (
           <>
-            <label className={label}>
-              Start
-              <input className={`${input} font-mono`} {...register('start')} />
-              {err('start')}
-            </label>
-            <label className={label}>
-              Step, codes
-              <input className={`${input} font-mono`} {...register('step')} />
-              {err('step')}
-            </label>
+            <CodeField caption="Start" reg={register('start')} error={err('start')} />
+            <CodeField caption="Step, codes" reg={register('step')} error={err('step')} />
           </>
         )}
-        {(kind === 'sweep' || kind === 'random') && (
-          <label className={label}>
-            Count
-            <input className={`${input} font-mono`} {...register('count')} />
-            {err('count')}
-          </label>
-        )}
-        {kind === 'random' && (
-          <label className={label}>
-            Seed
-            <input className={`${input} font-mono`} {...register('seed')} />
-            {err('seed')}
-          </label>
-        )}
+        {(kind === 'sweep' || kind === 'random') && <CodeField caption="Count" reg={register('count')} error={err('count')} />}
+        {kind === 'random' && <CodeField caption="Seed" reg={register('seed')} error={err('seed')} />}
         {kind === 'tone' && (
           <>
-            <label className={label}>
-              Cycles
-              <input className={`${input} font-mono`} {...register('cycles')} />
-              {err('cycles')}
-            </label>
-            <label className={label}>
-              Samples (power of 2)
-              <input className={`${input} font-mono`} {...register('samples')} />
-              {err('samples')}
-            </label>
+            <CodeField caption="Cycles" reg={register('cycles')} error={err('cycles')} />
+            <CodeField caption="Samples (power of 2)" reg={register('samples')} error={err('samples')} />
           </>
         )}
         <label className={`${label} col-span-2`}>
@@ -172,17 +102,10 @@ function RotationRunForm({ controller, snap }: { controller: BenchController; sn
           </span>
           {err('soak')}
         </label>
-        <details className="col-span-2 text-sm">
-          <summary className="cursor-pointer text-ink-soft">Core profile to score against</summary>
-          <textarea aria-label="Core profile (JSON)" rows={5} className={`${input} mt-1 font-mono text-xs`} value={profile} onChange={(e) => setProfileText(e.target.value)} />
-        </details>
+        <ProfileEditor summary="Core profile to score against" name="Core profile (JSON)" rows={5} value={profile} onChange={setProfileText} />
         {err('profile')}
       </fieldset>
-      {problem && problem.field === null && (
-        <p role="alert" className="text-sm text-fail">
-          {problem.message}
-        </p>
-      )}
+      <ProblemAlert problem={problem} />
       <RunButtons controller={controller} snap={snap} />
     </form>
   );

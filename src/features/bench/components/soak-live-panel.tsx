@@ -3,6 +3,7 @@
 import { useMemo } from 'react';
 import { SignalCharts, type ChartFeed } from '../../../components/charts/signal-charts';
 import { panel, panelTitle } from '../../../components/ui';
+import { UnstableCodesTable } from '../../../components/unstable-codes-table';
 import { describeSoak } from '../../../../shared/soak';
 import type { BenchController, BenchSnapshot } from '../live/bench-controller';
 
@@ -76,27 +77,7 @@ export function SoakLivePanel({ controller, run }: { controller: BenchController
         <SignalCharts charts={[soak.spec.kind === 'passes' ? 'soakByPass' : 'soakByTime']} feed={feed} heightPx={180} className="grid" />
         {soak.unstable.first.length > 0 && (
           <div className="overflow-x-auto">
-            <table className="w-full text-left text-sm" aria-label="Unstable codes so far">
-              <thead>
-                <tr className="text-ink-soft">
-                  <th className="pr-4 font-normal">Code</th>
-                  <th className="pr-4 font-normal">First differed</th>
-                  <th className="font-normal">Answers (cos, sin) × times</th>
-                </tr>
-              </thead>
-              <tbody>
-                {soak.unstable.first.map((u) => (
-                  <tr key={u.index}>
-                    <td className="pr-4 font-mono">{u.code}</td>
-                    <td className="pr-4">pass {u.firstPass}</td>
-                    <td className="font-mono">
-                      {u.answers.map((a) => `(${a.cos}, ${a.sin})×${a.count}`).join('  ')}
-                      {u.otherAnswers ? ` +${u.otherAnswers} more` : ''}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            <UnstableCodesTable codes={soak.unstable.first} label="Unstable codes so far" className="w-full" />
             {soak.unstable.count > soak.unstable.first.length && (
               <p className="text-xs text-ink-soft">
                 The first {soak.unstable.first.length} of {n(soak.unstable.count)}; the saved session keeps them with every answer.

@@ -3,11 +3,12 @@ import { useState } from 'react';
 import { useCores } from '../../../lib/resources/cores';
 import { useForm } from 'react-hook-form';
 import type { VectoringFormats } from '../../../../shared/link';
-import { bindVectorPlan, inputRange, parseVectorConfig, PlanError, type VectorConfig } from '../../../../shared/vectoring';
+import { bindVectorPlan, inputRange, parseVectorConfig, type VectorConfig } from '../../../../shared/vectoring';
 import type { BenchController, BenchSnapshot } from '../live/bench-controller';
 import { RunButtons } from './run-buttons';
 import { defaultVectorPlanForm, VECTOR_PLAN_KINDS, vectorPlanFieldOf, vectorPlanFormSchema, VectorPlanFieldError, vectorPlanFromForm, type VectorPlanForm } from './vector-plan-from-form';
-import { fieldError, input, label } from '../../../components/ui';
+import { input, label } from '../../../components/ui';
+import { CodeField, OptionSelect, ProblemAlert, ProfileEditor, usePlanProblem } from './plan-form-parts';
 
 /** The vectoring profile to score against, prefilled from MODE_INFO; what it does not carry keeps the model's defaults. */
 export const vectorProfileFromFormats = (f: VectoringFormats) =>
@@ -33,7 +34,7 @@ export function VectorRunForm({ controller, snap, formats }: { controller: Bench
   const chosenSource = source ?? (fitting[0] ? String(fitting[0].id) : 'board');
   const sourceCore = vectorCores.find((c) => String(c.id) === chosenSource);
   const profile = profileText ?? (sourceCore ? JSON.stringify(sourceCore.vectorConfig, null, 1) : vectorProfileFromFormats(formats));
-  const [problem, setProblem] = useState<{ field: keyof VectorPlanForm | 'profile' | null; message: string } | null>(null);
+  const { problem, setProblem, err, readProfile, planFailed } = usePlanProblem<keyof VectorPlanForm>();
   // A circle of half the full scale by default: well inside the square, clear of the origin.
   const half = Math.floor(inputRange(formats).max / 2);
   const { register, handleSubmit, watch } = useForm<VectorPlanForm>({ resolver: zodResolver(vectorPlanFormSchema), defaultValues: { ...defaultVectorPlanForm, radius: String(half), pairs: `${half} 0\n0 ${half}\n${-half} ${-half}` } });
@@ -42,86 +43,40 @@ export function VectorRunForm({ controller, snap, formats }: { controller: Bench
 
   const start = (v: VectorPlanForm) => {
     setProblem(null);
-    let config;
-    try {
-      config = parseVectorConfig(JSON.parse(profile));
-    } catch (e) {
-      return setProblem({ field: 'profile', message: `Core profile: ${(e as Error).message}` });
-    }
+    const config = readProfile(profile, parseVectorConfig);
+    if (!config) return;
     if (config.inBits !== formats.inBits) return setProblem({ field: 'profile', message: `Core profile: inBits is ${config.inBits}, but the board takes ${formats.inBits}-bit inputs` });
     try {
       const plan = vectorPlanFromForm(v, config);
       bindVectorPlan(plan, config);
       controller.startVectorRun(plan, config);
     } catch (e) {
-      if (e instanceof VectorPlanFieldError) setProblem({ field: e.field, message: e.message });
-      else if (e instanceof PlanError) {
-        const field = vectorPlanFieldOf(e.key, v.kind);
-        setProblem({ field, message: field ? e.message.slice(e.key.length + 2) : e.message });
-      } else setProblem({ field: null, message: (e as Error).message });
+      planFailed(e, VectorPlanFieldError, (key) => vectorPlanFieldOf(key, v.kind));
     }
   };
-  const err = (f: keyof VectorPlanForm | 'profile') => problem?.field === f && <span className={fieldError}>{problem.message}</span>;
   const { min, max } = inputRange(formats);
 
   return (
     <form noValidate onSubmit={handleSubmit(start)} className="grid gap-3" aria-label="Vectoring plan">
       <fieldset disabled={snap.status !== 'connected' || active} className="grid grid-cols-2 gap-2">
-        <label className={`${label} col-span-2`}>
-          Pairs to ask
-          <select className={input} {...register('kind')}>
-            {VECTOR_PLAN_KINDS.map(([k, text]) => (
-              <option key={k} value={k}>
-                {text}
-              </option>
-            ))}
-          </select>
-        </label>
+        <OptionSelect caption="Pairs to ask" options={VECTOR_PLAN_KINDS} reg={register('kind')} />
         <p className="col-span-2 text-xs text-ink-soft">
           x and y are input codes, {min.toLocaleString('en-US')} to {max.toLocaleString('en-US')} ({formats.inBits} bits, {formats.inFrac} of them fraction).
         </p>
-        {kind === 'grid' && (
-          <label className={`${label} col-span-2`}>
-            Pairs, at most (a square grid)
-            <input className={`${input} font-mono`} {...register('target')} />
-            {err('target')}
-          </label>
-        )}
+        {kind === 'grid' && <CodeField wide caption="Pairs, at most (a square grid)" reg={register('target')} error={err('target')} />}
         {kind === 'circle' && (
           <>
-            <label className={label}>
-              Radius, codes
-              <input className={`${input} font-mono`} {...register('radius')} />
-              {err('radius')}
-            </label>
-            <label className={label}>
-              Points
-              <input className={`${input} font-mono`} {...register('points')} />
-              {err('points')}
-            </label>
+            <CodeField caption="Radius, codes" reg={register('radius')} error={err('radius')} />
+            <CodeField caption="Points" reg={register('points')} error={err('points')} />
           </>
         )}
         {kind === 'random' && (
           <>
-            <label className={label}>
-              Count
-              <input className={`${input} font-mono`} {...register('count')} />
-              {err('count')}
-            </label>
-            <label className={label}>
-              Seed
-              <input className={`${input} font-mono`} {...register('seed')} />
-              {err('seed')}
-            </label>
+            <CodeField caption="Count" reg={register('count')} error={err('count')} />
+            <CodeField caption="Seed" reg={register('seed')} error={err('seed')} />
           </>
         )}
-        {kind === 'list' && (
-          <label className={`${label} col-span-2`}>
-            Pairs, one per line: x y
-            <textarea rows={4} className={`${input} font-mono`} {...register('pairs')} />
-            {err('pairs')}
-          </label>
-        )}
+        {kind === 'list' && <CodeField wide rows={4} caption="Pairs, one per line: x y" reg={register('pairs')} error={err('pairs')} />}
         <label className={`${label} col-span-2`}>
           Score against
           <select
@@ -140,17 +95,10 @@ export function VectorRunForm({ controller, snap, formats }: { controller: Bench
             ))}
           </select>
         </label>
-        <details className="col-span-2 text-sm">
-          <summary className="cursor-pointer text-ink-soft">Vectoring profile to score against</summary>
-          <textarea aria-label="Vectoring profile (JSON)" rows={6} className={`${input} mt-1 font-mono text-xs`} value={profile} onChange={(e) => setProfileText(e.target.value)} />
-        </details>
+        <ProfileEditor summary="Vectoring profile to score against" name="Vectoring profile (JSON)" rows={6} value={profile} onChange={setProfileText} />
         {err('profile')}
       </fieldset>
-      {problem && problem.field === null && (
-        <p role="alert" className="text-sm text-fail">
-          {problem.message}
-        </p>
-      )}
+      <ProblemAlert problem={problem} />
       <RunButtons controller={controller} snap={snap} />
     </form>
   );

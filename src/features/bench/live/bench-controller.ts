@@ -5,7 +5,7 @@
 // does not lose it. A soak repeats the plan through the shared soak loop (shared/soak/soak-run.ts):
 // the charts and figures follow the pass under way, the soak's books reach the page at most once a
 // frame, and what is kept for saving is the last whole pass with the books.
-import type { LinkEngine, ResultBatch, RunControls } from '../../../../shared/link-engine/link-engine';
+import type { LinkEngine, ResultBatch, RunControls, RunHandle, VectorRunHandle } from '../../../../shared/link-engine/link-engine';
 import type { RunRequest } from '../../../../shared/link-engine/run-request';
 import type { ByteLink, LinkCloseReason } from '../../../../shared/link-engine/byte-link';
 import type { RunProgress, LinkFigures } from '../../../../shared/link-engine/link-figures';
@@ -17,7 +17,8 @@ import { createVectorModel, type VectorConfig, type VectorPlan, type VectorScore
 import type { ConnectionRecording } from './connection-recording';
 import type { RecorderMark } from '../../../../shared/link/recorder';
 import { LiveSamples } from './live-samples';
-import { clearAnswers, newRun, takeResults } from './new-run';
+import { newRun } from './new-run';
+import { clearAnswers, ROTATION_COLUMNS, takeAnswers, VECTOR_COLUMNS } from './run-record';
 import { recordedLink } from './recorded-link';
 import { slotGate } from './frame-slot';
 import { ScoreClient } from './score-client';
@@ -27,7 +28,7 @@ import { TrafficLog } from './traffic-log';
 import { fromStoredRun, restoredProgress, toStoredRun, type RunOutcome, type RunRecord } from './unsaved-run';
 import { unsavedRunStore, type UnsavedRunStore } from './unsaved-run-store';
 import { VectorLiveSamples } from './vector-live-samples';
-import { fromStoredVectorRun, isStoredVectorRun, newVectorRun, takeVectorResults, toStoredVectorRun, type VectorRunRecord } from './vector-run';
+import { fromStoredVectorRun, isStoredVectorRun, newVectorRun, toStoredVectorRun, type VectorRunRecord } from './vector-run';
 import { VectorScoreClient } from './vector-score-client';
 
 export type { RunRecord } from './unsaved-run';
@@ -207,18 +208,7 @@ export class BenchController {
     if (soak) return this.runSoak(engine, request, record, soak);
     const handle = engine.run(request, this.passHandlers(engine, record));
     this.handle = handle;
-    handle.done.then(
-      (res) => {
-        record.outcome = { status: res.status, message: res.message, elapsedMs: res.elapsedMs, missing: res.missing.length };
-        record.figures = res.figures;
-        this.endRun(record, scorer);
-        this.setRun({ state: 'finished', progress: handle.progress(), figures: res.figures, result: record.outcome });
-      },
-      (err: Error) => {
-        this.endRun(record, scorer);
-        this.setRun({ state: 'finished', error: err.message });
-      },
-    );
+    this.settle(handle, record, scorer);
   }
 
   /** What every run or pass does with its answers and progress: into the record, the scorer and the page. */
@@ -228,7 +218,7 @@ export class BenchController {
       // On a damaged line, an answer off the model is asked for again before it is taken.
       confirm: confirmOffModel(record.config),
       onResults: (b: ResultBatch) => {
-        takeResults(record, b);
+        takeAnswers(record, ROTATION_COLUMNS, b);
         if (this.scorer instanceof ScoreClient) this.scorer.queue(codes, b.indexes, b.cos, b.sin);
       },
       ...this.progressReporter(engine),
@@ -273,24 +263,13 @@ export class BenchController {
         return m.angle !== angle || m.magnitude !== magnitude;
       },
       onResults: (b) => {
-        takeVectorResults(record, b);
+        takeAnswers(record, VECTOR_COLUMNS, b);
         scorer.queue(record.xs, record.ys, b.indexes, b.angle, b.magnitude);
       },
       onProgress: this.progressReporter(engine).onProgress,
     });
     this.handle = handle;
-    handle.done.then(
-      (res) => {
-        record.outcome = { status: res.status, message: res.message, elapsedMs: res.elapsedMs, missing: res.missing.length };
-        record.figures = res.figures;
-        this.endRun(record, scorer);
-        this.setRun({ state: 'finished', progress: handle.progress(), figures: res.figures, result: record.outcome });
-      },
-      (err: Error) => {
-        this.endRun(record, scorer);
-        this.setRun({ state: 'finished', error: err.message });
-      },
-    );
+    this.settle(handle, record, scorer);
   }
 
   /**
@@ -317,7 +296,7 @@ export class BenchController {
         if (this.pausedByOperator) void handle.pause();
         soak.passStarted(pass);
         if (pass > 1) {
-          clearAnswers(record);
+          clearAnswers(record, ROTATION_COLUMNS);
           this.startScoring(record);
           restart();
           this.setRun({ summary: null, tone: null, progress: null });
@@ -490,6 +469,22 @@ export class BenchController {
     });
     this.scorer = scorer;
     return scorer;
+  }
+
+  /** A single run's end, either way: its outcome into the record, then endRun and the finished state. */
+  private settle(handle: RunHandle | VectorRunHandle, record: RunRecord | VectorRunRecord, scorer: ScoreClient | VectorScoreClient) {
+    handle.done.then(
+      (res) => {
+        record.outcome = { status: res.status, message: res.message, elapsedMs: res.elapsedMs, missing: res.missing.length };
+        record.figures = res.figures;
+        this.endRun(record, scorer);
+        this.setRun({ state: 'finished', progress: handle.progress(), figures: res.figures, result: record.outcome });
+      },
+      (err: Error) => {
+        this.endRun(record, scorer);
+        this.setRun({ state: 'finished', error: err.message });
+      },
+    );
   }
 
   /** The run is over: score what is left, keep the capture and put the run away until saved. */

@@ -1,17 +1,9 @@
 // A run as a plan asks for it: the request the link engine sends and the empty record its answers
-// fill in, in request order.
-import type { ResultBatch } from '../../../../shared/link-engine/link-engine';
+// fill in, in request order (run-record.ts).
 import type { RunRequest } from '../../../../shared/link-engine/run-request';
-import type { DeviceInfo } from '../../../../shared/link';
 import { angleCodeRange, parseModelConfig, planCodes, type ModelConfig, type Plan } from '../../../../shared/numeric';
+import { openRecord, ROTATION_COLUMNS, type RunContext } from './run-record';
 import type { RunRecord } from './unsaved-run';
-
-/** Where the run happens, as the record keeps it. */
-export interface RunContext {
-  transportLabel: string | null;
-  baud: number;
-  info: DeviceInfo | null;
-}
 
 /** Throws for a plan or core profile that does not parse. */
 export function newRun(plan: Plan, configInput: unknown, at: RunContext): { request: RunRequest; record: RunRecord } {
@@ -25,38 +17,6 @@ export function newRun(plan: Plan, configInput: unknown, at: RunContext): { requ
       : plan.kind === 'sweep'
         ? { kind: 'sweep', start: plan.start, step: plan.step, count: plan.count }
         : { kind: 'codes', codes };
-  const n = codes.length;
-  const record: RunRecord = {
-    codes,
-    cos: new Int32Array(n),
-    sin: new Int32Array(n),
-    answered: new Uint8Array(n),
-    plan,
-    config,
-    startedAt: new Date(),
-    endedAt: null,
-    ...at,
-    archive: null,
-    outcome: null,
-    figures: null,
-    soak: null,
-  };
+  const record: RunRecord = openRecord(ROTATION_COLUMNS, codes.length, { codes, plan, config, ...at, soak: null });
   return { request, record };
-}
-
-/** One batch of answers into the record. */
-export function takeResults(record: RunRecord, b: ResultBatch) {
-  for (let k = 0; k < b.indexes.length; k++) {
-    const i = b.indexes[k];
-    record.cos[i] = b.cos[k];
-    record.sin[i] = b.sin[k];
-    record.answered[i] = 1;
-  }
-}
-
-/** Empty the answers for a soak's next pass (the arrays are reused: a soak's memory stays put). */
-export function clearAnswers(record: RunRecord) {
-  record.cos.fill(0);
-  record.sin.fill(0);
-  record.answered.fill(0);
 }

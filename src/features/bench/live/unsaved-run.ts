@@ -1,7 +1,7 @@
 // The latest run's results as kept in the browser until they are saved or discarded: plain,
 // structured-clone-safe data. The codes are not kept: the plan and model make them again.
-import type { LinkFigures, RunProgress } from '../../../../shared/link-engine/link-figures';
-import type { DeviceInfo } from '../../../../shared/link';
+import type { RunProgress } from '../../../../shared/link-engine/link-figures';
+import { restoredBookkeeping, type RecordBookkeeping, type RunContext } from './run-record';
 import { parseModelConfig, planCodes, planSchema, type ModelConfig, type Plan } from '../../../../shared/numeric';
 import { parseSoakRecord, type SoakRecord } from '../../../../shared/soak';
 
@@ -15,23 +15,12 @@ export interface RunOutcome {
 }
 
 /** Every answered result of a run, in request order, with what is needed to save it. */
-export interface RunRecord {
+export interface RunRecord extends RunContext, RecordBookkeeping {
   codes: Float64Array;
   cos: Int32Array;
   sin: Int32Array;
-  /** 1 where the board answered that index. */
-  answered: Uint8Array;
   plan: Plan;
   config: ModelConfig;
-  startedAt: Date;
-  endedAt: Date | null;
-  transportLabel: string | null;
-  baud: number;
-  info: DeviceInfo | null;
-  /** The run's capture: the connection's HELLO → INFO preamble, then the run's own traffic. */
-  archive: Uint8Array | null;
-  outcome: RunOutcome | null;
-  figures: LinkFigures | null;
   /** A soak's books (the answers above are then its last whole pass); null for a single run. */
   soak: SoakRecord | null;
 }
@@ -78,7 +67,7 @@ export function fromStoredRun(raw: unknown): RunRecord {
   const n = codes.length;
   if (!(s.cos instanceof Int32Array) || !(s.sin instanceof Int32Array) || !(s.answered instanceof Uint8Array)) throw new StoredRunError('its results are not typed arrays');
   if (s.cos.length !== n || s.sin.length !== n || s.answered.length !== n) throw new StoredRunError(`its results hold ${s.cos.length} entries for a plan of ${n}`);
-  if (s.archive != null && !(s.archive instanceof Uint8Array)) throw new StoredRunError('its capture is not bytes');
+  const kept = restoredBookkeeping(s);
   let soak: SoakRecord | null = null;
   try {
     // Absent in runs stored before soaks were kept.
@@ -93,14 +82,7 @@ export function fromStoredRun(raw: unknown): RunRecord {
     answered: s.answered,
     plan: plan.data,
     config,
-    startedAt: new Date(s.startedAt ?? 0),
-    endedAt: s.endedAt ? new Date(s.endedAt) : null,
-    transportLabel: s.transportLabel ?? null,
-    baud: s.baud ?? 0,
-    info: s.info ?? null,
-    archive: s.archive ?? null,
-    outcome: s.outcome ?? null,
-    figures: s.figures ?? null,
+    ...kept,
     soak,
   };
 }

@@ -1,90 +1,32 @@
 // A vectoring run as a plan asks for it: the request the link engine sends, and the record its
 // answers fill in, in request order. Grids (and exhaustive plans, a grid of stride 1) go out as
 // VEC_GRID segments the board expands itself; every other plan as its (x, y) pairs.
-import type { VectorResultBatch } from '../../../../shared/link-engine/link-engine';
 import { expandVectorRequest, type VectorRunRequest } from '../../../../shared/link-engine/run-request';
-import type { LinkFigures } from '../../../../shared/link-engine/link-figures';
+import { vectorPlanRequest } from '../../../../shared/link-engine/vector-plan-request';
 import type { WireProfile } from '../../../../shared/link/wire-profile';
-import type { DeviceInfo, ModeInfo } from '../../../../shared/link';
-import { bindVectorPlan, parseVectorConfig, planVectors, vectorPlanSchema, type VectorConfig, type VectorPlan } from '../../../../shared/vectoring';
-import type { RunContext } from './new-run';
-import { StoredRunError, UNSAVED_RUN_VERSION, type RunOutcome } from './unsaved-run';
+import type { ModeInfo } from '../../../../shared/link';
+import { bindVectorPlan, parseVectorConfig, vectorPlanSchema, type VectorConfig, type VectorPlan } from '../../../../shared/vectoring';
+import { openRecord, restoredBookkeeping, VECTOR_COLUMNS, type RecordBookkeeping, type RunContext } from './run-record';
+import { StoredRunError, UNSAVED_RUN_VERSION } from './unsaved-run';
 
 /** Every answered pair of a vectoring run, in request order, with what is needed to save it. */
-export interface VectorRunRecord {
+export interface VectorRunRecord extends RunContext, RecordBookkeeping {
   mode: 'vectoring';
   xs: Int32Array;
   ys: Int32Array;
   angle: Int32Array;
   magnitude: Int32Array;
-  /** 1 where the board answered that index. */
-  answered: Uint8Array;
   plan: VectorPlan;
   config: VectorConfig;
-  startedAt: Date;
-  endedAt: Date | null;
-  transportLabel: string | null;
-  baud: number;
-  info: DeviceInfo | null;
   modes: ModeInfo | null;
-  archive: Uint8Array | null;
-  outcome: RunOutcome | null;
-  figures: LinkFigures | null;
-}
-
-/**
- * The VEC_GRID request of a grid or exhaustive plan: the plan's pairs as one grid, y fastest as
- * the plan lists them, so the request and the saved plan agree pair for pair.
- */
-function gridRequest(plan: VectorPlan, config: VectorConfig): VectorRunRequest {
-  const bound = bindVectorPlan(plan, config);
-  const n = Math.round(Math.sqrt(bound.length));
-  const xs = new Int32Array(Math.min(bound.length, n + 1));
-  const ys = new Int32Array(xs.length);
-  for (let i = 0; i < xs.length; i++) bound.pointInto(i, xs, ys, i);
-  return { kind: 'grid', x0: xs[0], y0: ys[0], nx: n, ny: n, dx: n > 1 ? xs[n] - xs[0] : 1, dy: n > 1 ? ys[1] - ys[0] : 1 };
 }
 
 /** @throws PlanError for a plan the input format cannot take, RangeError for one the link cannot carry. */
 export function newVectorRun(plan: VectorPlan, config: VectorConfig, profile: WireProfile, at: RunContext & { modes: ModeInfo | null }): { request: VectorRunRequest; record: VectorRunRecord } {
-  let request: VectorRunRequest;
-  let xs: Int32Array;
-  let ys: Int32Array;
-  if (plan.kind === 'grid' || plan.kind === 'exhaustive') {
-    request = gridRequest(plan, config);
-    ({ xs, ys } = expandVectorRequest(request, profile));
-  } else {
-    ({ xs, ys } = planVectors(plan, config));
-    request = { kind: 'vectors', xs, ys };
-  }
-  const n = xs.length;
-  const record: VectorRunRecord = {
-    mode: 'vectoring',
-    xs,
-    ys,
-    angle: new Int32Array(n),
-    magnitude: new Int32Array(n),
-    answered: new Uint8Array(n),
-    plan,
-    config,
-    startedAt: new Date(),
-    endedAt: null,
-    ...at,
-    archive: null,
-    outcome: null,
-    figures: null,
-  };
+  const request = vectorPlanRequest(bindVectorPlan(plan, config), config);
+  const { xs, ys } = request.kind === 'grid' ? expandVectorRequest(request, profile) : request;
+  const record: VectorRunRecord = openRecord(VECTOR_COLUMNS, xs.length, { mode: 'vectoring' as const, xs, ys, plan, config, ...at });
   return { request, record };
-}
-
-/** One batch of answers into the record. */
-export function takeVectorResults(record: VectorRunRecord, b: VectorResultBatch) {
-  for (let k = 0; k < b.indexes.length; k++) {
-    const i = b.indexes[k];
-    record.angle[i] = b.angle[k];
-    record.magnitude[i] = b.magnitude[k];
-    record.answered[i] = 1;
-  }
 }
 
 /** A vectoring record as IndexedDB keeps it (its inputs too: a grid's order is the board's). */
@@ -118,7 +60,7 @@ export function fromStoredVectorRun(raw: unknown): VectorRunRecord {
   if (!cols.every((c) => c instanceof Int32Array) || !(s.answered instanceof Uint8Array)) throw new StoredRunError('its results are not typed arrays');
   const n = s.answered.length;
   if (cols.some((c) => c!.length !== n)) throw new StoredRunError('its inputs and answers differ in length');
-  if (s.archive != null && !(s.archive instanceof Uint8Array)) throw new StoredRunError('its capture is not bytes');
+  const kept = restoredBookkeeping(s);
   return {
     mode: 'vectoring',
     xs: s.xs!,
@@ -128,14 +70,7 @@ export function fromStoredVectorRun(raw: unknown): VectorRunRecord {
     answered: s.answered,
     plan: plan.data,
     config,
-    startedAt: new Date(s.startedAt ?? 0),
-    endedAt: s.endedAt ? new Date(s.endedAt) : null,
-    transportLabel: s.transportLabel ?? null,
-    baud: s.baud ?? 0,
-    info: s.info ?? null,
+    ...kept,
     modes: s.modes ?? null,
-    archive: s.archive ?? null,
-    outcome: s.outcome ?? null,
-    figures: s.figures ?? null,
   };
 }

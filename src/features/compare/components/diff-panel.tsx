@@ -1,4 +1,4 @@
-import { useMemo } from 'react';
+import { useMemo, type ReactNode } from 'react';
 import type uPlot from 'uplot';
 import { panel, panelTitle } from '../../../components/ui';
 import type { ComparedPair, ComparedSession } from '../api/compare-types';
@@ -9,111 +9,109 @@ import { UplotChart } from './uplot-chart';
 
 const n = (v: number) => v.toLocaleString('en-US');
 
-/** A vectoring pair: counts of (x, y) vectors, the largest angle and magnitude differences, the first differing vectors. */
-function VectorPairSummary({ pair, a, b }: { pair: ComparedPair; a: ComparedSession; b: ComparedSession }) {
-  const title = `${sessionName(b)} against ${sessionName(a)}`;
-  const v = pair.vector;
-  return (
-    <div className="grid gap-2" data-testid={`diff-${pair.b}`}>
-      <h3 className="font-bold">{title}</h3>
-      {!pair.sameCore ? (
-        <p className="text-sm" data-testid={`diff-summary-${pair.b}`}>
-          Not compared bit for bit: this session is of {b.core.name ?? 'another core'}, whose codes mean other angles and magnitudes than those of {a.core.name ?? 'the reference’s core'}.
-        </p>
-      ) : pair.common === 0 ? (
-        <p className="text-sm" data-testid={`diff-summary-${pair.b}`}>
-          No vector in common: these sessions asked different (x, y) pairs, so nothing can be compared bit for bit.
-        </p>
-      ) : (
-        <p className="text-sm" data-testid={`diff-summary-${pair.b}`}>
-          <strong className={pair.differing ? 'text-fail' : 'text-pass'} data-testid={`diff-count-${pair.b}`}>
-            {n(pair.differing)}
-          </strong>{' '}
-          of {n(pair.common)} vectors both answered differ
-          {pair.differing > 0 && v ? (
-            <>
-              ; the largest differences are <strong>{n(v.maxAbsAngleDiffLsb)} LSB</strong> of angle and <strong>{n(v.maxAbsMagnitudeDiffLsb)} LSB</strong> of magnitude.
-            </>
-          ) : (
-            ': bit for bit the same.'
-          )}
-        </p>
-      )}
-      {v && v.firstDiffering.length > 0 && (
-        <div tabIndex={0} role="region" aria-label={`First differing vectors, ${title} (scrolls)`} className="max-h-64 overflow-auto rounded border border-rule">
-          <table className="w-full text-xs" aria-label={`First differing vectors, ${title}`}>
-            <caption className="sr-only">The first {v.firstDiffering.length} differing vectors in (x, y) order</caption>
-            <thead className="sticky top-0 bg-panel text-left text-ink-soft">
-              <tr>
-                {['x', 'y', 'Direction, °', `angle ${sessionName(a)}`, `angle ${sessionName(b)}`, `magnitude ${sessionName(a)}`, `magnitude ${sessionName(b)}`].map((h) => (
-                  <th key={h} scope="col" className="px-2 py-1 text-right font-bold">
-                    {h}
-                  </th>
-                ))}
-              </tr>
-            </thead>
-            <tbody className="font-mono">
-              {v.firstDiffering.map((d) => (
-                <tr key={`${d.x},${d.y}`} className="border-t border-rule/60 text-right">
-                  <td className="px-2 py-0.5">{d.x}</td>
-                  <td className="px-2 py-0.5">{d.y}</td>
-                  <td className="px-2 py-0.5">{d.degrees.toFixed(3)}</td>
-                  <td className="px-2 py-0.5">{d.a.angle}</td>
-                  <td className={`px-2 py-0.5 ${d.a.angle !== d.b.angle ? 'font-bold text-fail' : ''}`}>{d.b.angle}</td>
-                  <td className="px-2 py-0.5">{d.a.magnitude}</td>
-                  <td className={`px-2 py-0.5 ${d.a.magnitude !== d.b.magnitude ? 'font-bold text-fail' : ''}`}>{d.b.magnitude}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-          {pair.differing > v.firstDiffering.length && (
-            <p className="px-2 py-1 text-xs text-ink-soft">
-              The first {v.firstDiffering.length} of {n(pair.differing)} are listed; the plot shows in which directions all of them lie.
-            </p>
-          )}
-        </div>
-      )}
-    </div>
-  );
+/** One cell of a differing row; `differs` marks the second session's answer where it is not the first's. */
+type DiffCell = { text: string | number; differs?: boolean };
+
+/** What a pair's summary says and lists, in the words of its mode. */
+interface PairWords {
+  /** What the sessions asked: "codes" or "vectors". */
+  noun: string;
+  /** What another core's codes stand for (the pair is then not compared). */
+  otherMeaning: string;
+  noneInCommon: string;
+  /** The largest differences, said after "; "; null when the reply has no figures to say. */
+  largest: ReactNode | null;
+  order: string;
+  headers: string[];
+  rows: Array<{ key: string | number; cells: DiffCell[] }>;
+  /** The note under a list cut short: what the plot shows. */
+  plotShows: string;
 }
 
-function PairSummary({ pair, a, b }: { pair: ComparedPair; a: ComparedSession; b: ComparedSession }) {
+/** A rotation pair: angle codes, cos and sin. */
+function rotationWords(pair: ComparedPair, a: ComparedSession, b: ComparedSession): PairWords {
+  return {
+    noun: 'codes',
+    otherMeaning: 'stand for other angles and values',
+    noneInCommon: 'No code in common: these sessions answered different angle codes, so nothing can be compared bit for bit.',
+    largest: (
+      <>
+        the largest difference is <strong>{n(pair.maxAbsDiffLsb)} LSB</strong>.
+      </>
+    ),
+    order: 'code order',
+    headers: ['Code', 'Angle, °', `cos ${sessionName(a)}`, `cos ${sessionName(b)}`, `sin ${sessionName(a)}`, `sin ${sessionName(b)}`],
+    rows: pair.firstDiffering.map((d) => ({
+      key: d.code,
+      cells: [{ text: d.code }, { text: d.degrees.toFixed(4) }, { text: d.a.cos }, { text: d.b.cos, differs: d.a.cos !== d.b.cos }, { text: d.a.sin }, { text: d.b.sin, differs: d.a.sin !== d.b.sin }],
+    })),
+    plotShows: 'where all of them are',
+  };
+}
+
+/** A vectoring pair: (x, y) vectors, the largest angle and magnitude differences. */
+function vectorWords(pair: ComparedPair, a: ComparedSession, b: ComparedSession): PairWords {
+  const v = pair.vector;
+  return {
+    noun: 'vectors',
+    otherMeaning: 'mean other angles and magnitudes',
+    noneInCommon: 'No vector in common: these sessions asked different (x, y) pairs, so nothing can be compared bit for bit.',
+    largest: v ? (
+      <>
+        the largest differences are <strong>{n(v.maxAbsAngleDiffLsb)} LSB</strong> of angle and <strong>{n(v.maxAbsMagnitudeDiffLsb)} LSB</strong> of magnitude.
+      </>
+    ) : null,
+    order: '(x, y) order',
+    headers: ['x', 'y', 'Direction, °', `angle ${sessionName(a)}`, `angle ${sessionName(b)}`, `magnitude ${sessionName(a)}`, `magnitude ${sessionName(b)}`],
+    rows: (v?.firstDiffering ?? []).map((d) => ({
+      key: `${d.x},${d.y}`,
+      cells: [
+        { text: d.x },
+        { text: d.y },
+        { text: d.degrees.toFixed(3) },
+        { text: d.a.angle },
+        { text: d.b.angle, differs: d.a.angle !== d.b.angle },
+        { text: d.a.magnitude },
+        { text: d.b.magnitude, differs: d.a.magnitude !== d.b.magnitude },
+      ],
+    })),
+    plotShows: 'in which directions all of them lie',
+  };
+}
+
+/** One pair against the reference: the count of differing answers and the first of them. */
+function PairSummary({ pair, a, b, words: w }: { pair: ComparedPair; a: ComparedSession; b: ComparedSession; words: PairWords }) {
   const title = `${sessionName(b)} against ${sessionName(a)}`;
   return (
     <div className="grid gap-2" data-testid={`diff-${pair.b}`}>
       <h3 className="font-bold">{title}</h3>
       {!pair.sameCore ? (
         <p className="text-sm" data-testid={`diff-summary-${pair.b}`}>
-          Not compared bit for bit: this session is of {b.core.name ?? 'another core'}, whose codes stand for other angles and values than those of{' '}
-          {a.core.name ?? 'the reference’s core'}.
+          Not compared bit for bit: this session is of {b.core.name ?? 'another core'}, whose codes {w.otherMeaning} than those of {a.core.name ?? 'the reference’s core'}.
         </p>
       ) : pair.common === 0 ? (
         <p className="text-sm" data-testid={`diff-summary-${pair.b}`}>
-          No code in common: these sessions answered different angle codes, so nothing can be compared bit for bit.
+          {w.noneInCommon}
         </p>
       ) : (
         <p className="text-sm" data-testid={`diff-summary-${pair.b}`}>
           <strong className={pair.differing ? 'text-fail' : 'text-pass'} data-testid={`diff-count-${pair.b}`}>
             {n(pair.differing)}
           </strong>{' '}
-          of {n(pair.common)} codes both answered differ
-          {pair.differing > 0 ? (
-            <>
-              ; the largest difference is <strong>{n(pair.maxAbsDiffLsb)} LSB</strong>.
-            </>
-          ) : (
-            ': bit for bit the same.'
-          )}
+          of {n(pair.common)} {w.noun} both answered differ
+          {pair.differing > 0 && w.largest ? <>; {w.largest}</> : ': bit for bit the same.'}
         </p>
       )}
-      {pair.firstDiffering.length > 0 && (
+      {w.rows.length > 0 && (
         // Scrolls on its own: focusable and named, so a keyboard can reach and scroll it.
-        <div tabIndex={0} role="region" aria-label={`First differing codes, ${title} (scrolls)`} className="max-h-64 overflow-auto rounded border border-rule">
-          <table className="w-full text-xs" aria-label={`First differing codes, ${title}`}>
-            <caption className="sr-only">The first {pair.firstDiffering.length} differing codes in code order</caption>
+        <div tabIndex={0} role="region" aria-label={`First differing ${w.noun}, ${title} (scrolls)`} className="max-h-64 overflow-auto rounded border border-rule">
+          <table className="w-full text-xs" aria-label={`First differing ${w.noun}, ${title}`}>
+            <caption className="sr-only">
+              The first {w.rows.length} differing {w.noun} in {w.order}
+            </caption>
             <thead className="sticky top-0 bg-panel text-left text-ink-soft">
               <tr>
-                {['Code', 'Angle, °', `cos ${sessionName(a)}`, `cos ${sessionName(b)}`, `sin ${sessionName(a)}`, `sin ${sessionName(b)}`].map((h) => (
+                {w.headers.map((h) => (
                   <th key={h} scope="col" className="px-2 py-1 text-right font-bold">
                     {h}
                   </th>
@@ -121,21 +119,20 @@ function PairSummary({ pair, a, b }: { pair: ComparedPair; a: ComparedSession; b
               </tr>
             </thead>
             <tbody className="font-mono">
-              {pair.firstDiffering.map((d) => (
-                <tr key={d.code} className="border-t border-rule/60 text-right">
-                  <td className="px-2 py-0.5">{d.code}</td>
-                  <td className="px-2 py-0.5">{d.degrees.toFixed(4)}</td>
-                  <td className="px-2 py-0.5">{d.a.cos}</td>
-                  <td className={`px-2 py-0.5 ${d.a.cos !== d.b.cos ? 'font-bold text-fail' : ''}`}>{d.b.cos}</td>
-                  <td className="px-2 py-0.5">{d.a.sin}</td>
-                  <td className={`px-2 py-0.5 ${d.a.sin !== d.b.sin ? 'font-bold text-fail' : ''}`}>{d.b.sin}</td>
+              {w.rows.map((r) => (
+                <tr key={r.key} className="border-t border-rule/60 text-right">
+                  {r.cells.map((c, k) => (
+                    <td key={k} className={c.differs === undefined ? 'px-2 py-0.5' : `px-2 py-0.5 ${c.differs ? 'font-bold text-fail' : ''}`}>
+                      {c.text}
+                    </td>
+                  ))}
                 </tr>
               ))}
             </tbody>
           </table>
-          {pair.differing > pair.firstDiffering.length && (
+          {pair.differing > w.rows.length && (
             <p className="px-2 py-1 text-xs text-ink-soft">
-              The first {pair.firstDiffering.length} of {n(pair.differing)} are listed; the plot shows where all of them are.
+              The first {w.rows.length} of {n(pair.differing)} are listed; the plot shows {w.plotShows}.
             </p>
           )}
         </div>
@@ -175,7 +172,10 @@ export function DiffPanel({ sessions, pairs }: { sessions: ComparedSession[]; pa
         Bit-exact diff against {sessionName(first)}
       </h2>
       <div className="grid gap-4">
-        {pairs.map((p) => (vectoring ? <VectorPairSummary key={p.b} pair={p} a={first} b={byId.get(p.b)!.s} /> : <PairSummary key={p.b} pair={p} a={first} b={byId.get(p.b)!.s} />))}
+        {pairs.map((p) => {
+          const b = byId.get(p.b)!.s;
+          return <PairSummary key={p.b} pair={p} a={first} b={b} words={(vectoring ? vectorWords : rotationWords)(p, first, b)} />;
+        })}
         {anyDiffer && (
           <div>
             <h3 className="mb-1 text-sm font-bold">{vectoring ? 'In which directions the answers differ' : 'Where the codes differ'}</h3>

@@ -1,6 +1,7 @@
 // The session page's operating conditions and, for a soak, its timeline (pass → mismatches,
 // unstable codes, link errors) and its unstable codes against angle. SVG, so it prints.
 import { panel, panelTitle } from '../../../components/ui';
+import { UnstableCodesTable } from '../../../components/unstable-codes-table';
 import { angleCodeToDegrees, parseModelConfig } from '../../../../shared/numeric';
 import { CONDITION_RANGES, NAMED_CONDITIONS, type Conditions, type SoakRecord, type SoakTimelinePoint } from '../../../../shared/soak';
 
@@ -143,27 +144,7 @@ export function SoakPanel({ conditions, soak, modelConfig }: { conditions: Condi
           {soak.unstable.count > 0 && (
             <>
               <UnstableAgainstAngle soak={soak} modelConfig={modelConfig} />
-              <table className="text-sm" aria-label="Unstable codes">
-                <thead>
-                  <tr className="text-left text-ink-soft">
-                    <th className="pr-4 font-normal">Code</th>
-                    <th className="pr-4 font-normal">First differed</th>
-                    <th className="font-normal">Answers (cos, sin) × times</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {soak.unstable.codes.slice(0, 12).map((u) => (
-                    <tr key={u.index}>
-                      <td className="pr-4 font-mono">{u.code}</td>
-                      <td className="pr-4">pass {u.firstPass}</td>
-                      <td className="font-mono">
-                        {u.answers.map((a) => `(${a.cos}, ${a.sin})×${a.count}`).join('  ')}
-                        {u.otherAnswers ? ` +${u.otherAnswers} more` : ''}
-                      </td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
+              <UnstableCodesTable codes={soak.unstable.codes.slice(0, 12)} label="Unstable codes" />
               {soak.unstable.count > 12 && <p className="text-xs text-ink-soft">The first 12 of {n(soak.unstable.count)} are listed; the JSON download holds {soak.unstable.listed < soak.unstable.count ? `the first ${n(soak.unstable.listed)}` : 'them all'}.</p>}
             </>
           )}
