@@ -197,7 +197,9 @@ describe('the Bench page against the simulated board', () => {
     expect(enob).toBeGreaterThan(8);
     expect(enob).toBeLessThan(16);
 
-    // Find in the kept traffic: every RESULTS frame line, forwards and back.
+    // Find in the kept traffic: every RESULTS frame line, forwards and back. The pane takes its
+    // lines once a frame, so on a busy machine the last few may still join between two searches:
+    // each search counts what is kept at that moment, and the positions are what is checked.
     const find = page.getByLabel('Find in traffic');
     await find.fill('results tag');
     await find.press('Enter');
@@ -205,10 +207,11 @@ describe('the Bench page against the simulated board', () => {
     const total = Number((await page.getByTestId('traffic-find-status').textContent())!.split(' of ')[1]);
     expect(total).toBeGreaterThan(1);
     await page.getByRole('button', { name: 'Next match' }).click();
-    expect(await page.getByTestId('traffic-find-status').textContent()).toBe(`2 of ${total}`);
+    expect(await page.getByTestId('traffic-find-status').textContent()).toMatch(/^2 of \d+$/);
     await page.getByRole('button', { name: 'Previous match' }).click();
     await page.getByRole('button', { name: 'Previous match' }).click();
-    expect(await page.getByTestId('traffic-find-status').textContent()).toBe(`${total} of ${total}`);
+    // Back past the first match wraps to the last one.
+    expect(await page.getByTestId('traffic-find-status').textContent()).toMatch(/^(\d+) of \1$/);
     await find.fill('no such bytes zz');
     await find.press('Enter');
     expect(await page.getByTestId('traffic-find-status').textContent()).toBe('Not found');
