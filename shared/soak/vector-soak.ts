@@ -8,8 +8,8 @@ import type { EngineClock, LinkEngine, VectorRunHandle, VectorRunHandlers, Vecto
 import type { VectorRunRequest } from '../link-engine/run-request';
 import { SoakAccumulator, type SoakOptions, type SoakRecord, type SoakTimelinePoint } from './soak-accumulator';
 import { soakRecordSchema } from './soak-record';
-import type { PassScore } from './soak-run';
-import { soakWantsAnotherPass, type SoakSpec } from './soak-spec';
+import { soakLoop, type PassScore, type SoakLoopOutcome } from './soak-run';
+import type { SoakSpec } from './soak-spec';
 
 export interface VectorSoakAnswer {
   angle: number;
@@ -144,51 +144,14 @@ export interface VectorSoakRunOptions<S extends PassScore> {
   keepGoing?: () => boolean;
 }
 
-export interface VectorSoakOutcome<S extends PassScore> {
-  status: 'complete' | 'aborted' | 'failed';
-  message?: string;
-  acc: VectorSoakAccumulator;
-  /** The last whole pass and its score: the run's figures. */
-  last: { result: VectorRunResult; score: S } | null;
-  /** The pass that was cut short (aborted or failed), not booked. */
-  cut: VectorRunResult | null;
-}
+export type VectorSoakOutcome<S extends PassScore> = SoakLoopOutcome<VectorRunResult, VectorSoakAccumulator, S>;
 
 /** runSoak (soak-run.ts) for a vectoring plan: the same passes, books and stopping rules. */
-export async function runVectorSoak<S extends PassScore>(o: VectorSoakRunOptions<S>): Promise<VectorSoakOutcome<S>> {
-  const t0 = o.clock.now();
-  let acc: VectorSoakAccumulator | null = null;
-  let last: VectorSoakOutcome<S>['last'] = null;
-  const f = o.engine.figures;
-  for (let pass = 1; ; pass++) {
-    if (pass > 1 && (!soakWantsAnotherPass(o.spec, pass - 1, o.clock.now() - t0) || o.keepGoing?.() === false)) break;
-    const before = { checkFailures: f.checkFailures, retries: f.retries };
-    const atMs = o.clock.now() - t0;
-    const handle = o.engine.runVectors(o.request, o.handlers ?? {});
-    o.onPassStart?.(pass, handle);
-    const result = await handle.done;
-    if (result.status !== 'complete') {
-      // A pass cut short is not booked: its missing vectors would read as link errors.
-      return { status: result.status, message: result.message, acc: acc ?? new VectorSoakAccumulator(result.xs, result.ys, o.accumulator), last, cut: result };
-    }
-    acc ??= new VectorSoakAccumulator(result.xs, result.ys, o.accumulator);
-    const checkFailures = f.checkFailures - before.checkFailures;
-    const score = o.score(result, checkFailures);
-    const point = acc.addPass({
-      xs: result.xs,
-      ys: result.ys,
-      angle: result.angle,
-      magnitude: result.magnitude,
-      answered: result.answered,
-      mismatches: score.mismatches,
-      maxAbsErrorLsb: score.maxAbsErrorLsb,
-      checkFailures,
-      retries: f.retries - before.retries,
-      atMs,
-      elapsedMs: result.elapsedMs,
-    });
-    last = { result, score };
-    o.onPass?.(point, acc, score, result);
-  }
-  return { status: 'complete', acc: acc!, last, cut: null };
+export function runVectorSoak<S extends PassScore>(o: VectorSoakRunOptions<S>): Promise<VectorSoakOutcome<S>> {
+  return soakLoop({
+    ...o,
+    start: () => o.engine.runVectors(o.request, o.handlers ?? {}),
+    books: (first) => new VectorSoakAccumulator(first.xs, first.ys, o.accumulator),
+    book: (acc, r, figures) => acc.addPass({ xs: r.xs, ys: r.ys, angle: r.angle, magnitude: r.magnitude, answered: r.answered, ...figures }),
+  });
 }
