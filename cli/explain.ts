@@ -63,26 +63,32 @@ function fileError(what: string, path: string, e: unknown): UsageError {
   return new UsageError(`${what}: cannot read ${path} (${(e as NodeJS.ErrnoException).code ?? (e as Error).message})`);
 }
 
-function readCsv(path: string, io: CliIo): Samples {
+/** A CSV of answers read with `parse`, and each row's place for the messages (`samples-file line N`). */
+function readCsvFile<T>(path: string, io: CliIo, parse: (text: string) => T): { rows: T; where: (k: number) => string } {
   let text: string;
   try {
     text = io.readFile(path);
   } catch (e) {
     throw fileError('samples-file', path, e);
   }
-  let rows;
+  let rows: T;
   try {
-    rows = parseSampleCsv(text);
+    rows = parse(text);
   } catch (e) {
     if (e instanceof SampleCsvError) throw new UsageError(`samples-file ${e.message}`);
     throw e;
   }
-  // The parser skips blank lines: keep each row's line number for the messages below.
+  // The parser skips blank lines: keep each row's line number for the messages.
   const lines: number[] = [];
   text.replace(/^\uFEFF/, '').split(/\r?\n/).forEach((line, i) => {
     if (i > 0 && line.trim() !== '') lines.push(i + 1);
   });
-  return { angle: Float64Array.from(rows.codes), cos: rows.cos, sin: rows.sin, where: (k) => `samples-file line ${lines[k]}` };
+  return { rows, where: (k) => `samples-file line ${lines[k]}` };
+}
+
+function readCsv(path: string, io: CliIo): Samples {
+  const { rows, where } = readCsvFile(path, io, parseSampleCsv);
+  return { angle: Float64Array.from(rows.codes), cos: rows.cos, sin: rows.sin, where };
 }
 
 function readArchive(path: string, deps: ExplainDeps): Samples & { label: string } {
@@ -134,24 +140,8 @@ function checkRanges(config: ModelConfig, s: Samples): void {
 
 /** A vectoring core's answers as CSV (`x_code,y_code,angle_code,magnitude_code`), each code in the declared formats. */
 function readVectorCsv(path: string, io: CliIo, config: VectorConfig) {
-  let text: string;
-  try {
-    text = io.readFile(path);
-  } catch (e) {
-    throw fileError('samples-file', path, e);
-  }
-  let s;
-  try {
-    s = parseVectorCsv(text);
-  } catch (e) {
-    if (e instanceof SampleCsvError) throw new UsageError(`samples-file ${e.message}`);
-    throw e;
-  }
-  const lines: number[] = [];
-  text.replace(/^\uFEFF/, '').split(/\r?\n/).forEach((line, i) => {
-    if (i > 0 && line.trim() !== '') lines.push(i + 1);
-  });
-  return checkVectorRanges(config, { x: s.xs, y: s.ys, angle: s.angles, magnitude: s.magnitudes }, (k) => `samples-file line ${lines[k]}`);
+  const { rows: s, where } = readCsvFile(path, io, parseVectorCsv);
+  return checkVectorRanges(config, { x: s.xs, y: s.ys, angle: s.angles, magnitude: s.magnitudes }, where);
 }
 
 /** Every vectoring code must fit the declared formats; the message names the line (or sample) at fault. */
