@@ -3,7 +3,7 @@
 import type { LinkEngine, RunHandle, RunResult, VectorRunHandle, VectorRunResult } from '../shared/link-engine/link-engine';
 import type { RunRequest, VectorRunRequest } from '../shared/link-engine/run-request';
 import type { ModelConfig } from '../shared/numeric';
-import { describeSoak, parseSoakSpec, runSoak, runVectorSoak, scorePass, type PassScore, type SoakRecord, type SoakSpec, type VectorSoakRecord } from '../shared/soak';
+import { describeSoak, parseSoakSpec, runSoak, runVectorSoak, scorePass, type PassScore, type SoakRecord, type SoakSpec, type SoakTimelinePoint, type VectorSoakRecord } from '../shared/soak';
 import type { EngineClock } from '../shared/link-engine/link-engine';
 import { UsageError } from './run-options';
 
@@ -47,16 +47,20 @@ export async function soakPasses(a: {
     onPassStart: (_pass, handle) => a.onPassStart?.(handle),
     keepGoing: a.keepGoing,
     score: (result) => scorePass(a.model, result),
-    onPass: (p, acc) =>
-      a.log(
-        `soak pass ${n(p.pass)}${total}: ${n(p.answered)} answered, ${n(p.mismatches)} mismatches, ${n(p.linkErrors)} link errors` +
-          `${p.retries ? ` (${n(p.retries)} re-asked)` : ''}, ${n(acc.unstableCount)} unstable codes so far, ${(p.elapsedMs / 1000).toFixed(2)} s\n`,
-      ),
+    onPass: (p, acc) => a.log(passLine(p, total, acc.unstableCount, 'codes')),
   });
   // Stopped in its first pass: what that pass got is all there is (nothing is uploaded then).
   const result = out.last?.result ?? out.cut;
   if (!result) throw new Error(out.message ?? 'the soak ended before its first pass');
   return { status: out.status, message: out.message, result, record: out.acc.record(a.spec) };
+}
+
+/** The line a soak prints on stderr after each pass. */
+function passLine(p: SoakTimelinePoint, total: string, unstable: number, what: 'codes' | 'vectors'): string {
+  return (
+    `soak pass ${n(p.pass)}${total}: ${n(p.answered)} answered, ${n(p.mismatches)} mismatches, ${n(p.linkErrors)} link errors` +
+    `${p.retries ? ` (${n(p.retries)} re-asked)` : ''}, ${n(unstable)} unstable ${what} so far, ${(p.elapsedMs / 1000).toFixed(2)} s\n`
+  );
 }
 
 export interface VectorSoakRun {
@@ -89,11 +93,7 @@ export async function vectorSoakPasses(a: {
     onPassStart: (_pass, handle) => a.onPassStart?.(handle),
     keepGoing: a.keepGoing,
     score: a.score,
-    onPass: (p, acc) =>
-      a.log(
-        `soak pass ${n(p.pass)}${total}: ${n(p.answered)} answered, ${n(p.mismatches)} mismatches, ${n(p.linkErrors)} link errors` +
-          `${p.retries ? ` (${n(p.retries)} re-asked)` : ''}, ${n(acc.unstableCount)} unstable vectors so far, ${(p.elapsedMs / 1000).toFixed(2)} s\n`,
-      ),
+    onPass: (p, acc) => a.log(passLine(p, total, acc.unstableCount, 'vectors')),
   });
   const result = out.last?.result ?? out.cut;
   if (!result) throw new Error(out.message ?? 'the soak ended before its first pass');
