@@ -1,6 +1,8 @@
 // ingest: the runner's upload of a 1,048,576-sample session (POST /api/sessions, multipart, bearer
 // token), which the server decodes, scores with the core's model, judges and stores, timed from
-// request to 201 — on SQLite and on PostgreSQL in the same run. Beside each: the same samples
+// request to 201 — on SQLite and on PostgreSQL in the same run. The server runs in a process of
+// its own (server-process.ts), as it does beside a runner on another machine: the runner's side
+// of the upload does not share the server's thread. Beside each: the same samples
 // bytes inserted as one blob by that database's bare driver (sqlite3 into a WAL-mode file, pg
 // into a bytea column of a fresh database).
 import path from 'node:path';
@@ -8,7 +10,8 @@ import { uploadSession } from '../cli/run-server';
 import { tempDatabase } from '../tests/support/temp-db';
 import { BENCH_DIALECTS, bareDriver, type BenchDialect } from './bare-driver';
 import type { BenchResult } from './report';
-import { bigExhaustiveSamples, startBenchServer } from './server-fixture';
+import { bigExhaustiveSamples } from './server-fixture';
+import { startServerChild } from './server-child';
 import { median, timeMs } from './timing';
 
 const RUNS = 3;
@@ -35,20 +38,23 @@ async function bareBlobInserts(dialect: BenchDialect, bytes: Uint8Array, runs: n
 }
 
 async function ingestOn(dialect: BenchDialect, samples: ReturnType<typeof bigExhaustiveSamples>): Promise<BenchResult> {
-  const server = await startBenchServer(dialect);
+  const child = await startServerChild(dialect);
+  const server = { url: child.ready.url, token: child.ready.token };
   try {
     const session = {
-      coreSlug: server.bigCore.slug,
+      coreSlug: child.ready.bigCoreSlug,
       build: null,
       board: null,
       plan: { kind: 'exhaustive' },
       startedAt: new Date().toISOString(),
       transport: { kind: 'websocket', device: 'bench', baud: 12_000_000, crc: 'CRC-8/SMBUS' },
     };
+    // One untimed upload first: the server's code starts cold.
+    await uploadSession(fetch, server, { session, samples: samples.packed, archive: new Uint8Array(0) });
     const times: number[] = [];
     for (let i = 0; i < RUNS; i++) {
       let id: number | null = null;
-      times.push(await timeMs(async () => ({ id } = await uploadSession(fetch, { url: server.url, token: server.token }, { session, samples: samples.packed, archive: new Uint8Array(0) }))));
+      times.push(await timeMs(async () => ({ id } = await uploadSession(fetch, server, { session, samples: samples.packed, archive: new Uint8Array(0) }))));
       if (id === null) throw new Error('the upload returned no session id');
     }
     const bare = await bareBlobInserts(dialect, samples.packed, RUNS);
@@ -65,7 +71,7 @@ async function ingestOn(dialect: BenchDialect, samples: ReturnType<typeof bigExh
       met: ms / median(bare.times) <= TARGET_RATIO,
     };
   } finally {
-    await server.close();
+    await child.stop();
   }
 }
 

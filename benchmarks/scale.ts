@@ -1,19 +1,17 @@
 // scale: how ingest and compare grow with the session's size — 2^16, 2^18, 2^20 and 2^22 answers
 // of one 22-bit core (evenly spaced codes, in code order; 2^22 is its exhaustive run), uploaded as
 // the runner uploads (POST /api/sessions, bearer token) to the app server in a child process of
-// its own (scale-server.ts), then compared with a second session 1 LSB off on every 97th answer
+// its own (server-process.ts), then compared with a second session 1 LSB off on every 97th answer
 // (GET /api/compare). Figures: the time per sample at each size, its growth from 2^16 to 2^22
 // (target ≤ 1.5: no worse than linear beyond the fixed cost of a request), and the server's peak
 // memory growth during a 2^22 upload ÷ the samples' bytes (target ≤ 3; Linux's VmHWM, reset
 // before each upload).
-import { fork, type ChildProcess } from 'node:child_process';
-import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { uploadSession } from '../cli/run-server';
 import { createCordicModel } from '../shared/numeric';
 import { packSamples } from '../shared/link-engine/sample-pack';
 import type { BenchResult } from './report';
-import { SCALE_CORE_CONFIG, type ScaleReply, type ScaleRequest } from './scale-protocol';
+import { SCALE_CORE_CONFIG } from './server-process-protocol';
+import { startServerChild } from './server-child';
 import { median, timeMs } from './timing';
 
 const SIZES = [16, 18, 20, 22].map((k) => 2 ** k);
@@ -35,30 +33,9 @@ function sessionsOf(n: number): { a: Uint8Array; b: Uint8Array; differing: numbe
   return { a, b: packSamples(codes, cos, sin, ones), differing: Math.ceil(n / 97) };
 }
 
-/** The child server, and a way to ask it one question at a time. */
-async function startChild(): Promise<{ child: ChildProcess; ready: Extract<ScaleReply, { kind: 'ready' }>; ask: (kind: ScaleRequest['kind'], bytes?: number) => Promise<ScaleReply> }> {
-  const here = path.dirname(fileURLToPath(import.meta.url));
-  const child = fork(path.join(here, 'scale-server.ts'), [], { execArgv: ['--import', 'tsx', '--expose-gc'], stdio: ['ignore', 'inherit', 'inherit', 'ipc'] });
-  const next = () =>
-    new Promise<ScaleReply>((resolve, reject) => {
-      const onExit = (code: number | null) => reject(new Error(`the scale server exited (${code})`));
-      child.once('exit', onExit);
-      child.once('message', (m) => {
-        child.off('exit', onExit);
-        resolve(m as ScaleReply);
-      });
-    });
-  const ready = (await next()) as Extract<ScaleReply, { kind: 'ready' }>;
-  const ask = (kind: ScaleRequest['kind'], bytes = 0) => {
-    const reply = next();
-    child.send(kind === 'bare' ? { kind, bytes } : { kind });
-    return reply;
-  };
-  return { child, ready, ask };
-}
-
 export async function scaleBench(): Promise<BenchResult[]> {
-  const { child, ready, ask } = await startChild();
+  const child = await startServerChild('sqlite');
+  const { ready } = child;
   const server = { url: ready.url, token: ready.token };
   const session = { coreSlug: ready.coreSlug, build: null, board: null, plan: { kind: 'exhaustive' }, startedAt: new Date().toISOString(), transport: { kind: 'websocket', device: 'bench', baud: 12_000_000 } };
   const upload = async (samples: Uint8Array) => {
@@ -78,9 +55,9 @@ export async function scaleBench(): Promise<BenchResult[]> {
       const times: number[] = [];
       let idA = 0;
       for (let r = 0; r < RUNS; r++) {
-        const mark = n === SIZES.at(-1) ? ((await ask('mark')) as Extract<ScaleReply, { kind: 'mark' }>) : null;
+        const mark = n === SIZES.at(-1) ? await child.ask('mark') : null;
         times.push(await timeMs(async () => (idA = await upload(s.a))));
-        if (mark) growth.push(((await ask('peak')) as Extract<ScaleReply, { kind: 'peak' }>).peak - mark.rss);
+        if (mark) growth.push((await child.ask('peak')).peak - mark.rss);
       }
       const idB = await upload(s.b);
       const cmp: number[] = [];
@@ -97,10 +74,9 @@ export async function scaleBench(): Promise<BenchResult[]> {
       console.log(`  ${n.toLocaleString('en-US')} samples: uploads ${times.map((t) => t.toFixed(0)).join(', ')} ms; compares ${cmp.map((t) => t.toFixed(0)).join(', ')} ms`);
     }
     // Beside it, in the same process after the uploads: the bare driver writing the same bytes.
-    bareGrowth = ((await ask('bare', SIZES.at(-1)! * SAMPLE_BYTES)) as Extract<ScaleReply, { kind: 'bare' }>).growth;
+    bareGrowth = (await child.ask('bare', SIZES.at(-1)! * SAMPLE_BYTES)).growth;
   } finally {
-    child.send({ kind: 'stop' } satisfies ScaleRequest);
-    await new Promise((r) => (child.exitCode !== null ? r(null) : child.once('exit', r)));
+    await child.stop();
   }
   const largest = SIZES.at(-1)!;
   const bytes = largest * SAMPLE_BYTES;

@@ -27,6 +27,7 @@ import { modeOf, rotationConfigOf } from '../services/core-mode';
 import { decodeVectorSamples } from '../services/vector-scoring';
 import { vectorCsvChunks } from '../../shared/link-engine/vector-sample-csv';
 import { readSessionPart, uploadedFile } from '../uploads/session-multipart';
+import { UploadScoring } from '../services/upload-scoring';
 import type { RouteDeps } from './deps';
 import { handler } from './handler';
 import { originOf } from './params';
@@ -59,7 +60,8 @@ export function sessionHandlers({ db, mailer }: RouteDeps) {
       const samples = uploadedFile(req, 'samples');
       if (!samples) throw new HttpError(400, 'invalid', 'samples: a multipart file named "samples" is required');
       const intake = { db, mailer, origin: originOf(req), operatorId: currentUser(req).id };
-      reply(res, sessionStoredReply, await acceptUpload(intake, part, samples.buffer, uploadedFile(req, 'archive')?.buffer ?? null), 201);
+      const archive = uploadedFile(req, 'archive')?.buffer ?? null;
+      reply(res, sessionStoredReply, await acceptUpload(intake, part, samples.buffer, archive, UploadScoring.of(req)), 201);
     }),
 
     /** Behind importUpload. */

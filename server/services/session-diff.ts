@@ -159,12 +159,16 @@ export function diffPacked(a: Uint8Array, b: Uint8Array, angleFormat: 'turn' | '
     return diffSessions(decodeSamples(a, angleFormat), decodeSamples(b, angleFormat), keep, binning);
   }
   const limit = keep ?? KEEP_DIFFERING;
-  const out: SessionDiff = { common: 0, differing: 0, maxAbsDiffLsb: 0, firstDiffering: [] };
+  const firstDiffering: DifferingCode[] = [];
   const byBin = { differing: new Array<number>(binning.bins).fill(0), maxAbsDiffLsb: new Array<number>(binning.bins).fill(0) };
   const { codes: codesA, values: va, n: na } = pa;
   const { codes: codesB, values: vb, n: nb } = pb;
   const endA = na * 3;
   const endB = nb * 3;
+  // Counters in locals, not object fields: this loop runs once per sample of both sessions.
+  let common = 0;
+  let differing = 0;
+  let maxAbsDiffLsb = 0;
   let i = 0;
   let j = 0;
   while (i < endA && j < endB) {
@@ -178,19 +182,21 @@ export function diffPacked(a: Uint8Array, b: Uint8Array, angleFormat: 'turn' | '
       j += 3;
       continue;
     }
-    out.common++;
-    const dCos = Math.abs(va[i + 1] - vb[j + 1]);
-    const dSin = Math.abs(va[i + 2] - vb[j + 2]);
-    if (dCos !== 0 || dSin !== 0) {
-      out.differing++;
+    common++;
+    const cosA = va[i + 1];
+    const sinA = va[i + 2];
+    const cosB = vb[j + 1];
+    const sinB = vb[j + 2];
+    if (cosA !== cosB || sinA !== sinB) {
+      const dCos = Math.abs(cosA - cosB);
+      const dSin = Math.abs(sinA - sinB);
+      differing++;
       const d = dCos > dSin ? dCos : dSin;
-      if (d > out.maxAbsDiffLsb) out.maxAbsDiffLsb = d;
+      if (d > maxAbsDiffLsb) maxAbsDiffLsb = d;
       const bin = binning.binOf(ca);
       byBin.differing[bin]++;
       if (d > byBin.maxAbsDiffLsb[bin]) byBin.maxAbsDiffLsb[bin] = d;
-      if (out.firstDiffering.length < limit) {
-        out.firstDiffering.push({ code: ca, a: { cos: va[i + 1], sin: va[i + 2] }, b: { cos: vb[j + 1], sin: vb[j + 2] } });
-      }
+      if (firstDiffering.length < limit) firstDiffering.push({ code: ca, a: { cos: cosA, sin: sinA }, b: { cos: cosB, sin: sinB } });
     }
     // A code answered more than once: its first answer stands, as in uniqueCodeOrder.
     i += 3;
@@ -198,5 +204,5 @@ export function diffPacked(a: Uint8Array, b: Uint8Array, angleFormat: 'turn' | '
     j += 3;
     while (j < endB && codesB[j] === cb) j += 3;
   }
-  return { ...out, byBin };
+  return { common, differing, maxAbsDiffLsb, firstDiffering, byBin };
 }

@@ -5,13 +5,14 @@ import type { Transaction } from 'sequelize';
 import { BenchSession, Board, Build, Core } from '../db/models';
 import { HttpError } from '../http-error';
 import { recordAudit } from './audit';
-import { decodeSamples, isTonePlan, judgeSession, regressedLimits, scorePackedSamples, sessionSpectrum, type LimitKey, type Verdict } from './session-scoring';
+import { decodeSamples, isTonePlan, judgeSession, regressedLimits, PackedScoring, sessionSpectrum, type LimitKey, type Verdict } from './session-scoring';
 import type { EnvelopeBounds } from './error-envelope';
 import type { StoredStats } from '../../shared/contract/sessions';
 import { decodeVectorSamples, judgeVectorSession, scoreVectorSamples } from './vector-scoring';
 import { modeOf, rotationConfigOf, vectorConfigOf } from './core-mode';
 import type { Conditions, SoakRecord } from '../../shared/soak';
 import { saveSessionConditions } from './session-conditions';
+import type { UploadScoring } from './upload-scoring';
 
 type Json = Record<string, unknown>;
 
@@ -79,9 +80,10 @@ async function resolveBoardId(draft: SessionDraft, transaction: Transaction): Pr
 }
 
 /** A rotation core's session: the ScoreSummary, with the spectra of a complete coherent tone. */
-function scoreRotation(core: Core, draft: SessionDraft, samples: Buffer, checkFailures: number | undefined) {
+function scoreRotation(core: Core, draft: SessionDraft, samples: Buffer, checkFailures: number | undefined, begun: UploadScoring | undefined) {
   const config = rotationConfigOf(core);
-  const { stats, profile, envelope, count } = scorePackedSamples(config, samples, config.angleFormat);
+  const scoring = begun?.take(core) ?? new PackedScoring(config, config.angleFormat);
+  const { stats, profile, envelope, count } = scoring.finish(samples);
   // Only a tone's spectrum needs every sample unpacked at once.
   const spectrum = isTonePlan(draft.plan) ? sessionSpectrum(draft.plan, config, decodeSamples(samples, config.angleFormat)) : null;
   const sfdrDb = spectrum ? Math.min(spectrum.cos.sfdrDbc, spectrum.sin.sfdrDbc) : undefined;
@@ -101,7 +103,9 @@ function scoreVectoring(core: Core, draft: SessionDraft, samples: Buffer, checkF
 
 /**
  * Score, judge and store one session inside `transaction`. `samples` is the packed sample format
- * of shared/link-engine/sample-pack.ts (for a vectoring core, vector-sample-pack.ts).
+ * of shared/link-engine/sample-pack.ts (for a vectoring core, vector-sample-pack.ts);
+ * `options.scoring`, an upload's scoring begun while its samples arrived, is finished when it is
+ * for this core. `options.action` names the audit entry.
  * @throws HttpError 400 for anything the caller got wrong.
  */
 export async function storeSession(
@@ -110,14 +114,14 @@ export async function storeSession(
   draft: SessionDraft,
   samples: Buffer,
   archive: Buffer | null,
-  audit: { action: string } = { action: 'upload' },
+  options: { action: string; scoring?: UploadScoring } = { action: 'upload' },
 ): Promise<StoredSession> {
   const core = await resolveCore(draft, transaction);
   const buildId = await resolveBuildId(draft, core, transaction);
   const boardId = await resolveBoardId(draft, transaction);
 
   const checkFailures = typeof draft.link?.checkFailures === 'number' ? draft.link.checkFailures : undefined;
-  const scored = modeOf(core) === 'vectoring' ? scoreVectoring(core, draft, samples, checkFailures) : scoreRotation(core, draft, samples, checkFailures);
+  const scored = modeOf(core) === 'vectoring' ? scoreVectoring(core, draft, samples, checkFailures) : scoreRotation(core, draft, samples, checkFailures, options.scoring);
   const { stored, verdict, passed, profile, envelope, sampleCount } = scored;
   const baseline = core.baselineSessionId ? await BenchSession.findByPk(core.baselineSessionId, { attributes: ['id', 'verdict'], transaction }) : null;
   const failedLimits = baseline ? regressedLimits(baseline.verdict, verdict) : [];
@@ -147,6 +151,6 @@ export async function storeSession(
     { transaction },
   );
   await saveSessionConditions(transaction, row.id, draft.conditions, draft.soak);
-  await recordAudit(transaction, operatorId, audit.action, 'session', row.id, { coreId: core.id, sampleCount: row.sampleCount, passed, regression: row.regression });
+  await recordAudit(transaction, operatorId, options.action, 'session', row.id, { coreId: core.id, sampleCount: row.sampleCount, passed, regression: row.regression });
   return { row, core, stats: stored, verdict, passed, failedLimits, envelope };
 }

@@ -10,6 +10,7 @@ import { mailRegression } from './regression-mail';
 import { readImport } from './session-import';
 import { resolveCore, storeSession, type StoredSession } from './session-ingest';
 import { modeOf } from './core-mode';
+import type { UploadScoring } from './upload-scoring';
 
 interface IntakeDeps {
   db: Sequelize;
@@ -30,10 +31,13 @@ async function accept({ db, mailer, origin }: IntakeDeps, store: (transaction: T
   return { id: row.id, url: `${origin}/sessions/${row.id}`, passed, regression: row.regression, verdict, stats };
 }
 
-/** An upload: the runner's own score fields are dropped, the server scores the samples itself. */
-export function acceptUpload(deps: IntakeDeps, part: SessionUploadPart, samples: Buffer, archive: Buffer | null) {
+/**
+ * An upload: the runner's own score fields are dropped, the server scores the samples itself
+ * (finishing `scoring`, begun while they arrived, when it is for this core).
+ */
+export function acceptUpload(deps: IntakeDeps, part: SessionUploadPart, samples: Buffer, archive: Buffer | null, scoring?: UploadScoring) {
   const { link, stats: _s, verdict: _v, passed: _p, sampleCount: _n, ...draft } = part;
-  return accept(deps, (transaction) => storeSession(transaction, deps.operatorId, { ...draft, link }, samples, archive));
+  return accept(deps, (transaction) => storeSession(transaction, deps.operatorId, { ...draft, link }, samples, archive, { action: 'upload', scoring }));
 }
 
 /** An import: what ran is read from the file; `part` says where it belongs. */

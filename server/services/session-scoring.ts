@@ -1,7 +1,7 @@
 // Scoring of an uploaded bench session on the server: the packed samples are decoded, scored with
 // the shared ScoreAccumulator under the core's own model configuration, and judged against the
 // core's limits. Nothing the client computed is trusted.
-import { SamplePackError, sampleCountOf, unpackSamples, unpackSamplesInto, type UnpackedSamples } from '../../shared/link-engine/sample-pack';
+import { SAMPLE_BYTES, SamplePackError, sampleCountOf, unpackSamples, unpackSamplesInto, type UnpackedSamples } from '../../shared/link-engine/sample-pack';
 import { HttpError } from '../http-error';
 import { ENVELOPE_BINS, type EnvelopeBounds } from './error-envelope';
 import { modelConfigSchema, limitsSchema } from '../schemas/core';
@@ -49,38 +49,95 @@ export function scoreSamples(modelConfig: unknown, samples: DecodedSamples): Ses
  * @throws HttpError 400 for a length that is not whole samples, or codes the model refuses.
  */
 export function scorePackedSamples(modelConfig: unknown, bytes: Uint8Array, angleFormat: 'turn' | 'rad'): SessionScore & { count: number } {
-  let count: number;
-  try {
-    count = sampleCountOf(bytes);
-  } catch (err) {
-    if (err instanceof SamplePackError) throw new HttpError(400, 'bad_samples', `samples: ${err.message}`);
-    throw err;
-  }
-  const size = Math.min(SCORE_BATCH, count);
-  const batch: DecodedSamples = { codes: new Float64Array(size), cos: new Int32Array(size), sin: new Int32Array(size) };
-  const score = scoreInBatches(modelConfig, count, (start, n) => {
-    unpackSamplesInto(bytes, angleFormat, start, n, batch);
-    return n === size ? batch : { codes: batch.codes.subarray(0, n), cos: batch.cos.subarray(0, n), sin: batch.sin.subarray(0, n) };
-  });
-  return { ...score, count };
+  return new PackedScoring(modelConfig, angleFormat).finish(bytes);
 }
 
-function scoreInBatches(modelConfig: unknown, count: number, batchAt: (start: number, n: number) => DecodedSamples): SessionScore {
+/**
+ * scorePackedSamples fed while the bytes arrive: `feed` scores each whole batch as soon as it is
+ * in, `finish` the rest. The batches and their order are scorePackedSamples', so the statistics
+ * are the same to the last bit however the bytes came.
+ */
+export class PackedScoring {
+  private readonly acc: ScoreAccumulator;
+  private batch: DecodedSamples | null = null;
+  /** Samples scored so far, a whole number of batches until `finish`. */
+  private scored = 0;
+
+  constructor(
+    modelConfig: unknown,
+    private readonly angleFormat: 'turn' | 'rad',
+  ) {
+    this.acc = accumulatorFor(modelConfig);
+  }
+
+  /** Score the whole batches among the first `size` bytes of `bytes` not scored yet. @throws HttpError 400 as scorePackedSamples. */
+  feed(bytes: Uint8Array, size: number): void {
+    const available = Math.floor(size / SAMPLE_BYTES);
+    while (available - this.scored >= SCORE_BATCH) this.score(bytes, SCORE_BATCH);
+  }
+
+  /** Score the rest of `bytes` (all the samples, the first ones as fed before). @throws HttpError 400 as scorePackedSamples. */
+  finish(bytes: Uint8Array): SessionScore & { count: number } {
+    let count: number;
+    try {
+      count = sampleCountOf(bytes);
+    } catch (err) {
+      if (err instanceof SamplePackError) throw new HttpError(400, 'bad_samples', `samples: ${err.message}`);
+      throw err;
+    }
+    if (count < this.scored) throw new Error(`finish: ${count} samples, but ${this.scored} were fed`);
+    while (this.scored < count) this.score(bytes, Math.min(SCORE_BATCH, count - this.scored));
+    return { ...summaryOf(this.acc), count };
+  }
+
+  private score(bytes: Uint8Array, n: number): void {
+    // One batch's columns, reused: sized for a whole batch unless the first is also the last.
+    this.batch ??= columns(n === SCORE_BATCH ? SCORE_BATCH : n);
+    const full = this.batch;
+    unpackSamplesInto(bytes, this.angleFormat, this.scored, n, full);
+    const batch = n === full.codes.length ? full : { codes: full.codes.subarray(0, n), cos: full.cos.subarray(0, n), sin: full.sin.subarray(0, n) };
+    addBatch(this.acc, batch, this.scored);
+    this.scored += n;
+  }
+}
+
+const columns = (n: number): DecodedSamples => ({ codes: new Float64Array(n), cos: new Int32Array(n), sin: new Int32Array(n) });
+
+/** @throws HttpError 400 for a configuration the scorer refuses. */
+function accumulatorFor(modelConfig: unknown): ScoreAccumulator {
   const config = modelConfigSchema.parse(modelConfig);
   try {
     // The compare view's error envelope is kept too, so comparing never scores the samples again.
-    const acc = new ScoreAccumulator(config, { profileBins: PROFILE_BINS, envelopeBins: ENVELOPE_BINS });
-    // In batches: the scorer's per-answer scratch stays a few MiB (cache-sized, no GC churn) where
-    // one batch of a million answers allocated ~60 MiB per upload. Its sums run in answer order
-    // across batches, so the statistics are the same to the last bit.
-    for (let start = 0; start < count; start += SCORE_BATCH) {
-      const { codes, cos, sin } = batchAt(start, Math.min(SCORE_BATCH, count - start));
-      acc.add(codes, cos, sin, start);
-    }
+    return new ScoreAccumulator(config, { profileBins: PROFILE_BINS, envelopeBins: ENVELOPE_BINS });
+  } catch (err) {
+    throw new HttpError(400, 'bad_samples', `samples: ${(err as Error).message}`);
+  }
+}
+
+/** @throws HttpError 400 for codes the model refuses. */
+function addBatch(acc: ScoreAccumulator, { codes, cos, sin }: DecodedSamples, start: number): void {
+  try {
+    acc.add(codes, cos, sin, start);
+  } catch (err) {
+    throw new HttpError(400, 'bad_samples', `samples: ${(err as Error).message}`);
+  }
+}
+
+function summaryOf(acc: ScoreAccumulator): SessionScore {
+  try {
     return { stats: acc.summary(), profile: acc.profile()!, envelope: acc.envelope()! };
   } catch (err) {
     throw new HttpError(400, 'bad_samples', `samples: ${(err as Error).message}`);
   }
+}
+
+function scoreInBatches(modelConfig: unknown, count: number, batchAt: (start: number, n: number) => DecodedSamples): SessionScore {
+  const acc = accumulatorFor(modelConfig);
+  // In batches: the scorer's per-answer scratch stays a few MiB (cache-sized, no GC churn) where
+  // one batch of a million answers allocated ~60 MiB per upload. Its sums run in answer order
+  // across batches, so the statistics are the same to the last bit.
+  for (let start = 0; start < count; start += SCORE_BATCH) addBatch(acc, batchAt(start, Math.min(SCORE_BATCH, count - start)), start);
+  return summaryOf(acc);
 }
 
 /** Whether a plan is a coherent tone, the one kind whose spectrum needs every sample unpacked. */

@@ -5,8 +5,11 @@
 import type { Request } from 'express';
 import type { StorageEngine } from 'multer';
 
+/** Told after each chunk of a file: its first `size` bytes are in `bytes` (a buffer that may be replaced as it grows). */
+export type PartProgress = (req: Request, field: string, bytes: Buffer, size: number) => void;
+
 /** Files in memory, each at most `limitBytes` (multer's own fileSize limit refuses beyond). */
-export function memoryParts(limitBytes: number): StorageEngine {
+export function memoryParts(limitBytes: number, onProgress?: PartProgress): StorageEngine {
   return {
     _handleFile(req: Request, file, cb) {
       const declared = Number(req.headers['content-length']);
@@ -21,6 +24,7 @@ export function memoryParts(limitBytes: number): StorageEngine {
         }
         chunk.copy(buf, size);
         size += chunk.length;
+        onProgress?.(req, file.fieldname, buf, size);
       });
       file.stream.on('error', (err: Error) => cb(err));
       file.stream.on('end', () => {

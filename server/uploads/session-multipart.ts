@@ -4,11 +4,14 @@ import type { Request, RequestHandler } from 'express';
 import multer from 'multer';
 import type { z } from 'zod';
 import { HttpError } from '../http-error';
-import { memoryParts } from './memory-parts';
+import { memoryParts, type PartProgress } from './memory-parts';
 
-/** POST /api/sessions: one `session` field, `samples` and an optional `archive` (413 beyond the limit). */
-export function sessionUpload(limitBytes: number): RequestHandler {
-  const upload = multer({ storage: memoryParts(limitBytes), limits: { fileSize: limitBytes, files: 2, fields: 1, fieldSize: 1024 * 1024 } }).fields([
+/**
+ * POST /api/sessions: one `session` field, `samples` and an optional `archive` (413 beyond the
+ * limit); `onProgress` hears each chunk of the files as it lands.
+ */
+export function sessionUpload(limitBytes: number, onProgress?: PartProgress): RequestHandler {
+  const upload = multer({ storage: memoryParts(limitBytes, onProgress), limits: { fileSize: limitBytes, files: 2, fields: 1, fieldSize: 1024 * 1024 } }).fields([
     { name: 'samples', maxCount: 1 },
     { name: 'archive', maxCount: 1 },
   ]);

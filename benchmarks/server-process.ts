@@ -1,13 +1,15 @@
-// The scale benchmark's server: the app (as server-fixture.ts builds it, SQLite file) in a child
-// process of its own, so the memory it reports is the server's alone. It tells its parent over
-// IPC where it listens, and answers two questions: `mark` (collect garbage, reset the kernel's
-// peak-RSS mark, answer the RSS now) and `peak` (the peak RSS since the last mark).
+// The app server (as server-fixture.ts builds it, on the database named by its first argument:
+// `sqlite`, the default, or `postgres`) in a child process of its own, as it runs in production:
+// the client's work (the runner's upload, the page's fetch) then runs beside it, not on its
+// thread, and the memory it reports is the server's alone. It tells its parent over IPC where it
+// listens, and answers two questions: `mark` (collect garbage, reset the kernel's peak-RSS mark,
+// answer the RSS now) and `peak` (the peak RSS since the last mark).
 import { readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { Core } from '../server/db/models';
-import { bareDriver } from './bare-driver';
+import { bareDriver, type BenchDialect } from './bare-driver';
 import { startBenchServer } from './server-fixture';
-import { SCALE_CORE_CONFIG, type ScaleReply, type ScaleRequest } from './scale-protocol';
+import { SCALE_CORE_CONFIG, type ServerReply, type ServerRequest } from './server-process-protocol';
 
 /** VmHWM of /proc/self/status (Linux): the resident-set peak since the process began or the last reset. */
 function peakRss(): number {
@@ -16,9 +18,10 @@ function peakRss(): number {
   return Number(m[1]) * 1024;
 }
 
-const server = await startBenchServer('sqlite');
+const dialect: BenchDialect = process.argv[2] === 'postgres' ? 'postgres' : 'sqlite';
+const server = await startBenchServer(dialect);
 const core = await Core.create({ name: 'Twenty-two-bit core', slug: 'bench-22', linkProfile: {}, modelConfig: SCALE_CORE_CONFIG, limits: { maxAbsErrorLsb: 4 }, baselineSessionId: null });
-const send = (m: ScaleReply) => process.send!(m);
+const send = (m: ServerReply) => process.send!(m);
 
 /** Collect garbage and reset the peak mark; the RSS now. */
 function mark(): number {
@@ -30,6 +33,7 @@ function mark(): number {
 
 /** The baseline: the peak growth of the bare sqlite3 driver inserting `bytes` as one blob (WAL, as the app). */
 async function bareInsertGrowth(bytes: number): Promise<number> {
+  if (dialect !== 'sqlite') throw new Error('the bare insert growth is measured on SQLite');
   const db = await bareDriver(`sqlite:${path.join(path.dirname(server.t.config.databaseUrl.slice('sqlite:'.length)), 'bare-scale.sqlite')}`);
   try {
     await db.query('PRAGMA journal_mode = WAL');
@@ -43,7 +47,7 @@ async function bareInsertGrowth(bytes: number): Promise<number> {
   }
 }
 
-process.on('message', (m: ScaleRequest) => {
+process.on('message', (m: ServerRequest) => {
   if (m.kind === 'mark') {
     const rss = mark();
     send({ kind: 'mark', rss, peak: peakRss() });
@@ -55,4 +59,4 @@ process.on('message', (m: ScaleRequest) => {
     void server.close().then(() => process.exit(0));
   }
 });
-send({ kind: 'ready', url: server.url, token: server.token, coreSlug: core.slug });
+send({ kind: 'ready', url: server.url, token: server.token, coreSlug: core.slug, bigCoreSlug: server.bigCore.slug, dialect });
