@@ -129,7 +129,7 @@ export async function pageBench(): Promise<BenchResult[]> {
     // A fresh connection first, so nothing the aborted run left in the socket's buffers is counted.
     await page.getByRole('button', { name: 'Disconnect' }).click();
     await connect(page, board.url);
-    await page.getByRole('region', { name: 'Line traffic' }).getByRole('button', { name: 'Pause' }).click();
+    await page.getByRole('region', { name: 'Line traffic' }).getByRole('button', { name: 'Freeze traffic view', exact: true }).click();
     const quiet = await measureRun(page, heapMb, RUN_MS / 2, cdp, 'traffic-paused', browser);
     const fps = main.fps;
     const { heapStart, heapMid, heapEnd, rate } = main;
