@@ -115,6 +115,17 @@ async function readManifest(file: string) {
   return { entries, manifest };
 }
 
+/** Statistics and a visibility map for every table of the PostgreSQL database at `url`. */
+async function vacuumAnalyze(url: string): Promise<void> {
+  const client = new pg.Client({ connectionString: url });
+  await client.connect();
+  try {
+    await client.query('VACUUM ANALYZE');
+  } finally {
+    await client.end();
+  }
+}
+
 /** Why the database is not empty, or null when it is (no tables at all). */
 async function whyNotEmpty(target: Target): Promise<string | null> {
   if (target.dialect === 'postgres') {
@@ -167,6 +178,9 @@ export async function restoreBackup(opts: { databaseUrl: string; uploadDir: stri
       await extractEntry(file, dbEntry, dump);
       // One transaction: a failure leaves the database as empty as it was.
       await runTool(findPgTool('pg_restore'), ['--no-owner', '--no-privileges', '--single-transaction', '--exit-on-error', '--dbname', target.url, dump]);
+      // A dump carries no planner statistics: without them the sessions list's count scans the
+      // whole table until autovacuum comes round (about a minute). pg_restore's manual advises this.
+      await vacuumAnalyze(target.url);
     } finally {
       fs.rmSync(work, { recursive: true, force: true });
     }

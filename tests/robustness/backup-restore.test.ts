@@ -7,6 +7,7 @@ import { spawn } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
+import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { projectRoot } from '../../server/paths';
 import { listTar } from '../../server/backup/tar';
@@ -84,6 +85,18 @@ describe(`backup and restore (${source.dialect})`, () => {
     const restore = await runCli('restore-cli', restored, [backupFile]);
     expect(restore.output).toMatch(/Restored the \w+ database/);
     expect(restore.code).toBe(0);
+    if (restored.dialect === 'postgres') {
+      // A dump carries no planner statistics; the restore gathers them, as pg_restore's manual advises.
+      const client = new pg.Client({ connectionString: restored.url });
+      await client.connect();
+      try {
+        const { rows } = await client.query("SELECT last_vacuum, last_analyze FROM pg_stat_user_tables WHERE relname = 'sessions'");
+        expect(rows[0].last_vacuum).not.toBeNull();
+        expect(rows[0].last_analyze).not.toBeNull();
+      } finally {
+        await client.end();
+      }
+    }
     copy = await startServerProcess(restored);
     const onCopy = await signInOverHttp(copy.url, 'engineer@anglebench.test', 'anglebench');
 
