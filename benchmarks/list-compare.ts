@@ -169,16 +169,29 @@ async function listCompareOn(dialect: BenchDialect, big: ReturnType<typeof bigEx
 
     // --- the list
     const list = filters(seeded);
-    const listMs: number[] = [];
-    for (const f of list) {
-      let status = 0;
-      listMs.push(await timeMs(async () => {
-        const res = await fetch(`${server.url}/api/sessions?${queryString(f)}`, { headers });
-        status = res.status;
-        await res.json();
-      }));
-      if (status !== 200) throw new Error(`GET /api/sessions?${queryString(f)} answered ${status}`);
+    const timeList = async () => {
+      const ms: number[] = [];
+      for (const f of list) {
+        let status = 0;
+        ms.push(await timeMs(async () => {
+          const res = await fetch(`${server.url}/api/sessions?${queryString(f)}`, { headers });
+          status = res.status;
+          await res.json();
+        }));
+        if (status !== 200) throw new Error(`GET /api/sessions?${queryString(f)} answered ${status}`);
+      }
+      return ms;
+    };
+    // Straight after the bulk load PostgreSQL has no statistics and no visibility map for the new
+    // rows, so each page's count scans the whole table. Its autovacuum vacuums and analyses such a
+    // load by itself (measured: 60 s after the seed's commit, at the default one-minute naptime);
+    // a lab's database lives in that state. Both are printed; the target reads the settled one.
+    let freshMs: number[] | null = null;
+    if (dialect === 'postgres') {
+      freshMs = await timeList();
+      await server.t.db.query('VACUUM ANALYZE sessions');
     }
+    const listMs = await timeList();
     const sqls = await Promise.all(list.map(selectSql));
     const bare = await bareDriver(server.t.config.databaseUrl, { readOnly: true });
     const bareMs: number[] = [];
@@ -189,6 +202,7 @@ async function listCompareOn(dialect: BenchDialect, big: ReturnType<typeof bigEx
     }
     const p50 = quantile(listMs, 0.5);
     const p95 = quantile(listMs, 0.95);
+    if (freshMs) console.log(`  ${dialect} list straight after the bulk load (before autovacuum): p50 ${quantile(freshMs, 0.5).toFixed(1)} ms, p95 ${quantile(freshMs, 0.95).toFixed(1)} ms`);
     console.log(`  ${dialect} list: p50 ${p50.toFixed(1)} ms, p95 ${p95.toFixed(1)} ms, max ${Math.max(...listMs).toFixed(1)} ms; bare ${bare.name} SELECT p50 ${quantile(bareMs, 0.5).toFixed(2)} ms, p95 ${quantile(bareMs, 0.95).toFixed(2)} ms`);
 
     // --- the compare: two 1,048,576-sample sessions; the second answers 1 LSB high on every 97th code
@@ -250,6 +264,9 @@ async function listCompareOn(dialect: BenchDialect, big: ReturnType<typeof bigEx
     return [
       { name: named('list-p50'), value: p50, unit: 'ms per GET /api/sessions', ratio: p50 / quantile(bareMs, 0.5), ratioOf: `p50 ÷ bare ${bare.name} SELECT … LIMIT 25 p50`, target: null, met: null },
       { name: named('list-p95'), value: p95, unit: 'ms per GET /api/sessions', ratio: p95 / bareP95, ratioOf: `p95 ÷ bare ${bare.name} SELECT … LIMIT 25 p95`, target: 'ratio ≤ 3', met: p95 / bareP95 <= 3 },
+      ...(freshMs
+        ? [{ name: named('list-p95-before-autovacuum'), value: quantile(freshMs, 0.95), unit: 'ms per GET /api/sessions, straight after the bulk load', ratio: quantile(freshMs, 0.95) / bareP95, ratioOf: `p95 ÷ bare ${bare.name} SELECT … LIMIT 25 p95 (after the vacuum)`, target: null, met: null }]
+        : []),
       { name: named('compare'), value: cmp, unit: 'ms per GET /api/compare (2 × 1,048,576 samples)', ratio: cmp / median(loopMs), ratioOf: 'compare time ÷ bare typed-array diff loop', target: 'ratio ≤ 20', met: cmp / median(loopMs) <= 20 },
       { name: named('compare-bare-read'), value: median(readMs), unit: 'ms to read the two sessions\' samples (2 × 12 MiB) with the bare driver', ratio: cmp / median(readMs), ratioOf: 'compare time ÷ this read', target: null, met: null },
     ];
