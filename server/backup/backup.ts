@@ -10,8 +10,8 @@ import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import pg from 'pg';
 import sqlite3 from 'sqlite3';
+import { pgQuery } from '../db/pg-query';
 import { findPgTool, runTool } from './pg-tools';
 import { extractEntry, listTar, readEntry, TarWriter } from './tar';
 
@@ -115,28 +115,12 @@ async function readManifest(file: string) {
   return { entries, manifest };
 }
 
-/** Statistics and a visibility map for every table of the PostgreSQL database at `url`. */
-async function vacuumAnalyze(url: string): Promise<void> {
-  const client = new pg.Client({ connectionString: url });
-  await client.connect();
-  try {
-    await client.query('VACUUM ANALYZE');
-  } finally {
-    await client.end();
-  }
-}
 
 /** Why the database is not empty, or null when it is (no tables at all). */
 async function whyNotEmpty(target: Target): Promise<string | null> {
   if (target.dialect === 'postgres') {
-    const client = new pg.Client({ connectionString: target.url });
-    await client.connect();
-    try {
-      const { rows } = await client.query<{ n: string }>("SELECT count(*) AS n FROM information_schema.tables WHERE table_schema NOT IN ('pg_catalog', 'information_schema')");
-      return Number(rows[0].n) > 0 ? `the database holds ${rows[0].n} table(s)` : null;
-    } finally {
-      await client.end();
-    }
+    const rows = await pgQuery<{ n: string }>(target.url, "SELECT count(*) AS n FROM information_schema.tables WHERE table_schema NOT IN ('pg_catalog', 'information_schema')");
+    return Number(rows[0].n) > 0 ? `the database holds ${rows[0].n} table(s)` : null;
   }
   if (!fs.existsSync(target.file)) return null;
   const db = await openSqlite(target.file, sqlite3.OPEN_READONLY);
@@ -180,7 +164,7 @@ export async function restoreBackup(opts: { databaseUrl: string; uploadDir: stri
       await runTool(findPgTool('pg_restore'), ['--no-owner', '--no-privileges', '--single-transaction', '--exit-on-error', '--dbname', target.url, dump]);
       // A dump carries no planner statistics: without them the sessions list's count scans the
       // whole table until autovacuum comes round (about a minute). pg_restore's manual advises this.
-      await vacuumAnalyze(target.url);
+      await pgQuery(target.url, 'VACUUM ANALYZE');
     } finally {
       fs.rmSync(work, { recursive: true, force: true });
     }

@@ -7,10 +7,10 @@ import { spawn } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
-import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { projectRoot } from '../../server/paths';
 import { listTar } from '../../server/backup/tar';
+import { pgQuery } from '../../server/db/pg-query';
 import { tempDatabase, type TempDatabase } from '../support/temp-db';
 import { modelSamples, sessionForm, sessionPart, signInOverHttp, type HttpSession } from './support/http-session';
 import { startServerProcess, uploadDirOf, type ServerProcess } from './support/server-process';
@@ -87,15 +87,9 @@ describe(`backup and restore (${source.dialect})`, () => {
     expect(restore.code).toBe(0);
     if (restored.dialect === 'postgres') {
       // A dump carries no planner statistics; the restore gathers them, as pg_restore's manual advises.
-      const client = new pg.Client({ connectionString: restored.url });
-      await client.connect();
-      try {
-        const { rows } = await client.query("SELECT last_vacuum, last_analyze FROM pg_stat_user_tables WHERE relname = 'sessions'");
-        expect(rows[0].last_vacuum).not.toBeNull();
-        expect(rows[0].last_analyze).not.toBeNull();
-      } finally {
-        await client.end();
-      }
+      const [stats] = await pgQuery<{ last_vacuum: Date | null; last_analyze: Date | null }>(restored.url, "SELECT last_vacuum, last_analyze FROM pg_stat_user_tables WHERE relname = 'sessions'");
+      expect(stats.last_vacuum).not.toBeNull();
+      expect(stats.last_analyze).not.toBeNull();
     }
     copy = await startServerProcess(restored);
     const onCopy = await signInOverHttp(copy.url, 'engineer@anglebench.test', 'anglebench');

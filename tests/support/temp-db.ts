@@ -2,7 +2,7 @@ import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import pg from 'pg';
+import { pgQuery } from '../../server/db/pg-query';
 
 export interface TempDatabase {
   /** A temporary folder of the test's own (uploads, secrets…), removed by `cleanup`. */
@@ -26,7 +26,7 @@ export async function tempDatabase(options: { dialect?: 'sqlite' | 'postgres' } 
   if (!adminUrl) return { dir, url: `sqlite:${path.join(dir, 'test.sqlite')}`, dialect: 'sqlite', cleanup: async () => removeDir() };
 
   const name = `anglebench_test_${randomBytes(6).toString('hex')}`;
-  await adminQuery(adminUrl, `CREATE DATABASE ${name}`);
+  await pgQuery(adminUrl, `CREATE DATABASE ${name}`);
   const url = new URL(adminUrl);
   url.pathname = `/${name}`;
   return {
@@ -35,18 +35,8 @@ export async function tempDatabase(options: { dialect?: 'sqlite' | 'postgres' } 
     dialect: 'postgres',
     cleanup: async () => {
       // FORCE: a server process killed by the test may have left connections behind.
-      await adminQuery(adminUrl, `DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
+      await pgQuery(adminUrl, `DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
       removeDir();
     },
   };
-}
-
-async function adminQuery(adminUrl: string, sql: string): Promise<void> {
-  const client = new pg.Client({ connectionString: adminUrl });
-  await client.connect();
-  try {
-    await client.query(sql);
-  } finally {
-    await client.end();
-  }
 }
