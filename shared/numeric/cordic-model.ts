@@ -48,7 +48,6 @@ export function readAngle(c: ModelConfig, t: CordicTables, code: number): number
   return z;
 }
 
-/** Creates a model from a (partial) configuration. @throws ModelConfigError */
 /**
  * Whether every value of the iteration stays a 32-bit integer: |x|, |y| stay below about 2^(F+1)
  * (the rotation keeps the vector's length near x0/K ≤ 2^F), |z| below a turn plus Σ atan, and

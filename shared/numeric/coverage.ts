@@ -4,6 +4,12 @@
 import { angleCodeRange, type AngleFormat } from './formats';
 
 const BITSET_MAX_BITS = 24;
+/** How many bits are set in each byte value. */
+const BITS_SET = Uint8Array.from({ length: 256 }, (_, b) => {
+  let n = 0;
+  for (let v = b; v !== 0; v &= v - 1) n++;
+  return n;
+});
 const TWO_PI = 2 * Math.PI;
 
 /** The octant 0..7 of the circle an angle code falls in (angle mod 2π, in steps of π/4). */
@@ -54,7 +60,12 @@ export class CodeCoverage {
   private readonly min: number;
   /** octantOfCode with the power of two hoisted for `turn` (exact: 8 / 2^bits is a power of two). */
   private readonly octantOf: (code: number) => number;
-  readonly perOctant = new Float64Array(8);
+  /**
+   * Codes seen per octant, counted as they come; null where summary() counts them in the bit set
+   * instead (`turn` from 6 bits up: each octant is then a run of whole bytes), which spares the
+   * scorer's loop an octant and a count per new code.
+   */
+  private readonly perOctant: Float64Array | null;
   distinct = 0;
 
   constructor(readonly format: AngleFormat) {
@@ -64,6 +75,7 @@ export class CodeCoverage {
     const useBits = format.angleBits <= BITSET_MAX_BITS;
     this.bits = useBits ? new Uint8Array(Math.ceil(2 ** format.angleBits / 8)) : null;
     this.sparse = useBits ? null : new Set<number>();
+    this.perOctant = useBits && format.angleFormat === 'turn' && format.angleBits >= 6 ? null : new Float64Array(8);
   }
 
   /** Marks one code as seen; the code must be in the format (the scorer checks it). */
@@ -79,7 +91,7 @@ export class CodeCoverage {
       this.sparse!.add(code);
     }
     this.distinct++;
-    this.perOctant[this.octantOf(code)]++;
+    if (this.perOctant) this.perOctant[this.octantOf(code)]++;
   }
 
   /** Marks codes[0..n) as seen: add() per code, with the bit set's arithmetic in integers. */
@@ -100,9 +112,21 @@ export class CodeCoverage {
       if (b & mask) continue;
       bits[byte] = b | mask;
       distinct++;
-      perOctant[octantOf(code)]++;
+      if (perOctant) perOctant[octantOf(code)]++;
     }
     this.distinct = distinct;
+  }
+
+  /** Codes seen per octant: counted as they came, or now in the bit set. */
+  private octantCounts(): ArrayLike<number> {
+    if (this.perOctant) return this.perOctant;
+    const bits = this.bits!;
+    const bytesPerOctant = bits.length / 8; // whole: `turn` with at least 6 bits
+    return Array.from({ length: 8 }, (_, o) => {
+      let n = 0;
+      for (let i = o * bytesPerOctant, end = i + bytesPerOctant; i < end; i++) n += BITS_SET[bits[i]];
+      return n;
+    });
   }
 
   /** True when the code has been seen. */
@@ -132,14 +156,15 @@ export class CodeCoverage {
   summary(): CoverageSummary {
     const total = 2 ** this.format.angleBits;
     const sizes = codesPerOctant(this.format);
+    const perOctant = this.octantCounts();
     return {
       distinct: this.distinct,
       total,
       share: this.distinct / total,
       octants: sizes.map((size, o) => ({
-        distinct: this.perOctant[o],
+        distinct: perOctant[o],
         total: size,
-        share: size === 0 ? 1 : Math.min(1, this.perOctant[o] / size),
+        share: size === 0 ? 1 : Math.min(1, perOctant[o] / size),
       })),
     };
   }

@@ -94,10 +94,11 @@ export class ErrorHistogram {
 
   /** Adds one error in LSB. */
   add(errLsb: number): void {
-    const bin = Math.floor((errLsb + this.options.limitLsb) * this.options.binsPerLsb);
-    if (bin < 0) this.below++;
-    else if (bin >= this.counts.length) this.above++;
-    else this.counts[bin]++;
+    // The bin is floor(t); for 0 ≤ t < bins that is t | 0, without a call.
+    const t = (errLsb + this.options.limitLsb) * this.options.binsPerLsb;
+    if (t < 0) this.below++;
+    else if (t >= this.counts.length) this.above++;
+    else this.counts[t | 0]++;
   }
 
   /** Adds errors[0..n) in LSB. */

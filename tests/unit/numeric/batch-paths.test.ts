@@ -2,7 +2,7 @@
 // its one-value add() counts, including the edges of the histogram and every octant.
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { CodeCoverage } from '../../../shared/numeric/coverage';
+import { CodeCoverage, octantOfCode } from '../../../shared/numeric/coverage';
 import { ErrorHistogram } from '../../../shared/numeric/error-stats';
 import { angleCodeRange, type AngleFormat } from '../../../shared/numeric/formats';
 
@@ -24,6 +24,24 @@ describe('CodeCoverage.addAll', () => {
         all.addAll(Float64Array.from(codes), codes.length);
         expect(all.summary()).toEqual(one.summary());
         expect(all.distinct).toBe(new Set(codes).size);
+      }),
+      { numRuns: 40 },
+    );
+  });
+});
+
+describe('CodeCoverage octants', () => {
+  // Counted in the bit set at summary time for `turn` from 6 bits up; checked here against
+  // octantOfCode's classification of each distinct code.
+  it.each([6, 7, 16])('counts each octant\'s distinct codes as octantOfCode classifies them (turn, %i bits)', (bits) => {
+    const f: AngleFormat = { angleFormat: 'turn', angleBits: bits, angleFrac: 0 };
+    fc.assert(
+      fc.property(fc.array(fc.integer({ min: 0, max: 2 ** bits - 1 }), { maxLength: 3000 }), (codes) => {
+        const cov = new CodeCoverage(f);
+        cov.addAll(Float64Array.from(codes), codes.length);
+        const want = new Array<number>(8).fill(0);
+        for (const c of new Set(codes)) want[octantOfCode(f, c)]++;
+        expect(cov.summary().octants.map((o) => o.distinct)).toEqual(want);
       }),
       { numRuns: 40 },
     );
@@ -54,5 +72,10 @@ describe('ErrorHistogram.addAll', () => {
     expect(h.counts[63]).toBe(1);
     expect(h.counts[32]).toBe(1);
     expect([h.below, h.above]).toEqual([1, 1]);
+    // One at a time (as the scorer's loop adds them), the same bins.
+    const one = new ErrorHistogram();
+    for (const x of [-8, 7.99, 8, -8.25, 0]) one.add(x);
+    expect(Array.from(one.counts)).toEqual(Array.from(h.counts));
+    expect([one.below, one.above]).toEqual([1, 1]);
   });
 });

@@ -163,6 +163,49 @@ describe('scoring', () => {
     );
   });
 
+  it('scores the same to the last bit in RESULTS-sized frames, in random pieces or in one batch', () => {
+    // Short batches are gathered before scoring; every sum must still run in answer order.
+    const cfg: ModelConfigInput = { angleBits: 14, outBits: 14, outFrac: 12, iterations: 13 };
+    const codes = planCodes({ kind: 'exhaustive' }, { angleFormat: 'turn', angleBits: 14, angleFrac: 0 });
+    const a = answers(cfg, codes, (c, r) => (c % 7 === 0 ? { cos: r.cos + 1, sin: r.sin } : c % 1000 === 5 ? { cos: 0, sin: 0 } : r));
+    const opts = { profileBins: 64, envelopeBins: 100 };
+    const whole = new ScoreAccumulator(cfg, opts).add(a.codes, a.cos, a.sin);
+    const framed = new ScoreAccumulator(cfg, opts);
+    for (let at = 0; at < codes.length; at += 62) framed.add(a.codes.slice(at, at + 62), a.cos.slice(at, at + 62), a.sin.slice(at, at + 62), at);
+    fc.assert(
+      fc.property(fc.array(fc.integer({ min: 1, max: 3000 }), { minLength: 1, maxLength: 40 }), (sizes) => {
+        const pieces = new ScoreAccumulator(cfg, opts);
+        let at = 0;
+        for (let i = 0; at < codes.length; i++) {
+          const n = sizes[i % sizes.length];
+          pieces.add(a.codes.slice(at, at + n), a.cos.slice(at, at + n), a.sin.slice(at, at + n), at);
+          // Reading the statistics midway must not change what comes after.
+          if (i % 5 === 4) pieces.summary();
+          at += n;
+        }
+        expect(pieces.summary()).toEqual(whole.summary());
+        expect(pieces.profile()).toEqual(whole.profile());
+        expect(pieces.envelope()).toEqual(whole.envelope());
+      }),
+      { numRuns: 15 },
+    );
+    expect(framed.summary()).toEqual(whole.summary());
+    expect(framed.envelope()).toEqual(whole.envelope());
+    expect(whole.summary().mismatches.count).toBe(a.codes.filter((c) => c % 7 === 0 || c % 1000 === 5).length);
+  });
+
+  it('refuses a batch with a bad value whole, naming the value, and keeps what it had', () => {
+    const a = answers(base, [1, 2, 3, 4]);
+    const acc = new ScoreAccumulator(base).add(a.codes.slice(0, 2), a.cos.slice(0, 2), a.sin.slice(0, 2));
+    const before = acc.summary();
+    expect(() => acc.add([3, 4, 1024], [a.cos[2], a.cos[3], 0], [a.sin[2], a.sin[3], 0])).toThrow(/^codes\[2\]: angle code 1024 is not an integer 0\.\.1023/);
+    expect(() => acc.add([3, 4], [a.cos[2], 2048], [a.sin[2], 0])).toThrow(/output code 2048/);
+    expect(() => acc.add([3, 4.5], [0, 0], [0, 0])).toThrow(/codes\[1\]: angle code 4\.5/);
+    expect(acc.summary()).toEqual(before);
+    acc.add(a.codes.slice(2), a.cos.slice(2), a.sin.slice(2));
+    expect(acc.summary()).toEqual(new ScoreAccumulator(base).add(a.codes, a.cos, a.sin).summary());
+  });
+
   it('refuses answers the output format cannot hold and batches of unequal length', () => {
     const acc = new ScoreAccumulator(base);
     expect(() => acc.add([1], [4096], [0])).toThrow(/output code 4096/);
