@@ -2,7 +2,7 @@
 // with its side-by-side ratio, and writes benchmarks/results/latest.json. Exit 1 if any target is
 // missed, 2 for an unknown name or a benchmark that failed to run.
 import { loadavg } from 'node:os';
-import { postgresFor } from './postgres';
+import { needsPostgres, postgresFor } from './postgres';
 import { markdownTable, printResult, writeResults, type BenchResult } from './report';
 
 type Bench = () => Promise<BenchResult[]>;
@@ -56,6 +56,10 @@ async function main(): Promise<number> {
       console.error(`bench ${name} failed: ${(e as Error).stack ?? String(e)}`);
     }
     console.log(`(${name}: ${((performance.now() - t0) / 1000).toFixed(1)} s)`);
+    // Stopped as soon as no benchmark left needs it: after list-compare's 100,000 sessions its
+    // checkpointer goes on writing for minutes, which the page benchmark after it would share
+    // the machine with.
+    if (!names.slice(names.indexOf(name) + 1).some(needsPostgres)) await stopPostgres();
   }
   await stopPostgres();
   console.log(`\n${markdownTable(results)}\n\nwrote ${writeResults(results)}`);

@@ -6,9 +6,12 @@ import { startCluster } from '../scripts/postgres-cluster';
 
 const NEEDS_POSTGRES = new Set(['ingest', 'list-compare']);
 
+/** Whether the benchmark `name` measures PostgreSQL too. */
+export const needsPostgres = (name: string) => NEEDS_POSTGRES.has(name);
+
 /** Starts a cluster if one of `names` needs it; resolves to what stops it again. */
 export async function postgresFor(names: string[]): Promise<() => Promise<void>> {
-  if (!names.some((n) => NEEDS_POSTGRES.has(n)) || process.env.ANGLEBENCH_TEST_PG) return async () => undefined;
+  if (!names.some(needsPostgres) || process.env.ANGLEBENCH_TEST_PG) return async () => undefined;
   const cluster = await startCluster({ durable: true });
   process.env.ANGLEBENCH_TEST_PG = cluster.adminUrl;
   for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP'] as const) {
