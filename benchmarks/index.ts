@@ -35,19 +35,17 @@ async function main(): Promise<number> {
   const names = asked.length > 0 ? asked : Object.keys(BENCHES);
   // Every figure here is wall time on a shared machine: say how busy it was.
   const load = () => loadavg().map((l) => l.toFixed(1)).join(' / ');
-  let stopPostgres: () => Promise<void>;
-  try {
-    stopPostgres = await postgresFor(names);
-  } catch (e) {
-    console.error(`bench: PostgreSQL is needed for ${names.join(', ')} and could not start: ${(e as Error).message}`);
-    return 2;
-  }
+  // PostgreSQL runs only while the benchmarks that measure it do. The others (hosted-board,
+  // page, station) then start their servers on SQLite, the product's default, as they do when
+  // run alone; with the cluster's address set for the whole run they had used PostgreSQL.
+  let stopPostgres: (() => Promise<void>) | null = null;
   const results: BenchResult[] = [];
   let failed = false;
-  for (const name of names) {
+  for (const [i, name] of names.entries()) {
     console.log(`\n== ${name}   (load average ${load()})`);
     const t0 = performance.now();
     try {
+      if (needsPostgres(name)) stopPostgres ??= await postgresFor([name]);
       const rs = await BENCHES[name]();
       for (const r of rs) printResult(r);
       results.push(...rs);
@@ -56,12 +54,11 @@ async function main(): Promise<number> {
       console.error(`bench ${name} failed: ${(e as Error).stack ?? String(e)}`);
     }
     console.log(`(${name}: ${((performance.now() - t0) / 1000).toFixed(1)} s)`);
-    // Stopped as soon as no benchmark left needs it: after list-compare's 100,000 sessions its
-    // checkpointer goes on writing for minutes, which the page benchmark after it would share
-    // the machine with.
-    if (!names.slice(names.indexOf(name) + 1).some(needsPostgres)) await stopPostgres();
+    if (stopPostgres && !names.slice(i + 1).some(needsPostgres)) {
+      await stopPostgres();
+      stopPostgres = null;
+    }
   }
-  await stopPostgres();
   console.log(`\n${markdownTable(results)}\n\nwrote ${writeResults(results)}`);
   if (failed) return 2;
   return results.some((r) => r.met === false) ? 1 : 0;

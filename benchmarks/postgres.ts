@@ -17,5 +17,10 @@ export async function postgresFor(names: string[]): Promise<() => Promise<void>>
   for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP'] as const) {
     process.once(signal, () => void cluster.stop().finally(() => process.exit(128 + os.constants.signals[signal])));
   }
-  return cluster.stop;
+  // Unset once stopped: the benchmarks after it (page, station) then start their servers on
+  // SQLite, the product's default, as they do when run alone.
+  return async () => {
+    await cluster.stop();
+    delete process.env.ANGLEBENCH_TEST_PG;
+  };
 }
