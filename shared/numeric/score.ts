@@ -217,9 +217,10 @@ export class ScoreAccumulator {
   }
 
   /**
-   * The per-answer errors of a batch and the four moments, in one pass: what four
-   * ErrorMoments.addAll passes give to the last bit (the same sums in the same order, the same
-   * worst-case rule), in about half the time.
+   * The per-answer errors of a batch, the four moments and the two histograms, in one pass: what
+   * ErrorMoments.addAll and ErrorHistogram.addAll passes over the errors give, to the last bit
+   * (the same sums in the same order, the same worst-case rule, the same bins), in about half
+   * the time of those six passes.
    */
   private errorPass(codes: ArrayLike<number>, cos: ArrayLike<number>, sin: ArrayLike<number>, firstIndex: number, n: number): void {
     const c = this.config;
