@@ -5,6 +5,7 @@ import { errorReply } from '../shared/contract/common';
 import { isCrc8Name, type Crc8Name } from '../shared/link';
 import { parseModelConfig, type ModelConfig } from '../shared/numeric';
 import { parseVectorConfig, type VectorConfig } from '../shared/vectoring';
+import { multipartBody } from './multipart-body';
 import { parseLimits, type Limits } from './run-verdict';
 
 export type Fetch = typeof fetch;
@@ -129,14 +130,22 @@ export interface SessionUpload {
  * when the server names them.
  */
 export async function uploadSession(fetchImpl: Fetch, server: { url: string; token: string }, upload: SessionUpload): Promise<{ id: number | null; url: string | null }> {
-  const form = new FormData();
-  form.set('session', JSON.stringify(upload.session));
-  // The Blob copies the bytes itself: no copy of our own first.
-  form.set('samples', new Blob([upload.samples as Uint8Array<ArrayBuffer>], { type: 'application/octet-stream' }), 'samples.bin');
-  form.set('archive', new Blob([upload.archive as Uint8Array<ArrayBuffer>], { type: 'application/octet-stream' }), 'capture.abrc');
+  const multipart = multipartBody([
+    { name: 'session', value: JSON.stringify(upload.session) },
+    { name: 'samples', filename: 'samples.bin', type: 'application/octet-stream', bytes: upload.samples },
+    { name: 'archive', filename: 'capture.abrc', type: 'application/octet-stream', bytes: upload.archive },
+  ]);
   const url = `${server.url}/api/sessions`;
   const timeoutMs = CALL_TIMEOUT_MS + Math.ceil((upload.samples.length + upload.archive.length) / 2 ** 20) * UPLOAD_MS_PER_MIB;
-  const res = await call(fetchImpl, url, { method: 'POST', headers: { authorization: `Bearer ${server.token}` }, body: form }, 'the upload', timeoutMs);
+  // Node's fetch takes an async iterable as a body, sent once `duplex: 'half'` allows it
+  // (WHATWG fetch); the DOM's RequestInit type lists neither.
+  const init = {
+    method: 'POST',
+    headers: { authorization: `Bearer ${server.token}`, 'content-type': multipart.contentType, 'content-length': String(multipart.length) },
+    body: multipart.chunks(),
+    duplex: 'half',
+  };
+  const res = await call(fetchImpl, url, init as unknown as RequestInit, 'the upload', timeoutMs);
   if (res.status === 404 || res.status === 405) {
     const r = await reason(res);
     if (res.status === 405 || /no api route/i.test(r.message) || r.code === '') throw new UploadUnavailableError();
