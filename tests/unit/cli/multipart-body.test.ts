@@ -21,7 +21,7 @@ describe('multipartBody', () => {
     ]);
     const sent = await bytesOf(body.chunks());
     expect(sent.length).toBe(body.length);
-    const form = await new Response(sent, { headers: { 'content-type': body.contentType } }).formData();
+    const form = await new Response(new Uint8Array(sent), { headers: { 'content-type': body.contentType } }).formData();
     expect(form.get('session')).toBe(session);
     const got = form.get('samples') as File;
     expect(got.name).toBe('samples.bin');
