@@ -2,7 +2,7 @@
 // with its side-by-side ratio, and writes benchmarks/results/latest.json. Exit 1 if any target is
 // missed, 2 for an unknown name or a benchmark that failed to run.
 import { loadavg } from 'node:os';
-import { needsPostgres, postgresFor } from './postgres';
+import { needsPostgres, startBenchPostgres } from './postgres';
 import { markdownTable, printResult, writeResults, type BenchResult } from './report';
 
 type Bench = () => Promise<BenchResult[]>;
@@ -35,9 +35,8 @@ async function main(): Promise<number> {
   const names = asked.length > 0 ? asked : Object.keys(BENCHES);
   // Every figure here is wall time on a shared machine: say how busy it was.
   const load = () => loadavg().map((l) => l.toFixed(1)).join(' / ');
-  // PostgreSQL runs only while the benchmarks that measure it do. The others (hosted-board,
-  // page, station) then start their servers on SQLite, the product's default, as they do when
-  // run alone; with the cluster's address set for the whole run they had used PostgreSQL.
+  // PostgreSQL runs only while the benchmarks that measure it do, so the others (hosted-board,
+  // page, station) start their servers on SQLite, the product's default, as when run alone.
   let stopPostgres: (() => Promise<void>) | null = null;
   const results: BenchResult[] = [];
   let failed = false;
@@ -45,7 +44,7 @@ async function main(): Promise<number> {
     console.log(`\n== ${name}   (load average ${load()})`);
     const t0 = performance.now();
     try {
-      if (needsPostgres(name)) stopPostgres ??= await postgresFor([name]);
+      if (needsPostgres(name)) stopPostgres ??= await startBenchPostgres();
       const rs = await BENCHES[name]();
       for (const r of rs) printResult(r);
       results.push(...rs);

@@ -9,9 +9,9 @@ const NEEDS_POSTGRES = new Set(['ingest', 'list-compare']);
 /** Whether the benchmark `name` measures PostgreSQL too. */
 export const needsPostgres = (name: string) => NEEDS_POSTGRES.has(name);
 
-/** Starts a cluster if one of `names` needs it; resolves to what stops it again. */
-export async function postgresFor(names: string[]): Promise<() => Promise<void>> {
-  if (!names.some(needsPostgres) || process.env.ANGLEBENCH_TEST_PG) return async () => undefined;
+/** Starts a cluster unless ANGLEBENCH_TEST_PG names one; resolves to what stops it again. */
+export async function startBenchPostgres(): Promise<() => Promise<void>> {
+  if (process.env.ANGLEBENCH_TEST_PG) return async () => undefined;
   const cluster = await startCluster({ durable: true });
   process.env.ANGLEBENCH_TEST_PG = cluster.adminUrl;
   for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP'] as const) {

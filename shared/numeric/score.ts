@@ -96,7 +96,6 @@ export class ScoreAccumulator {
   private readonly envelopeHi: Float64Array | null;
   private readonly codeCount: number;
   private readonly codeMin: number;
-  private readonly codeMax: number;
   private readonly outMin: number;
   private readonly outMax: number;
   private mismatchCount = 0;
@@ -127,13 +126,12 @@ export class ScoreAccumulator {
     const bins = options.profileBins ?? 0;
     const range = angleCodeRange(this.config);
     this.profileMax = bins > 0 ? new Float64Array(bins).fill(PROFILE_EMPTY) : null;
-    this.profileScale = bins / (range.max - range.min + 1);
+    this.profileScale = bins / range.count;
     const envelopeBins = options.envelopeBins ?? 0;
     this.envelopeLo = envelopeBins > 0 ? new Float64Array(envelopeBins).fill(Infinity) : null;
     this.envelopeHi = envelopeBins > 0 ? new Float64Array(envelopeBins).fill(-Infinity) : null;
     this.codeCount = range.count;
     this.codeMin = range.min;
-    this.codeMax = range.max;
     ({ min: this.outMin, max: this.outMax } = outputCodeRange(this.config));
   }
 
@@ -167,7 +165,7 @@ export class ScoreAccumulator {
   /** Checks every value before any is taken, so a bad batch changes nothing. */
   private validate(codes: ArrayLike<number>, cos: ArrayLike<number>, sin: ArrayLike<number>, n: number): void {
     const { codeMin, outMin } = this;
-    const codeSpan = this.codeMax - codeMin; // below 2^32: angles have at most 32 bits
+    const codeSpan = this.codeCount - 1; // below 2^32: angles have at most 32 bits
     const outSpan = this.outMax - outMin;
     // Each value less its minimum must be a whole number 0..span: x >>> 0 changes any other x.
     // One verdict for the batch; the loop that names the culprit only runs for a bad one.
